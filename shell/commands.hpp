@@ -1,0 +1,20 @@
+// Each subcommand lives in its own shell/cmd_<name>.cpp and registers itself on the app.
+// A subcommand's callback throws CommandError for bad input; main() prints the one-line reason
+// and exits with status 2 (usage) or 1 (failure).
+#pragma once
+
+#include <stdexcept>
+#include <string>
+
+#include <CLI/CLI.hpp>
+
+namespace tw::shell {
+
+struct CommandError : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
+
+void register_chem(CLI::App& app);      // carbonate state, one or a CSV batch
+void register_salinity(CLI::App& app);  // specific gravity <-> conductivity <-> salinity
+
+}  // namespace tw::shell
