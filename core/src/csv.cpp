@@ -110,11 +110,11 @@ std::string escape_cell_for_spreadsheet(const std::string& cell) {
   return escape_cell(cell);
 }
 
-std::string format_row(const std::vector<std::string>& cells) {
+std::string format_row(const std::vector<std::string>& cells, bool defuse_formulas) {
   std::string out;
   for (size_t i = 0; i < cells.size(); ++i) {
     if (i) out += ',';
-    out += escape_cell(cells[i]);
+    out += defuse_formulas ? escape_cell_for_spreadsheet(cells[i]) : escape_cell(cells[i]);
   }
   out += "\r\n";
   return out;

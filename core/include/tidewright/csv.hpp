@@ -29,8 +29,9 @@ std::string escape_cell(const std::string& cell);
 // number such as -3.5, which stays a number (OWASP "CSV injection" guidance).
 std::string escape_cell_for_spreadsheet(const std::string& cell);
 
-// Joins cells with commas (each escaped with escape_cell) and ends the record with CRLF.
-std::string format_row(const std::vector<std::string>& cells);
+// Joins cells with commas and ends the record with CRLF. Each cell is escaped with
+// escape_cell, or with escape_cell_for_spreadsheet when defuse_formulas is set.
+std::string format_row(const std::vector<std::string>& cells, bool defuse_formulas = false);
 
 // Index of a header cell, matched case-insensitively after trimming spaces; -1 if absent.
 int find_column(const std::vector<std::string>& header, const std::string& name);
