@@ -1,0 +1,239 @@
+// `tidewright chem`: one carbonate state from options, or a CSV batch (--batch FILE|-).
+#include <cstdio>
+#include <fstream>
+#include <iostream>
+#include <iterator>
+#include <memory>
+#include <optional>
+#include <sstream>
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include "commands.hpp"
+#include "tidewright/carbonate.hpp"
+#include "tidewright/carbonate_batch.hpp"
+#include "tidewright/seawater.hpp"
+#include "tidewright/units.hpp"
+
+namespace tw::shell {
+namespace {
+
+struct ChemOptions {
+  std::optional<double> alkalinity, dic, ph, pco2, fco2, carbonate, air_co2_ppm;
+  std::string alkalinity_unit = "dKH";
+  std::string ph_scale;
+  std::optional<double> salinity, specific_gravity;
+  std::optional<double> temperature_c, temperature_f;
+  std::optional<double> calcium;
+  std::string calcium_unit = "mg/L";
+  double phosphate = 0, silicate = 0;
+  std::string k1k2 = "lueker2000", boron = "uppstrom1974";
+  bool json = false;
+  std::string batch, out;
+};
+
+template <class T>
+T or_fail(Result<T> r) {
+  if (!r) throw CommandError(r.error().message);
+  return std::move(r).value();
+}
+
+carbonate::K1K2Option parse_k1k2(const std::string& s) {
+  if (s == "lueker2000") return carbonate::K1K2Option::Lueker2000;
+  if (s == "millero2010") return carbonate::K1K2Option::Millero2010;
+  throw CommandError("--k1k2 '" + s + "' is not known; accepted: lueker2000, millero2010");
+}
+carbonate::BoronOption parse_boron(const std::string& s) {
+  if (s == "uppstrom1974") return carbonate::BoronOption::Uppstrom1974;
+  if (s == "lee2010") return carbonate::BoronOption::Lee2010;
+  throw CommandError("--boron '" + s + "' is not known; accepted: uppstrom1974, lee2010");
+}
+
+double temperature_c(const ChemOptions& o) {
+  if (o.temperature_c && o.temperature_f) throw CommandError("give --temperature or --temperature-f, not both");
+  if (o.temperature_f) return units::fahrenheit_to_celsius(*o.temperature_f);
+  return o.temperature_c.value_or(25.0);
+}
+
+double salinity(const ChemOptions& o, double t_c) {
+  if (o.salinity && o.specific_gravity) throw CommandError("give --salinity or --specific-gravity, not both");
+  if (o.specific_gravity) {
+    (void)t_c;  // specific gravity is read at its own reference temperatures (25/25 C)
+    return or_fail(seawater::salinity_from_specific_gravity(*o.specific_gravity));
+  }
+  return o.salinity.value_or(35.0);
+}
+
+nlohmann::json state_json(const carbonate::CarbonateState& s, const carbonate::Conditions& c) {
+  return {{"salinity", c.salinity},
+          {"temperature_c", c.temperature_c},
+          {"ph_total", s.ph_total},
+          {"ph_sws", s.ph_sws},
+          {"ph_free", s.ph_free},
+          {"ph_nbs", s.ph_nbs},
+          {"alkalinity_umol_kg", s.alkalinity_umol_kg},
+          {"dic_umol_kg", s.dic_umol_kg},
+          {"pco2_uatm", s.pco2_uatm},
+          {"fco2_uatm", s.fco2_uatm},
+          {"co2_umol_kg", s.co2_umol_kg},
+          {"hco3_umol_kg", s.hco3_umol_kg},
+          {"co3_umol_kg", s.co3_umol_kg},
+          {"borate_umol_kg", s.borate_umol_kg},
+          {"hydroxide_umol_kg", s.hydroxide_umol_kg},
+          {"omega_aragonite", s.omega_aragonite},
+          {"omega_calcite", s.omega_calcite},
+          {"revelle_factor", s.revelle_factor},
+          {"buffer_capacity_umol_kg_per_ph", s.buffer_capacity_umol_kg},
+          {"iterations", s.iterations},
+          {"warnings", s.warnings}};
+}
+
+void print_state_text(const carbonate::CarbonateState& s, const carbonate::Conditions& c,
+                      double density_kg_l) {
+  const double dkh = units::alkalinity_from_umol_kg(s.alkalinity_umol_kg, units::AlkalinityUnit::DKH, density_kg_l);
+  fmt::print("Water   salinity {:.2f}, {:.2f} C (density {:.5f} kg/L)\n", c.salinity,
+             c.temperature_c, density_kg_l);
+  fmt::print("pH      {:.4f} total | {:.4f} seawater | {:.4f} free | {:.4f} NBS\n", s.ph_total,
+             s.ph_sws, s.ph_free, s.ph_nbs);
+  fmt::print("Alk     {:.1f} umol/kg ({:.2f} dKH)\n", s.alkalinity_umol_kg, dkh);
+  fmt::print("DIC     {:.1f} umol/kg\n", s.dic_umol_kg);
+  fmt::print("CO2     pCO2 {:.1f} uatm, fCO2 {:.1f} uatm, CO2* {:.2f} umol/kg\n", s.pco2_uatm,
+             s.fco2_uatm, s.co2_umol_kg);
+  fmt::print("Species HCO3- {:.1f}, CO3-- {:.1f}, B(OH)4- {:.1f}, OH- {:.2f} umol/kg\n",
+             s.hco3_umol_kg, s.co3_umol_kg, s.borate_umol_kg, s.hydroxide_umol_kg);
+  fmt::print("Omega   aragonite {:.3f}, calcite {:.3f}\n", s.omega_aragonite, s.omega_calcite);
+  fmt::print("Buffer  Revelle factor {:.2f}, buffer capacity {:.1f} umol/kg per pH unit\n",
+             s.revelle_factor, s.buffer_capacity_umol_kg);
+  for (const auto& w : s.warnings) fmt::print("Warning {}\n", w);
+}
+
+std::string read_all(const std::string& path) {
+  if (path == "-") return {std::istreambuf_iterator<char>(std::cin), {}};
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw CommandError("--batch: cannot read '" + path + "'");
+  return {std::istreambuf_iterator<char>(in), {}};
+}
+
+void write_output(const std::string& path, const std::string& text) {
+  if (path.empty() || path == "-") {
+    std::fwrite(text.data(), 1, text.size(), stdout);
+    return;
+  }
+  std::ofstream out(path, std::ios::binary);
+  if (!out || !out.write(text.data(), static_cast<std::streamsize>(text.size()))) {
+    throw CommandError("--out: cannot write '" + path + "'");
+  }
+}
+
+void run_batch(const ChemOptions& o) {
+  carbonate::BatchOptions options;
+  options.k1k2 = parse_k1k2(o.k1k2);
+  options.boron = parse_boron(o.boron);
+  auto summary = or_fail(carbonate::solve_csv_batch(read_all(o.batch), options));
+  write_output(o.out, summary.csv);
+  if (summary.failed > 0) {
+    std::fprintf(stderr, "tidewright: %d of %d rows could not be computed (see the warnings column)\n",
+                 summary.failed, summary.rows);
+  }
+}
+
+void run_single(const ChemOptions& o) {
+  carbonate::Conditions conditions;
+  conditions.temperature_c = temperature_c(o);
+  conditions.salinity = salinity(o, conditions.temperature_c);
+  conditions.k1k2 = parse_k1k2(o.k1k2);
+  conditions.boron = parse_boron(o.boron);
+  conditions.phosphate_umol_kg = o.phosphate;
+  conditions.silicate_umol_kg = o.silicate;
+  if (conditions.salinity <= 0 || conditions.salinity > 50) {
+    throw CommandError(fmt::format("--salinity {:g} is outside the accepted range 1 to 50", conditions.salinity));
+  }
+  const double density = seawater::density_kg_per_l(conditions.salinity, conditions.temperature_c);
+  if (o.calcium) {
+    auto unit = or_fail(units::concentration_unit_from_string(o.calcium_unit));
+    conditions.calcium_umol_kg = units::ion_to_umol_kg(*o.calcium, unit, units::Ion::Calcium, density);
+  }
+  auto constants = or_fail(carbonate::compute_constants(conditions));
+
+  std::vector<carbonate::Measurement> given;
+  if (o.alkalinity) {
+    auto unit = or_fail(units::alkalinity_unit_from_string(o.alkalinity_unit));
+    given.push_back({carbonate::Quantity::Alkalinity, units::alkalinity_to_umol_kg(*o.alkalinity, unit, density)});
+  }
+  if (o.dic) given.push_back({carbonate::Quantity::DIC, *o.dic});
+  if (o.ph) given.push_back({carbonate::Quantity::PH, *o.ph});
+  if (o.pco2) given.push_back({carbonate::Quantity::PCO2, *o.pco2});
+  if (o.fco2) given.push_back({carbonate::Quantity::FCO2, *o.fco2});
+  if (o.carbonate) given.push_back({carbonate::Quantity::Carbonate, *o.carbonate});
+
+  carbonate::CarbonateState state;
+  if (o.air_co2_ppm) {
+    if (given.size() != 1 || given[0].quantity != carbonate::Quantity::Alkalinity) {
+      throw CommandError("--air-co2 needs --alkalinity and no other carbonate input");
+    }
+    state = or_fail(carbonate::equilibrate_with_air(constants, given[0].value, *o.air_co2_ppm));
+  } else {
+    if (given.size() != 2) {
+      throw CommandError(fmt::format(
+          "{} carbonate inputs given; exactly two of --alkalinity, --dic, --ph, --pco2, --fco2, "
+          "--carbonate are needed (or --alkalinity with --air-co2)", given.size()));
+    }
+    carbonate::InputPair pair{given[0], given[1], carbonate::PhScale::Total};
+    if (o.ph) {
+      if (o.ph_scale.empty()) throw CommandError("--ph-scale is required with --ph (total, sws, free or nbs)");
+      pair.ph_scale = or_fail(carbonate::ph_scale_from_string(o.ph_scale));
+    }
+    state = or_fail(carbonate::solve(constants, pair));
+  }
+  if (o.json) {
+    std::cout << state_json(state, conditions).dump(2) << "\n";
+  } else {
+    print_state_text(state, conditions, density);
+  }
+}
+
+}  // namespace
+
+void register_chem(CLI::App& app) {
+  auto o = std::make_shared<ChemOptions>();
+  CLI::App* cmd = app.add_subcommand("chem", "Carbonate chemistry of one water sample, or a CSV batch");
+  cmd->footer(
+      "Give exactly two of the carbonate inputs (or --alkalinity with --air-co2).\n"
+      "Examples:\n"
+      "  tidewright chem --alkalinity 8.2 --ph 8.15 --ph-scale nbs --salinity 35 --temperature 25.5\n"
+      "  tidewright chem --alkalinity 2300 --alkalinity-unit umol/kg --dic 2000 --json\n"
+      "  tidewright chem --alkalinity 7.5 --air-co2 1200 --temperature 26\n"
+      "  tidewright chem --batch samples.csv --out states.csv");
+  cmd->add_option("--alkalinity", o->alkalinity, "Total alkalinity, in --alkalinity-unit");
+  cmd->add_option("--alkalinity-unit", o->alkalinity_unit, "dKH, meq/L, mg/L CaCO3 or umol/kg")->default_str("dKH");
+  cmd->add_option("--dic", o->dic, "Dissolved inorganic carbon [umol/kg]");
+  cmd->add_option("--ph", o->ph, "pH on the scale given by --ph-scale");
+  cmd->add_option("--ph-scale", o->ph_scale, "Scale of --ph: total, sws, free or nbs (hobby meters with NBS buffers: nbs)");
+  cmd->add_option("--pco2", o->pco2, "CO2 partial pressure [uatm]");
+  cmd->add_option("--fco2", o->fco2, "CO2 fugacity [uatm]");
+  cmd->add_option("--carbonate", o->carbonate, "Carbonate ion CO3-- [umol/kg]");
+  cmd->add_option("--air-co2", o->air_co2_ppm, "Room air CO2 [ppm]: water in equilibrium with it (needs --alkalinity)");
+  cmd->add_option("--salinity", o->salinity, "Practical salinity (default 35)");
+  cmd->add_option("--specific-gravity", o->specific_gravity, "Specific gravity at 25/25 C instead of --salinity");
+  cmd->add_option("--temperature", o->temperature_c, "Temperature [C] (default 25)");
+  cmd->add_option("--temperature-f", o->temperature_f, "Temperature [F]");
+  cmd->add_option("--calcium", o->calcium, "Measured calcium, in --calcium-unit (default: from salinity)");
+  cmd->add_option("--calcium-unit", o->calcium_unit, "mg/L, mmol/kg or umol/kg")->default_str("mg/L");
+  cmd->add_option("--phosphate", o->phosphate, "Total phosphate [umol/kg]")->default_str("0");
+  cmd->add_option("--silicate", o->silicate, "Total silicate [umol/kg]")->default_str("0");
+  cmd->add_option("--k1k2", o->k1k2, "Carbonic acid constants: lueker2000 or millero2010")->default_str("lueker2000");
+  cmd->add_option("--boron", o->boron, "Total boron: uppstrom1974 or lee2010")->default_str("uppstrom1974");
+  cmd->add_flag("--json", o->json, "Print JSON instead of text");
+  cmd->add_option("--batch", o->batch, "CSV file of samples (- for stdin); see the README for its columns");
+  cmd->add_option("--out", o->out, "With --batch: write the CSV here instead of stdout");
+  cmd->callback([o] {
+    if (!o->batch.empty()) {
+      run_batch(*o);
+    } else {
+      run_single(*o);
+    }
+  });
+}
+
+}  // namespace tw::shell
