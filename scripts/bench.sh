@@ -1,0 +1,45 @@
+#!/usr/bin/env bash
+# Prints Tidewright's speed and size figures (benchmarks are not part of the test suite).
+#   native benchmarks (g++ -O2 Release), the solver benchmark again in WebAssembly under
+#   Node.js with the WebAssembly/native ratio, and the app's transfer size and frame times.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+ROOT=$PWD
+JOBS=${TW_JOBS:-$(nproc)}
+export NODE_PATH=/usr/share/nodejs
+scripts/setup.sh
+
+cmake -S . -B build/native -G Ninja -DCMAKE_BUILD_TYPE=Release -DCMAKE_CXX_COMPILER=g++ >/dev/null
+ninja -C build/native -j"$JOBS"
+emcmake cmake -S . -B build/wasm -G Ninja -DCMAKE_BUILD_TYPE=Release >/dev/null
+ninja -C build/wasm -j"$JOBS" bench_solver
+
+echo "=== solver, native ==="
+build/native/tests/bench_solver | tee build/bench_solver_native.txt
+echo "=== solver, WebAssembly (Node.js) ==="
+node --no-experimental-fetch build/wasm/tests/bench_solver.js | tee build/bench_solver_wasm.txt
+# Ratio of every "<name>: <x> M solves/s" line, WebAssembly over native.
+python3 - <<'PY'
+import re
+def read(p):
+    out = {}
+    for line in open(p):
+        m = re.match(r"\s*(.+?):\s*([0-9.]+)\s*M solves/s", line)
+        if m: out[m.group(1)] = float(m.group(2))
+    return out
+n, w = read("build/bench_solver_native.txt"), read("build/bench_solver_wasm.txt")
+for k in n:
+    if k in w and w[k] > 0:
+        print(f"ratio native/wasm {k}: {n[k]/w[k]:.2f}x slower in WebAssembly")
+PY
+for b in build/native/tests/bench_*; do
+  [ "$(basename "$b")" = bench_solver ] && continue
+  [ -x "$b" ] || continue
+  echo "=== $(basename "$b") ==="
+  "$b"
+done
+if [ -f tests/browser/bench.mjs ]; then
+  scripts/build-web.sh
+  echo "=== app in headless Chromium ==="
+  (cd tests/browser && node bench.mjs "$ROOT/build/web/site")
+fi

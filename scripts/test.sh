@@ -1,0 +1,68 @@
+#!/usr/bin/env bash
+# Builds and runs every Tidewright test. Installs what is missing first (scripts/setup.sh).
+#   1. native g++ build: unit/check-value/property tests + outside-reference checks (python3-gsw,
+#      python3-icalendar)
+#   2. clang build with AddressSanitizer + UndefinedBehaviorSanitizer: the unit tests again
+#   3. the core test suite compiled to WebAssembly, run under Node.js
+#   4. libFuzzer targets, each for a bounded time (TW_FUZZ_SECONDS, default 30)
+#   5. the app: browser build + browser tests in headless Chromium; native app start under Xvfb
+# Stops at the first failing stage and exits non-zero.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+ROOT=$PWD
+JOBS=${TW_JOBS:-$(nproc)}
+FUZZ_SECONDS=${TW_FUZZ_SECONDS:-30}
+export NODE_PATH=/usr/share/nodejs   # acorn for Emscripten's JS optimizer (toolchain.md)
+
+scripts/setup.sh
+
+stage() { printf '\n=== %s ===\n' "$*"; }
+passed=0
+
+stage "1/5 native build (g++) and tests"
+cmake -S . -B build/native -G Ninja -DCMAKE_BUILD_TYPE=Release -DCMAKE_CXX_COMPILER=g++ >/dev/null
+ninja -C build/native -j"$JOBS"
+ctest --test-dir build/native --output-on-failure
+passed=$((passed + 1))
+
+stage "2/5 clang + AddressSanitizer + UndefinedBehaviorSanitizer"
+cmake -S . -B build/asan -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_COMPILER=clang++ \
+  -DTW_SANITIZE=ON >/dev/null
+ninja -C build/asan -j"$JOBS" tw_tests tidewright
+ASAN_OPTIONS=detect_leaks=1 UBSAN_OPTIONS=print_stacktrace=1 \
+  ctest --test-dir build/asan --output-on-failure
+passed=$((passed + 1))
+
+stage "3/5 core tests compiled to WebAssembly, under Node.js"
+emcmake cmake -S . -B build/wasm -G Ninja -DCMAKE_BUILD_TYPE=Release >/dev/null
+ninja -C build/wasm -j"$JOBS" tw_tests
+ctest --test-dir build/wasm --output-on-failure
+passed=$((passed + 1))
+
+stage "4/5 fuzz targets (${FUZZ_SECONDS} s each)"
+cmake -S . -B build/fuzz -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_COMPILER=clang++ \
+  -DTW_FUZZ=ON >/dev/null
+ninja -C build/fuzz -j"$JOBS" $(cd tests/fuzz && ls *.cpp 2>/dev/null | sed 's/\.cpp$//')
+for src in tests/fuzz/*.cpp; do
+  [ -e "$src" ] || continue
+  name=$(basename "$src" .cpp)
+  corpus_seed="tests/fuzz/corpus_${name#fuzz_}"
+  work=$(mktemp -d)
+  [ -d "$corpus_seed" ] && cp -r "$corpus_seed"/. "$work"/
+  echo "fuzz: $name for ${FUZZ_SECONDS} s"
+  "build/fuzz/tests/$name" -max_total_time="$FUZZ_SECONDS" -timeout=10 -rss_limit_mb=2048 \
+    -print_final_stats=1 "$work" 2>&1 | tail -n 12
+  rm -rf "$work"
+done
+passed=$((passed + 1))
+
+stage "5/5 the app: browser build, browser tests, native start under Xvfb"
+scripts/build-web.sh
+(cd tests/browser && node run-all.mjs "$ROOT/build/web/site")
+cmake -S . -B build/app-native -G Ninja -DCMAKE_BUILD_TYPE=Release -DTW_BUILD_WEB=ON \
+  -DTW_BUILD_TESTS=OFF -DTW_IMGUI_DIR="$ROOT/.cache/imgui" >/dev/null
+ninja -C build/app-native -j"$JOBS" tidewright-app
+xvfb-run -a build/app-native/web/tidewright-app --frames 30
+passed=$((passed + 1))
+
+printf '\nstages: %d passed, 0 failed\n' "$passed"
