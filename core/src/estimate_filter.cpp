@@ -45,7 +45,7 @@ void add(State& s, const Addition& a) {
 void dilute(State& s, const Dilution& w, LevelRow& row) {
   const double keep = 1.0 - w.fraction_replaced;
   s.l = keep * s.l + w.fraction_replaced * w.new_water_value;
-  s.pll *= keep * keep;
+  s.pll = s.pll * keep * keep + w.fraction_replaced * w.fraction_replaced * w.new_water_sd * w.new_water_sd;
   s.pld *= keep;
   row.a *= keep;
   row.b *= keep;
@@ -102,6 +102,9 @@ Status check_event(std::size_t i, const SeriesEvent& e, double previous_time) {
     if (!std::isfinite(w->new_water_value) || w->new_water_value < 0.0 || w->new_water_value > 1e5)
       return bad(i, "new_water_value",
                  fmt::format("{:g} is outside the accepted range 0 to 1e5", w->new_water_value));
+    if (!std::isfinite(w->new_water_sd) || w->new_water_sd < 0.0 || w->new_water_sd > 1e5)
+      return bad(i, "new_water_sd",
+                 fmt::format("{:g} is outside the accepted range 0 to 1e5", w->new_water_sd));
   }
   return Ok{};
 }

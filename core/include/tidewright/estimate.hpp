@@ -37,6 +37,7 @@
 #include <variant>
 #include <vector>
 
+#include "tidewright/journal.hpp"
 #include "tidewright/result.hpp"
 
 namespace tw::estimate {
@@ -68,6 +69,7 @@ struct Dilution {
   double time_days = 0.0;
   double fraction_replaced = 0.0;
   double new_water_value = 0.0;
+  double new_water_sd = 0.0;  // uncertainty of new_water_value (0 = measured exactly)
 };
 using SeriesEvent = std::variant<Measurement, Addition, Dilution>;
 double time_of(const SeriesEvent& e);
@@ -184,5 +186,49 @@ struct ForecastPoint {
 Result<std::vector<ForecastPoint>> forecast_levels(const SeriesEstimate& estimate,
                                                    double daily_dose_effect_per_day, int days,
                                                    const FilterOptions& options);
+
+// ============================================================ 6. Journal -> series
+// One system's journal events as three series (estimate_series.cpp). Time: days since
+// 1970-01-01T00:00Z (time_s / 86400). Each event becomes:
+//   test of alkalinity/calcium/magnesium -> Measurement in dKH / mg/L, sigma = the test's kit
+//     precision, else journal::typical_precision (0.2 dKH, 10 mg/L, 25 mg/L);
+//   dose -> Addition to every parameter it changes: amount (g, or mL x stock g/L / 1000) of the
+//     catalog compound x its change per mole / system volume (additives::rise_of);
+//   limewater top-off -> Addition of volume x strength (g/L Ca(OH)2, saturated 1.50 g/L if
+//     unset) of Ca(OH)2: +2 eq alkalinity, +1 Ca per mol, into the system volume (top-off
+//     replaces evaporated water, so the volume stays);  plain top-off -> nothing (evaporation
+//     concentrated the water and fresh water restores it: no change in concentration);
+//   water change -> Dilution, f = change volume / system volume, new water at the logged value;
+//     if the new water's value was not logged, the system's target is used with a wide sd
+//     (new_water_unknown_sd) and a note; with no target either, the change is left out with
+//     a note.
+// Events that cannot be turned into chemistry (unknown additive, mL without stock strength)
+// are skipped with a note, never fatal.
+struct SystemSeries {
+  journal::SystemId system_id = 0;
+  std::string system_name;
+  double volume_l = 0.0;
+  Series alkalinity{Parameter::Alkalinity, {}};
+  Series calcium{Parameter::Calcium, {}};
+  Series magnesium{Parameter::Magnesium, {}};
+  std::vector<std::string> notes;  // skipped or assumed events, plain words
+  const Series& of(Parameter p) const;
+};
+
+struct JournalSeriesOptions {
+  // sd of the new water's value when the target stands in for it [common practice: salt mixes
+  // vary by batch]: 0.5 dKH, 20 mg/L Ca, 50 mg/L Mg.
+  double new_water_unknown_sd[3] = {0.5, 20.0, 50.0};
+};
+
+// Errors: field "system" when the id is not in the journal.
+Result<SystemSeries> series_from_journal(const journal::Journal& journal, journal::SystemId system,
+                                         const JournalSeriesOptions& options = {});
+
+// Average known addition per day over the window_days before the series' last event (or
+// before until_days if given): sum of Addition deltas / window_days. The "current dosing"
+// for a forecast when no schedule is given.
+double recent_daily_addition(const Series& series, double window_days,
+                             std::optional<double> until_days = std::nullopt);
 
 }  // namespace tw::estimate
