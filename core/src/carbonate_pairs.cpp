@@ -120,7 +120,7 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
     const Root r = detail::solve_h_alkalinity_dic(k, mol(a.value), mol(b.value), o);
     if (r.status != RootStatus::Ok)
       return root_error(r.status, "alkalinity_umol_kg",
-                        fmt::format("alkalinity {:g} and DIC {:g} umol/kg", a.value, b.value));
+                        fmt::format("alkalinity_umol_kg {:g} and dic_umol_kg {:g}", a.value, b.value));
     c = {r.h, mol(b.value), r.iterations, {}};
   } else if (qa == Quantity::Alkalinity && qb == Quantity::PH) {
     const double h = h_of_ph(b.value);
@@ -128,7 +128,7 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
     const double excess = mol(a.value) - nc;
     if (!(excess > 0.0))
       return Error{"alkalinity_umol_kg",
-                   fmt::format("alkalinity {:g} umol/kg is not above the alkalinity of borate, "
+                   fmt::format("alkalinity_umol_kg {:g} is not above the alkalinity of borate, "
                                "hydroxide and the other non-carbonate bases at pH {:g} ({:.1f} "
                                "umol/kg): no positive DIC fits this pair",
                                a.value, b.value, nc * 1e6)};
@@ -137,8 +137,8 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
     const Root r = detail::solve_h_alkalinity_co2(k, mol(a.value), co2_of(b), o);
     if (r.status != RootStatus::Ok)
       return root_error(r.status, "alkalinity_umol_kg",
-                        fmt::format("alkalinity {:g} umol/kg and {} {:g} uatm", a.value,
-                                    to_string(qb), b.value));
+                        fmt::format("alkalinity_umol_kg {:g} and {} {:g}", a.value,
+                                    field_name(qb), b.value));
     const double co2 = co2_of(b), h = r.h;
     c = {h, co2 * (1.0 + k.k1 / h + k1k2 / (h * h)), r.iterations, {}};
   } else if (qa == Quantity::Alkalinity && qb == Quantity::Carbonate) {
@@ -146,12 +146,12 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
     const Root r = detail::solve_h_alkalinity_co3(k, mol(a.value), mol(b.value), o, &other_h);
     if (r.status == RootStatus::NoRootAboveRange)
       return Error{"alkalinity_umol_kg",
-                   fmt::format("alkalinity {:g} umol/kg is less than the least alkalinity any "
-                               "water with CO3 {:g} umol/kg can have at pH {:g} to {:g}",
+                   fmt::format("alkalinity_umol_kg {:g} is less than the least alkalinity any "
+                               "water with co3_umol_kg {:g} can have at pH {:g} to {:g}",
                                a.value, b.value, kPhMin, kPhMax)};
     if (r.status != RootStatus::Ok)
       return root_error(r.status, "alkalinity_umol_kg",
-                        fmt::format("alkalinity {:g} and CO3 {:g} umol/kg", a.value, b.value));
+                        fmt::format("alkalinity_umol_kg {:g} and co3_umol_kg {:g}", a.value, b.value));
     const double h = r.h;
     c = {h, mol(b.value) * (h * h / k1k2 + h / k.k2 + 1.0), r.iterations, {}};
     if (other_h > 0.0)
@@ -165,16 +165,16 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
     const double dic = mol(a.value), r = co2_of(b) / dic;
     if (!(r < 1.0))
       return Error{field_name(qb),
-                   fmt::format("{} {:g} uatm means more dissolved CO2 than the DIC {:g} umol/kg "
+                   fmt::format("{} {:g} means more dissolved CO2 than dic_umol_kg {:g} "
                                "holds: no pH fits this pair",
-                               to_string(qb), b.value, a.value)};
+                               field_name(qb), b.value, a.value)};
     const double h = (r * k.k1 + std::sqrt(r * r * k.k1 * k.k1 + 4.0 * (1.0 - r) * r * k1k2)) /
                      (2.0 * (1.0 - r));
     c = {h, dic, 0, {}};
   } else if (qa == Quantity::DIC && qb == Quantity::Carbonate) {
     const double dic = mol(a.value), co3 = mol(b.value);
     if (!(co3 < dic))
-      return Error{"co3_umol_kg", fmt::format("CO3 {:g} umol/kg is not less than DIC {:g} umol/kg: "
+      return Error{"co3_umol_kg", fmt::format("co3_umol_kg {:g} is not less than dic_umol_kg {:g}: "
                                               "no pH fits this pair",
                                               b.value, a.value)};
     // h^2/(K1K2) + h/K2 - (DIC/CO3 - 1) = 0, root written without cancellation.
@@ -197,13 +197,13 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
       return Error{field_name(qb),
                    fmt::format("{} {:g} with {} {:g} gives pH_T {:.2f}, outside the accepted range "
                                "{:g} to {:g}; check the inputs",
-                               to_string(qa), a.value, to_string(qb), b.value, ph, kPhMin, kPhMax)};
+                               field_name(qa), a.value, field_name(qb), b.value, ph, kPhMin, kPhMax)};
   }
   if (!(c.dic > 0.0 && c.dic <= kDicMaxUmolKg * 1e-6))
     return Error{field_name(qb),
                  fmt::format("{} {:g} with {} {:g} gives DIC {:.1f} umol/kg, outside the accepted "
                              "range 0 to {:g}; check the inputs",
-                             to_string(qa), a.value, to_string(qb), b.value, c.dic * 1e6,
+                             field_name(qa), a.value, field_name(qb), b.value, c.dic * 1e6,
                              kDicMaxUmolKg)};
   return c;
 }

@@ -29,7 +29,7 @@ tc::Constants constants_at(double salinity, double temperature_c,
 tc::CarbonateState solve_ok(const tc::Constants& k, tc::Quantity qa, double a, tc::Quantity qb,
                             double b) {
   auto r = tc::solve(k, tc::InputPair{{qa, a}, {qb, b}, tc::PhScale::Total});
-  INFO(tc::to_string(qa), " ", a, " ", tc::to_string(qb), " ", b, ": ",
+  INFO(std::string(tc::to_string(qa)), " ", a, " ", std::string(tc::to_string(qb)), " ", b, ": ",
        r.ok() ? std::string("ok") : r.error().message);
   REQUIRE(r.ok());
   return *r;

@@ -118,7 +118,7 @@ struct InputPair {
 inline constexpr double kAlkalinityMaxUmolKg = 30000.0;  // alkalinity may be 0, not negative
 inline constexpr double kDicMaxUmolKg = 30000.0;
 inline constexpr double kCarbonateMaxUmolKg = 10000.0;
-inline constexpr double kCo2MaxUatm = 100000.0;          // 0.1 atm
+inline constexpr double kCo2MaxUatm = 1.0e6;             // 1 atm (calcium reactor water can hold 0.3)
 inline constexpr double kPhMin = 2.0, kPhMax = 12.0;     // also the solver's search range (total)
 
 struct SolverOptions {
