@@ -29,11 +29,11 @@ TEST_CASE("seawater: describe_salinity round robin over every input form") {
       {sw::SalinityInput::ConductivityMsCm, *ref->conductivity_ms_cm},
       {sw::SalinityInput::ConductivityRatio, *ref->conductivity_ratio},
       {sw::SalinityInput::DensityKgM3, ref->density_kg_m3}};
-  for (const auto& [input, value] : forms) {
-    CAPTURE(sw::to_string(input));
+  for (const auto& form : forms) {  // no structured binding: clang 14 cannot capture one
+    CAPTURE(sw::to_string(form.first));
     sw::SalinitySample s = base;
-    s.input = input;
-    s.value = value;
+    s.input = form.first;
+    s.value = form.second;
     auto r = sw::describe_salinity(s);
     REQUIRE(r.ok());
     CHECK(std::fabs(r->salinity - 34.2) < 1e-9);
