@@ -1,0 +1,102 @@
+// Validation of a plan's input: each field in its accepted range, with the field named.
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "plan_internal.hpp"
+
+namespace tw::plan::detail {
+
+namespace {
+Status check_band(const std::string& field, const Band& b, double lo, double hi, const char* unit, double ceiling) {
+  if (auto s = check_range(field + ".target", b.target, lo, hi, unit); !s) return s;
+  if (auto s = check_range(field + ".low", b.low, lo, b.target, unit); !s) return s;
+  if (auto s = check_range(field + ".high", b.high, b.target, hi, unit); !s) return s;
+  if (b.high > ceiling) {
+    return Error{field + ".high", fmt::format("{}.high {:g} {} is above the safety ceiling {:g} {} (accepted: up to "
+                                              "the ceiling)",
+                                              field, b.high, unit, ceiling, unit)};
+  }
+  return Ok{};
+}
+}  // namespace
+
+Status validate_input(const PlanInput& in) {
+  const SystemState& s = in.system;
+  if (auto r = check_range("system.volume_l", s.volume_l, 1.0, 1.0e6, "L"); !r) return r;
+  if (auto r = check_range("system.salinity", s.salinity, 20.0, 42.0, ""); !r) return r;
+  if (auto r = check_range("system.temperature_c", s.temperature_c, 10.0, 35.0, "C"); !r) return r;
+  if (auto r = check_range("system.alkalinity_dkh", s.alkalinity_dkh, 2.0, 20.0, "dKH"); !r) return r;
+  if (auto r = check_range("system.calcium_mg_l", s.calcium_mg_l, 200.0, 700.0, "mg/L"); !r) return r;
+  if (auto r = check_range("system.magnesium_mg_l", s.magnesium_mg_l, 800.0, 2000.0, "mg/L"); !r) return r;
+  if (s.ph_total) {
+    if (auto r = check_range("system.ph_total", *s.ph_total, 7.0, 8.8, "(total scale)"); !r) return r;
+  }
+  if (auto r = check_range("system.air_co2_ppm", s.air_co2_ppm, 200.0, 5000.0, "ppm"); !r) return r;
+  const Limits& l = in.limits;
+  if (auto r = check_band("targets.alkalinity_dkh", in.targets.alkalinity_dkh, 2.0, 20.0, "dKH",
+                          l.get(LimitId::AlkalinityCeiling));
+      !r)
+    return r;
+  if (auto r = check_band("targets.calcium_mg_l", in.targets.calcium_mg_l, 200.0, 700.0, "mg/L",
+                          l.get(LimitId::CalciumCeiling));
+      !r)
+    return r;
+  if (auto r = check_band("targets.magnesium_mg_l", in.targets.magnesium_mg_l, 800.0, 2000.0, "mg/L",
+                          l.get(LimitId::MagnesiumCeiling));
+      !r)
+    return r;
+  const double v = s.volume_l;
+  if (auto r = check_range("demand.alkalinity_meq_per_day", in.demand.alkalinity_meq_per_day, 0.0, 5.0 * v, "meq/day");
+      !r)
+    return r;
+  if (auto r = check_range("demand.calcium_mg_per_day", in.demand.calcium_mg_per_day, 0.0, 100.0 * v, "mg/day"); !r)
+    return r;
+  if (auto r = check_range("demand.magnesium_mg_per_day", in.demand.magnesium_mg_per_day, 0.0, 100.0 * v, "mg/day");
+      !r)
+    return r;
+  if (auto r = check_range("evaporation_l_per_day", in.evaporation_l_per_day, 0.0, 0.2 * v, "L/day"); !r) return r;
+  if (in.horizon_days < 1 || in.horizon_days > 365) {
+    return Error{"horizon_days", fmt::format("horizon_days {} is outside the accepted range 1 to 365", in.horizon_days)};
+  }
+  if (auto r = check_range("gas_exchange_hours", in.gas_exchange_hours, 0.0, 72.0, "h"); !r) return r;
+  if (auto r = check_range("salinity_tolerance", in.salinity_tolerance, 0.01, 5.0, ""); !r) return r;
+  if (in.deliveries.empty()) return Error{"deliveries", "a plan needs at least one additive (accepted: 1 to 16)"};
+  if (in.deliveries.size() > 16) return Error{"deliveries", "a plan takes at most 16 additives (accepted: 1 to 16)"};
+  for (std::size_t i = 0; i < in.deliveries.size(); ++i) {
+    const Delivery& d = in.deliveries[i];
+    const std::string f = fmt::format("deliveries[{}]", i);
+    const auto& p = d.additive.per_unit;
+    if (!(p.alkalinity_eq > 0 || p.calcium_mol > 0 || p.magnesium_mol > 0)) {
+      return Error{f + ".additive", fmt::format("{}.additive \"{}\" raises none of alkalinity, calcium or magnesium "
+                                                "(accepted: an additive that raises one of them)",
+                                                f, d.additive.name)};
+    }
+    if (p.alkalinity_eq < 0 || p.calcium_mol < 0 || p.magnesium_mol < 0 || p.dic_mol < 0) {
+      return Error{f + ".additive", f + ".additive removes a parameter; the planner only adds (accepted: additions)"};
+    }
+    if (d.doses_per_day < 1 || d.doses_per_day > 288) {
+      return Error{f + ".doses_per_day",
+                   fmt::format("{}.doses_per_day {} is outside the accepted range 1 to 288", f, d.doses_per_day)};
+    }
+    if (d.first_hour < 0 || d.first_hour > 23 || d.last_hour < d.first_hour || d.last_hour > 23) {
+      return Error{f + ".first_hour", fmt::format("{}.first_hour {} and last_hour {} must satisfy 0 <= first_hour <= "
+                                                  "last_hour <= 23",
+                                                  f, d.first_hour, d.last_hour)};
+    }
+    const char* u = additives::to_string(d.additive.unit);
+    if (auto r = check_range(f + ".max_dose", d.max_dose, 1e-3, 1e5, u); !r) return r;
+    if (auto r = check_range(f + ".min_dose", d.min_dose, 0.0, d.max_dose, u); !r) return r;
+    if (auto r = check_range(f + ".max_per_day", d.max_per_day, 1e-3, 1e9, u); !r) return r;
+    if (auto r = check_range(f + ".reservoir", d.reservoir, 0.0, 1e9, u); !r) return r;
+  }
+  return Ok{};
+}
+
+int slot_minute(const Delivery& d, int j) {
+  const double window_min = (d.last_hour - d.first_hour + 1) * 60.0;
+  const double m = d.first_hour * 60.0 + (j + 0.5) * window_min / d.doses_per_day;
+  return static_cast<int>(std::floor(m));
+}
+
+}  // namespace tw::plan::detail
