@@ -376,9 +376,13 @@ Result<Journal> parse_journal(const std::string& text, int* source_version) {
   try {
     doc = json::parse(text);
   } catch (const json::parse_error& e) {
+    // nlohmann: "[json.exception.parse_error.101] parse error at line 3, column 12: why"
     std::string why = e.what();
-    const auto pos = why.find("]: ");  // nlohmann: "[json.exception.parse_error.101] parse error at ..."
-    if (pos != std::string::npos) why = why.substr(pos + 3);
+    const auto pos = why.find("] ");
+    if (pos != std::string::npos) why = why.substr(pos + 2);
+    if (why.rfind("parse error at line", 0) == 0 && why.find(": ") != std::string::npos) {
+      why = why.substr(why.find(": ") + 2);
+    }
     return Error{"json", "the journal is not valid JSON (" + line_column(text, e.byte ? e.byte - 1 : 0) +
                              "): " + why};
   }

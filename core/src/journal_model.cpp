@@ -118,9 +118,15 @@ Status validate_dose(const Dose& d) {
   return Ok{};
 }
 
+// A water change or top-off: more than 0 and at most the system's net volume.
+Status volume_within_system(double volume_l, const System& sys) {
+  Status s = positive_in_range("volume_l", volume_l, Range{0.0, sys.volume_l, "L"});
+  if (!s) return Error{s.error().field, s.error().message + " (the system's net volume)"};
+  return s;
+}
+
 Status validate_water_change(const WaterChange& w, const System& sys) {
-  const Range vol{0.0, sys.volume_l, "L (the system's net volume)"};
-  Status s = positive_in_range("volume_l", w.volume_l, vol);
+  Status s = volume_within_system(w.volume_l, sys);
   if (!s) return s;
   if (!(s = optional_in_range("alkalinity_dkh", w.alkalinity_dkh, kAlkalinityDkhRange))) return s;
   if (!(s = optional_in_range("calcium_mg_l", w.calcium_mg_l, kCalciumMgLRange))) return s;
@@ -129,8 +135,7 @@ Status validate_water_change(const WaterChange& w, const System& sys) {
 }
 
 Status validate_top_off(const TopOff& t, const System& sys) {
-  const Range vol{0.0, sys.volume_l, "L (the system's net volume)"};
-  Status s = positive_in_range("volume_l", t.volume_l, vol);
+  Status s = volume_within_system(t.volume_l, sys);
   if (!s) return s;
   if (t.limewater_g_per_l) {
     if (t.kind != TopOffKind::Limewater) {

@@ -1,0 +1,27 @@
+// Files for the command line: whole-file reads with clear errors, and atomic replacement
+// that keeps the previous copy. (The core never touches files; this is the shell's job.)
+#pragma once
+
+#include <string>
+
+namespace tw::shell {
+
+// True if a file (or anything) exists at path.
+bool file_exists(const std::string& path);
+
+// Reads a whole file, or standard input for "-". Throws CommandError
+// "cannot read PATH: reason" on failure.
+std::string read_text_file(const std::string& path);
+
+// Replaces path with text atomically:
+//   1. writes PATH.tmp-<pid> in the same directory and fsyncs it;
+//   2. if PATH exists, keeps its current content as PATH.bak (replacing an older .bak; by a
+//      hard link, or a synced copy where links are not possible);
+//   3. renames the temporary file over PATH (atomic on POSIX file systems) and fsyncs the
+//      directory.
+// Either the old or the new content is at PATH at every moment; on any failure the temporary
+// file is removed, PATH is untouched and CommandError is thrown. "-" writes to standard output.
+void write_text_file_atomic(const std::string& path, const std::string& text,
+                            bool keep_backup = true);
+
+}  // namespace tw::shell

@@ -1,0 +1,76 @@
+#include "log_format.hpp"
+
+#include <fmt/format.h>
+
+#include "tidewright/datetime.hpp"
+
+namespace tw::shell {
+
+using namespace tw::journal;
+
+std::string describe_system_line(const System& s) {
+  std::string vol = s.units.volume == units::VolumeUnit::UsGallon
+                        ? fmt::format("{:.1f} gal", units::litres_to_us_gallons(s.volume_l))
+                        : fmt::format("{:g} L", s.volume_l);
+  const double t = s.units.temperature == TemperatureUnit::Fahrenheit
+                       ? units::celsius_to_fahrenheit(s.default_temperature_c)
+                       : s.default_temperature_c;
+  std::string out = fmt::format("{} ({}, {} net, S {:g}, {:g} {}", s.name, to_string(s.kind), vol,
+                                s.default_salinity, t, to_string(s.units.temperature));
+  std::string targets;
+  auto add = [&](const char* what, const std::optional<double>& v, const char* unit) {
+    if (!v) return;
+    targets += fmt::format("{}{} {:g} {}", targets.empty() ? "" : ", ", what, *v, unit);
+  };
+  add("alk", s.targets.alkalinity_dkh, "dKH");
+  add("Ca", s.targets.calcium_mg_l, "mg/L");
+  add("Mg", s.targets.magnesium_mg_l, "mg/L");
+  if (!targets.empty()) out += ", targets " + targets;
+  return out + ")";
+}
+
+namespace {
+std::string what(const EventData& data) {
+  if (const auto* t = std::get_if<TestResult>(&data)) {
+    std::string name = t->parameter == Parameter::Other ? t->other_name : to_string(t->parameter);
+    std::string s = fmt::format("test {} {:g} {}", name, t->value, t->unit);
+    if (t->ph_scale) s += fmt::format(" ({} scale)", ph_scale_name(*t->ph_scale));
+    if (t->precision) s += fmt::format(" (sd {:g})", *t->precision);
+    if (!t->kit.empty()) s += " [" + t->kit + "]";
+    return s;
+  }
+  if (const auto* d = std::get_if<Dose>(&data)) {
+    std::string s = fmt::format("dose {} {:g} {}", d->additive_id, d->amount, to_string(d->unit));
+    if (d->stock_g_per_l) s += fmt::format(" (stock {:g} g/L)", *d->stock_g_per_l);
+    return s;
+  }
+  if (const auto* w = std::get_if<WaterChange>(&data)) {
+    std::string s = fmt::format("water change {:g} L", w->volume_l);
+    std::string nw;
+    auto add = [&](const char* k, const std::optional<double>& v, const char* unit) {
+      if (v) nw += fmt::format("{}{} {:g}{}", nw.empty() ? "" : ", ", k, *v, unit);
+    };
+    add("alk", w->alkalinity_dkh, " dKH");
+    add("Ca", w->calcium_mg_l, " mg/L");
+    add("Mg", w->magnesium_mg_l, " mg/L");
+    add("S", w->salinity, "");
+    if (!nw.empty()) s += " (new water " + nw + ")";
+    return s;
+  }
+  if (const auto* o = std::get_if<TopOff>(&data)) {
+    std::string s = fmt::format("top-off {:g} L {}", o->volume_l, to_string(o->kind));
+    if (o->limewater_g_per_l) s += fmt::format(" ({:g} g/L)", *o->limewater_g_per_l);
+    return s;
+  }
+  return "note: " + std::get<Note>(data).text;
+}
+}  // namespace
+
+std::string describe_event_line(const Journal& j, const Event& e) {
+  const System* s = find_system(j, e.system_id);
+  std::string t = datetime::format_iso8601_utc(e.time_s);  // 2026-11-01T08:00:00Z
+  t = t.substr(0, 10) + " " + t.substr(11, 5) + "Z";
+  return fmt::format("{:>5}  {}  {:<20}  {}", e.id, t, s ? s->name : "?", what(e.data));
+}
+
+}  // namespace tw::shell

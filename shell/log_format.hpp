@@ -1,0 +1,16 @@
+// One-line text descriptions of journal systems and events for `tidewright log`.
+#pragma once
+
+#include <string>
+
+#include "tidewright/journal.hpp"
+
+namespace tw::shell {
+
+// "Living room reef (reef_display, 380 L net, S 35, 25.5 C, targets alk 8 dKH, Ca 430 mg/L)"
+std::string describe_system_line(const journal::System& system);
+
+// "12  2026-11-01 08:00Z  Living room reef  test alkalinity 8.1 dKH (sd 0.2)"
+std::string describe_event_line(const journal::Journal& journal, const journal::Event& event);
+
+}  // namespace tw::shell
