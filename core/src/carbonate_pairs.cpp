@@ -50,19 +50,23 @@ const char* field_name(Quantity q) {
   return "?";
 }
 
-// Accepts 0 < value <= hi.
+// Accepts 0 < value <= hi (no string is built unless the value is refused).
 Status check_positive(const char* field, double value, double hi, const char* unit) {
   if (std::isfinite(value) && value > 0.0 && value <= hi) return Ok{};
   return Error{field, fmt::format("{} {:g} {} is outside the accepted range: above 0 up to {:g} {}",
                                   field, value, unit, hi, unit)};
 }
+Status check_closed(const char* field, double value, double lo, double hi, const char* unit) {
+  if (value >= lo && value <= hi) return Ok{};  // false for NaN
+  return check_range(field, value, lo, hi, unit);
+}
 
 Status check_measurement(const Measurement& m) {
   switch (m.quantity) {
     case Quantity::Alkalinity:
-      return check_range(field_name(m.quantity), m.value, 0.0, kAlkalinityMaxUmolKg, "umol/kg");
+      return check_closed(field_name(m.quantity), m.value, 0.0, kAlkalinityMaxUmolKg, "umol/kg");
     case Quantity::DIC: return check_positive(field_name(m.quantity), m.value, kDicMaxUmolKg, "umol/kg");
-    case Quantity::PH: return check_range("ph", m.value, kPhMin, kPhMax, "");
+    case Quantity::PH: return check_closed("ph", m.value, kPhMin, kPhMax, "");
     case Quantity::PCO2:
     case Quantity::FCO2: return check_positive(field_name(m.quantity), m.value, kCo2MaxUatm, "uatm");
     case Quantity::Carbonate:
@@ -91,7 +95,8 @@ Error root_error(RootStatus status, const std::string& field, const std::string&
 struct Core {
   double h = 0, dic = 0;
   int iterations = 0;
-  std::string extra_warning;
+  double other_h = 0;  // alkalinity + CO3 only: h of the second state, if there is one
+  double alk_umol_kg = 0, co3_umol_kg = 0;
 };
 
 Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScale scale,
@@ -109,7 +114,8 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
     return k.k0 * fco2 * 1e-6;
   };
   const auto h_of_ph = [&](double ph) {
-    return std::pow(10.0, -(ph - ph_offset_from_total(k, scale)));
+    constexpr double kLn10 = 2.302585092994046;  // exp is cheaper than pow(10, x)
+    return std::exp(-kLn10 * (ph - ph_offset_from_total(k, scale)));
   };
   const double k1k2 = k.k1 * k.k2;
   const Quantity qa = a.quantity, qb = b.quantity;
@@ -121,7 +127,7 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
     if (r.status != RootStatus::Ok)
       return root_error(r.status, "alkalinity_umol_kg",
                         fmt::format("alkalinity_umol_kg {:g} and dic_umol_kg {:g}", a.value, b.value));
-    c = {r.h, mol(b.value), r.iterations, {}};
+    c = {r.h, mol(b.value), r.iterations};
   } else if (qa == Quantity::Alkalinity && qb == Quantity::PH) {
     const double h = h_of_ph(b.value);
     const double nc = detail::noncarbonate_alkalinity(k, h).value;
@@ -132,7 +138,7 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
                                "hydroxide and the other non-carbonate bases at pH {:g} ({:.1f} "
                                "umol/kg): no positive DIC fits this pair",
                                a.value, b.value, nc * 1e6)};
-    c = {h, excess / detail::carbonate_alkalinity_per_dic(k, h).value, 0, {}};
+    c = {h, excess / detail::carbonate_alkalinity_per_dic(k, h).value, 0};
   } else if (qa == Quantity::Alkalinity && b_is_co2) {
     const Root r = detail::solve_h_alkalinity_co2(k, mol(a.value), co2_of(b), o);
     if (r.status != RootStatus::Ok)
@@ -140,7 +146,7 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
                         fmt::format("alkalinity_umol_kg {:g} and {} {:g}", a.value,
                                     field_name(qb), b.value));
     const double co2 = co2_of(b), h = r.h;
-    c = {h, co2 * (1.0 + k.k1 / h + k1k2 / (h * h)), r.iterations, {}};
+    c = {h, co2 * (1.0 + k.k1 / h + k1k2 / (h * h)), r.iterations};
   } else if (qa == Quantity::Alkalinity && qb == Quantity::Carbonate) {
     double other_h = 0.0;
     const Root r = detail::solve_h_alkalinity_co3(k, mol(a.value), mol(b.value), o, &other_h);
@@ -153,14 +159,10 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
       return root_error(r.status, "alkalinity_umol_kg",
                         fmt::format("alkalinity_umol_kg {:g} and co3_umol_kg {:g}", a.value, b.value));
     const double h = r.h;
-    c = {h, mol(b.value) * (h * h / k1k2 + h / k.k2 + 1.0), r.iterations, {}};
-    if (other_h > 0.0)
-      c.extra_warning = fmt::format(
-          "alkalinity {:g} and CO3 {:g} umol/kg fit two states; the one at pH_T {:.4f} is "
-          "returned, the other (hydroxide-dominated) is at pH_T {:.4f}",
-          a.value, b.value, -std::log10(h), -std::log10(other_h));
+    c = {h, mol(b.value) * (h * h / k1k2 + h / k.k2 + 1.0), r.iterations, other_h, a.value,
+         b.value};
   } else if (qa == Quantity::DIC && qb == Quantity::PH) {
-    c = {h_of_ph(b.value), mol(a.value), 0, {}};
+    c = {h_of_ph(b.value), mol(a.value), 0};
   } else if (qa == Quantity::DIC && b_is_co2) {
     const double dic = mol(a.value), r = co2_of(b) / dic;
     if (!(r < 1.0))
@@ -170,7 +172,7 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
                                field_name(qb), b.value, a.value)};
     const double h = (r * k.k1 + std::sqrt(r * r * k.k1 * k.k1 + 4.0 * (1.0 - r) * r * k1k2)) /
                      (2.0 * (1.0 - r));
-    c = {h, dic, 0, {}};
+    c = {h, dic, 0};
   } else if (qa == Quantity::DIC && qb == Quantity::Carbonate) {
     const double dic = mol(a.value), co3 = mol(b.value);
     if (!(co3 < dic))
@@ -179,15 +181,15 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
                                               b.value, a.value)};
     // h^2/(K1K2) + h/K2 - (DIC/CO3 - 1) = 0, root written without cancellation.
     const double qa2 = 1.0 / k1k2, qb1 = 1.0 / k.k2, qc = dic / co3 - 1.0;
-    c = {2.0 * qc / (qb1 + std::sqrt(qb1 * qb1 + 4.0 * qa2 * qc)), dic, 0, {}};
+    c = {2.0 * qc / (qb1 + std::sqrt(qb1 * qb1 + 4.0 * qa2 * qc)), dic, 0};
   } else if (qa == Quantity::PH && b_is_co2) {
     const double h = h_of_ph(a.value);
-    c = {h, co2_of(b) * (1.0 + k.k1 / h + k1k2 / (h * h)), 0, {}};
+    c = {h, co2_of(b) * (1.0 + k.k1 / h + k1k2 / (h * h)), 0};
   } else if (qa == Quantity::PH && qb == Quantity::Carbonate) {
     const double h = h_of_ph(a.value);
-    c = {h, mol(b.value) * (h * h / k1k2 + h / k.k2 + 1.0), 0, {}};
+    c = {h, mol(b.value) * (h * h / k1k2 + h / k.k2 + 1.0), 0};
   } else {  // CO2* + CO3
-    c = {std::sqrt(co2_of(a) * k1k2 / mol(b.value)), 0, 0, {}};
+    c = {std::sqrt(co2_of(a) * k1k2 / mol(b.value)), 0, 0};
     c.dic = mol(b.value) * (c.h * c.h / k1k2 + c.h / k.k2 + 1.0);
   }
 
@@ -209,15 +211,20 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
 }
 
 Result<CarbonateState> finish(const Constants& k, const Core& c) {
-  CarbonateState st;
+  Result<CarbonateState> out{CarbonateState{}};
+  CarbonateState& st = out.value();
   detail::fill_state(k, c.h, c.dic, st);
   st.iterations = c.iterations;
   if (!std::isfinite(st.revelle_factor + st.buffer_capacity_umol_kg + st.pco2_uatm +
                      st.alkalinity_umol_kg + st.ph_nbs))
     return Error{"solver", "the carbonate state has a value that is not finite"};
-  st.warnings = k.warnings;
-  if (!c.extra_warning.empty()) st.warnings.push_back(c.extra_warning);
-  return st;
+  if (!k.warnings.empty()) st.warnings = k.warnings;
+  if (c.other_h > 0.0)
+    st.warnings.push_back(fmt::format(
+        "alkalinity {:g} and CO3 {:g} umol/kg fit two states; the one at pH_T {:.4f} is "
+        "returned, the other (hydroxide-dominated) is at pH_T {:.4f}",
+        c.alk_umol_kg, c.co3_umol_kg, st.ph_total, -std::log10(c.other_h)));
+  return out;
 }
 
 }  // namespace
@@ -234,8 +241,14 @@ Result<CarbonateState> solve(const Constants& constants, const InputPair& inputs
 // The common pair without the dispatch (planners call it in inner loops).
 Result<CarbonateState> solve_alkalinity_dic(const Constants& constants, double alkalinity_umol_kg,
                                             double dic_umol_kg) {
-  return solve(constants, InputPair{{Quantity::Alkalinity, alkalinity_umol_kg},
-                                    {Quantity::DIC, dic_umol_kg}});
+  const Measurement alk{Quantity::Alkalinity, alkalinity_umol_kg}, dic{Quantity::DIC, dic_umol_kg};
+  if (auto s = check_measurement(alk); !s) return s.error();
+  if (auto s = check_measurement(dic); !s) return s.error();
+  const Root r = detail::solve_h_alkalinity_dic(constants, alkalinity_umol_kg * 1e-6,
+                                                dic_umol_kg * 1e-6, SolverOptions{});
+  if (r.status != RootStatus::Ok)  // the general path words the error
+    return solve(constants, InputPair{alk, dic});
+  return finish(constants, Core{r.h, dic_umol_kg * 1e-6, r.iterations});
 }
 
 }  // namespace tw::carbonate
