@@ -10,6 +10,7 @@
 #include <algorithm>
 #include <cctype>
 #include <cmath>
+#include <optional>
 
 #include <fmt/format.h>
 
@@ -236,35 +237,47 @@ Result<DoseSearch> dose_for_recipe(const Line& line, const Recipe& recipe, const
 }
 
 // ================================================================ 5. Blend
-// Largest carbonate share f in [0,1] (rest bicarbonate) whose dose stays at or under the pH
-// ceiling (method in hatchery.hpp). Shares where the target is out of reach count as "under
-// the ceiling" for the bisection (they sit at low f, where bicarbonate is too weak), and the
-// final share is checked for reach.
+// Largest carbonate share f in [0,1] (rest bicarbonate) whose dose meets the target with the
+// pH at or under the ceiling (method in hatchery.hpp). Without gas exchange the pH at the
+// target rises with f; with gas exchange on the way a large bicarbonate dose degasses a lot and
+// the curve can turn, so f is first scanned on a grid of 1/20 from f = 1 down, and the
+// boundary between the largest feasible grid share and the next one is refined by bisection.
+// When no share is feasible the result is the reachable share with the lowest pH (for the
+// refusal message).
 Result<BlendSearch> blend_for_target(const Line& line, const Settings& s, double phi) {
   const double ceiling = s.limits.ph_ceiling;
   const cb::PhScale scale = s.limits.ph_ceiling_scale;
-  auto under = [&](double f) -> Result<DoseSearch> {
-    return dose_for_recipe(line, Recipe{f, 1.0 - f, 0.0}, s, phi);
+  auto at = [&](double f) { return dose_for_recipe(line, Recipe{f, 1.0 - f, 0.0}, s, phi); };
+  auto feasible = [&](const DoseSearch& d) {
+    return d.reachable && (!d.dose_needed || highest_ph(d.chain, scale) <= ceiling);
   };
-  auto ok_at = [&](const DoseSearch& d) {
-    return !d.reachable || highest_ph(d.chain, scale) <= ceiling;
-  };
-  auto top = under(1.0);
-  if (!top) return top.error();
-  if (top->reachable && ok_at(*top)) return BlendSearch{1.0, std::move(top).value()};
-  auto bottom = under(0.0);
-  if (!bottom) return bottom.error();
-  if (!ok_at(*bottom)) return BlendSearch{0.0, std::move(bottom).value()};
-  double lo = 0.0, hi = 1.0;
-  for (int i = 0; i < 60 && hi - lo > 1e-6; ++i) {
-    const double mid = 0.5 * (lo + hi);
-    auto d = under(mid);
+  constexpr int kGrid = 20;
+  std::optional<BlendSearch> lowest;  // reachable, lowest pH
+  for (int k = kGrid; k >= 0; --k) {
+    const double f = static_cast<double>(k) / kGrid;
+    auto d = at(f);
     if (!d) return d.error();
-    (ok_at(*d) ? lo : hi) = mid;
+    if (feasible(*d)) {
+      if (k == kGrid || !d->dose_needed) return BlendSearch{f, std::move(d).value()};
+      double lo = f, hi = static_cast<double>(k + 1) / kGrid;
+      for (int i = 0; i < 40 && hi - lo > 1e-6; ++i) {
+        const double mid = 0.5 * (lo + hi);
+        auto m = at(mid);
+        if (!m) return m.error();
+        (feasible(*m) ? lo : hi) = mid;
+      }
+      auto best = at(lo);
+      if (!best) return best.error();
+      return BlendSearch{lo, std::move(best).value()};
+    }
+    if (d->reachable && (!lowest || highest_ph(d->chain, scale) < highest_ph(lowest->search.chain, scale))) {
+      lowest = BlendSearch{f, std::move(d).value()};
+    }
   }
-  auto best = under(lo);
-  if (!best) return best.error();
-  return BlendSearch{lo, std::move(best).value()};
+  if (lowest) return *lowest;
+  auto none = at(0.0);
+  if (!none) return none.error();
+  return BlendSearch{0.0, std::move(none).value()};
 }
 
 }  // namespace detail
@@ -337,10 +350,21 @@ Result<Treatment> plan_treatment(const Water& water, const Settings& s) {
   }
   const double ph_max = detail::highest_ph(found.chain, scale);
   if (found.dose_needed && ph_max > ceiling + 1e-9) {
+    const bool at_tanks = detail::ph_on_scale(found.chain.at_tanks, scale) >
+                          detail::ph_on_scale(found.chain.after_mixing, scale);
+    std::string why;
+    if (at_tanks) {
+      auto bare = detail::run_chain(*line, DoseMix{}, phi, s.gas.air_co2_ppm);
+      if (bare && detail::ph_on_scale(bare->at_tanks, scale) > ceiling) {
+        why = fmt::format("; gas exchange alone takes the undosed water to pH {:.3f} at the tanks",
+                          detail::ph_on_scale(bare->at_tanks, scale));
+      }
+    }
     return Error{"ph_ceiling",
-                 fmt::format("reaching {} with {} needs pH {:.3f} ({} scale), above the pH ceiling "
-                             "{:.2f}; raise ph_ceiling (accepted 7.0 to 9.3), lower {}{}",
-                             what, name, ph_max, cb::to_string(scale), ceiling, field,
+                 fmt::format("reaching {} with {} needs pH {:.3f} ({} scale) {}, above the pH ceiling "
+                             "{:.2f}{}; raise ph_ceiling (accepted 7.0 to 9.3), lower {}{}",
+                             what, name, ph_max, cb::to_string(scale),
+                             at_tanks ? "at the tanks" : "after mixing", ceiling, why, field,
                              s.buffer == Buffer::Blend ? "" : ", or use the blend")};
   }
   Treatment t = make_treatment(*line, found.chain, found.dose, phi);

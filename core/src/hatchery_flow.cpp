@@ -188,10 +188,19 @@ std::vector<std::string> cautions_for(const std::vector<Compound>& compounds) {
     const ad::Compound& k = ad::compound(detail::catalog_id(c));
     std::string hazards;
     for (const std::string& h : k.hazard_statements) hazards += (hazards.empty() ? "" : "; ") + h;
+    // GHS classes (facts.md 11): NaOH Skin Corr. 1A (EU CLP Annex VI); Na2CO3 Eye Irrit. 2
+    // (ILO ICSC 1135); NaHCO3 usually not classified (from memory: unverified).
+    const char* ghs_class = c == Compound::SodiumHydroxide   ? "Skin Corr. 1A, Eye Dam. 1 - "
+                            : c == Compound::SodiumCarbonate ? "Eye Irrit. 2 - "
+                                                             : "";
     if (!k.signal_word.empty() || !hazards.empty()) {
-      out.push_back(fmt::format("{} ({}): {}{}{}{}", to_string(c), formula_of(c), k.signal_word,
-                                k.signal_word.empty() || hazards.empty() ? "" : " - ", hazards,
+      out.push_back(fmt::format("{} ({}): {}{}{}{}{}", to_string(c), formula_of(c), k.signal_word,
+                                k.signal_word.empty() ? "" : ", ", ghs_class, hazards,
                                 k.hazard_source.empty() ? "" : " [" + k.hazard_source + "]"));
+    }
+    if (c == Compound::SodiumHydroxide) {
+      out.push_back("NaOH is caustic: face shield or goggles, gloves and apron when making or refilling the "
+                    "stock; keep an eyewash at hand; pump lines and fittings rated for strong bases (common practice)");
     }
     for (const std::string& line : k.cautions) out.push_back(fmt::format("{}: {}", formula_of(c), line));
   }

@@ -22,14 +22,14 @@ constexpr int kMaxRows = 400;
 
 std::string reading_label(const PumpTable& t) {
   switch (t.range.varied) {
-    case cb::Quantity::PH: return fmt::format("intake_ph_{}", cb::to_string(t.fixed.measurements.ph_scale));
-    case cb::Quantity::PCO2: return "intake_pco2_uatm";
-    case cb::Quantity::FCO2: return "intake_fco2_uatm";
-    case cb::Quantity::Alkalinity: return "intake_alkalinity_umol_kg";
-    case cb::Quantity::DIC: return "intake_dic_umol_kg";
-    case cb::Quantity::Carbonate: return "intake_carbonate_umol_kg";
+    case cb::Quantity::PH: return fmt::format("reading_ph_{}", cb::to_string(t.fixed.measurements.ph_scale));
+    case cb::Quantity::PCO2: return "reading_pco2_uatm";
+    case cb::Quantity::FCO2: return "reading_fco2_uatm";
+    case cb::Quantity::Alkalinity: return "reading_alkalinity_umol_kg";
+    case cb::Quantity::DIC: return "reading_dic_umol_kg";
+    case cb::Quantity::Carbonate: return "reading_carbonate_umol_kg";
   }
-  return "intake_reading";
+  return "reading";
 }
 
 std::string fixed_label(const cb::Measurement& m, cb::PhScale scale) {
@@ -139,8 +139,8 @@ std::string pump_table_csv(const PumpTable& t) {
     cells.push_back(num(r.omega_aragonite_after_mixing, 3));
     cells.push_back(num(r.ph_total_at_tanks, 3));
     cells.push_back(num(r.omega_aragonite_at_tanks, 3));
-    cells.push_back(csv::escape_cell_for_spreadsheet(r.note));
-    out += csv::format_row(cells);
+    cells.push_back(r.note);
+    out += csv::format_row(cells, true);
   }
   return out;
 }

@@ -28,7 +28,9 @@
 //   pH (after mixing and at the tanks) at or below the ceiling. Carbonate raises Omega most per
 //   equivalent, and each equivalent of bicarbonate brings one DIC, which lowers the pH at a
 //   given Omega; so the largest feasible carbonate share is the smallest total dose that keeps
-//   under the ceiling. f is found by bisection (pH at the target rises with f).
+//   under the ceiling. f is scanned on a grid of 1/20 from 1 down and the edge refined by
+//   bisection (without gas exchange the pH at the target rises with f; with gas exchange the
+//   curve can turn, hence the scan).
 // All concentrations are umol/kg of seawater; pH values name their scale.
 #pragma once
 

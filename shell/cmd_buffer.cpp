@@ -1,0 +1,408 @@
+// `tidewright buffer`: hatchery buffering of intake seawater (flow), of a static culture tank
+// (batch), and a pump-side table for staff (table). A thin layer over tw::hatchery.
+#include <cstdio>
+#include <iostream>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include "commands.hpp"
+#include "tidewright/hatchery.hpp"
+#include "tidewright/seawater.hpp"
+#include "tidewright/units.hpp"
+
+namespace tw::shell {
+namespace {
+
+namespace hy = tw::hatchery;
+namespace cb = tw::carbonate;
+using nlohmann::json;
+
+struct BufferOptions {
+  // water
+  double salinity = 35.0, temperature_c = 20.0;
+  std::optional<double> alkalinity, dic, ph, pco2;
+  std::string alkalinity_unit = "umol/kg", ph_scale;
+  // target and limits
+  std::optional<double> target_omega, target_ph, target_rise;
+  std::string target_ph_scale = "total", target_at = "mixing", additive = "carbonate";
+  double ph_ceiling = 8.3, omega_ceiling = 5.0;
+  std::string ph_ceiling_scale = "total";
+  // gas exchange and stock
+  std::optional<double> degas_fraction, residence_min;
+  double exchange_tau_min = 30.0, air_co2_ppm = 424.6;
+  double stock_temperature_c = 20.0, stock_fraction = 0.8;
+  std::optional<double> stock_g_per_l;
+  // mode-specific
+  std::optional<double> flow, volume;
+  std::string flow_unit = "L/min", volume_unit = "L", vary = "ph";
+  std::optional<double> from, to;
+  double step = 0.05;
+  bool json = false, csv = false;
+};
+
+// Core field names -> command-line options, so that every one-line reason names the option.
+const std::vector<std::pair<std::string, std::string>> kFieldOptions = {
+    {"target_alkalinity_rise", "--target-alkalinity-rise"}, {"target_omega", "--target-omega"},
+    {"target_ph", "--target-ph"}, {"ph_ceiling", "--ph-ceiling"},
+    {"mixing_omega_ceiling", "--omega-ceiling"}, {"degas_fraction", "--degas-fraction"},
+    {"residence_time_min", "--residence-time"}, {"exchange_time_constant_min", "--exchange-time-constant"},
+    {"air_co2_ppm", "--air-co2"}, {"stock_temperature_c", "--stock-temperature"},
+    {"stock_g_per_l", "--stock-g-per-l"}, {"stock_fraction_of_saturation", "--stock-saturation-fraction"},
+    {"volume_l", "--volume"}, {"temperature_c", "--temperature"}, {"salinity", "--salinity"},
+    {"alkalinity_umol_kg", "--alkalinity"}, {"flow", "--flow"}, {"step", "--step"}, {"to", "--to"},
+    {"ph", "--ph"}};
+
+[[noreturn]] void fail(const Error& e) {
+  std::string msg = e.message;
+  for (const auto& [field, option] : kFieldOptions) {
+    const bool plain = field.find('_') == std::string::npos;  // short names: only at the start
+    if (plain) {
+      if (msg.rfind(field + " ", 0) == 0) msg = option + msg.substr(field.size());
+      continue;
+    }
+    for (size_t at = msg.find(field); at != std::string::npos; at = msg.find(field, at + option.size())) {
+      msg.replace(at, field.size(), option);
+    }
+  }
+  throw CommandError(msg);
+}
+
+template <class T>
+T or_fail(Result<T> r) {
+  if (!r) fail(r.error());
+  return std::move(r).value();
+}
+
+cb::PhScale scale_of(const std::string& text, const char* option) {
+  auto r = cb::ph_scale_from_string(text);
+  if (!r) throw CommandError(fmt::format("{} '{}' is not known; accepted: total, sws, free, nbs", option, text));
+  return *r;
+}
+
+// The carbonate readings given, in engine units; `skip` leaves out the varied one (table).
+std::vector<cb::Measurement> readings(const BufferOptions& o, double density) {
+  std::vector<cb::Measurement> m;
+  if (o.alkalinity) {
+    auto unit = units::alkalinity_unit_from_string(o.alkalinity_unit);
+    if (!unit) throw CommandError("--alkalinity-unit '" + o.alkalinity_unit + "' is not known; accepted: umol/kg, meq/L, dKH, mg/L CaCO3");
+    m.push_back({cb::Quantity::Alkalinity, units::alkalinity_to_umol_kg(*o.alkalinity, *unit, density)});
+  }
+  if (o.dic) m.push_back({cb::Quantity::DIC, *o.dic});
+  if (o.ph) m.push_back({cb::Quantity::PH, *o.ph});
+  if (o.pco2) m.push_back({cb::Quantity::PCO2, *o.pco2});
+  return m;
+}
+
+hy::Water water_of(const BufferOptions& o, bool table) {
+  hy::Water w;
+  w.salinity = o.salinity;
+  w.temperature_c = o.temperature_c;
+  if (auto r = check_range("salinity", o.salinity, 2.0, 45.0, ""); !r) fail(r.error());
+  if (auto r = check_range("temperature_c", o.temperature_c, -2.0, 40.0, "C"); !r) fail(r.error());
+  const double density = seawater::density_kg_per_l(o.salinity, o.temperature_c);
+  auto m = readings(o, density);
+  const bool ph_used = o.ph.has_value() || (table && o.vary == "ph");
+  if (ph_used && o.ph_scale.empty()) throw CommandError("--ph-scale is required with a pH reading (total, sws, free or nbs)");
+  w.measurements.ph_scale = ph_used ? scale_of(o.ph_scale, "--ph-scale") : cb::PhScale::Total;
+  if (table) {
+    if (m.size() != 1) {
+      throw CommandError(fmt::format("{} fixed carbonate readings given; the table needs exactly one of "
+                                     "--alkalinity, --dic, --ph, --pco2 besides --vary", m.size()));
+    }
+    cb::Quantity q = cb::Quantity::PH;
+    if (o.vary == "ph") q = cb::Quantity::PH;
+    else if (o.vary == "pco2") q = cb::Quantity::PCO2;
+    else if (o.vary == "dic") q = cb::Quantity::DIC;
+    else if (o.vary == "alkalinity") q = cb::Quantity::Alkalinity;
+    else throw CommandError("--vary '" + o.vary + "' is not known; accepted: ph, pco2, dic, alkalinity (umol/kg)");
+    if (q == m[0].quantity) throw CommandError("--vary " + o.vary + " is also given as the fixed reading");
+    w.measurements.first = {q, 0.0};
+    w.measurements.second = m[0];
+    return w;
+  }
+  if (m.size() != 2) {
+    throw CommandError(fmt::format("{} carbonate readings given; exactly two of --alkalinity, --dic, --ph, "
+                                   "--pco2 are needed", m.size()));
+  }
+  w.measurements.first = m[0];
+  w.measurements.second = m[1];
+  return w;
+}
+
+hy::Settings settings_of(const BufferOptions& o) {
+  hy::Settings s;
+  const int targets = o.target_omega.has_value() + o.target_ph.has_value() + o.target_rise.has_value();
+  if (targets != 1) {
+    throw CommandError(fmt::format("{} targets given; exactly one of --target-omega, --target-ph, "
+                                   "--target-alkalinity-rise is needed", targets));
+  }
+  if (o.target_omega) s.target = {hy::TargetKind::OmegaAragonite, *o.target_omega, cb::PhScale::Total};
+  if (o.target_ph) s.target = {hy::TargetKind::PH, *o.target_ph, scale_of(o.target_ph_scale, "--target-ph-scale")};
+  if (o.target_rise) s.target = {hy::TargetKind::AlkalinityRise, *o.target_rise, cb::PhScale::Total};
+  if (o.target_at == "mixing") s.target_point = hy::TargetPoint::AfterMixing;
+  else if (o.target_at == "tanks") s.target_point = hy::TargetPoint::AtTanks;
+  else throw CommandError("--target-at '" + o.target_at + "' is not known; accepted: mixing, tanks");
+  auto b = hy::buffer_from_string(o.additive);
+  if (!b) throw CommandError("--" + b.error().message);
+  s.buffer = *b;
+  s.limits.ph_ceiling = o.ph_ceiling;
+  s.limits.ph_ceiling_scale = scale_of(o.ph_ceiling_scale, "--ph-ceiling-scale");
+  s.limits.mixing_omega_ceiling = o.omega_ceiling;
+  s.gas.fraction = o.degas_fraction;
+  s.gas.residence_time_min = o.residence_min;
+  s.gas.exchange_time_constant_min = o.exchange_tau_min;
+  s.gas.air_co2_ppm = o.air_co2_ppm;
+  s.stock.temperature_c = o.stock_temperature_c;
+  s.stock.strength_g_per_l = o.stock_g_per_l;
+  s.stock.fraction_of_saturation = o.stock_fraction;
+  return s;
+}
+
+double flow_l_per_min(const BufferOptions& o) {
+  if (!o.flow) throw CommandError("--flow is required (intake flow, in --flow-unit)");
+  auto unit = hy::flow_unit_from_string(o.flow_unit);
+  if (!unit) throw CommandError("--flow-unit '" + o.flow_unit + "' is not known; accepted: L/min, m3/h");
+  const double lo = hy::flow_from_l_per_min(0.01, *unit), hi = hy::flow_from_l_per_min(100000.0, *unit);
+  if (auto r = check_range("flow", *o.flow, lo, hi, hy::to_string(*unit)); !r) fail(r.error());
+  return hy::flow_to_l_per_min(*o.flow, *unit);
+}
+
+json state_json(const cb::CarbonateState& s) {
+  return {{"ph_total", s.ph_total}, {"ph_sws", s.ph_sws}, {"ph_free", s.ph_free}, {"ph_nbs", s.ph_nbs},
+          {"alkalinity_umol_kg", s.alkalinity_umol_kg}, {"dic_umol_kg", s.dic_umol_kg},
+          {"pco2_uatm", s.pco2_uatm}, {"fco2_uatm", s.fco2_uatm}, {"co2_umol_kg", s.co2_umol_kg},
+          {"hco3_umol_kg", s.hco3_umol_kg}, {"co3_umol_kg", s.co3_umol_kg},
+          {"omega_aragonite", s.omega_aragonite}, {"omega_calcite", s.omega_calcite},
+          {"revelle_factor", s.revelle_factor}};
+}
+
+json treatment_json(const hy::Treatment& t) {
+  return {{"intake", state_json(t.intake)},
+          {"after_mixing", state_json(t.after_mixing)},
+          {"at_tanks", state_json(t.at_tanks)},
+          {"degassing_fraction", t.degassing_fraction},
+          {"dose_needed", t.dose_needed},
+          {"carbonate_share_of_added_alkalinity", t.carbonate_share},
+          {"added_alkalinity_umol_kg", t.dose.alkalinity_umol_kg()},
+          {"added_dic_umol_kg", t.dose.dic_umol_kg()}};
+}
+
+std::string header_text(const hy::Water& w, const hy::Settings& s) {
+  return fmt::format("  water: salinity {:g}, {:g} C\n  target: {} {}; additive {}; pH ceiling {:.2f} ({} scale)\n",
+                     w.salinity, w.temperature_c,
+                     s.target.kind == hy::TargetKind::OmegaAragonite ? fmt::format("Omega ar {:.2f}", s.target.value)
+                     : s.target.kind == hy::TargetKind::PH
+                         ? fmt::format("pH {:.2f} ({} scale)", s.target.value, cb::to_string(s.target.ph_scale))
+                         : fmt::format("alkalinity +{:.0f} umol/kg", s.target.value),
+                     s.target_point == hy::TargetPoint::AtTanks ? "at the tanks" : "after mixing",
+                     hy::to_string(s.buffer), s.limits.ph_ceiling, cb::to_string(s.limits.ph_ceiling_scale));
+}
+
+std::string chemistry_text(const hy::Treatment& t) {
+  const cb::CarbonateState* st[3] = {&t.intake, &t.after_mixing, &t.at_tanks};
+  std::string out = fmt::format("\nChemistry              {:>10} {:>13} {:>10}\n", "intake", "after mixing",
+                                fmt::format("tanks{}", t.degassing_fraction > 0 ? "" : "*"));
+  auto row = [&](const char* name, double (*get)(const cb::CarbonateState&), int dp) {
+    out += fmt::format("  {:<20} {:>10.{}f} {:>13.{}f} {:>10.{}f}\n", name, get(*st[0]), dp, get(*st[1]), dp,
+                       get(*st[2]), dp);
+  };
+  row("pH total", [](const cb::CarbonateState& s) { return s.ph_total; }, 3);
+  row("pH NBS", [](const cb::CarbonateState& s) { return s.ph_nbs; }, 3);
+  row("alkalinity umol/kg", [](const cb::CarbonateState& s) { return s.alkalinity_umol_kg; }, 0);
+  row("DIC umol/kg", [](const cb::CarbonateState& s) { return s.dic_umol_kg; }, 0);
+  row("pCO2 uatm", [](const cb::CarbonateState& s) { return s.pco2_uatm; }, 0);
+  row("CO3-- umol/kg", [](const cb::CarbonateState& s) { return s.co3_umol_kg; }, 1);
+  row("Omega aragonite", [](const cb::CarbonateState& s) { return s.omega_aragonite; }, 2);
+  row("Omega calcite", [](const cb::CarbonateState& s) { return s.omega_calcite; }, 2);
+  row("Revelle factor", [](const cb::CarbonateState& s) { return s.revelle_factor; }, 1);
+  out += fmt::format("  after mixing: closed system, before gas exchange; tanks: {:.0f} % of the way to air "
+                     "equilibrium{}\n", 100.0 * t.degassing_fraction, t.degassing_fraction > 0 ? "" : " (*no gas exchange set)");
+  return out;
+}
+
+std::string notes_text(const std::vector<std::string>& warnings, const std::vector<std::string>& cautions) {
+  std::string out;
+  if (!warnings.empty()) out += "\nWarnings\n";
+  for (const auto& w : warnings) out += "  - " + w + "\n";
+  out += "\nCautions\n";
+  for (const auto& c : cautions) out += "  - " + c + "\n";
+  return out;
+}
+
+void run_flow(const BufferOptions& o) {
+  const hy::Water w = water_of(o, false);
+  const hy::Settings s = settings_of(o);
+  const double flow = flow_l_per_min(o);
+  const hy::FlowPlan p = or_fail(hy::plan_flow(w, flow, s));
+  if (o.json) {
+    json lines = json::array();
+    for (const auto& l : p.lines) {
+      lines.push_back({{"compound", hy::to_string(l.compound)}, {"formula", hy::formula_of(l.compound)},
+                       {"umol_per_kg", l.umol_per_kg}, {"grams_per_hour", l.grams_per_hour},
+                       {"grams_per_day", l.grams_per_day}, {"stock_g_per_l", l.stock_g_per_l},
+                       {"stock_saturation_g_per_l", l.saturation_g_per_l},
+                       {"stock_temperature_c", s.stock.temperature_c}, {"pump_ml_per_min", l.pump_ml_per_min},
+                       {"stock_litres_per_day", l.stock_litres_per_day},
+                       {"injection_dilution_needed", l.injection_dilution_needed},
+                       {"full_mixing_dilution", l.full_mixing_dilution}});
+    }
+    json out = {{"mode", "flow"}, {"flow_l_per_min", flow}, {"additive", hy::to_string(s.buffer)},
+                {"treatment", treatment_json(p.treatment)}, {"lines", lines},
+                {"warnings", p.warnings}, {"cautions", p.cautions}};
+    std::cout << out.dump(2) << "\n";
+    return;
+  }
+  std::string out = "Intake buffering, flow-through\n";
+  out += fmt::format("  flow: {:.2f} L/min ({:.3f} m3/h)\n", flow, hy::flow_from_l_per_min(flow, hy::FlowUnit::CubicMetrePerHour));
+  out += header_text(w, s);
+  out += "\nDose\n";
+  if (p.lines.empty()) out += "  none needed\n";
+  for (const auto& l : p.lines) {
+    out += fmt::format("  {:<7} {:8.1f} umol/kg  {:9.2f} g/h  ({:.0f} g/day)\n", hy::formula_of(l.compound),
+                       l.umol_per_kg, l.grams_per_hour, l.grams_per_day);
+    out += fmt::format("          stock {:.1f} g/L made up to volume (saturation about {:.0f} g/L at {:g} C)\n",
+                       l.stock_g_per_l, l.saturation_g_per_l, s.stock.temperature_c);
+    out += fmt::format("          metering pump {:.2f} mL/min ({:.1f} L of stock per day)\n", l.pump_ml_per_min,
+                       l.stock_litres_per_day);
+  }
+  out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions);
+  std::fwrite(out.data(), 1, out.size(), stdout);
+}
+
+void run_batch(const BufferOptions& o) {
+  const hy::Water w = water_of(o, false);
+  const hy::Settings s = settings_of(o);
+  if (!o.volume) throw CommandError("--volume is required (tank volume, in --volume-unit)");
+  auto unit = units::volume_unit_from_string(o.volume_unit);
+  if (!unit) throw CommandError("--volume-unit '" + o.volume_unit + "' is not known; accepted: L, gal");
+  const double litres = units::volume_to_litres(*o.volume, *unit);
+  const hy::BatchPlan p = or_fail(hy::plan_batch(w, litres, s));
+  if (o.json) {
+    json adds = json::array();
+    for (const auto& a : p.additions) {
+      adds.push_back({{"compound", hy::to_string(a.compound)}, {"formula", hy::formula_of(a.compound)},
+                      {"umol_per_kg", a.umol_per_kg}, {"grams", a.grams}});
+    }
+    json out = {{"mode", "batch"}, {"volume_l", p.volume_l}, {"water_mass_kg", p.water_mass_kg},
+                {"additive", hy::to_string(s.buffer)}, {"treatment", treatment_json(p.treatment)},
+                {"additions", adds}, {"warnings", p.warnings}, {"cautions", p.cautions}};
+    std::cout << out.dump(2) << "\n";
+    return;
+  }
+  std::string out = "Culture tank buffering, batch\n";
+  out += fmt::format("  tank: {:.1f} L ({:.1f} kg of water)\n", p.volume_l, p.water_mass_kg);
+  out += header_text(w, s) + "\nAdd\n";
+  if (p.additions.empty()) out += "  nothing needed\n";
+  for (const auto& a : p.additions) {
+    out += fmt::format("  {:<7} {:10.2f} g  ({:.1f} umol/kg, {:.2f} mg/kg)\n", hy::formula_of(a.compound), a.grams,
+                       a.umol_per_kg, a.grams * 1000.0 / p.water_mass_kg);
+  }
+  out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions);
+  std::fwrite(out.data(), 1, out.size(), stdout);
+}
+
+void run_table(const BufferOptions& o) {
+  const hy::Water w = water_of(o, true);
+  const hy::Settings s = settings_of(o);
+  const double flow = flow_l_per_min(o);
+  if (!o.from || !o.to) throw CommandError("--from and --to are required (range of the --vary reading)");
+  hy::TableRange r{w.measurements.first.quantity, *o.from, *o.to, o.step};
+  const hy::PumpTable t = or_fail(hy::build_pump_table(w, flow, r, s));
+  std::string out;
+  if (o.json) {
+    json rows = json::array();
+    for (const auto& row : t.rows) {
+      json pumps = json::object(), grams = json::object();
+      for (size_t k = 0; k < t.columns.size(); ++k) {
+        pumps[hy::formula_of(t.columns[k])] = row.pump_ml_per_min[k];
+        grams[hy::formula_of(t.columns[k])] = row.grams_per_hour[k];
+      }
+      rows.push_back({{"reading", row.reading}, {"ok", row.ok}, {"note", row.note},
+                      {"intake_omega_aragonite", row.intake_omega_aragonite}, {"pump_ml_per_min", pumps},
+                      {"grams_per_hour", grams}, {"ph_total_after_mixing", row.ph_total_after_mixing},
+                      {"omega_aragonite_after_mixing", row.omega_aragonite_after_mixing},
+                      {"ph_total_at_tanks", row.ph_total_at_tanks},
+                      {"omega_aragonite_at_tanks", row.omega_aragonite_at_tanks}});
+    }
+    json stocks = json::object();
+    for (size_t k = 0; k < t.columns.size(); ++k) stocks[hy::formula_of(t.columns[k])] = t.stock_g_per_l[k];
+    out = json{{"mode", "table"}, {"flow_l_per_min", flow}, {"vary", o.vary}, {"stock_g_per_l", stocks},
+               {"rows", rows}, {"cautions", t.cautions}}.dump(2) + "\n";
+  } else {
+    out = o.csv ? hy::pump_table_csv(t) : hy::pump_table_text(t);
+  }
+  std::fwrite(out.data(), 1, out.size(), stdout);
+}
+
+void add_common(CLI::App* c, BufferOptions& o) {
+  c->add_option("--salinity", o.salinity, "Practical salinity of the water")->default_str("35");
+  c->add_option("--temperature", o.temperature_c, "Water temperature [C]")->default_str("20");
+  c->add_option("--alkalinity", o.alkalinity, "Total alkalinity, in --alkalinity-unit");
+  c->add_option("--alkalinity-unit", o.alkalinity_unit, "umol/kg, meq/L, dKH or mg/L CaCO3")->default_str("umol/kg");
+  c->add_option("--ph", o.ph, "pH on the scale given by --ph-scale");
+  c->add_option("--ph-scale", o.ph_scale, "Scale of the pH reading: total, sws, free or nbs");
+  c->add_option("--pco2", o.pco2, "CO2 partial pressure [uatm]");
+  c->add_option("--dic", o.dic, "Dissolved inorganic carbon [umol/kg]");
+  c->add_option("--target-omega", o.target_omega, "Target aragonite saturation (0.5 to 8)");
+  c->add_option("--target-ph", o.target_ph, "Target pH (6.5 to 9.3) on --target-ph-scale");
+  c->add_option("--target-ph-scale", o.target_ph_scale, "Scale of --target-ph")->default_str("total");
+  c->add_option("--target-alkalinity-rise", o.target_rise, "Alkalinity to add [umol/kg] (0 to 8000)");
+  c->add_option("--target-at", o.target_at, "Where the target must hold: mixing (closed system) or tanks")->default_str("mixing");
+  c->add_option("--additive", o.additive, "carbonate, bicarbonate, hydroxide or blend (carbonate + bicarbonate under the pH ceiling)")->default_str("carbonate");
+  c->add_option("--ph-ceiling", o.ph_ceiling, "Highest pH allowed after mixing and at the tanks (7.0 to 9.3)")->default_str("8.3");
+  c->add_option("--ph-ceiling-scale", o.ph_ceiling_scale, "Scale of --ph-ceiling")->default_str("total");
+  c->add_option("--omega-ceiling", o.omega_ceiling, "Omega ar above which precipitation is flagged (Moras et al. 2022: 5)")->default_str("5");
+  c->add_option("--degas-fraction", o.degas_fraction, "Fraction 0..1 of the way to air equilibrium before the tanks");
+  c->add_option("--residence-time", o.residence_min, "Minutes from injection to tanks (with --exchange-time-constant)");
+  c->add_option("--exchange-time-constant", o.exchange_tau_min, "Gas exchange time constant [min] of the line")->default_str("30");
+  c->add_option("--air-co2", o.air_co2_ppm, "CO2 of the air the water meets [ppm]")->default_str("424.6");
+  c->add_option("--stock-temperature", o.stock_temperature_c, "Temperature the stock is made and kept at [C]")->default_str("20");
+  c->add_option("--stock-g-per-l", o.stock_g_per_l, "Stock strength, g of anhydrous salt per L of solution (default: from saturation)");
+  c->add_option("--stock-saturation-fraction", o.stock_fraction, "Default stock strength as a fraction of saturation")->default_str("0.8");
+  c->add_flag("--json", o.json, "Print JSON instead of text");
+}
+
+}  // namespace
+
+void register_buffer(CLI::App& app) {
+  CLI::App* cmd = app.add_subcommand("buffer", "Hatchery buffering of intake seawater and culture tanks");
+  cmd->require_subcommand(1);
+  cmd->footer(
+      "Examples:\n"
+      "  tidewright buffer flow --flow 100 --salinity 32 --temperature 20 --alkalinity 2150 --pco2 800 --target-omega 3\n"
+      "  tidewright buffer batch --volume 2000 --salinity 32 --alkalinity 2150 --ph 7.77 --ph-scale total --target-omega 2.5\n"
+      "  tidewright buffer table --flow 6 --flow-unit m3/h --alkalinity 2150 --vary ph --ph-scale total --from 7.5 --to 8.0 --target-omega 3 --csv\n"
+      "Food-production hatcheries: follow local regulations and licensed practice.");
+  auto flow = std::make_shared<BufferOptions>();
+  CLI::App* f = cmd->add_subcommand("flow", "Dose for a flow-through intake: g/h, stock, pump mL/min, chemistry");
+  add_common(f, *flow);
+  f->add_option("--flow", flow->flow, "Intake flow, in --flow-unit");
+  f->add_option("--flow-unit", flow->flow_unit, "L/min or m3/h")->default_str("L/min");
+  f->callback([flow] { run_flow(*flow); });
+
+  auto batch = std::make_shared<BufferOptions>();
+  CLI::App* b = cmd->add_subcommand("batch", "Grams to add to a static culture tank, and the chemistry after");
+  add_common(b, *batch);
+  b->add_option("--volume", batch->volume, "Tank volume, in --volume-unit");
+  b->add_option("--volume-unit", batch->volume_unit, "L or gal")->default_str("L");
+  b->callback([batch] { run_batch(*batch); });
+
+  auto table = std::make_shared<BufferOptions>();
+  CLI::App* t = cmd->add_subcommand("table", "Pump settings across a range of intake readings, for staff");
+  add_common(t, *table);
+  t->add_option("--flow", table->flow, "Intake flow, in --flow-unit");
+  t->add_option("--flow-unit", table->flow_unit, "L/min or m3/h")->default_str("L/min");
+  t->add_option("--vary", table->vary, "Reading that varies: ph, pco2, dic or alkalinity (umol/kg)")->default_str("ph");
+  t->add_option("--from", table->from, "First value of the varied reading");
+  t->add_option("--to", table->to, "Last value of the varied reading");
+  t->add_option("--step", table->step, "Step of the varied reading")->default_str("0.05");
+  t->add_flag("--csv", table->csv, "Print CSV instead of text");
+  t->callback([table] { run_table(*table); });
+}
+
+}  // namespace tw::shell
