@@ -1,0 +1,99 @@
+// The one door between the app and where it runs (browser or desktop).
+// Two implementations, chosen by web/CMakeLists.txt: platform_web.cpp (Emscripten, GLFW on a
+// canvas, WebGL2, IndexedDB) and platform_native.cpp (GLFW window, OpenGL 3, files).
+// Nothing outside web/platform/ may test __EMSCRIPTEN__.
+//
+// Map: 1. window and frame loop  2. storage  3. files (export/import)  4. text entry
+//      5. clock  6. test hooks
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+
+namespace twapp::platform {
+
+// ---------------------------------------------------------------- 1. Window and frame loop
+struct StartOptions {
+  int exit_after_frames = 0;  // native: render this many frames, then quit (0 = run until closed)
+  std::string data_dir;       // native: where the store lives (default ~/.local/share/tidewright)
+};
+
+// Creates the window, the GL context and the ImGui platform/renderer backends (the ImGui
+// context must exist). Returns false with a reason in *error.
+bool start(const StartOptions& options, std::string* error);
+void stop();
+
+// Device pixels per logical pixel: window.devicePixelRatio in the browser, the monitor's
+// content scale on the desktop. ImGui works in device pixels; the app scales fonts and sizes
+// by this once.
+float pixel_ratio();
+
+// Runs frame() until it returns false or the window closes. Written as an ordinary loop and
+// adapted to the browser's animation frames inside the web implementation.
+using FrameFn = bool (*)(void* user);
+void run_loop(FrameFn frame, void* user);
+
+// Starts an ImGui frame (backend NewFrame + pointer/touch input). Call before ImGui::NewFrame.
+void begin_frame();
+// Renders ImGui's draw data and presents.
+void end_frame(float r, float g, float b);
+// Uploads the font atlas again after the app rebuilt it (text size or pixel ratio changed),
+// then frees the atlas's CPU-side pixels.
+void reload_fonts_texture();
+// Whether anything happened since the last drawn frame (input, resize, results arriving).
+// The loop skips idle frames; request_frames() keeps drawing for n more frames.
+bool needs_frame();
+void request_frames(int n);
+// True when the last pointer input came from a touch screen (no hover, drag to scroll).
+bool touch_input();
+
+// ---------------------------------------------------------------- 2. Storage
+// Small named text blobs that survive restarts: a file natively, IndexedDB (IDBFS at
+// /persist) in the browser. write() returns false with a reason; the browser copy is
+// flushed to IndexedDB after every write.
+std::optional<std::string> storage_read(const std::string& name);
+bool storage_write(const std::string& name, const std::string& text, std::string* error);
+std::string storage_location();  // for messages: "this browser" or the directory
+
+// ---------------------------------------------------------------- 3. Files
+// Offers text to the user as a file (a download in the browser; a file in the data
+// directory natively). *where says where it went.
+bool export_file(const std::string& file_name, const std::string& mime, const std::string& text,
+                 std::string* where);
+// Asks the user for a file to import (file picker in the browser; a path natively, asked
+// through text entry). The text arrives later through poll_import().
+void request_import();
+std::optional<std::string> poll_import();
+
+// ---------------------------------------------------------------- 4. Text entry
+// Phones only show their keyboard for real input elements, so text and numbers are typed into
+// a platform field (an HTML <input> over the canvas; an ImGui popup natively).
+struct TextEntryRequest {
+  std::string key;      // who asked (widget id); comes back with the result
+  std::string label;    // shown above the field, e.g. "Alkalinity (dKH)"
+  std::string initial;  // starting text
+  std::string hint;     // one line under the field, e.g. "Accepted 0 to 25 dKH"
+  bool numeric = false; // decimal keyboard on phones
+};
+struct TextEntryResult {
+  std::string key;
+  std::string text;
+  bool accepted = false;  // false = cancelled
+};
+void open_text_entry(const TextEntryRequest& request);
+bool text_entry_open();
+std::optional<TextEntryResult> poll_text_entry();
+// Draws platform-side overlays that are made of ImGui (native text entry); nothing on the web.
+void draw_overlays(float em);
+
+// ---------------------------------------------------------------- 5. Clock
+std::int64_t now_unix_seconds();
+int utc_offset_minutes();  // local time zone, for showing and reading times
+double now_ms();           // monotonic, for frame timing
+
+// ---------------------------------------------------------------- 6. Test hooks
+// Tells the page the first frame is on screen (benchmark: navigation to first frame).
+void first_frame_drawn();
+
+}  // namespace twapp::platform

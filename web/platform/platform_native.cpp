@@ -1,0 +1,263 @@
+// Desktop implementation of platform.hpp: a GLFW window with OpenGL 3, files in a data
+// directory, and an ImGui popup for text entry (a desktop has a keyboard).
+#include <GLFW/glfw3.h>
+
+#include <algorithm>
+#include <chrono>
+#include <cstdio>
+#include <cstdlib>
+#include <ctime>
+#include <deque>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include "imgui.h"
+#include "imgui_impl_glfw.h"
+#include "imgui_impl_opengl3.h"
+#include "platform.hpp"
+
+namespace twapp::platform {
+namespace {
+
+namespace fs = std::filesystem;
+
+GLFWwindow* g_window = nullptr;
+StartOptions g_options;
+fs::path g_data_dir;
+int g_pending_frames = 3;
+int g_frames_drawn = 0;
+std::deque<TextEntryResult> g_entries;
+std::deque<std::string> g_imports;
+const char* kImportKey = "__import_path";
+
+// Text entry popup state (platform-side, like the browser's <input> element).
+struct Entry {
+  bool open = false;
+  bool focus = false;
+  TextEntryRequest request;
+  char buffer[1024] = {};
+};
+Entry g_entry;
+
+fs::path default_data_dir() {
+  if (const char* xdg = std::getenv("XDG_DATA_HOME"); xdg && *xdg) return fs::path(xdg) / "tidewright";
+  if (const char* home = std::getenv("HOME"); home && *home) return fs::path(home) / ".local/share/tidewright";
+  return fs::current_path() / "tidewright-data";
+}
+
+}  // namespace
+
+bool start(const StartOptions& options, std::string* error) {
+  g_options = options;
+  g_data_dir = options.data_dir.empty() ? default_data_dir() : fs::path(options.data_dir);
+  std::error_code ec;
+  fs::create_directories(g_data_dir, ec);
+  if (!glfwInit()) {
+    *error = "GLFW could not start (is there a display?)";
+    return false;
+  }
+  glfwWindowHint(GLFW_CONTEXT_VERSION_MAJOR, 3);
+  glfwWindowHint(GLFW_CONTEXT_VERSION_MINOR, 0);
+  g_window = glfwCreateWindow(480, 900, "Tidewright", nullptr, nullptr);
+  if (!g_window) {
+    *error = "could not open an OpenGL 3.0 window";
+    glfwTerminate();
+    return false;
+  }
+  glfwMakeContextCurrent(g_window);
+  glfwSwapInterval(1);
+  ImGui_ImplGlfw_InitForOpenGL(g_window, true);
+  ImGui_ImplOpenGL3_Init("#version 130");
+  ImGui::GetIO().IniFilename = nullptr;
+  return true;
+}
+
+void stop() {
+  ImGui_ImplOpenGL3_Shutdown();
+  ImGui_ImplGlfw_Shutdown();
+  glfwDestroyWindow(g_window);
+  glfwTerminate();
+}
+
+float pixel_ratio() {
+  float sx = 1, sy = 1;
+  glfwGetWindowContentScale(g_window, &sx, &sy);
+  int ww = 1, fw = 1, h = 1;
+  glfwGetWindowSize(g_window, &ww, &h);
+  glfwGetFramebufferSize(g_window, &fw, &h);
+  // ImGui's GLFW backend works in window coordinates; on screens where the framebuffer is
+  // larger than the window (macOS-style), the backend scales and fonts should not be doubled.
+  const float fb_scale = ww > 0 ? static_cast<float>(fw) / static_cast<float>(ww) : 1.0f;
+  return std::max(1.0f, sx / fb_scale);
+}
+
+void run_loop(FrameFn frame, void* user) {
+  while (!glfwWindowShouldClose(g_window)) {
+    if (g_options.exit_after_frames > 0 && g_frames_drawn >= g_options.exit_after_frames) break;
+    if (g_pending_frames > 0 || g_options.exit_after_frames > 0) {
+      glfwPollEvents();
+    } else {
+      glfwWaitEventsTimeout(0.5);  // idle: wake on input, or twice a second
+    }
+    if (g_pending_frames > 0) --g_pending_frames;
+    if (!frame(user)) break;
+    ++g_frames_drawn;
+  }
+}
+
+void begin_frame() {
+  ImGui_ImplOpenGL3_NewFrame();
+  ImGui_ImplGlfw_NewFrame();
+}
+
+void end_frame(float r, float g, float b) {
+  ImGui::Render();
+  int w = 0, h = 0;
+  glfwGetFramebufferSize(g_window, &w, &h);
+  glViewport(0, 0, w, h);
+  glClearColor(r, g, b, 1.0f);
+  glClear(GL_COLOR_BUFFER_BIT);
+  ImGui_ImplOpenGL3_RenderDrawData(ImGui::GetDrawData());
+  glfwSwapBuffers(g_window);
+}
+
+void reload_fonts_texture() {
+  ImGui_ImplOpenGL3_DestroyFontsTexture();
+  ImGui_ImplOpenGL3_CreateFontsTexture();
+  ImGui::GetIO().Fonts->ClearTexData();
+}
+
+bool needs_frame() { return true; }  // the loop above already waited for input
+void request_frames(int n) { g_pending_frames = std::max(g_pending_frames, n); }
+bool touch_input() { return false; }
+
+// ---------------------------------------------------------------- storage
+std::optional<std::string> storage_read(const std::string& name) {
+  std::ifstream in(g_data_dir / name, std::ios::binary);
+  if (!in) return std::nullopt;
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+bool storage_write(const std::string& name, const std::string& text, std::string* error) {
+  const fs::path path = g_data_dir / name;
+  const fs::path tmp = g_data_dir / (name + ".tmp");
+  {
+    std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
+    out << text;
+    out.flush();
+    if (!out.good()) {
+      if (error) *error = "could not write " + tmp.string();
+      return false;
+    }
+  }
+  std::error_code ec;
+  fs::rename(tmp, path, ec);  // atomic replace: a crash leaves the old or the new file
+  if (ec) {
+    if (error) *error = "could not replace " + path.string() + ": " + ec.message();
+    return false;
+  }
+  return true;
+}
+
+std::string storage_location() { return g_data_dir.string(); }
+
+// ---------------------------------------------------------------- files
+bool export_file(const std::string& file_name, const std::string&, const std::string& text,
+                 std::string* where) {
+  std::string error;
+  if (!storage_write(file_name, text, &error)) {
+    if (where) *where = error;
+    return false;
+  }
+  if (where) *where = "saved as " + (g_data_dir / file_name).string();
+  return true;
+}
+
+void request_import() {
+  open_text_entry({kImportKey, "File to import (path)", (g_data_dir / "tidewright-export.json").string(),
+                   "A Tidewright export or journal JSON file", false});
+}
+
+std::optional<std::string> poll_import() {
+  if (g_imports.empty()) return std::nullopt;
+  std::string t = std::move(g_imports.front());
+  g_imports.pop_front();
+  return t;
+}
+
+// ---------------------------------------------------------------- text entry
+void open_text_entry(const TextEntryRequest& request) {
+  g_entry.open = true;
+  g_entry.focus = true;
+  g_entry.request = request;
+  std::snprintf(g_entry.buffer, sizeof g_entry.buffer, "%s", request.initial.c_str());
+  request_frames(3);
+}
+
+bool text_entry_open() { return g_entry.open; }
+
+std::optional<TextEntryResult> poll_text_entry() {
+  while (!g_entries.empty()) {
+    TextEntryResult r = std::move(g_entries.front());
+    g_entries.pop_front();
+    if (r.key != kImportKey) return r;
+    if (!r.accepted) continue;
+    std::ifstream in(r.text, std::ios::binary);
+    std::ostringstream s;
+    if (in) s << in.rdbuf();
+    // An unreadable path arrives as empty text; the import action reports it.
+    g_imports.push_back(s.str());
+  }
+  return std::nullopt;
+}
+
+void draw_overlays(float em) {
+  if (!g_entry.open) return;
+  const ImGuiViewport* vp = ImGui::GetMainViewport();
+  ImGui::SetNextWindowPos(vp->WorkPos);
+  ImGui::SetNextWindowSize(ImVec2(vp->WorkSize.x, 0));
+  ImGui::PushStyleVar(ImGuiStyleVar_WindowPadding, ImVec2(em, em));
+  ImGui::Begin("##entry", nullptr, ImGuiWindowFlags_NoDecoration | ImGuiWindowFlags_NoMove |
+                                       ImGuiWindowFlags_AlwaysAutoResize | ImGuiWindowFlags_NoSavedSettings);
+  ImGui::TextUnformatted(g_entry.request.label.c_str());
+  if (g_entry.focus) {
+    ImGui::SetKeyboardFocusHere();
+    g_entry.focus = false;
+  }
+  ImGui::SetNextItemWidth(-1);
+  const ImGuiInputTextFlags flags = ImGuiInputTextFlags_EnterReturnsTrue |
+      (g_entry.request.numeric ? ImGuiInputTextFlags_CharsScientific : 0);
+  bool accept = ImGui::InputText("##entry_text", g_entry.buffer, sizeof g_entry.buffer, flags);
+  if (!g_entry.request.hint.empty()) ImGui::TextDisabled("%s", g_entry.request.hint.c_str());
+  const ImVec2 button(6 * em, 2.75f * em);
+  bool cancel = ImGui::Button("Cancel", button) || ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Escape));
+  ImGui::SameLine();
+  accept = ImGui::Button("OK", button) || accept;
+  ImGui::End();
+  ImGui::PopStyleVar();
+  if (accept || cancel) {
+    g_entries.push_back({g_entry.request.key, g_entry.buffer, accept});
+    g_entry.open = false;
+    request_frames(3);
+  }
+}
+
+// ---------------------------------------------------------------- clock
+std::int64_t now_unix_seconds() { return static_cast<std::int64_t>(std::time(nullptr)); }
+int utc_offset_minutes() {
+  std::time_t t = std::time(nullptr);
+  std::tm local{};
+  localtime_r(&t, &local);
+  return static_cast<int>(local.tm_gmtoff / 60);
+}
+double now_ms() {
+  using namespace std::chrono;
+  return duration<double, std::milli>(steady_clock::now().time_since_epoch()).count();
+}
+
+void first_frame_drawn() {}
+
+}  // namespace twapp::platform

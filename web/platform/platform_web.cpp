@@ -1,0 +1,277 @@
+// Browser implementation of platform.hpp: Emscripten's GLFW on the page's canvas, WebGL2,
+// IDBFS for storage, and the JavaScript glue in web_pre.js (Module.tw.*). Also the exported
+// C functions that the page and the browser tests call (tw_*).
+#include <emscripten.h>
+#include <emscripten/html5.h>
+#include <GLFW/glfw3.h>
+#include <GLES3/gl3.h>
+
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <ctime>
+#include <deque>
+#include <fstream>
+#include <sstream>
+
+#include "imgui.h"
+#include "imgui_impl_glfw.h"
+#include "imgui_impl_opengl3.h"
+#include "platform.hpp"
+#include "test_api.hpp"
+
+namespace twapp::platform {
+namespace {
+
+GLFWwindow* g_window = nullptr;
+int g_pending_frames = 3;
+bool g_touch = false;
+float g_ratio = 1.0f;
+std::deque<TextEntryResult> g_entries;
+std::deque<std::string> g_imports;
+FrameFn g_frame = nullptr;
+void* g_user = nullptr;
+const char* kPersistDir = "/persist";
+
+// clang-format off
+EM_JS(void, js_poll_pointer, (float* out), { Module.tw.poll(out); });
+EM_JS(int, js_take_dirty, (), { return Module.tw.takeDirty() ? 1 : 0; });
+EM_JS(void, js_flush_storage, (), { Module.tw.flush(); });
+EM_JS(int, js_store_error, (char* out, int size), {
+  var e = Module.tw.storeError; Module.tw.storeError = '';
+  if (!e) return 0;
+  stringToUTF8(e, out, size); return 1;
+});
+EM_JS(void, js_open_entry, (const char* key, const char* label, const char* initial, const char* hint, int numeric), {
+  Module.tw.openEntry(UTF8ToString(key), UTF8ToString(label), UTF8ToString(initial), UTF8ToString(hint), numeric !== 0);
+});
+EM_JS(int, js_entry_open, (), { return Module.tw.entryOpen() ? 1 : 0; });
+EM_JS(void, js_download, (const char* name, const char* mime, const char* text), {
+  Module.tw.download(UTF8ToString(name), UTF8ToString(mime), UTF8ToString(text));
+});
+EM_JS(void, js_pick_file, (), { Module.tw.pickFile(); });
+EM_JS(void, js_first_frame, (), { Module.tw.firstFrame(); });
+EM_JS(int, js_utc_offset_minutes, (), { return -new Date().getTimezoneOffset(); });
+// clang-format on
+
+// Canvas pixel size = CSS size x devicePixelRatio, checked every frame (resize, rotation,
+// browser zoom and moving between screens all change one of them).
+void track_canvas_size() {
+  double css_w = 0, css_h = 0;
+  emscripten_get_element_css_size("#canvas", &css_w, &css_h);
+  g_ratio = static_cast<float>(emscripten_get_device_pixel_ratio());
+  if (g_ratio <= 0) g_ratio = 1;
+  const int w = std::max(1, static_cast<int>(std::lround(css_w * g_ratio)));
+  const int h = std::max(1, static_cast<int>(std::lround(css_h * g_ratio)));
+  int cur_w = 0, cur_h = 0;
+  glfwGetWindowSize(g_window, &cur_w, &cur_h);
+  if (cur_w != w || cur_h != h) {
+    glfwSetWindowSize(g_window, w, h);
+    g_pending_frames = std::max(g_pending_frames, 3);
+  }
+}
+
+void browser_frame(void*) {
+  if (!needs_frame()) return;
+  if (g_pending_frames > 0) --g_pending_frames;
+  g_frame(g_user);
+}
+
+}  // namespace
+
+bool start(const StartOptions&, std::string* error) {
+  if (!glfwInit()) {
+    *error = "GLFW could not start";
+    return false;
+  }
+  glfwWindowHint(GLFW_CLIENT_API, GLFW_OPENGL_ES_API);
+  glfwWindowHint(GLFW_CONTEXT_VERSION_MAJOR, 3);
+  glfwWindowHint(GLFW_CONTEXT_VERSION_MINOR, 0);
+  g_window = glfwCreateWindow(390, 844, "Tidewright", nullptr, nullptr);
+  if (!g_window) {
+    *error = "this browser could not create a WebGL2 context";
+    return false;
+  }
+  glfwMakeContextCurrent(g_window);
+  track_canvas_size();
+  ImGui_ImplGlfw_InitForOpenGL(g_window, true);
+  ImGui_ImplOpenGL3_Init("#version 300 es");
+  ImGui::GetIO().IniFilename = nullptr;  // layout comes from code, not a file
+  return true;
+}
+
+void stop() {
+  ImGui_ImplOpenGL3_Shutdown();
+  ImGui_ImplGlfw_Shutdown();
+  glfwTerminate();
+}
+
+float pixel_ratio() { return g_ratio; }
+
+void run_loop(FrameFn frame, void* user) {
+  g_frame = frame;
+  g_user = user;
+  // 0 = the browser's animation-frame rate; idle frames return at once (browser_frame).
+  emscripten_set_main_loop_arg(browser_frame, nullptr, 0, 1);
+}
+
+void begin_frame() {
+  track_canvas_size();
+  ImGui_ImplOpenGL3_NewFrame();
+  ImGui_ImplGlfw_NewFrame();
+  float p[5] = {0, 0, 0, 0, 0};
+  js_poll_pointer(p);
+  ImGuiIO& io = ImGui::GetIO();
+  io.MousePos = p[4] > 0 ? ImVec2(p[0], p[1]) : ImVec2(-FLT_MAX, -FLT_MAX);
+  io.MouseDown[0] = p[2] > 0;
+  g_touch = p[3] > 0;
+}
+
+void end_frame(float r, float g, float b) {
+  ImGui::Render();
+  int w = 0, h = 0;
+  glfwGetFramebufferSize(g_window, &w, &h);
+  glViewport(0, 0, w, h);
+  glClearColor(r, g, b, 1.0f);
+  glClear(GL_COLOR_BUFFER_BIT);
+  ImGui_ImplOpenGL3_RenderDrawData(ImGui::GetDrawData());
+}
+
+void reload_fonts_texture() {
+  ImGui_ImplOpenGL3_DestroyFontsTexture();
+  ImGui_ImplOpenGL3_CreateFontsTexture();
+  ImGui::GetIO().Fonts->ClearTexData();
+}
+
+bool needs_frame() {
+  const bool dirty = js_take_dirty() != 0;
+  if (dirty) g_pending_frames = std::max(g_pending_frames, 3);
+  return g_pending_frames > 0;
+}
+void request_frames(int n) { g_pending_frames = std::max(g_pending_frames, n); }
+bool touch_input() { return g_touch; }
+
+// ---------------------------------------------------------------- storage
+std::optional<std::string> storage_read(const std::string& name) {
+  std::ifstream in(std::string(kPersistDir) + "/" + name, std::ios::binary);
+  if (!in) return std::nullopt;
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+bool storage_write(const std::string& name, const std::string& text, std::string* error) {
+  // A failed earlier copy into IndexedDB is reported now (the write below retries it).
+  char reason[512];
+  const bool earlier_failure = js_store_error(reason, sizeof reason) != 0;
+  if (earlier_failure && error) *error = reason;
+  const std::string path = std::string(kPersistDir) + "/" + name;
+  {
+    std::ofstream out(path + ".tmp", std::ios::binary | std::ios::trunc);
+    out << text;
+    if (!out.good()) {
+      if (error) *error = "could not write " + name + " in this browser's storage";
+      return false;
+    }
+  }
+  if (std::rename((path + ".tmp").c_str(), path.c_str()) != 0) {
+    if (error) *error = "could not replace " + name + " in this browser's storage";
+    return false;
+  }
+  js_flush_storage();  // FS.syncfs(false): copy /persist into IndexedDB now
+  return !earlier_failure;
+}
+
+std::string storage_location() { return "this browser's storage (IndexedDB)"; }
+
+// ---------------------------------------------------------------- files
+bool export_file(const std::string& file_name, const std::string& mime, const std::string& text,
+                 std::string* where) {
+  js_download(file_name.c_str(), mime.c_str(), text.c_str());
+  if (where) *where = "downloaded as " + file_name;
+  return true;
+}
+void request_import() { js_pick_file(); }
+std::optional<std::string> poll_import() {
+  if (g_imports.empty()) return std::nullopt;
+  std::string t = std::move(g_imports.front());
+  g_imports.pop_front();
+  return t;
+}
+
+// ---------------------------------------------------------------- text entry
+void open_text_entry(const TextEntryRequest& r) {
+  js_open_entry(r.key.c_str(), r.label.c_str(), r.initial.c_str(), r.hint.c_str(), r.numeric ? 1 : 0);
+}
+bool text_entry_open() { return js_entry_open() != 0; }
+std::optional<TextEntryResult> poll_text_entry() {
+  if (g_entries.empty()) return std::nullopt;
+  TextEntryResult r = std::move(g_entries.front());
+  g_entries.pop_front();
+  return r;
+}
+void draw_overlays(float) {}  // the entry field is HTML (index.html #entry)
+
+// ---------------------------------------------------------------- clock
+std::int64_t now_unix_seconds() { return static_cast<std::int64_t>(std::time(nullptr)); }
+int utc_offset_minutes() { return js_utc_offset_minutes(); }
+double now_ms() { return emscripten_get_now(); }
+
+void first_frame_drawn() { js_first_frame(); }
+
+// Called by the exported functions below.
+void push_entry(TextEntryResult r) {
+  g_entries.push_back(std::move(r));
+  request_frames(3);
+}
+void push_import(std::string text) {
+  g_imports.push_back(std::move(text));
+  request_frames(3);
+}
+
+}  // namespace twapp::platform
+
+// ---------------------------------------------------------------- exported to JavaScript
+// Returned strings stay valid until the next call of the same function.
+extern "C" {
+
+EMSCRIPTEN_KEEPALIVE void tw_text_entered(const char* key, const char* text, int accepted) {
+  twapp::platform::push_entry({key ? key : "", text ? text : "", accepted != 0});
+}
+EMSCRIPTEN_KEEPALIVE void tw_text_cancelled(const char* key) {
+  twapp::platform::push_entry({key ? key : "", "", false});
+}
+EMSCRIPTEN_KEEPALIVE void tw_import_text(const char* text) {
+  twapp::platform::push_import(text ? text : "");
+}
+
+// Test interface (tests/browser): app state as JSON, widget rectangles by name in CSS pixels.
+EMSCRIPTEN_KEEPALIVE const char* tw_test_state() {
+  static std::string s;
+  s = twapp::test_api::state_json();
+  return s.c_str();
+}
+EMSCRIPTEN_KEEPALIVE const char* tw_test_widget(const char* name) {
+  static std::string s;
+  s = twapp::test_api::widget_json(name ? name : "", twapp::platform::pixel_ratio());
+  return s.c_str();
+}
+EMSCRIPTEN_KEEPALIVE const char* tw_test_widgets() {
+  static std::string s;
+  s = twapp::test_api::widgets_json(twapp::platform::pixel_ratio());
+  return s.c_str();
+}
+EMSCRIPTEN_KEEPALIVE void tw_test_reveal(const char* name) {
+  twapp::test_api::reveal(name ? name : "");
+  twapp::platform::request_frames(4);
+}
+EMSCRIPTEN_KEEPALIVE const char* tw_test_frame_stats() {
+  static std::string s;
+  s = twapp::test_api::frame_stats_json();
+  return s.c_str();
+}
+EMSCRIPTEN_KEEPALIVE void tw_test_reset_stats() { twapp::test_api::reset_frame_stats(); }
+EMSCRIPTEN_KEEPALIVE void tw_test_animate(int frames) { twapp::platform::request_frames(frames); }
+EMSCRIPTEN_KEEPALIVE double tw_test_heap_bytes() { return static_cast<double>(emscripten_get_heap_size()); }
+
+}  // extern "C"

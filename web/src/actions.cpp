@@ -1,0 +1,304 @@
+// The app's actions: the only code that changes AppState's saved parts. Each asks the core to
+// validate (tw::journal::add_system, add_event, ...), changes nothing when refused, saves the
+// store after a change and marks the Water results stale.
+#include "actions.hpp"
+
+#include <algorithm>
+
+#include "format.hpp"
+#include "platform.hpp"
+#include "store.hpp"
+#include "tidewright/datetime.hpp"
+
+extern const unsigned char tw_demo_journal[];
+extern const unsigned long tw_demo_journal_size;
+
+namespace twapp {
+
+namespace jn = tw::journal;
+
+const char* screen_name(Screen s) {
+  switch (s) {
+    case Screen::Systems: return "systems";
+    case Screen::Log: return "log";
+    case Screen::Water: return "water";
+    case Screen::Demand: return "demand";
+    case Screen::Hatchery: return "hatchery";
+    case Screen::Mixes: return "mixes";
+    case Screen::Settings: return "settings";
+  }
+  return "?";
+}
+
+void notify(AppState& app, const std::string& message, bool is_error) {
+  app.ui.message = message;
+  app.ui.message_is_error = is_error;
+  app.ui.message_until_ms = platform::now_ms() + (is_error ? 8000 : 4000);
+}
+
+namespace {
+
+void changed(AppState& app) {
+  app.water_stale = true;
+  save(app);
+}
+
+void adopt(AppState& app, StoredApp stored) {
+  app.journal = std::move(stored.journal);
+  if (stored.had_app_part) {
+    app.settings = stored.settings;
+    app.demo_system_ids = stored.demo_system_ids;
+    app.current_system = stored.current_system;
+  }
+  if (!jn::find_system(app.journal, app.current_system)) {
+    app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
+  }
+  app.water.what_if = false;
+  app.water_stale = true;
+}
+
+}  // namespace
+
+void save(AppState& app) {
+  std::string error;
+  if (platform::storage_write(kStoreName, store_to_text(app), &error)) {
+    app.store.save_error.clear();
+    ++app.store.saves;
+  } else {
+    app.store.save_error = error;
+    notify(app, "Not saved: " + error, true);
+  }
+}
+
+void start_app(AppState& app) {
+  app.store.loaded = true;
+  const auto text = platform::storage_read(kStoreName);
+  if (!text) {  // first start: the demo
+    load_demo(app);
+    return;
+  }
+  auto stored = store_from_text(*text);
+  if (!stored) {
+    // Keep the damaged text beside the store, start empty, and say so plainly.
+    const std::string copy = std::string("tidewright-damaged-") + std::to_string(platform::now_unix_seconds()) + ".json";
+    std::string error;
+    const bool kept = platform::storage_write(copy, *text, &error);
+    app.store.problem = "Your saved data could not be read (" + stored.error().field + ": " +
+                        stored.error().message + "). " +
+                        (kept ? "A copy was kept as " + copy + " in " + platform::storage_location() +
+                                    "; the app started empty. Import a backup in Settings."
+                              : "Keeping a copy failed too (" + error + ").");
+    app.water_stale = true;
+    return;
+  }
+  adopt(app, std::move(stored).value());
+}
+
+void go_to(AppState& app, Screen screen) {
+  app.ui.screen = screen;
+  app.ui.reveal.clear();
+}
+
+// ---------------------------------------------------------------- systems
+const jn::System* current_system(const AppState& app) { return jn::find_system(app.journal, app.current_system); }
+
+jn::System new_system_defaults(const AppState& app) {
+  jn::System s;
+  s.name = "Tank " + std::to_string(app.journal.systems.size() + 1);
+  s.volume_l = 200;
+  s.units = app.settings.units;
+  return s;
+}
+
+bool add_system(AppState& app, jn::System system) {
+  system.id = 0;
+  auto id = jn::add_system(app.journal, system);
+  if (!id) {
+    notify(app, id.error().message, true);
+    return false;
+  }
+  app.current_system = *id;
+  app.water.what_if = false;
+  notify(app, "Added " + system.name);
+  changed(app);
+  return true;
+}
+
+bool update_system(AppState& app, const jn::System& system) {
+  auto st = jn::update_system(app.journal, system);
+  if (!st) {
+    notify(app, st.error().message, true);
+    return false;
+  }
+  notify(app, "Saved " + system.name);
+  changed(app);
+  return true;
+}
+
+bool remove_system(AppState& app, jn::SystemId id) {
+  const jn::System* s = jn::find_system(app.journal, id);
+  if (!s) return false;
+  const std::string name = s->name;
+  auto st = jn::remove_system(app.journal, id, true);
+  if (!st) {
+    notify(app, st.error().message, true);
+    return false;
+  }
+  std::erase(app.demo_system_ids, id);
+  if (app.current_system == id) app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
+  notify(app, "Removed " + name + " and its log");
+  changed(app);
+  return true;
+}
+
+void select_system(AppState& app, jn::SystemId id) {
+  if (!jn::find_system(app.journal, id) || id == app.current_system) return;
+  app.current_system = id;
+  app.water.what_if = false;
+  changed(app);
+}
+
+// ---------------------------------------------------------------- journal
+bool log_test(AppState& app, const jn::TestResult& test) {
+  const jn::System* sys = current_system(app);
+  if (!sys) {
+    notify(app, "Add a system first: a test result belongs to a system", true);
+    return false;
+  }
+  jn::Event e;
+  e.system_id = sys->id;
+  e.time_s = platform::now_unix_seconds();
+  e.data = test;
+  auto id = jn::add_event(app.journal, e);
+  if (!id) {
+    notify(app, id.error().message, true);
+    return false;
+  }
+  app.water.what_if = false;  // the Water screen follows the new reading
+  notify(app, std::string("Logged ") + fmtx::parameter_label(test.parameter) + " " + fmtx::fixed(test.value, 2) + " " + test.unit);
+  changed(app);
+  return true;
+}
+
+bool remove_event(AppState& app, jn::EventId id) {
+  auto st = jn::remove_event(app.journal, id);
+  if (!st) {
+    notify(app, st.error().message, true);
+    return false;
+  }
+  notify(app, "Removed the entry");
+  changed(app);
+  return true;
+}
+
+// ---------------------------------------------------------------- settings
+void set_units(AppState& app, const jn::UnitPreferences& units) {
+  app.settings.units = units;
+  if (const jn::System* s = current_system(app)) {
+    jn::System copy = *s;
+    copy.units = units;
+    if (!jn::update_system(app.journal, copy)) notify(app, "Units could not be stored with the system", true);
+  }
+  changed(app);
+}
+
+void set_text_size(AppState& app, float text_size) {
+  app.settings.text_size = std::clamp(text_size, 0.8f, 1.6f);
+  changed(app);
+}
+
+bool set_room_co2(AppState& app, double ppm) {
+  auto st = tw::check_range("room CO2", ppm, 150, 10000, "ppm");
+  if (!st) {
+    notify(app, st.error().message, true);
+    return false;
+  }
+  app.settings.room_co2_ppm = ppm;
+  changed(app);
+  return true;
+}
+
+// ---------------------------------------------------------------- water
+void set_water_inputs(AppState& app, const WaterInputs& inputs) {
+  app.water = inputs;
+  app.water.what_if = true;
+  app.water.source = "What-if: your own numbers, not saved to the log.";
+  app.water_stale = true;
+}
+
+void use_latest_readings(AppState& app) {
+  app.water.what_if = false;
+  app.water_stale = true;
+}
+
+// ---------------------------------------------------------------- demo, export, import
+void load_demo(AppState& app) {
+  const std::string text(reinterpret_cast<const char*>(tw_demo_journal), tw_demo_journal_size);
+  auto stored = store_from_text(text);
+  if (!stored) {
+    notify(app, "The demo data could not be read: " + stored.error().message, true);
+    return;
+  }
+  // Demo systems join what is there (ids and names are checked by the core).
+  if (app.journal.systems.empty() && app.journal.events.empty()) {
+    const Settings keep = app.settings;
+    adopt(app, std::move(stored).value());
+    app.settings = keep;
+    app.demo_system_ids.clear();
+    for (const auto& s : app.journal.systems) app.demo_system_ids.push_back(s.id);
+    app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
+    if (const jn::System* s = current_system(app)) app.settings.units = s->units;
+    changed(app);
+    return;
+  }
+  notify(app, "The demo can only be loaded into an empty journal: export and remove your data first", true);
+}
+
+bool remove_demo(AppState& app) {
+  if (app.demo_system_ids.empty()) return false;
+  for (jn::SystemId id : std::vector<jn::SystemId>(app.demo_system_ids)) {
+    if (!jn::remove_system(app.journal, id, true)) {
+      notify(app, "The demo could not be removed completely", true);
+      break;
+    }
+  }
+  app.demo_system_ids.clear();
+  if (!current_system(app)) app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
+  notify(app, "Demo data removed");
+  changed(app);
+  return true;
+}
+
+void export_all(AppState& app) {
+  const std::string name = "tidewright-" + tw::datetime::format_date_utc(platform::now_unix_seconds()) + ".json";
+  std::string where;
+  if (platform::export_file(name, "application/json", store_to_text(app), &where)) {
+    notify(app, "Exported: " + where);
+  } else {
+    notify(app, "Export failed: " + where, true);
+  }
+}
+
+void ask_import(AppState&) { platform::request_import(); }
+
+bool import_text(AppState& app, const std::string& text) {
+  if (text.empty()) {
+    notify(app, "Import: the file is empty or could not be read", true);
+    return false;
+  }
+  auto stored = store_from_text(text);
+  if (!stored) {
+    notify(app, "Import refused, nothing changed: " + stored.error().field + ": " + stored.error().message, true);
+    return false;
+  }
+  const bool full = stored->had_app_part;
+  adopt(app, std::move(stored).value());
+  if (!full) app.demo_system_ids.clear();
+  app.store.problem.clear();
+  notify(app, std::string("Imported ") + std::to_string(app.journal.systems.size()) + " systems and " +
+                  std::to_string(app.journal.events.size()) + " log entries");
+  changed(app);
+  return true;
+}
+
+}  // namespace twapp

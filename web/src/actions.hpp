@@ -1,0 +1,49 @@
+// Every change to AppState goes through one of these. Each validates with the core, changes
+// the state only when valid, saves the store after a change, and marks results stale.
+// They return false (and set the banner message) when the core refuses.
+#pragma once
+
+#include <string>
+
+#include "app_state.hpp"
+
+namespace twapp {
+
+// Start: load the saved store (or the demo on a first start).
+void start_app(AppState& app);
+
+void go_to(AppState& app, Screen screen);
+void notify(AppState& app, const std::string& message, bool is_error = false);
+
+// Systems
+bool add_system(AppState& app, tw::journal::System system);
+bool update_system(AppState& app, const tw::journal::System& system);
+bool remove_system(AppState& app, tw::journal::SystemId id);
+void select_system(AppState& app, tw::journal::SystemId id);
+const tw::journal::System* current_system(const AppState& app);
+tw::journal::System new_system_defaults(const AppState& app);
+
+// Journal
+bool log_test(AppState& app, const tw::journal::TestResult& test);
+bool remove_event(AppState& app, tw::journal::EventId id);
+
+// Settings (units go to the current system too, so the journal and the screen agree)
+void set_units(AppState& app, const tw::journal::UnitPreferences& units);
+void set_text_size(AppState& app, float text_size);
+bool set_room_co2(AppState& app, double ppm);
+
+// Water screen
+void set_water_inputs(AppState& app, const WaterInputs& inputs);  // becomes a what-if
+void use_latest_readings(AppState& app);
+
+// Demo data, export and import
+bool remove_demo(AppState& app);
+void load_demo(AppState& app);
+void export_all(AppState& app);
+void ask_import(AppState& app);
+bool import_text(AppState& app, const std::string& text);
+
+// Saves the store now (called by the actions above).
+void save(AppState& app);
+
+}  // namespace twapp

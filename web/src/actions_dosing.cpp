@@ -1,0 +1,247 @@
+// Dosing screens: core results recomputed when their inputs change (keys in dosing_state.hpp),
+// and the pump-table export. No chemistry here: every number comes from the core.
+#include "actions_dosing.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "actions.hpp"
+#include "platform.hpp"
+#include "tidewright/seawater.hpp"
+#include "tidewright/units.hpp"
+
+namespace twapp {
+
+namespace est = tw::estimate;
+namespace hat = tw::hatchery;
+namespace add = tw::additives;
+namespace cb = tw::carbonate;
+
+// ---------------------------------------------------------------- Demand
+void refresh_demand(AppState& app) {
+  DemandView& view = app.ui.dosing.demand;
+  DemandCache& c = app.ui.dosing.demand_cache;
+  const std::int64_t now_s = platform::now_unix_seconds();
+  const std::int64_t hour = now_s / 3600;
+  if (c.valid && c.system == app.current_system && c.now_hour == hour && c.forecast_days == view.forecast_days &&
+      c.journal == app.journal) {
+    return;
+  }
+  DemandCache out;
+  out.valid = true;
+  out.journal = app.journal;
+  out.system = app.current_system;
+  out.now_hour = hour;
+  out.forecast_days = view.forecast_days;
+  out.computed_count = c.computed_count + 1;
+  out.now_days = static_cast<double>(now_s) / 86400.0;
+  const tw::journal::System* sys = current_system(app);
+  if (!sys) {
+    out.error = "No system yet: add one on the Systems screen, then log tests.";
+    c = std::move(out);
+    return;
+  }
+  out.volume_l = sys->volume_l;
+  auto series = est::series_from_journal(app.journal, sys->id);
+  if (!series) {
+    out.error = series.error().message;
+    c = std::move(out);
+    return;
+  }
+  out.notes = series->notes;
+  for (size_t i = 0; i < 3; ++i) {
+    const est::Parameter p = est::kAllParameters[i];
+    const est::Series& s = series->of(p);
+    ParameterEstimate& pe = out.per_parameter[i];
+    double last_t = out.now_days;
+    for (const est::SeriesEvent& ev : s.events) {
+      last_t = std::max(last_t, est::time_of(ev));
+      if (const auto* a = std::get_if<est::Addition>(&ev)) {
+        pe.addition_days.push_back(a->time_days);
+        pe.addition_deltas.push_back(a->delta);
+      } else if (const auto* d = std::get_if<est::Dilution>(&ev)) {
+        pe.dilution_days.push_back(d->time_days);
+        pe.dilution_fractions.push_back(d->fraction_replaced);
+      }
+    }
+    const est::FilterOptions opts = est::default_filter_options(p);
+    auto r = est::estimate_series(s, opts, last_t);
+    if (!r) {
+      pe.error = r.error().message;
+      continue;
+    }
+    pe.ok = true;
+    pe.estimate = std::move(r).value();
+    if (!pe.estimate.demand_known) continue;
+    pe.daily_dose_effect = est::recent_daily_addition(s, 7.0, last_t);
+    auto f = est::forecast_levels(pe.estimate, pe.daily_dose_effect, view.forecast_days, opts);
+    if (f) {
+      pe.forecast = std::move(f).value();
+    } else {
+      pe.forecast_error = f.error().message;
+    }
+  }
+  if (out.per_parameter[0].ok && out.per_parameter[1].ok) {
+    out.ratio = est::read_calcium_alkalinity(out.per_parameter[0].estimate, out.per_parameter[1].estimate);
+  }
+  c = std::move(out);
+}
+
+// ---------------------------------------------------------------- Hatchery
+void refresh_hatchery(AppState& app) {
+  const HatcheryForm& f = app.ui.dosing.hatchery;
+  HatcheryCache& c = app.ui.dosing.hatchery_cache;
+  if (c.valid && c.key == f) return;
+  HatcheryCache out;
+  out.valid = true;
+  out.key = f;
+  out.computed_count = c.computed_count + 1;
+  const double density = tw::seawater::density_kg_per_l(f.salinity, f.temperature_c);
+  hat::Water water;
+  water.salinity = f.salinity;
+  water.temperature_c = f.temperature_c;
+  water.measurements = {{cb::Quantity::Alkalinity,
+                         tw::units::alkalinity_to_umol_kg(f.alkalinity_dkh, tw::units::AlkalinityUnit::DKH, density)},
+                        {cb::Quantity::PH, f.ph},
+                        f.ph_scale};
+  hat::Settings s;
+  s.target.kind = f.target_kind;
+  s.target.ph_scale = f.ph_scale;
+  switch (f.target_kind) {
+    case hat::TargetKind::OmegaAragonite: s.target.value = f.target_omega; break;
+    case hat::TargetKind::PH: s.target.value = f.target_ph; break;
+    case hat::TargetKind::AlkalinityRise:
+      s.target.value = tw::units::alkalinity_to_umol_kg(f.target_rise_dkh, tw::units::AlkalinityUnit::DKH, density);
+      break;
+  }
+  s.target_point = f.target_point;
+  s.buffer = f.buffer;
+  s.limits.ph_ceiling = f.ph_ceiling;
+  s.limits.ph_ceiling_scale = f.ph_scale;
+  s.gas.residence_time_min = f.residence_time_min;
+  s.stock.temperature_c = f.stock_temperature_c;
+  if (f.mode == HatcheryMode::FlowThrough) {
+    auto plan = hat::plan_flow(water, f.flow_l_per_min, s);
+    if (plan) {
+      out.flow = std::move(plan).value();
+    } else {
+      out.error = plan.error().message;
+    }
+    if (f.show_table) {
+      hat::Water varied = water;
+      varied.measurements = {{cb::Quantity::PH, f.ph}, water.measurements.first, f.ph_scale};
+      const hat::TableRange range{cb::Quantity::PH, f.table_from_ph, f.table_to_ph, f.table_step_ph};
+      auto table = hat::build_pump_table(varied, f.flow_l_per_min, range, s);
+      if (table) {
+        out.table = std::move(table).value();
+      } else {
+        out.table_error = table.error().message;
+      }
+    }
+  } else {
+    auto plan = hat::plan_batch(water, f.volume_l, s);
+    if (plan) {
+      out.batch = std::move(plan).value();
+    } else {
+      out.error = plan.error().message;
+    }
+  }
+  c = std::move(out);
+}
+
+bool export_pump_table(AppState& app, bool csv) {
+  const HatcheryCache& c = app.ui.dosing.hatchery_cache;
+  if (!c.table) {
+    notify(app, "No pump-side table to export: " + (c.table_error.empty() ? std::string("show it first") : c.table_error),
+           true);
+    return false;
+  }
+  std::string where;
+  const std::string text = csv ? hat::pump_table_csv(*c.table) : hat::pump_table_text(*c.table);
+  if (!platform::export_file(csv ? "tidewright-pump-table.csv" : "tidewright-pump-table.txt",
+                             csv ? "text/csv" : "text/plain", text, &where)) {
+    notify(app, "Export failed: " + where, true);
+    return false;
+  }
+  notify(app, "Pump-side table saved to " + where);
+  return true;
+}
+
+// ---------------------------------------------------------------- Mixes
+const std::vector<add::CompoundId>& mix_compounds() {
+  static const std::vector<add::CompoundId> list = [] {  // constant table built once, not app state
+    std::vector<add::CompoundId> v;
+    for (const add::Compound& k : add::catalog()) {
+      if (k.phase == add::Phase::Solid) v.push_back(k.id);
+    }
+    return v;
+  }();
+  return list;
+}
+
+void refresh_mixes(AppState& app) {
+  const MixesForm& f = app.ui.dosing.mixes;
+  MixesCache& c = app.ui.dosing.mixes_cache;
+  if (c.valid && c.key == f) return;
+  MixesCache out;
+  out.valid = true;
+  out.key = f;
+  out.computed_count = c.computed_count + 1;
+  const auto& list = mix_compounds();
+  const add::CompoundId id = list[static_cast<size_t>(std::clamp(f.compound, 0, static_cast<int>(list.size()) - 1))];
+  const add::Compound& k = add::compound(id);
+  if (f.direction == MixDirection::RecipeToStrength) {
+    add::StockRecipe recipe;
+    recipe.name = k.name;
+    recipe.ingredients.push_back({id, f.grams_per_l});
+    recipe.temperature_c = f.temperature_c;
+    auto s = add::stock_strength(recipe);
+    if (s) {
+      out.strength = std::move(s).value();
+    } else {
+      out.error = s.error().message;
+    }
+  } else {
+    add::TargetEffect t;
+    t.parameter = static_cast<add::Parameter>(std::clamp(f.parameter, 0, 2));
+    t.rise = f.rise;
+    t.dose_ml = f.dose_ml;
+    t.tank_volume_l = f.tank_volume_l;
+    auto r = add::recipe_for_effect(id, t, f.temperature_c);
+    if (r) {
+      out.recipe = std::move(r).value();
+      out.strength = out.recipe->strength;
+    } else {
+      out.error = r.error().message;
+    }
+  }
+  auto sol = add::solubility_at(k, f.temperature_c);
+  if (sol) {
+    out.solubility = std::move(sol).value();
+  } else {
+    out.solubility_error = sol.error().message;
+  }
+  out.cautions = add::cautions_for(add::additive_from_compound(id));
+  c = std::move(out);
+}
+
+// ---------------------------------------------------------------- ion units
+double ion_shown(double mg_l, tw::units::ConcentrationUnit unit, tw::units::Ion ion) {
+  if (unit == tw::units::ConcentrationUnit::MgPerL) return mg_l;
+  const double d = tw::journal::kNominalDensityKgPerL;
+  const double umol = tw::units::ion_to_umol_kg(mg_l, tw::units::ConcentrationUnit::MgPerL, ion, d);
+  return tw::units::ion_from_umol_kg(umol, unit, ion, d);
+}
+
+double ion_from_shown(double value, tw::units::ConcentrationUnit unit, tw::units::Ion ion) {
+  if (unit == tw::units::ConcentrationUnit::MgPerL) return value;
+  const double d = tw::journal::kNominalDensityKgPerL;
+  const double umol = tw::units::ion_to_umol_kg(value, unit, ion, d);
+  return tw::units::ion_from_umol_kg(umol, tw::units::ConcentrationUnit::MgPerL, ion, d);
+}
+
+int ion_decimals(tw::units::ConcentrationUnit unit) {
+  return unit == tw::units::ConcentrationUnit::MmolPerKg ? 2 : 0;
+}
+
+}  // namespace twapp

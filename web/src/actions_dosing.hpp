@@ -1,0 +1,31 @@
+// The dosing screens' computations and actions. Each refresh_* asks the core for the screen's
+// results when (and only when) its inputs differ from the cached key; cheap to call every
+// frame. The exports hand text to the platform's download.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "app_state.hpp"
+
+namespace twapp {
+
+// Demand: the current system's journal -> per-parameter estimate, forecast, marks.
+void refresh_demand(AppState& app);
+// Hatchery: the form -> flow-through or batch plan (+ pump-side table when shown).
+void refresh_hatchery(AppState& app);
+// Mixes: the form -> stock strength or the recipe for an effect, with the solubility check.
+void refresh_mixes(AppState& app);
+
+// Dissolvable solids offered on the Mixes screen (catalog order, gases left out).
+const std::vector<tw::additives::CompoundId>& mix_compounds();
+
+// Downloads the pump-side table as CSV / fixed-width text (platform::export_file).
+bool export_pump_table(AppState& app, bool csv);
+
+// Calcium / magnesium: mg/L <-> the user's unit (tw::units, seawater density nominal).
+double ion_shown(double mg_l, tw::units::ConcentrationUnit unit, tw::units::Ion ion);
+double ion_from_shown(double value, tw::units::ConcentrationUnit unit, tw::units::Ion ion);
+int ion_decimals(tw::units::ConcentrationUnit unit);
+
+}  // namespace twapp

@@ -1,0 +1,118 @@
+// The frame: (1) platform results (typed text, imported files) into AppState, (2) fonts
+// rebuilt when pixel ratio or text size changed, (3) stale core results recomputed,
+// (4) the layout: header, message banner, the screen in a scrolling column, navigation.
+#include "app.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "actions.hpp"
+#include "imgui.h"
+#include "nav.hpp"
+#include "platform.hpp"
+#include "theme.hpp"
+#include "ui.hpp"
+#include "water.hpp"
+
+namespace twapp {
+
+namespace {
+
+void draw_banner(AppState& app) {
+  const double now = platform::now_ms();
+  if (app.ui.message.empty()) return;
+  if (now > app.ui.message_until_ms) {
+    app.ui.message.clear();
+    return;
+  }
+  platform::request_frames(2);  // keep drawing so the banner goes away on time
+  const float e = ui::em(app);
+  ImGui::PushStyleColor(ImGuiCol_Button, app.ui.message_is_error ? IM_COL32(92, 40, 36, 255) : theme::kAccentDark);
+  ImGui::PushStyleVar(ImGuiStyleVar_ButtonTextAlign, ImVec2(0, 0.5f));
+  // Tap the banner to dismiss it. Long messages wrap inside it.
+  const float w = ImGui::GetContentRegionAvail().x;
+  const float wrap = w - 2 * e;
+  const ImVec2 ts = ImGui::CalcTextSize(app.ui.message.c_str(), nullptr, false, wrap);
+  const ImVec2 pos = ImGui::GetCursorScreenPos();
+  ImGui::PushID("banner");
+  if (ImGui::Button("##banner", ImVec2(w, std::max(ui::kTargetEm * e, ts.y + e)))) app.ui.message.clear();
+  ImGui::PopID();
+  ui::record(app, "banner");
+  ImGui::GetWindowDrawList()->AddText(nullptr, 0, ImVec2(pos.x + e, pos.y + 0.5f * e), theme::kText,
+                                      app.ui.message.c_str(), nullptr, wrap);
+  ImGui::PopStyleVar();
+  ImGui::PopStyleColor();
+}
+
+void draw_layout(AppState& app) {
+  const float e = ui::em(app);
+  const ImGuiViewport* vp = ImGui::GetMainViewport();
+  ImGui::SetNextWindowPos(vp->Pos);
+  ImGui::SetNextWindowSize(vp->Size);
+  ImGui::PushStyleVar(ImGuiStyleVar_WindowPadding, ImVec2(0, 0));
+  ImGui::PushStyleVar(ImGuiStyleVar_ItemSpacing, ImVec2(0, 0));
+  ImGui::Begin("##root", nullptr,
+               ImGuiWindowFlags_NoDecoration | ImGuiWindowFlags_NoMove | ImGuiWindowFlags_NoSavedSettings |
+                   ImGuiWindowFlags_NoBringToFrontOnFocus | ImGuiWindowFlags_NoScrollWithMouse);
+  ImGui::PopStyleVar(2);
+  const bool wide = vp->Size.x >= 48 * e;
+  const float rail_w = wide ? 7.5f * e : 0;
+  const float bar_h = wide ? 0 : 4.0f * e;
+  const float header_h = 3.6f * e;
+  if (wide) draw_tabs(app, vp->Pos, ImVec2(rail_w, vp->Size.y), true);
+  ImGui::SetCursorScreenPos(ImVec2(vp->Pos.x + rail_w, vp->Pos.y));
+  ImGui::BeginChild("##main", ImVec2(vp->Size.x - rail_w, vp->Size.y - bar_h), false,
+                    ImGuiWindowFlags_NoScrollbar | ImGuiWindowFlags_NoScrollWithMouse);
+  draw_header(app, header_h);
+  ImGui::PushStyleVar(ImGuiStyleVar_WindowPadding, ImVec2(e, 0.6f * e));
+  ImGui::BeginChild("##page", ImVec2(0, 0), false, ImGuiWindowFlags_AlwaysUseWindowPadding);
+  ImGui::PopStyleVar();
+  ui::column_begin(app, 36);
+  ImGui::Dummy(ImVec2(0, 0.1f * e));
+  draw_banner(app);
+  draw_current_screen(app);
+  ImGui::Dummy(ImVec2(0, 2 * e));  // room below the last control for the thumb
+  ui::column_end(app);
+  ui::touch_scroll(app);
+  ImGui::EndChild();
+  ImGui::EndChild();
+  if (!wide) draw_tabs(app, ImVec2(vp->Pos.x, vp->Pos.y + vp->Size.y - bar_h), ImVec2(vp->Size.x, bar_h), false);
+  ImGui::End();
+}
+
+}  // namespace
+
+bool app_frame(AppState& app) {
+  const double t0 = platform::now_ms();
+  if (auto r = platform::poll_text_entry()) app.ui.entry = EntryResult{r->key, r->text, r->accepted};
+  if (auto text = platform::poll_import()) import_text(app, *text);
+  refresh_water(app);
+
+  platform::begin_frame();
+  app.ui.pixel_ratio = platform::pixel_ratio();
+  const float scale = app.ui.pixel_ratio * app.settings.text_size;
+  if (std::fabs(scale - app.ui.fonts_built_for) > 0.01f) {
+    theme::build(app.ui, scale);
+    platform::reload_fonts_texture();
+  }
+  ImGui::NewFrame();
+  app.ui.widgets.clear();
+  draw_layout(app);
+  platform::draw_overlays(app.ui.em);
+  app.ui.entry.reset();  // a result nobody claimed this frame is dropped (its screen is gone)
+  const double t1 = platform::now_ms();  // UI built: CPU time of our frame without the GPU
+  platform::end_frame(ImGui::ColorConvertU32ToFloat4(theme::kBackground).x,
+                      ImGui::ColorConvertU32ToFloat4(theme::kBackground).y,
+                      ImGui::ColorConvertU32ToFloat4(theme::kBackground).z);
+  const double t2 = platform::now_ms();
+  (void)t1;
+  if (app.ui.frame_ms.size() < 100000) app.ui.frame_ms.push_back(static_cast<float>(t2 - t0));
+  ++app.ui.frames_drawn;
+  if (!app.ui.first_frame_reported) {
+    app.ui.first_frame_reported = true;
+    platform::first_frame_drawn();
+  }
+  return true;
+}
+
+}  // namespace twapp

@@ -1,0 +1,157 @@
+// AppState: everything the app knows, in one struct. Screens read it and call actions
+// (actions.hpp) to change it; nothing else writes to it. No screen keeps data in statics.
+//
+//   AppState
+//     settings      app-wide preferences (saved)
+//     journal       systems and events, the core's tw::journal::Journal (saved)
+//     current_system, demo_system_ids (saved)
+//     water         inputs of the Water screen; water_result = core results for them
+//     ui            per-session UI state (screen, forms, fonts, widget rectangles)
+//     store         how loading and saving went
+#pragma once
+
+#include <cstdint>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "tidewright/carbonate.hpp"
+#include "tidewright/journal.hpp"
+#include "dosing_state.hpp"  // forms and cached results of Demand, Hatchery, Mixes, Plan
+
+namespace twapp {
+
+// Screens in tab-bar order. To add one: a value here, a row in kTabs (nav.cpp), and
+// void draw_<name>(AppState&) in screen_<name>.cpp declared in screens.hpp.
+enum class Screen { Systems, Log, Water, Demand, Hatchery, Mixes, Settings };
+const char* screen_name(Screen s);  // "systems", "log", "water", "settings" (test interface)
+
+struct Settings {
+  tw::journal::UnitPreferences units;  // shown when no system exists; copied to new systems
+  float text_size = 1.0f;              // multiplier of the base text size, 0.8 .. 1.6
+  double room_co2_ppm = 800;           // CO2 of the room's air, for the air-equilibrium figures
+  bool operator==(const Settings&) const = default;
+};
+
+// Which two carbonate inputs the Water screen solves from.
+enum class WaterPair { AlkalinityPH, AlkalinityPCO2, AlkalinityDIC, AlkalinityAir };
+
+struct WaterInputs {
+  WaterPair pair = WaterPair::AlkalinityPH;
+  double alkalinity_dkh = 8.0;
+  double ph = 8.1;
+  tw::carbonate::PhScale ph_scale = tw::carbonate::PhScale::NBS;
+  double pco2_uatm = 800;
+  double dic_umol_kg = 2000;
+  double salinity = 35;
+  double temperature_c = 25;
+  bool what_if = false;  // false: filled from the current system's latest readings
+  std::string source;    // where the numbers came from, in words
+  bool operator==(const WaterInputs&) const = default;
+};
+
+// Fractions of DIC as CO2*, HCO3- and CO3-- across pH (the x axis is on the shown scale).
+struct SpeciesCurve {
+  std::vector<float> ph, co2, hco3, co3;
+};
+
+struct WaterResult {
+  bool ok = false;
+  std::string error;                       // why there is no result (core's message)
+  tw::carbonate::CarbonateState state;     // at the inputs
+  std::optional<tw::carbonate::CarbonateState> air;  // same alkalinity, at the room's CO2
+  std::string air_error;
+  SpeciesCurve curve;
+  double density_kg_per_l = 1.02334;
+  int computed_count = 0;                  // how many times it was recomputed (tests)
+};
+
+}  // namespace twapp
+
+struct ImFont;
+
+namespace twapp {
+struct Fonts {
+  ImFont* body = nullptr;   // text
+  ImFont* bold = nullptr;   // headings, values
+  ImFont* big = nullptr;    // the one big number of a screen
+};
+
+// A finished text entry (platform text field), waiting for the widget that asked for it.
+struct EntryResult {
+  std::string key;
+  std::string text;
+  bool accepted = false;
+};
+
+struct Rect {
+  float x = 0, y = 0, w = 0, h = 0;  // device pixels
+  bool visible = false;              // inside its window's visible area this frame
+};
+
+// The test-result form of the Log screen.
+struct LogForm {
+  tw::journal::Parameter parameter = tw::journal::Parameter::Alkalinity;
+  std::string unit;          // empty = the parameter's preferred unit
+  std::string value_text;    // as typed
+  tw::carbonate::PhScale ph_scale = tw::carbonate::PhScale::NBS;
+  std::string error;
+};
+
+// The system editor of the Systems screen (a copy; saved through actions).
+struct SystemForm {
+  bool open = false;
+  bool is_new = false;
+  tw::journal::System system;
+  std::string error;
+  bool confirm_remove = false;
+};
+
+struct UiState {
+  Screen screen = Screen::Systems;
+  Fonts fonts;
+  std::optional<EntryResult> entry;  // consumed by the widget whose key matches
+  bool drag_owned = false;     // a widget (chart) owns the current drag: do not scroll
+  float fling_velocity = 0;    // touch scroll momentum, device pixels per frame
+  float em = 17;               // font size in device pixels this frame
+  float pixel_ratio = 1;
+  float fonts_built_for = 0;   // scale the font atlas was built for (0 = not yet)
+  std::map<std::string, Rect> widgets;  // named widgets drawn this frame
+  std::string reveal;          // widget to scroll into view on the next frame
+  bool drag_scrolling = false; // a touch drag is scrolling the page
+  float drag_travel = 0;       // how far the current press has moved, device pixels
+  std::string message;         // one-line banner (saved, exported, refused ...)
+  bool message_is_error = false;
+  double message_until_ms = 0;
+  LogForm log;
+  DosingState dosing;  // Demand, Hatchery, Mixes, Plan (dosing_state.hpp)
+  SystemForm system_form;
+  bool confirm_remove_demo = false;
+  tw::journal::EventId confirm_remove_event = 0;  // Log: entry waiting for a second tap
+  std::optional<float> chart_probe_ph;  // pH the user touched on the species chart
+  std::vector<float> frame_ms;          // CPU time per drawn frame (benchmark)
+  int frames_drawn = 0;
+  bool first_frame_reported = false;
+};
+
+struct StoreStatus {
+  bool loaded = false;
+  std::string problem;     // e.g. damaged store: what happened and where the copy is
+  std::string save_error;  // last failed save
+  int saves = 0;
+};
+
+struct AppState {
+  Settings settings;
+  tw::journal::Journal journal;
+  tw::journal::SystemId current_system = 0;         // 0 = none
+  std::vector<tw::journal::SystemId> demo_system_ids;  // systems that came from the demo
+  WaterInputs water;
+  WaterResult water_result;
+  bool water_stale = true;  // inputs or journal changed: recompute before the next draw
+  UiState ui;
+  StoreStatus store;
+};
+
+}  // namespace twapp

@@ -1,0 +1,135 @@
+// State of the dosing screens (Demand, Hatchery, Mixes, Plan): their forms and the core
+// results cached for them. One member of UiState (`dosing`) holds all of it. Each cache keeps a
+// copy of the inputs it was computed from and is recomputed only when those differ (compared
+// once per drawn frame; frames are drawn only on input).
+//
+//   DosingState
+//     demand    which parameter, forecast days, touched time  -> DemandCache (estimate, forecast)
+//     hatchery  HatcheryForm (water, target, buffer, flow or volume) -> HatcheryCache
+//     mixes     MixesForm (recipe -> strength, effect -> recipe)     -> MixesCache
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "tidewright/additives.hpp"
+#include "tidewright/estimate.hpp"
+#include "tidewright/hatchery.hpp"
+#include "tidewright/journal.hpp"
+
+namespace twapp {
+
+// ---------------------------------------------------------------- Demand
+struct DemandView {
+  int parameter = 0;        // index into tw::estimate::kAllParameters
+  int forecast_days = 14;   // 3 .. 60
+  std::optional<double> probe_day;         // time (days since epoch) touched on the level chart
+  std::optional<double> probe_demand_day;  // same on the consumption chart
+};
+
+struct ParameterEstimate {
+  bool ok = false;
+  std::string error;  // core's message when the estimate failed
+  tw::estimate::SeriesEstimate estimate;
+  std::vector<tw::estimate::ForecastPoint> forecast;
+  std::string forecast_error;
+  double daily_dose_effect = 0;  // unit/day added by recent dosing (forecast assumption)
+  std::vector<double> addition_days, addition_deltas;  // dose / limewater marks
+  std::vector<double> dilution_days, dilution_fractions;  // water changes
+};
+
+struct DemandCache {
+  bool valid = false;
+  // key
+  tw::journal::Journal journal;
+  tw::journal::SystemId system = 0;
+  std::int64_t now_hour = 0;
+  int forecast_days = 0;
+  // result
+  std::string error;  // e.g. no system
+  double now_days = 0;
+  double volume_l = 0;
+  std::vector<std::string> notes;       // events the series could not use, in words
+  ParameterEstimate per_parameter[3];   // in kAllParameters order
+  tw::estimate::CalciumAlkalinityReading ratio;
+  int computed_count = 0;
+};
+
+// ---------------------------------------------------------------- Hatchery
+enum class HatcheryMode { FlowThrough, Batch };
+
+struct HatcheryForm {
+  HatcheryMode mode = HatcheryMode::FlowThrough;
+  double salinity = 33.0;
+  double temperature_c = 18.0;
+  double alkalinity_dkh = 6.2;      // intake alkalinity (shown in the user's unit)
+  double ph = 7.75;                 // intake pH on ph_scale
+  tw::carbonate::PhScale ph_scale = tw::carbonate::PhScale::Total;
+  tw::hatchery::TargetKind target_kind = tw::hatchery::TargetKind::OmegaAragonite;
+  double target_omega = 2.0;
+  double target_ph = 8.0;           // on ph_scale
+  double target_rise_dkh = 1.0;
+  tw::hatchery::TargetPoint target_point = tw::hatchery::TargetPoint::AfterMixing;
+  tw::hatchery::Buffer buffer = tw::hatchery::Buffer::SodiumCarbonate;
+  double ph_ceiling = 8.3;          // on ph_scale
+  double flow_l_per_min = 100.0;
+  double volume_l = 1000.0;
+  std::optional<double> residence_time_min;
+  double stock_temperature_c = 20.0;
+  // pump-side table over the intake pH
+  double table_from_ph = 7.50, table_to_ph = 8.00, table_step_ph = 0.05;
+  bool show_table = false;
+  bool operator==(const HatcheryForm&) const = default;
+};
+
+struct HatcheryCache {
+  bool valid = false;
+  HatcheryForm key;
+  std::string error;
+  std::optional<tw::hatchery::FlowPlan> flow;
+  std::optional<tw::hatchery::BatchPlan> batch;
+  std::optional<tw::hatchery::PumpTable> table;
+  std::string table_error;
+  int computed_count = 0;
+};
+
+// ---------------------------------------------------------------- Mixes
+enum class MixDirection { RecipeToStrength, EffectToRecipe };
+
+struct MixesForm {
+  MixDirection direction = MixDirection::RecipeToStrength;
+  int compound = 0;           // index into mix_compounds() (dissolvable solids)
+  double grams_per_l = 80.0;  // recipe -> strength
+  double temperature_c = 25.0;
+  // effect -> recipe: "dose_ml raises tank_volume_l by rise"
+  int parameter = 0;          // tw::additives::Parameter index
+  double rise = 0.1;          // dKH or mg/L (shown in the user's unit)
+  double dose_ml = 1.0;
+  double tank_volume_l = 100.0;
+  bool operator==(const MixesForm&) const = default;
+};
+
+struct MixesCache {
+  bool valid = false;
+  MixesForm key;
+  std::string error;
+  std::optional<tw::additives::StockStrength> strength;
+  std::optional<tw::additives::RecipeForEffect> recipe;
+  std::optional<tw::additives::Solubility> solubility;  // of the compound at the temperature
+  std::string solubility_error;
+  std::vector<std::string> cautions;
+  int computed_count = 0;
+};
+
+struct DosingState {
+  DemandView demand;
+  DemandCache demand_cache;
+  HatcheryForm hatchery;
+  HatcheryCache hatchery_cache;
+  MixesForm mixes;
+  MixesCache mixes_cache;
+};
+
+}  // namespace twapp

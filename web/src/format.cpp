@@ -1,0 +1,123 @@
+#include "format.hpp"
+
+#include <cmath>
+#include <fmt/format.h>
+
+#include "tidewright/datetime.hpp"
+
+namespace twapp::fmtx {
+
+namespace au = tw::units;
+namespace jn = tw::journal;
+
+std::string fixed(double value, int decimals) {
+  if (!std::isfinite(value)) return "—";
+  std::string s = fmt::format("{:.{}f}", value, decimals);
+  if (s.size() > 1 && s[0] == '-') {
+    // "-0.0" is shown as "0.0"; real negatives get a proper minus sign.
+    if (s.find_first_not_of("-0.") == std::string::npos) return s.substr(1);
+    return "\u2212" + s.substr(1);
+  }
+  return s;
+}
+
+UnitShown alkalinity_shown(au::AlkalinityUnit unit) {
+  switch (unit) {
+    case au::AlkalinityUnit::DKH: return {"dKH", 1, 0.1};
+    case au::AlkalinityUnit::MeqPerL: return {"meq/L", 2, 0.05};
+    case au::AlkalinityUnit::MgPerLCaCO3: return {"mg/L CaCO\u2083", 0, 2};
+    case au::AlkalinityUnit::UmolPerKg: return {"\u03bcmol/kg", 0, 20};
+  }
+  return {"dKH", 1, 0.1};
+}
+
+double alkalinity_from_dkh(double dkh, au::AlkalinityUnit unit, double density) {
+  return au::alkalinity_from_umol_kg(au::alkalinity_to_umol_kg(dkh, au::AlkalinityUnit::DKH, density), unit, density);
+}
+double alkalinity_to_dkh(double value, au::AlkalinityUnit unit, double density) {
+  return au::alkalinity_from_umol_kg(au::alkalinity_to_umol_kg(value, unit, density), au::AlkalinityUnit::DKH, density);
+}
+std::string alkalinity_text(double dkh, au::AlkalinityUnit unit, double density) {
+  const UnitShown u = alkalinity_shown(unit);
+  return fixed(alkalinity_from_dkh(dkh, unit, density), u.decimals) + " " + u.unit;
+}
+
+const char* temperature_unit_text(jn::TemperatureUnit unit) {
+  return unit == jn::TemperatureUnit::Fahrenheit ? "\u00b0F" : "\u00b0C";
+}
+double temperature_shown(double c, jn::TemperatureUnit unit) {
+  return unit == jn::TemperatureUnit::Fahrenheit ? au::celsius_to_fahrenheit(c) : c;
+}
+double temperature_from_shown(double v, jn::TemperatureUnit unit) {
+  return unit == jn::TemperatureUnit::Fahrenheit ? au::fahrenheit_to_celsius(v) : v;
+}
+std::string temperature_text(double c, jn::TemperatureUnit unit) {
+  return fixed(temperature_shown(c, unit), 1) + " " + temperature_unit_text(unit);
+}
+
+const char* volume_unit_text(au::VolumeUnit unit) { return unit == au::VolumeUnit::UsGallon ? "gal" : "L"; }
+std::string volume_text(double litres, au::VolumeUnit unit) {
+  const double v = au::volume_from_litres(litres, unit);
+  return fixed(v, v < 100 ? 1 : 0) + " " + volume_unit_text(unit);
+}
+
+const char* ph_scale_label(tw::carbonate::PhScale scale) {
+  switch (scale) {
+    case tw::carbonate::PhScale::NBS: return "NBS";
+    case tw::carbonate::PhScale::Total: return "total";
+    case tw::carbonate::PhScale::Seawater: return "seawater";
+    case tw::carbonate::PhScale::Free: return "free";
+  }
+  return "NBS";
+}
+
+double ph_on_scale(const tw::carbonate::CarbonateState& s, tw::carbonate::PhScale scale) {
+  switch (scale) {
+    case tw::carbonate::PhScale::NBS: return s.ph_nbs;
+    case tw::carbonate::PhScale::Total: return s.ph_total;
+    case tw::carbonate::PhScale::Seawater: return s.ph_sws;
+    case tw::carbonate::PhScale::Free: return s.ph_free;
+  }
+  return s.ph_total;
+}
+
+const char* parameter_label(jn::Parameter p) {
+  switch (p) {
+    case jn::Parameter::Alkalinity: return "Alkalinity";
+    case jn::Parameter::Calcium: return "Calcium";
+    case jn::Parameter::Magnesium: return "Magnesium";
+    case jn::Parameter::PH: return "pH";
+    case jn::Parameter::Salinity: return "Salinity";
+    case jn::Parameter::SpecificGravity: return "Specific gravity";
+    case jn::Parameter::Temperature: return "Temperature";
+    case jn::Parameter::Nitrate: return "Nitrate";
+    case jn::Parameter::Phosphate: return "Phosphate";
+    case jn::Parameter::Other: return "Other";
+  }
+  return "?";
+}
+
+const char* system_kind_label(jn::SystemKind k) {
+  switch (k) {
+    case jn::SystemKind::ReefDisplay: return "Reef display";
+    case jn::SystemKind::CoralGrowOut: return "Coral grow-out";
+    case jn::SystemKind::ShellfishLarvalCulture: return "Larval culture";
+    case jn::SystemKind::FishOnly: return "Fish only";
+    case jn::SystemKind::Other: return "Other";
+  }
+  return "?";
+}
+
+std::string local_time_text(std::int64_t unix_s, int utc_offset_minutes) {
+  const std::int64_t local = unix_s + std::int64_t{utc_offset_minutes} * 60;
+  std::int64_t days = local / 86400;
+  std::int64_t secs = local % 86400;
+  if (secs < 0) {
+    secs += 86400;
+    days -= 1;
+  }
+  const auto d = tw::datetime::civil_from_days(days);
+  return fmt::format("{:04}-{:02}-{:02} {:02}:{:02}", d.year, d.month, d.day, secs / 3600, (secs / 60) % 60);
+}
+
+}  // namespace twapp::fmtx

@@ -1,0 +1,48 @@
+// Numbers and units as the user sees them. The journal and the core keep canonical units
+// (dKH, C, L); these helpers convert at the edge with the core's units.hpp and print with a
+// fixed number of decimals per unit.
+#pragma once
+
+#include <cstdint>
+#include <string>
+
+#include "tidewright/carbonate.hpp"
+#include "tidewright/journal.hpp"
+#include "tidewright/units.hpp"
+
+namespace twapp::fmtx {
+
+std::string fixed(double value, int decimals);  // "8.10"; "−" for negatives
+
+struct UnitShown {
+  const char* unit;  // as printed
+  int decimals;      // shown
+  double step;       // one tap of a stepper
+};
+
+UnitShown alkalinity_shown(tw::units::AlkalinityUnit unit);
+double alkalinity_from_dkh(double dkh, tw::units::AlkalinityUnit unit,
+                           double density_kg_per_l = tw::journal::kNominalDensityKgPerL);
+double alkalinity_to_dkh(double value, tw::units::AlkalinityUnit unit,
+                         double density_kg_per_l = tw::journal::kNominalDensityKgPerL);
+std::string alkalinity_text(double dkh, tw::units::AlkalinityUnit unit,
+                            double density_kg_per_l = tw::journal::kNominalDensityKgPerL);
+
+const char* temperature_unit_text(tw::journal::TemperatureUnit unit);  // "°C", "°F"
+double temperature_shown(double celsius, tw::journal::TemperatureUnit unit);
+double temperature_from_shown(double value, tw::journal::TemperatureUnit unit);
+std::string temperature_text(double celsius, tw::journal::TemperatureUnit unit);
+
+const char* volume_unit_text(tw::units::VolumeUnit unit);  // "L", "gal"
+std::string volume_text(double litres, tw::units::VolumeUnit unit);
+
+const char* ph_scale_label(tw::carbonate::PhScale scale);  // "NBS", "total", "seawater", "free"
+double ph_on_scale(const tw::carbonate::CarbonateState& s, tw::carbonate::PhScale scale);
+
+const char* parameter_label(tw::journal::Parameter p);     // "Alkalinity", "pH", ...
+const char* system_kind_label(tw::journal::SystemKind k);  // "Reef display", ...
+
+// "2026-11-30 08:05" in local time (offset from UTC in minutes).
+std::string local_time_text(std::int64_t unix_s, int utc_offset_minutes);
+
+}  // namespace twapp::fmtx

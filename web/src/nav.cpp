@@ -1,0 +1,165 @@
+#include "nav.hpp"
+
+#include <cmath>
+
+#include "actions.hpp"
+#include "icons_dosing.hpp"
+#include "screens.hpp"
+#include "theme.hpp"
+#include "ui.hpp"
+
+namespace twapp {
+
+namespace {
+
+using IconFn = void (*)(ImDrawList*, ImVec2 c, float s, ImU32 col);
+
+// Icons of our own, drawn with lines: s is half the icon size.
+void icon_systems(ImDrawList* d, ImVec2 c, float s, ImU32 col) {  // a tank with water in it
+  const float t = s * 0.16f;
+  d->AddRect(ImVec2(c.x - s, c.y - s * 0.75f), ImVec2(c.x + s, c.y + s * 0.75f), col, s * 0.2f, 0, t);
+  for (int i = 0; i < 8; ++i) {
+    const float x0 = c.x - s * 0.7f + s * 0.175f * static_cast<float>(i);
+    const float y0 = c.y - s * 0.05f + std::sin(static_cast<float>(i) * 1.6f) * s * 0.12f;
+    const float y1 = c.y - s * 0.05f + std::sin(static_cast<float>(i + 1) * 1.6f) * s * 0.12f;
+    d->AddLine(ImVec2(x0, y0), ImVec2(x0 + s * 0.175f, y1), col, t);
+  }
+  d->AddLine(ImVec2(c.x - s * 0.6f, c.y + s * 0.4f), ImVec2(c.x + s * 0.6f, c.y + s * 0.4f), col, t);
+}
+void icon_log(ImDrawList* d, ImVec2 c, float s, ImU32 col) {  // a page with lines and a tick
+  const float t = s * 0.16f;
+  d->AddRect(ImVec2(c.x - s * 0.75f, c.y - s), ImVec2(c.x + s * 0.75f, c.y + s), col, s * 0.2f, 0, t);
+  for (int i = 0; i < 3; ++i) {
+    const float y = c.y - s * 0.45f + s * 0.45f * static_cast<float>(i);
+    d->AddLine(ImVec2(c.x - s * 0.4f, y), ImVec2(c.x + s * 0.4f, y), col, t);
+  }
+}
+void icon_water(ImDrawList* d, ImVec2 c, float s, ImU32 col) {  // a drop
+  const float r = s * 0.62f;
+  const ImVec2 base(c.x, c.y + s * 0.3f);
+  d->PathArcTo(base, r, 3.14159f * -0.15f, 3.14159f * 1.15f, 20);
+  d->PathLineTo(ImVec2(c.x, c.y - s));
+  d->PathFillConvex(col);
+}
+void icon_settings(ImDrawList* d, ImVec2 c, float s, ImU32 col) {  // three sliders
+  const float t = s * 0.16f;
+  const float knob[3] = {-0.35f, 0.4f, -0.05f};
+  for (int i = 0; i < 3; ++i) {
+    const float y = c.y - s * 0.7f + s * 0.7f * static_cast<float>(i);
+    d->AddLine(ImVec2(c.x - s, y), ImVec2(c.x + s, y), col, t);
+    d->AddCircleFilled(ImVec2(c.x + knob[i] * s * 1.6f, y), s * 0.26f, col);
+  }
+}
+
+struct Tab {
+  Screen screen;
+  const char* label;
+  const char* name;  // widget name for tests: "tab.<screen>"
+  IconFn icon;
+  void (*draw)(AppState&);
+};
+
+// The tab table. Screens that are not built yet are not listed (no placeholders).
+const Tab kTabs[] = {
+    {Screen::Systems, "Systems", "tab.systems", icon_systems, draw_systems},
+    {Screen::Log, "Log", "tab.log", icon_log, draw_log},
+    {Screen::Water, "Water", "tab.water", icon_water, draw_water},
+    {Screen::Demand, "Demand", "tab.demand", icons::demand, draw_demand},
+    {Screen::Hatchery, "Hatchery", "tab.hatchery", icons::hatchery, draw_hatchery},
+    {Screen::Mixes, "Mixes", "tab.mixes", icons::mixes, draw_mixes},
+    {Screen::Settings, "Settings", "tab.settings", icon_settings, draw_settings},
+};
+
+}  // namespace
+
+void draw_current_screen(AppState& app) {
+  for (const Tab& t : kTabs) {
+    if (t.screen == app.ui.screen) {
+      t.draw(app);
+      return;
+    }
+  }
+  kTabs[0].draw(app);
+}
+
+void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
+  const float e = ui::em(app);
+  ImDrawList* d = ImGui::GetWindowDrawList();
+  d->AddRectFilled(pos, ImVec2(pos.x + size.x, pos.y + size.y), theme::kSurface);
+  if (vertical) {
+    d->AddLine(ImVec2(pos.x + size.x - 1, pos.y), ImVec2(pos.x + size.x - 1, pos.y + size.y), theme::kBorder);
+  } else {
+    d->AddLine(pos, ImVec2(pos.x + size.x, pos.y), theme::kBorder);
+  }
+  const int n = static_cast<int>(sizeof kTabs / sizeof kTabs[0]);
+  const ImVec2 cell = vertical ? ImVec2(size.x, 4.2f * e) : ImVec2(size.x / static_cast<float>(n), size.y);
+  for (int i = 0; i < n; ++i) {
+    const Tab& t = kTabs[i];
+    const ImVec2 p = vertical ? ImVec2(pos.x, pos.y + e + cell.y * static_cast<float>(i))
+                              : ImVec2(pos.x + cell.x * static_cast<float>(i), pos.y);
+    ImGui::SetCursorScreenPos(p);
+    ImGui::PushID(t.name);
+    const bool pressed = ImGui::InvisibleButton("##tab", cell);
+    const bool held = ImGui::IsItemActive();
+    ImGui::PopID();
+    ui::record(app, t.name);
+    if (pressed) go_to(app, t.screen);
+    const bool selected = app.ui.screen == t.screen;
+    const ImU32 col = selected ? theme::kAccent : theme::kTextDim;
+    const ImVec2 icon_c(p.x + cell.x / 2, p.y + cell.y * 0.36f);
+    if (selected || held) {
+      // A pill behind the icon marks the current screen.
+      d->AddRectFilled(ImVec2(icon_c.x - 1.6f * e, icon_c.y - 0.8f * e), ImVec2(icon_c.x + 1.6f * e, icon_c.y + 0.8f * e),
+                       selected ? IM_COL32(79, 194, 176, 40) : IM_COL32(255, 255, 255, 20), 0.8f * e);
+    }
+    t.icon(d, icon_c, 0.5f * e, col);
+    ImGui::PushFont(selected ? app.ui.fonts.bold : app.ui.fonts.body);
+    const ImVec2 ts = ImGui::CalcTextSize(t.label);
+    d->AddText(ImVec2(p.x + (cell.x - ts.x) / 2, p.y + cell.y * 0.62f), col, t.label);
+    ImGui::PopFont();
+  }
+}
+
+void draw_header(AppState& app, float height) {
+  const float e = ui::em(app);
+  const ImVec2 p = ImGui::GetCursorScreenPos();
+  const float w = ImGui::GetContentRegionAvail().x;
+  ImDrawList* d = ImGui::GetWindowDrawList();
+  d->AddRectFilled(p, ImVec2(p.x + w, p.y + height), theme::kBackground);
+  d->AddLine(ImVec2(p.x, p.y + height - 1), ImVec2(p.x + w, p.y + height - 1), theme::kBorder);
+  ImGui::SetCursorScreenPos(ImVec2(p.x + e, p.y + (height - ImGui::GetTextLineHeight()) / 2));
+  ImGui::PushFont(app.ui.fonts.bold);
+  ImGui::TextUnformatted("Tidewright");
+  ImGui::PopFont();
+  // Quick switch: the current system's name; tap for the list.
+  const auto* sys = current_system(app);
+  const std::string label = (sys ? sys->name : std::string("No system")) + "  \u2026";
+  ImGui::PushFont(app.ui.fonts.bold);
+  const float bw = std::min(w * 0.62f, ImGui::CalcTextSize(label.c_str()).x + 2 * e);
+  ImGui::PopFont();
+  ImGui::SetCursorScreenPos(ImVec2(p.x + w - bw - 0.6f * e, p.y + (height - ui::kTargetEm * e) / 2));
+  ImGui::PushFont(app.ui.fonts.bold);
+  if (ui::button(app, "header.switch", label.c_str(), bw)) ImGui::OpenPopup("##switch");
+  ImGui::PopFont();
+  ImGui::SetNextWindowPos(ImVec2(p.x + w - 0.6f * e, p.y + height), ImGuiCond_Always, ImVec2(1, 0));
+  ImGui::SetNextWindowSizeConstraints(ImVec2(std::min(w - 1.2f * e, 16 * e), 0), ImVec2(w - 1.2f * e, 30 * e));
+  if (ImGui::BeginPopup("##switch")) {
+    ui::dim_text("Switch to");
+    for (const auto& s : app.journal.systems) {
+      const bool current = s.id == app.current_system;
+      if (ui::button(app, "switch." + std::to_string(s.id), s.name.c_str(), 0,
+                     current ? ui::Tone::Primary : ui::Tone::Normal)) {
+        select_system(app, s.id);
+        ImGui::CloseCurrentPopup();
+      }
+    }
+    if (ui::button(app, "switch.manage", "Manage systems", 0, ui::Tone::Quiet)) {
+      go_to(app, Screen::Systems);
+      ImGui::CloseCurrentPopup();
+    }
+    ImGui::EndPopup();
+  }
+  ImGui::SetCursorScreenPos(ImVec2(p.x, p.y + height));
+}
+
+}  // namespace twapp

@@ -1,0 +1,311 @@
+// Hatchery: buffering intake seawater (flow-through) or a static culture tank (batch) with
+// sodium carbonate, bicarbonate, hydroxide or a blend, to a target aragonite saturation, pH
+// or alkalinity rise under a pH ceiling. All chemistry is the core's (tw::hatchery); this
+// screen edits the form, shows the dose, the water through the line, the pump-side table and
+// the cautions. Map: 1. form  2. results  3. pump-side table  4. draw_hatchery.
+#include <algorithm>
+#include <string>
+
+#include "actions.hpp"
+#include "actions_dosing.hpp"
+#include "format.hpp"
+#include "screens.hpp"
+#include "theme.hpp"
+#include "ui.hpp"
+
+namespace twapp {
+
+namespace {
+
+namespace hat = tw::hatchery;
+namespace cb = tw::carbonate;
+namespace jn = tw::journal;
+
+jn::UnitPreferences units_of(const AppState& app) {
+  const auto* sys = current_system(app);
+  return sys ? sys->units : app.settings.units;
+}
+
+const cb::PhScale kScales[] = {cb::PhScale::Total, cb::PhScale::NBS, cb::PhScale::Seawater, cb::PhScale::Free};
+
+// ---------------------------------------------------------------- 1. Form
+void temperature_field(AppState& app, const std::string& name, const char* label, double* celsius, double lo_c,
+                       double hi_c) {
+  const auto tu = units_of(app).temperature;
+  double t = fmtx::temperature_shown(*celsius, tu);
+  if (ui::number_field(app, name, {label, fmtx::temperature_unit_text(tu), 1, 0.5, fmtx::temperature_shown(lo_c, tu),
+                                   fmtx::temperature_shown(hi_c, tu)},
+                       &t)) {
+    *celsius = fmtx::temperature_from_shown(t, tu);
+  }
+}
+
+void draw_water_form(AppState& app, HatcheryForm& f) {
+  const auto u = units_of(app);
+  ui::card_begin(app);
+  ui::heading(app, f.mode == HatcheryMode::FlowThrough ? "Intake water" : "Tank water");
+  ui::number_field(app, "hatchery.salinity", {"Salinity", "psu", 1, 0.5, 0.0, 45.0}, &f.salinity);
+  temperature_field(app, "hatchery.temperature", "Temperature", &f.temperature_c, -2, 40);
+  const fmtx::UnitShown au = fmtx::alkalinity_shown(u.alkalinity);
+  double alk = fmtx::alkalinity_from_dkh(f.alkalinity_dkh, u.alkalinity);
+  if (ui::number_field(app, "hatchery.alkalinity",
+                       {"Alkalinity", au.unit, au.decimals, au.step, 0.0, fmtx::alkalinity_from_dkh(25.0, u.alkalinity)},
+                       &alk)) {
+    f.alkalinity_dkh = fmtx::alkalinity_to_dkh(alk, u.alkalinity);
+  }
+  int scale = 0;
+  for (int i = 0; i < 4; ++i) if (kScales[i] == f.ph_scale) scale = i;
+  const char* const scales[] = {"Total", "NBS", "Seawater", "Free"};
+  if (ui::choice(app, "hatchery.ph_scale", "pH scale of your meter (used for every pH here)", &scale, scales, 4)) {
+    f.ph_scale = kScales[scale];
+  }
+  ui::number_field(app, "hatchery.ph", {"pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.0, 10.0}, &f.ph);
+  ui::card_end(app);
+}
+
+void draw_target_form(AppState& app, HatcheryForm& f) {
+  const auto u = units_of(app);
+  ui::card_begin(app);
+  ui::heading(app, "Target and buffer");
+  int kind = static_cast<int>(f.target_kind);
+  const char* const kinds[] = {"\u03a9 aragonite", "pH", "Alkalinity rise"};
+  if (ui::choice(app, "hatchery.target_kind", "Raise the water to", &kind, kinds, 3)) {
+    f.target_kind = static_cast<hat::TargetKind>(kind);
+  }
+  switch (f.target_kind) {
+    case hat::TargetKind::OmegaAragonite:
+      ui::number_field(app, "hatchery.target", {"Target \u03a9 aragonite", "", 2, 0.1, 0.5, 8.0}, &f.target_omega);
+      break;
+    case hat::TargetKind::PH:
+      ui::number_field(app, "hatchery.target", {"Target pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.5, 9.3},
+                       &f.target_ph);
+      break;
+    case hat::TargetKind::AlkalinityRise: {
+      const fmtx::UnitShown au = fmtx::alkalinity_shown(u.alkalinity);
+      double r = fmtx::alkalinity_from_dkh(f.target_rise_dkh, u.alkalinity);
+      if (ui::number_field(app, "hatchery.target",
+                           {"Alkalinity to add", au.unit, au.decimals, au.step, 0.0,
+                            fmtx::alkalinity_from_dkh(14.0, u.alkalinity)},
+                           &r)) {
+        f.target_rise_dkh = fmtx::alkalinity_to_dkh(r, u.alkalinity);
+      }
+      break;
+    }
+  }
+  if (f.mode == HatcheryMode::FlowThrough) {
+    int point = static_cast<int>(f.target_point);
+    const char* const points[] = {"Right after mixing", "At the tanks"};
+    if (ui::choice(app, "hatchery.target_point", "Where the target must be met", &point, points, 2)) {
+      f.target_point = static_cast<hat::TargetPoint>(point);
+    }
+  }
+  int buffer = static_cast<int>(f.buffer);
+  const char* const buffers[] = {"Na\u2082CO\u2083", "NaHCO\u2083", "NaOH", "Blend"};
+  if (ui::choice(app, "hatchery.buffer", "Buffer (blend: carbonate + bicarbonate, chosen for the pH ceiling)", &buffer,
+                 buffers, 4)) {
+    f.buffer = static_cast<hat::Buffer>(buffer);
+  }
+  ui::number_field(app, "hatchery.ph_ceiling", {"pH ceiling", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 7.0, 9.3},
+                   &f.ph_ceiling);
+  if (f.mode == HatcheryMode::FlowThrough) {
+    ui::number_field(app, "hatchery.flow", {"Intake flow", "L/min", 1, 5, 0.01, 100000}, &f.flow_l_per_min);
+    ui::optional_number_field(app, "hatchery.residence",
+                              {"Time from injection to the tanks (optional)", "min", 0, 5, 0, 1440},
+                              &f.residence_time_min);
+    temperature_field(app, "hatchery.stock_temperature", "Stock tank temperature", &f.stock_temperature_c, 0, 60);
+  } else {
+    const auto vu = u.volume;
+    double v = tw::units::volume_from_litres(f.volume_l, vu);
+    if (ui::number_field(app, "hatchery.volume",
+                         {"Tank volume", fmtx::volume_unit_text(vu), 0, 50, tw::units::volume_from_litres(0.1, vu),
+                          tw::units::volume_from_litres(1e7, vu)},
+                         &v)) {
+      f.volume_l = tw::units::volume_to_litres(v, vu);
+    }
+    ui::optional_number_field(app, "hatchery.residence",
+                              {"Time open to the air before use (optional)", "min", 0, 5, 0, 1440},
+                              &f.residence_time_min);
+  }
+  ui::card_end(app);
+}
+
+// ---------------------------------------------------------------- 2. Results
+void water_table(AppState& app, const hat::Treatment& t, bool batch) {
+  const auto u = units_of(app);
+  if (!ImGui::BeginTable("##through", 4, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) return;
+  ImGui::TableSetupColumn("");
+  ImGui::TableSetupColumn(batch ? "Before" : "Intake");
+  ImGui::TableSetupColumn("Mixed");
+  ImGui::TableSetupColumn(batch ? "Later" : "Tanks");
+  ImGui::TableHeadersRow();
+  const cb::CarbonateState* s[3] = {&t.intake, &t.after_mixing, &t.at_tanks};
+  auto row = [&](const char* label, auto value) {
+    ImGui::TableNextRow();
+    ImGui::TableNextColumn();
+    ImGui::TextUnformatted(label);
+    for (int i = 0; i < 3; ++i) {
+      ImGui::TableNextColumn();
+      ImGui::TextUnformatted(value(*s[i]).c_str());
+    }
+  };
+  const std::string ph_label = std::string("pH ") + fmtx::ph_scale_label(app.ui.dosing.hatchery.ph_scale);
+  row(ph_label.c_str(), [&](const cb::CarbonateState& c) { return fmtx::fixed(fmtx::ph_on_scale(c, app.ui.dosing.hatchery.ph_scale), 2); });
+  row("\u03a9 arag.", [](const cb::CarbonateState& c) { return fmtx::fixed(c.omega_aragonite, 2); });
+  const std::string alk_label = std::string("Alk. ") + fmtx::alkalinity_shown(u.alkalinity).unit;
+  row(alk_label.c_str(), [&](const cb::CarbonateState& c) {
+    return fmtx::alkalinity_text(tw::units::alkalinity_from_umol_kg(c.alkalinity_umol_kg, tw::units::AlkalinityUnit::DKH,
+                                                                    jn::kNominalDensityKgPerL),
+                                 u.alkalinity);
+  });
+  row("pCO\u2082 \u03bcatm", [](const cb::CarbonateState& c) { return fmtx::fixed(c.pco2_uatm, 0); });
+  ImGui::EndTable();
+  ui::record(app, "hatchery.water_table");
+  if (!batch) {
+    ui::dim_text(("Mixed: fully mixed, before any gas exchange. Tanks: after " +
+                  fmtx::fixed(100 * t.degassing_fraction, 0) + "% of the way to equilibrium with outdoor air.").c_str());
+  }
+}
+
+void list(const std::vector<std::string>& lines, ImU32 color) {
+  for (const std::string& l : lines) ui::colored_wrapped(color, ("\u2022 " + l).c_str());
+}
+
+void draw_flow_result(AppState& app, const hat::FlowPlan& p) {
+  ui::card_begin(app);
+  ui::heading(app, p.treatment.dose_needed ? "Dose" : "No dose needed");
+  if (!p.treatment.dose_needed) ui::wrapped("The intake already meets the target.");
+  for (const hat::StockLine& l : p.lines) {
+    ImGui::PushFont(app.ui.fonts.bold);
+    ImGui::TextUnformatted((std::string(hat::to_string(l.compound)) + " (" + hat::formula_of(l.compound) + ")").c_str());
+    ImGui::PopFont();
+    ui::label_value(app, "Pump", fmtx::fixed(l.pump_ml_per_min, 1) + " mL/min");
+    ui::record(app, std::string("hatchery.pump.") + hat::formula_of(l.compound));
+    ui::label_value(app, "Stock strength", fmtx::fixed(l.stock_g_per_l, 0) + " g/L (saturated \u2248 " +
+                                               fmtx::fixed(l.saturation_g_per_l, 0) + ")");
+    ui::label_value(app, "Salt", fmtx::fixed(l.grams_per_hour, 1) + " g/h, " + fmtx::fixed(l.grams_per_day / 1000, 2) + " kg/day");
+    ui::label_value(app, "Stock used", fmtx::fixed(l.stock_litres_per_day, 1) + " L/day");
+    if (l.injection_dilution_needed > 0) {
+      ui::dim_text(("Mix the stock into at least " + fmtx::fixed(l.injection_dilution_needed, 0) +
+                    " volumes of water at the injection point to keep the local \u03a9 under the mixing ceiling.").c_str());
+    }
+  }
+  if (p.lines.size() > 1) {
+    ui::dim_text(("Blend: " + fmtx::fixed(100 * p.treatment.carbonate_share, 0) + "% of the added alkalinity as carbonate.").c_str());
+  }
+  water_table(app, p.treatment, false);
+  list(p.warnings, theme::kWarning);
+  ui::card_end(app);
+}
+
+void draw_batch_result(AppState& app, const hat::BatchPlan& p) {
+  ui::card_begin(app);
+  ui::heading(app, p.treatment.dose_needed ? "Add to the tank" : "No dose needed");
+  for (const auto& a : p.additions) {
+    const std::string g = a.grams >= 1000 ? fmtx::fixed(a.grams / 1000, 2) + " kg" : fmtx::fixed(a.grams, 1) + " g";
+    ui::label_value(app, (std::string(hat::to_string(a.compound)) + " (" + hat::formula_of(a.compound) + ")").c_str(), g);
+    ui::record(app, std::string("hatchery.grams.") + hat::formula_of(a.compound));
+  }
+  ui::dim_text("Dissolve in a bucket of tank water first and add it slowly where the water moves.");
+  water_table(app, p.treatment, true);
+  list(p.warnings, theme::kWarning);
+  ui::card_end(app);
+}
+
+// ---------------------------------------------------------------- 3. Pump-side table
+void draw_pump_table(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
+  ui::heading(app, "Pump-side table");
+  ui::dim_text("Pump rates for a range of intake pH at this alkalinity, flow and target, to post by the pump.");
+  if (!f.show_table) {
+    if (ui::button(app, "hatchery.table.show", "Show the table")) f.show_table = true;
+    return;
+  }
+  const float half = (ImGui::GetContentRegionAvail().x - ImGui::GetStyle().ItemSpacing.x) / 2;
+  ui::number_field(app, "hatchery.table.from", {"From intake pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.0, 10.0},
+                   &f.table_from_ph);
+  ui::number_field(app, "hatchery.table.to", {"To intake pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.0, 10.0},
+                   &f.table_to_ph);
+  ui::number_field(app, "hatchery.table.step", {"Step", "pH", 2, 0.01, 0.01, 1.0}, &f.table_step_ph);
+  if (!c.table_error.empty()) ui::colored_wrapped(theme::kError, c.table_error.c_str());
+  if (c.table) {
+    const hat::PumpTable& t = *c.table;
+    const int cols = 3 + static_cast<int>(t.columns.size());
+    if (ImGui::BeginTable("##pump", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
+      ImGui::TableSetupColumn("pH in");
+      for (hat::Compound k : t.columns) ImGui::TableSetupColumn((std::string(hat::formula_of(k)) + " mL/min").c_str());
+      ImGui::TableSetupColumn("pH out");
+      ImGui::TableSetupColumn("\u03a9 out");
+      ImGui::TableHeadersRow();
+      for (const hat::TableRow& r : t.rows) {
+        ImGui::TableNextRow();
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(fmtx::fixed(r.reading, 2).c_str());
+        if (!r.ok) {
+          ImGui::TableNextColumn();
+          ImGui::PushStyleColor(ImGuiCol_Text, theme::kTextDim);
+          ImGui::TextWrapped("%s", r.note.c_str());
+          ImGui::PopStyleColor();
+          continue;
+        }
+        for (double ml : r.pump_ml_per_min) {
+          ImGui::TableNextColumn();
+          ImGui::TextUnformatted(fmtx::fixed(ml, 1).c_str());
+        }
+        const bool tanks = f.target_point == hat::TargetPoint::AtTanks;
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(fmtx::fixed(tanks ? r.ph_total_at_tanks : r.ph_total_after_mixing, 2).c_str());
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(
+            fmtx::fixed(tanks ? r.omega_aragonite_at_tanks : r.omega_aragonite_after_mixing, 2).c_str());
+      }
+      ImGui::EndTable();
+    }
+    ui::record(app, "hatchery.table");
+    ui::dim_text("pH out is on the total scale; the stock strengths are those of the dose above.");
+    if (ui::button(app, "hatchery.table.export_csv", "Download CSV", half)) export_pump_table(app, true);
+    ImGui::SameLine();
+    if (ui::button(app, "hatchery.table.export_text", "Download text", half)) export_pump_table(app, false);
+  }
+  if (ui::button(app, "hatchery.table.hide", "Hide the table", 0, ui::Tone::Quiet)) f.show_table = false;
+}
+
+}  // namespace
+
+// ---------------------------------------------------------------- 4. The screen
+void draw_hatchery(AppState& app) {
+  HatcheryForm& f = app.ui.dosing.hatchery;
+  ui::heading(app, "Hatchery buffering");
+  ui::colored_wrapped(theme::kWarning,
+                      "Sodium hydroxide and strong carbonate stocks are caustic: gloves and eye protection, add to "
+                      "water, never water to the solid. Food-production hatcheries: follow local regulations and "
+                      "licensed practice; these are model estimates to confirm by measurement.");
+  int mode = static_cast<int>(f.mode);
+  const char* const modes[] = {"Flow-through", "Batch tank"};
+  if (ui::choice(app, "hatchery.mode", "", &mode, modes, 2)) f.mode = static_cast<HatcheryMode>(mode);
+  draw_water_form(app, f);
+  draw_target_form(app, f);
+  refresh_hatchery(app);
+  const HatcheryCache& c = app.ui.dosing.hatchery_cache;
+  if (!c.error.empty()) {
+    ui::card_begin(app);
+    ui::colored_wrapped(theme::kError, c.error.c_str());
+    ui::record(app, "hatchery.error");
+    ui::card_end(app);
+  }
+  const std::vector<std::string>* cautions = nullptr;
+  if (c.flow) {
+    draw_flow_result(app, *c.flow);
+    cautions = &c.flow->cautions;
+  }
+  if (c.batch) {
+    draw_batch_result(app, *c.batch);
+    cautions = &c.batch->cautions;
+  }
+  if (f.mode == HatcheryMode::FlowThrough) draw_pump_table(app, f, c);
+  if (cautions && !cautions->empty()) {
+    ui::heading(app, "Cautions");
+    list(*cautions, theme::kText);
+    ui::record(app, "hatchery.cautions");
+  }
+}
+
+}  // namespace twapp

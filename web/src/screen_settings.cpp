@@ -1,0 +1,95 @@
+// Settings: units (stored with the current system and as the default for new ones), the pH
+// scale of the user's meter, text size, room CO2, and the user's data (export, import).
+#include <cmath>
+#include <string>
+
+#include "actions.hpp"
+#include "format.hpp"
+#include "platform.hpp"
+#include "screens.hpp"
+#include "theme.hpp"
+#include "ui.hpp"
+
+namespace twapp {
+
+namespace {
+
+namespace jn = tw::journal;
+namespace au = tw::units;
+namespace cb = tw::carbonate;
+
+const char* const kAlkUnits[] = {"dKH", "meq/L", "mg/L CaCO\u2083"};
+const au::AlkalinityUnit kAlkValues[] = {au::AlkalinityUnit::DKH, au::AlkalinityUnit::MeqPerL, au::AlkalinityUnit::MgPerLCaCO3};
+const char* const kVolumeUnits[] = {"Litres", "US gallons"};
+const char* const kTempUnits[] = {"\u00b0C", "\u00b0F"};
+const char* const kScales[] = {"NBS", "Total", "Seawater", "Free"};
+const cb::PhScale kScaleValues[] = {cb::PhScale::NBS, cb::PhScale::Total, cb::PhScale::Seawater, cb::PhScale::Free};
+const char* const kTextSizes[] = {"Small", "Normal", "Large", "Huge"};
+const float kTextSizeValues[] = {0.85f, 1.0f, 1.2f, 1.45f};
+
+template <class T, int N>
+int index_of(const T (&values)[N], T v) {
+  for (int i = 0; i < N; ++i) if (values[i] == v) return i;
+  return 0;
+}
+
+}  // namespace
+
+void draw_settings(AppState& app) {
+  const jn::System* sys = current_system(app);
+  jn::UnitPreferences u = sys ? sys->units : app.settings.units;
+  ui::heading(app, "Units");
+  ui::dim_text(sys ? ("Used for " + sys->name + " and for new systems.").c_str() : "Used for new systems.");
+  bool units_changed = false;
+  int alk = index_of(kAlkValues, u.alkalinity);
+  if (ui::choice(app, "settings.alkalinity", "Alkalinity", &alk, kAlkUnits, 3)) {
+    u.alkalinity = kAlkValues[alk];
+    units_changed = true;
+  }
+  int vol = u.volume == au::VolumeUnit::UsGallon ? 1 : 0;
+  if (ui::choice(app, "settings.volume", "Volume", &vol, kVolumeUnits, 2)) {
+    u.volume = vol ? au::VolumeUnit::UsGallon : au::VolumeUnit::Litre;
+    units_changed = true;
+  }
+  int temp = u.temperature == jn::TemperatureUnit::Fahrenheit ? 1 : 0;
+  if (ui::choice(app, "settings.temperature", "Temperature", &temp, kTempUnits, 2)) {
+    u.temperature = temp ? jn::TemperatureUnit::Fahrenheit : jn::TemperatureUnit::Celsius;
+    units_changed = true;
+  }
+  int scale = index_of(kScaleValues, u.ph_scale);
+  if (ui::choice(app, "settings.ph_scale", "pH scale of your meter or kit", &scale, kScales, 4)) {
+    u.ph_scale = kScaleValues[scale];
+    units_changed = true;
+  }
+  ui::dim_text("Hobby pH meters calibrated with NBS buffers (pH 7 and 10) read on the NBS scale. Laboratories and hatcheries measuring with dye or TRIS buffers in seawater usually report the total scale.");
+  if (units_changed) set_units(app, u);
+
+  ui::heading(app, "Text size");
+  int size = 1;
+  for (int i = 0; i < 4; ++i) if (std::abs(kTextSizeValues[i] - app.settings.text_size) < 0.01f) size = i;
+  if (ui::choice(app, "settings.text_size", nullptr, &size, kTextSizes, 4)) set_text_size(app, kTextSizeValues[size]);
+
+  ui::heading(app, "Room air");
+  double co2 = app.settings.room_co2_ppm;
+  if (ui::number_field(app, "settings.room_co2", {"CO\u2082 in the room's air", "ppm", 0, 50, 150, 10000}, &co2)) {
+    set_room_co2(app, co2);
+  }
+  ui::dim_text("Outdoor air is about 420 ppm; closed rooms with people in them often reach 800 to 2000 ppm, which lowers the pH that tank water settles at.");
+
+  ui::heading(app, "Your data");
+  ui::dim_text(("Kept in " + platform::storage_location() + ", saved after every change.").c_str());
+  if (!app.store.save_error.empty()) ui::colored_wrapped(theme::kError, ("Last save failed: " + app.store.save_error).c_str());
+  const float half = (ImGui::GetContentRegionAvail().x - ImGui::GetStyle().ItemSpacing.x) / 2;
+  if (ui::button(app, "settings.export", "Export to file", half)) export_all(app);
+  ImGui::SameLine();
+  if (ui::button(app, "settings.import", "Import file\u2026", half)) ask_import(app);
+  ui::dim_text("Import replaces what is here with the file's systems and log. Export first to keep a copy.");
+  if (!app.demo_system_ids.empty()) {
+    if (ui::button(app, "settings.remove_demo", "Remove demo data", 0, ui::Tone::Quiet)) remove_demo(app);
+  }
+
+  ui::heading(app, "Care");
+  ui::dim_text("Tidewright's numbers come from published seawater chemistry, but your test kits, your animals and your dosing are your responsibility. Change alkalinity slowly; sodium hydroxide and limewater are caustic (wear eye protection, add slowly, never into a tank with the pump off). Hatcheries and farms producing food follow their local codes and licensed practice.");
+}
+
+}  // namespace twapp

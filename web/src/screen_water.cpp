@@ -1,0 +1,166 @@
+// Water: the full carbonate state of the current system (latest readings) or of what-if
+// numbers, computed by the core; Omega with a plain reading; the species chart.
+#include <string>
+
+#include "actions.hpp"
+#include "format.hpp"
+#include "screens.hpp"
+#include "theme.hpp"
+#include "ui.hpp"
+
+namespace twapp {
+
+namespace {
+
+namespace jn = tw::journal;
+namespace cb = tw::carbonate;
+
+const char* const kPairs[] = {"Alk + pH", "Alk + pCO\u2082", "Alk + DIC", "Alk + room air"};
+const char* const kScales[] = {"NBS", "Total", "Seawater", "Free"};
+const cb::PhScale kScaleValues[] = {cb::PhScale::NBS, cb::PhScale::Total, cb::PhScale::Seawater, cb::PhScale::Free};
+
+// A plain reading of aragonite saturation for reef and shellfish keepers [common practice:
+// rough bands, no single source; below 1 aragonite dissolves by definition of Omega].
+const char* omega_reading(double omega, ImU32* color) {
+  *color = theme::kText;
+  if (omega < 1.0) {
+    *color = theme::kError;
+    return "Undersaturated: aragonite dissolves. Shells and skeletons cannot build; larvae fail.";
+  }
+  if (omega < 2.0) {
+    *color = theme::kWarning;
+    return "Low: calcifying is slow and costly for corals and larvae.";
+  }
+  if (omega < 3.0) return "Fair: growth, but below natural reef water.";
+  if (omega < 4.5) return "Typical of healthy reef seawater.";
+  if (omega < 6.0) return "High: fast growth; dose slowly, precipitation is nearer.";
+  *color = theme::kWarning;
+  return "Very high: carbonate may precipitate on heaters and pumps (snow), taking alkalinity with it.";
+}
+
+void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
+  WaterInputs w = app.water;
+  bool changed = false;
+  int pair = static_cast<int>(w.pair);
+  if (ui::choice(app, "water.pair", "Solve from", &pair, kPairs, 4)) {
+    w.pair = static_cast<WaterPair>(pair);
+    changed = true;
+  }
+  const fmtx::UnitShown au = fmtx::alkalinity_shown(u.alkalinity);
+  double alk = fmtx::alkalinity_from_dkh(w.alkalinity_dkh, u.alkalinity);
+  if (ui::number_field(app, "water.alkalinity",
+                       {"Alkalinity", au.unit, au.decimals, au.step,
+                        fmtx::alkalinity_from_dkh(jn::kAlkalinityDkhRange.lo, u.alkalinity),
+                        fmtx::alkalinity_from_dkh(jn::kAlkalinityDkhRange.hi, u.alkalinity)},
+                       &alk)) {
+    w.alkalinity_dkh = fmtx::alkalinity_to_dkh(alk, u.alkalinity);
+    changed = true;
+  }
+  if (w.pair == WaterPair::AlkalinityPH) {
+    int scale = 0;
+    for (int i = 0; i < 4; ++i) if (kScaleValues[i] == w.ph_scale) scale = i;
+    const std::string label = std::string("pH (") + fmtx::ph_scale_label(w.ph_scale) + " scale)";
+    changed |= ui::number_field(app, "water.ph", {label.c_str(), "", 2, 0.01, jn::kPhRange.lo, jn::kPhRange.hi}, &w.ph);
+    if (ui::choice(app, "water.ph_scale", "pH scale of that reading", &scale, kScales, 4)) {
+      w.ph_scale = kScaleValues[scale];
+      changed = true;
+    }
+  } else if (w.pair == WaterPair::AlkalinityPCO2) {
+    changed |= ui::number_field(app, "water.pco2", {"pCO\u2082 of the water", "\u03bcatm", 0, 20, 10, 20000}, &w.pco2_uatm);
+  } else if (w.pair == WaterPair::AlkalinityDIC) {
+    changed |= ui::number_field(app, "water.dic", {"DIC", "\u03bcmol/kg", 0, 20, 100, 6000}, &w.dic_umol_kg);
+  } else {
+    ui::dim_text(("Water left to settle with the room's air at " + fmtx::fixed(app.settings.room_co2_ppm, 0) +
+                  " ppm CO\u2082 (change it in Settings).").c_str());
+  }
+  changed |= ui::number_field(app, "water.salinity", {"Salinity", "psu", 1, 0.5, jn::kSalinityRange.lo, jn::kSalinityRange.hi}, &w.salinity);
+  double t = fmtx::temperature_shown(w.temperature_c, u.temperature);
+  if (ui::number_field(app, "water.temperature",
+                       {"Temperature", fmtx::temperature_unit_text(u.temperature), 1, 0.5,
+                        fmtx::temperature_shown(jn::kTemperatureCRange.lo, u.temperature),
+                        fmtx::temperature_shown(jn::kTemperatureCRange.hi, u.temperature)},
+                       &t)) {
+    w.temperature_c = fmtx::temperature_from_shown(t, u.temperature);
+    changed = true;
+  }
+  if (changed) set_water_inputs(app, w);
+}
+
+void draw_results(AppState& app, const jn::UnitPreferences& u) {
+  const WaterResult& r = app.water_result;
+  if (!r.ok) {
+    ui::colored_wrapped(theme::kError, ("No result: " + r.error).c_str());
+    return;
+  }
+  const cb::CarbonateState& s = r.state;
+  const float e = ui::em(app);
+  // The headline: Omega aragonite, big, with its plain reading.
+  ui::card_begin(app);
+  ui::dim_text("Aragonite saturation \u03a9");
+  ImGui::PushFont(app.ui.fonts.big);
+  ImGui::TextUnformatted(fmtx::fixed(s.omega_aragonite, 2).c_str());
+  ImGui::PopFont();
+  ui::record(app, "water.omega");
+  ImU32 col = 0;
+  const char* reading = omega_reading(s.omega_aragonite, &col);
+  ui::colored_wrapped(col, reading);
+  ui::card_end(app);
+
+  ui::card_begin(app);
+  const cb::PhScale meter = u.ph_scale;
+  ui::label_value(app, (std::string("pH, ") + fmtx::ph_scale_label(meter) + " scale (your meter)").c_str(),
+                  fmtx::fixed(fmtx::ph_on_scale(s, meter), 2), theme::kAccent);
+  for (cb::PhScale sc : kScaleValues) {
+    if (sc == meter) continue;
+    ui::label_value(app, (std::string("pH, ") + fmtx::ph_scale_label(sc) + " scale").c_str(), fmtx::fixed(fmtx::ph_on_scale(s, sc), 3));
+  }
+  ImGui::Separator();
+  ui::label_value(app, "Alkalinity", fmtx::alkalinity_text(app.water.alkalinity_dkh, u.alkalinity));
+  ui::label_value(app, "DIC", fmtx::fixed(s.dic_umol_kg, 0) + " \u03bcmol/kg");
+  ui::label_value(app, "Bicarbonate HCO\u2083\u207b", fmtx::fixed(s.hco3_umol_kg, 0) + " \u03bcmol/kg", theme::kHco3);
+  ui::label_value(app, "Carbonate CO\u2083\u00b2\u207b", fmtx::fixed(s.co3_umol_kg, 0) + " \u03bcmol/kg", theme::kCo3);
+  ui::label_value(app, "CO\u2082*", fmtx::fixed(s.co2_umol_kg, 1) + " \u03bcmol/kg", theme::kCo2);
+  ui::label_value(app, "pCO\u2082", fmtx::fixed(s.pco2_uatm, 0) + " \u03bcatm");
+  ui::label_value(app, "\u03a9 calcite", fmtx::fixed(s.omega_calcite, 2));
+  ui::label_value(app, "Revelle factor", fmtx::fixed(s.revelle_factor, 1));
+  ui::label_value(app, "Buffer capacity \u03b2", fmtx::fixed(s.buffer_capacity_umol_kg, 0) + " \u03bcmol/kg per pH");
+  ui::card_end(app);
+
+  if (r.air) {
+    ui::card_begin(app);
+    ui::dim_text(("After settling with the room's air (" + fmtx::fixed(app.settings.room_co2_ppm, 0) + " ppm CO\u2082, same alkalinity):").c_str());
+    ui::label_value(app, (std::string("pH, ") + fmtx::ph_scale_label(meter) + " scale").c_str(), fmtx::fixed(fmtx::ph_on_scale(*r.air, meter), 2));
+    ui::label_value(app, "\u03a9 aragonite", fmtx::fixed(r.air->omega_aragonite, 2));
+    const double gap = fmtx::ph_on_scale(s, meter) - fmtx::ph_on_scale(*r.air, meter);
+    if (app.water.pair != WaterPair::AlkalinityAir) {
+      ui::dim_text(gap > 0.05 ? "The water's pH is above where the room's air would settle it: CO\u2082 taken up from the air will pull it down over hours."
+                   : gap < -0.05 ? "The water's pH is below where the room's air would settle it: it holds extra CO\u2082 (animals, little aeration); more gas exchange would raise it."
+                                 : "The water is close to equilibrium with the room's air.");
+    }
+    ui::card_end(app);
+  } else if (!r.air_error.empty()) {
+    ui::colored_wrapped(theme::kWarning, r.air_error.c_str());
+  }
+  for (const auto& wmsg : s.warnings) ui::colored_wrapped(theme::kWarning, wmsg.c_str());
+  (void)e;
+}
+
+}  // namespace
+
+void draw_water(AppState& app) {
+  const jn::System* sys = current_system(app);
+  const jn::UnitPreferences u = sys ? sys->units : app.settings.units;
+  ui::heading(app, "Water");
+  ui::dim_text(app.water.source.c_str());
+  if (app.water.what_if && sys) {
+    if (ui::button(app, "water.use_latest", "Use latest readings")) use_latest_readings(app);
+  }
+  draw_results(app, u);
+  ui::heading(app, "Species across pH");
+  draw_species_chart(app);
+  ui::heading(app, "Inputs");
+  ui::dim_text("Change any number for a what-if; the log is not touched.");
+  draw_inputs(app, u);
+}
+
+}  // namespace twapp

@@ -1,0 +1,20 @@
+// One function per screen, each in its own file screen_<name>.cpp. A screen draws from
+// AppState and changes it only through actions (actions.hpp).
+#pragma once
+
+#include "app_state.hpp"
+
+namespace twapp {
+
+void draw_systems(AppState& app);   // screen_systems.cpp
+void draw_log(AppState& app);       // screen_log.cpp
+void draw_water(AppState& app);     // screen_water.cpp
+void draw_settings(AppState& app);  // screen_settings.cpp
+void draw_demand(AppState& app);    // screen_demand.cpp
+void draw_hatchery(AppState& app);  // screen_hatchery.cpp
+void draw_mixes(AppState& app);     // screen_mixes.cpp
+
+// Carbonate species across pH with this water marked (chart_species.cpp).
+void draw_species_chart(AppState& app);
+
+}  // namespace twapp

@@ -1,0 +1,105 @@
+// Store text <-> app state (see store.hpp for the layout). The journal part is written and
+// read by the core (journal_file.hpp); this file only adds the "app" member.
+#include "store.hpp"
+
+#include <nlohmann/json.hpp>
+
+#include "tidewright/journal_file.hpp"
+
+namespace twapp {
+namespace {
+
+using nlohmann::json;
+namespace cb = tw::carbonate;
+namespace jn = tw::journal;
+
+json units_to_json(const jn::UnitPreferences& u) {
+  return {{"alkalinity", tw::units::to_string(u.alkalinity)},
+          {"calcium_magnesium", tw::units::to_string(u.calcium_magnesium)},
+          {"temperature", jn::to_string(u.temperature)},
+          {"ph_scale", jn::ph_scale_name(u.ph_scale)},
+          {"volume", tw::units::to_string(u.volume)}};
+}
+
+// Unknown or missing unit names keep the default: a settings problem never loses data.
+jn::UnitPreferences units_from_json(const json& j) {
+  jn::UnitPreferences u;
+  if (!j.is_object()) return u;
+  auto text = [&](const char* key) { return j.contains(key) && j[key].is_string() ? j[key].get<std::string>() : std::string(); };
+  if (auto r = tw::units::alkalinity_unit_from_string(text("alkalinity")); r) u.alkalinity = *r;
+  if (auto r = tw::units::concentration_unit_from_string(text("calcium_magnesium")); r) u.calcium_magnesium = *r;
+  if (auto r = jn::temperature_unit_from_string(text("temperature")); r) u.temperature = *r;
+  if (auto r = jn::ph_scale_from_name(text("ph_scale")); r) u.ph_scale = *r;
+  if (auto r = tw::units::volume_unit_from_string(text("volume")); r) u.volume = *r;
+  return u;
+}
+
+}  // namespace
+
+std::string store_to_text(const AppState& app) {
+  json doc = json::parse(jn::serialize_journal(app.journal));
+  json a;
+  a["schema_version"] = kAppSchemaVersion;
+  a["settings"] = {{"units", units_to_json(app.settings.units)},
+                   {"text_size", app.settings.text_size},
+                   {"room_co2_ppm", app.settings.room_co2_ppm}};
+  a["current_system"] = app.current_system;
+  a["demo_system_ids"] = app.demo_system_ids;
+  doc["app"] = std::move(a);
+  return doc.dump(2) + "\n";
+}
+
+namespace {
+tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
+  json doc = json::parse(text, nullptr, false);
+  if (doc.is_discarded() || !doc.is_object()) {
+    return tw::Error{"json", "the file is not a JSON object (damaged or not a Tidewright file)"};
+  }
+  StoredApp out;
+  json app_part;
+  if (doc.contains("app")) {
+    app_part = doc["app"];
+    doc.erase("app");
+    out.had_app_part = true;
+  }
+  auto journal = jn::parse_journal(doc.dump());
+  if (!journal) return journal.error();
+  out.journal = std::move(journal).value();
+  if (!out.had_app_part) return out;
+  if (!app_part.is_object()) return tw::Error{"app", "the app part is not a JSON object"};
+  const int version = app_part.value("schema_version", 0);
+  if (version > kAppSchemaVersion) {
+    return tw::Error{"app.schema_version", "app data version " + std::to_string(version) +
+                                               " is newer than this build knows (" +
+                                               std::to_string(kAppSchemaVersion) + "); update the app"};
+  }
+  if (app_part.contains("settings") && app_part["settings"].is_object()) {
+    const json& s = app_part["settings"];
+    if (s.contains("units")) out.settings.units = units_from_json(s["units"]);
+    const double size = s.value("text_size", 1.0);
+    if (size >= 0.8 && size <= 1.6) out.settings.text_size = static_cast<float>(size);
+    const double co2 = s.value("room_co2_ppm", out.settings.room_co2_ppm);
+    if (co2 >= 100 && co2 <= 10000) out.settings.room_co2_ppm = co2;
+  }
+  const jn::SystemId current = app_part.value("current_system", jn::SystemId{0});
+  if (jn::find_system(out.journal, current)) out.current_system = current;
+  if (app_part.contains("demo_system_ids") && app_part["demo_system_ids"].is_array()) {
+    for (const auto& id : app_part["demo_system_ids"]) {
+      if (id.is_number_integer() && jn::find_system(out.journal, id.get<jn::SystemId>())) {
+        out.demo_system_ids.push_back(id.get<jn::SystemId>());
+      }
+    }
+  }
+  return out;
+}
+}  // namespace
+
+tw::Result<StoredApp> store_from_text(const std::string& text) {
+  try {
+    return store_from_text_unchecked(text);
+  } catch (const nlohmann::json::exception& e) {  // a member of the wrong type in the app part
+    return tw::Error{"app", std::string("the app part could not be read: ") + e.what()};
+  }
+}
+
+}  // namespace twapp

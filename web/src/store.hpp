@@ -1,0 +1,30 @@
+// What the app keeps between visits, as one JSON text: a "tidewright-journal" document (the
+// core's format, readable by the command line) with one extra member "app" holding the app's
+// own part, schema-versioned:
+//   { "format": "tidewright-journal", "schema_version": 2, ...systems, events...,
+//     "app": { "schema_version": 1, "settings": {...}, "current_system": 3, "demo_system_ids": [1] } }
+// The same text is what Export writes and Import reads (Import also takes a bare journal).
+#pragma once
+
+#include <string>
+
+#include "app_state.hpp"
+#include "tidewright/result.hpp"
+
+namespace twapp {
+
+inline constexpr int kAppSchemaVersion = 1;
+inline constexpr const char* kStoreName = "tidewright.json";
+
+struct StoredApp {
+  Settings settings;
+  tw::journal::Journal journal;
+  tw::journal::SystemId current_system = 0;
+  std::vector<tw::journal::SystemId> demo_system_ids;
+  bool had_app_part = false;  // false for a bare journal file
+};
+
+std::string store_to_text(const AppState& app);
+tw::Result<StoredApp> store_from_text(const std::string& text);
+
+}  // namespace twapp

@@ -1,0 +1,119 @@
+#include "test_api.hpp"
+
+#include <algorithm>
+#include <nlohmann/json.hpp>
+
+#include "actions.hpp"
+#include "platform.hpp"
+#include "tidewright/journal_file.hpp"
+#include "water.hpp"
+
+namespace twapp::test_api {
+
+namespace {
+AppState* g_app = nullptr;  // the one AppState, set by main (test hook only)
+using nlohmann::json;
+namespace jn = tw::journal;
+
+json opt(const std::optional<double>& v) { return v ? json(*v) : json(nullptr); }
+}  // namespace
+
+void attach(AppState* app) { g_app = app; }
+
+std::string state_json() {
+  if (!g_app) return "{}";
+  const AppState& a = *g_app;
+  json j;
+  j["screen"] = screen_name(a.ui.screen);
+  j["current_system"] = a.current_system;
+  j["systems"] = json::array();
+  for (const auto& s : a.journal.systems) {
+    j["systems"].push_back({{"id", s.id}, {"name", s.name}, {"kind", jn::to_string(s.kind)},
+                            {"volume_l", s.volume_l}, {"default_salinity", s.default_salinity},
+                            {"default_temperature_c", s.default_temperature_c},
+                            {"units", {{"alkalinity", tw::units::to_string(s.units.alkalinity)},
+                                       {"temperature", jn::to_string(s.units.temperature)},
+                                       {"ph_scale", jn::ph_scale_name(s.units.ph_scale)},
+                                       {"volume", tw::units::to_string(s.units.volume)}}}});
+  }
+  j["events"] = a.journal.events.size();
+  j["recent_events"] = json::array();
+  for (size_t i = a.journal.events.size() > 10 ? a.journal.events.size() - 10 : 0; i < a.journal.events.size(); ++i) {
+    j["recent_events"].push_back(jn::event_to_json(a.journal.events[i]));
+  }
+  const LatestReadings r = latest_readings(a);
+  j["latest"] = {{"alkalinity_dkh", opt(r.alkalinity_dkh)}, {"ph", opt(r.ph)},
+                 {"salinity", opt(r.salinity)}, {"temperature_c", opt(r.temperature_c)}};
+  const WaterResult& w = a.water_result;
+  json water = {{"ok", w.ok}, {"error", w.error}, {"what_if", a.water.what_if}, {"source", a.water.source},
+                {"computed_count", w.computed_count},
+                {"inputs", {{"pair", static_cast<int>(a.water.pair)}, {"alkalinity_dkh", a.water.alkalinity_dkh},
+                            {"ph", a.water.ph}, {"ph_scale", jn::ph_scale_name(a.water.ph_scale)},
+                            {"salinity", a.water.salinity}, {"temperature_c", a.water.temperature_c}}}};
+  if (w.ok) {
+    water["ph_total"] = w.state.ph_total;
+    water["ph_nbs"] = w.state.ph_nbs;
+    water["alkalinity_umol_kg"] = w.state.alkalinity_umol_kg;
+    water["dic_umol_kg"] = w.state.dic_umol_kg;
+    water["pco2_uatm"] = w.state.pco2_uatm;
+    water["omega_aragonite"] = w.state.omega_aragonite;
+    water["omega_calcite"] = w.state.omega_calcite;
+    water["curve_points"] = w.curve.ph.size();
+  }
+  j["water"] = water;
+  j["settings"] = {{"alkalinity_unit", tw::units::to_string(a.settings.units.alkalinity)},
+                   {"volume_unit", tw::units::to_string(a.settings.units.volume)},
+                   {"temperature_unit", jn::to_string(a.settings.units.temperature)},
+                   {"ph_scale", jn::ph_scale_name(a.settings.units.ph_scale)},
+                   {"text_size", a.settings.text_size}, {"room_co2_ppm", a.settings.room_co2_ppm}};
+  j["demo_system_ids"] = a.demo_system_ids;
+  j["store"] = {{"loaded", a.store.loaded}, {"problem", a.store.problem}, {"save_error", a.store.save_error},
+                {"saves", a.store.saves}};
+  j["message"] = a.ui.message;
+  j["message_is_error"] = a.ui.message_is_error;
+  j["entry_open"] = platform::text_entry_open();
+  j["em_px"] = a.ui.em;
+  j["pixel_ratio"] = a.ui.pixel_ratio;
+  j["frames"] = a.ui.frames_drawn;
+  return j.dump();
+}
+
+std::string widget_json(const std::string& name, float ratio) {
+  json j = {{"name", name}, {"found", false}};
+  if (!g_app) return j.dump();
+  const auto it = g_app->ui.widgets.find(name);
+  if (it == g_app->ui.widgets.end()) return j.dump();
+  const float k = ratio > 0 ? 1.0f / ratio : 1.0f;
+  const Rect& r = it->second;
+  j = {{"name", name}, {"found", true}, {"visible", r.visible},
+       {"x", r.x * k}, {"y", r.y * k}, {"w", r.w * k}, {"h", r.h * k}};
+  return j.dump();
+}
+
+std::string widgets_json(float ratio) {
+  json j = json::object();
+  if (!g_app) return j.dump();
+  const float k = ratio > 0 ? 1.0f / ratio : 1.0f;
+  for (const auto& [name, r] : g_app->ui.widgets) {
+    j[name] = {{"visible", r.visible}, {"x", r.x * k}, {"y", r.y * k}, {"w", r.w * k}, {"h", r.h * k}};
+  }
+  return j.dump();
+}
+
+void reveal(const std::string& name) {
+  if (g_app) g_app->ui.reveal = name;
+}
+
+std::string frame_stats_json() {
+  if (!g_app || g_app->ui.frame_ms.empty()) return R"({"frames":0})";
+  std::vector<float> v = g_app->ui.frame_ms;
+  std::sort(v.begin(), v.end());
+  const auto at = [&](double q) { return v[std::min(v.size() - 1, static_cast<size_t>(q * static_cast<double>(v.size())))]; };
+  return json({{"frames", v.size()}, {"median_ms", at(0.5)}, {"p95_ms", at(0.95)}, {"worst_ms", v.back()}}).dump();
+}
+
+void reset_frame_stats() {
+  if (g_app) g_app->ui.frame_ms.clear();
+}
+
+}  // namespace twapp::test_api

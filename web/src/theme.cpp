@@ -1,0 +1,99 @@
+// Fonts are embedded C arrays (web/cmake/embed.cmake), never files read at run time.
+#include "theme.hpp"
+
+extern const unsigned char tw_font_regular[];
+extern const unsigned long tw_font_regular_size;
+extern const unsigned char tw_font_bold[];
+extern const unsigned long tw_font_bold_size;
+
+namespace twapp::theme {
+
+ImVec4 color(ImU32 c) { return ImGui::ColorConvertU32ToFloat4(c); }
+
+namespace {
+
+// Latin-1, Greek (Omega, mu), dashes and quotes, super- and subscripts (CO₂, CO₃²⁻), minus,
+// approximately, less/greater-or-equal.
+const ImWchar kGlyphRanges[] = {0x0020, 0x00FF, 0x0394, 0x0394, 0x03A9, 0x03A9, 0x03BC, 0x03BC,
+                                0x2009, 0x2026, 0x2070, 0x208E, 0x2212, 0x2212, 0x2248, 0x2248,
+                                0x2264, 0x2265, 0};
+// The big font only shows numbers and short words.
+const ImWchar kBigGlyphRanges[] = {0x0020, 0x007E, 0x03A9, 0x03A9, 0x2212, 0x2212, 0};
+
+ImFont* add_font(const unsigned char* data, unsigned long size, float px, const ImWchar* ranges) {
+  ImFontConfig config;
+  config.FontDataOwnedByAtlas = false;  // static data: the atlas must not free it
+  // Horizontal oversampling sharpens small text on 1x screens; at 2x and more it only costs
+  // atlas memory.
+  config.OversampleH = px < 30 ? 2 : 1;
+  config.OversampleV = 1;
+  config.PixelSnapH = true;
+  return ImGui::GetIO().Fonts->AddFontFromMemoryTTF(const_cast<unsigned char*>(data),
+                                                    static_cast<int>(size), px, &config, ranges);
+}
+
+void apply_style(float scale) {
+  ImGuiStyle style;  // fresh copy each time: ScaleAllSizes must be applied exactly once
+  ImGui::StyleColorsDark(&style);
+  style.WindowPadding = ImVec2(14, 12);
+  style.FramePadding = ImVec2(12, 10);
+  style.ItemSpacing = ImVec2(10, 10);
+  style.ItemInnerSpacing = ImVec2(8, 6);
+  style.TouchExtraPadding = ImVec2(2, 2);
+  style.ScrollbarSize = 6;
+  style.GrabMinSize = 20;
+  style.WindowRounding = 0;
+  style.ChildRounding = 10;
+  style.FrameRounding = 10;
+  style.PopupRounding = 10;
+  style.GrabRounding = 10;
+  style.ScrollbarRounding = 6;
+  style.WindowBorderSize = 0;
+  style.FrameBorderSize = 1;
+  style.PopupBorderSize = 1;
+  ImVec4* c = style.Colors;
+  c[ImGuiCol_Text] = color(kText);
+  c[ImGuiCol_TextDisabled] = color(kTextDim);
+  c[ImGuiCol_WindowBg] = color(kBackground);
+  c[ImGuiCol_ChildBg] = ImVec4(0, 0, 0, 0);
+  c[ImGuiCol_PopupBg] = color(kSurfaceHigh);
+  c[ImGuiCol_Border] = color(kBorder);
+  c[ImGuiCol_FrameBg] = color(kSurface);
+  c[ImGuiCol_FrameBgHovered] = color(kSurfaceHigh);
+  c[ImGuiCol_FrameBgActive] = color(kSurfaceHigh);
+  c[ImGuiCol_Button] = color(kSurfaceHigh);
+  c[ImGuiCol_ButtonHovered] = color(IM_COL32(42, 66, 77, 255));
+  c[ImGuiCol_ButtonActive] = color(kAccentDark);
+  c[ImGuiCol_Header] = color(kSurfaceHigh);
+  c[ImGuiCol_HeaderHovered] = color(IM_COL32(42, 66, 77, 255));
+  c[ImGuiCol_HeaderActive] = color(kAccentDark);
+  c[ImGuiCol_CheckMark] = color(kAccent);
+  c[ImGuiCol_SliderGrab] = color(kAccent);
+  c[ImGuiCol_SliderGrabActive] = color(kAccent);
+  c[ImGuiCol_Separator] = color(kBorder);
+  c[ImGuiCol_ScrollbarBg] = ImVec4(0, 0, 0, 0);
+  c[ImGuiCol_ScrollbarGrab] = color(kBorder);
+  c[ImGuiCol_NavHighlight] = color(kAccent);
+  c[ImGuiCol_TextSelectedBg] = color(kAccentDark);
+  c[ImGuiCol_ModalWindowDimBg] = ImVec4(0, 0, 0, 0.6f);
+  style.ScaleAllSizes(scale);
+  ImGui::GetStyle() = style;
+}
+
+}  // namespace
+
+void build(UiState& ui, float scale) {
+  ImGuiIO& io = ImGui::GetIO();
+  io.Fonts->Clear();
+  const float px = kBaseFontPx * scale;
+  ui.fonts.body = add_font(tw_font_regular, tw_font_regular_size, px, kGlyphRanges);
+  ui.fonts.bold = add_font(tw_font_bold, tw_font_bold_size, px, kGlyphRanges);
+  ui.fonts.big = add_font(tw_font_bold, tw_font_bold_size, px * 1.9f, kBigGlyphRanges);
+  io.Fonts->Build();
+  io.FontDefault = ui.fonts.body;
+  apply_style(scale);
+  ui.em = px;
+  ui.fonts_built_for = scale;
+}
+
+}  // namespace twapp::theme

@@ -1,0 +1,369 @@
+#include "ui.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdlib>
+
+#include "actions.hpp"
+#include "format.hpp"
+#include "imgui_internal.h"
+#include "platform.hpp"
+#include "theme.hpp"
+
+namespace twapp::ui {
+
+float em(const AppState& app) { return app.ui.em; }
+
+void record(AppState& app, const std::string& name) {
+  const ImVec2 a = ImGui::GetItemRectMin();
+  const ImVec2 b = ImGui::GetItemRectMax();
+  const ImGuiWindow* w = ImGui::GetCurrentWindow();
+  const ImRect clip = w->InnerClipRect;
+  Rect r;
+  r.x = a.x;
+  r.y = a.y;
+  r.w = b.x - a.x;
+  r.h = b.y - a.y;
+  // Visible when its centre is inside the window's visible area and not under a popup.
+  const ImVec2 c((a.x + b.x) / 2, (a.y + b.y) / 2);
+  r.visible = clip.Contains(c);
+  app.ui.widgets[name] = r;
+  if (app.ui.reveal == name) {
+    ImGui::SetScrollHereY(0.4f);
+    app.ui.reveal.clear();
+  }
+}
+
+bool button(AppState& app, const std::string& name, const char* label, float width, Tone tone) {
+  const float e = em(app);
+  ImVec2 size(width, kTargetEm * e);
+  if (width == 0) size.x = ImGui::GetContentRegionAvail().x;
+  if (width < 0) size.x = std::max(ImGui::CalcTextSize(label, nullptr, true).x + 2 * e, kTargetEm * e);
+  int colors = 0;
+  if (tone == Tone::Primary) {
+    ImGui::PushStyleColor(ImGuiCol_Button, theme::kAccentDark);
+    ImGui::PushStyleColor(ImGuiCol_ButtonHovered, IM_COL32(50, 140, 126, 255));
+    ImGui::PushStyleColor(ImGuiCol_ButtonActive, theme::kAccent);
+    colors = 3;
+  } else if (tone == Tone::Danger) {
+    ImGui::PushStyleColor(ImGuiCol_Button, IM_COL32(92, 40, 36, 255));
+    ImGui::PushStyleColor(ImGuiCol_ButtonHovered, IM_COL32(120, 52, 46, 255));
+    ImGui::PushStyleColor(ImGuiCol_ButtonActive, IM_COL32(150, 64, 56, 255));
+    colors = 3;
+  } else if (tone == Tone::Quiet) {
+    ImGui::PushStyleColor(ImGuiCol_Button, IM_COL32(0, 0, 0, 0));
+    colors = 1;
+  }
+  ImGui::PushID(name.c_str());
+  const bool pressed = ImGui::Button(label, size);
+  ImGui::PopID();
+  ImGui::PopStyleColor(colors);
+  record(app, name);
+  return pressed;
+}
+
+void heading(AppState& app, const char* text) {
+  ImGui::Dummy(ImVec2(0, 0.25f * em(app)));
+  ImGui::PushFont(app.ui.fonts.bold);
+  ImGui::PushStyleColor(ImGuiCol_Text, theme::kAccent);
+  ImGui::TextUnformatted(text);
+  ImGui::PopStyleColor();
+  ImGui::PopFont();
+}
+
+void dim_text(const char* text) { colored_wrapped(theme::kTextDim, text); }
+void wrapped(const char* text) { ImGui::TextWrapped("%s", text); }
+void colored_wrapped(ImU32 color, const char* text) {
+  ImGui::PushStyleColor(ImGuiCol_Text, color);
+  ImGui::TextWrapped("%s", text);
+  ImGui::PopStyleColor();
+}
+
+void label_value(AppState& app, const char* label, const std::string& value, ImU32 value_color) {
+  const float avail = ImGui::GetContentRegionAvail().x;
+  ImGui::PushStyleColor(ImGuiCol_Text, theme::kTextDim);
+  ImGui::TextUnformatted(label);
+  ImGui::PopStyleColor();
+  ImGui::PushFont(app.ui.fonts.bold);
+  const float w = ImGui::CalcTextSize(value.c_str()).x;
+  ImGui::SameLine(std::max(ImGui::GetCursorPosX(), ImGui::GetCursorPosX() + avail - w - 1));
+  if (value_color) ImGui::PushStyleColor(ImGuiCol_Text, value_color);
+  ImGui::TextUnformatted(value.c_str());
+  if (value_color) ImGui::PopStyleColor();
+  ImGui::PopFont();
+}
+
+bool choice(AppState& app, const std::string& name, const char* label, int* index,
+            const char* const* options, int count) {
+  const float e = em(app);
+  if (label && *label) dim_text(label);
+  const float avail = ImGui::GetContentRegionAvail().x;
+  const float gap = 0.35f * e;
+  // Equal widths when all fit on one line, else as many per row as fit.
+  float widest = 0;
+  for (int i = 0; i < count; ++i) widest = std::max(widest, ImGui::CalcTextSize(options[i]).x + 1.6f * e);
+  int per_row = std::max(1, std::min(count, static_cast<int>((avail + gap) / (widest + gap))));
+  const int rows = (count + per_row - 1) / per_row;
+  per_row = (count + rows - 1) / rows;  // balance the rows
+  const float w = (avail - gap * static_cast<float>(per_row - 1)) / static_cast<float>(per_row);
+  bool changed = false;
+  ImGui::PushStyleVar(ImGuiStyleVar_ItemSpacing, ImVec2(gap, gap));
+  for (int i = 0; i < count; ++i) {
+    if (i % per_row != 0) ImGui::SameLine();
+    const bool selected = *index == i;
+    ImGui::PushStyleColor(ImGuiCol_Button, selected ? theme::kAccentDark : theme::kSurface);
+    ImGui::PushStyleColor(ImGuiCol_Border, selected ? theme::kAccent : theme::kBorder);
+    if (selected) ImGui::PushFont(app.ui.fonts.bold);
+    ImGui::PushID(name.c_str());
+    ImGui::PushID(i);
+    if (ImGui::Button(options[i], ImVec2(w, kTargetEm * e)) && !selected) {
+      *index = i;
+      changed = true;
+    }
+    ImGui::PopID();
+    ImGui::PopID();
+    if (selected) ImGui::PopFont();
+    ImGui::PopStyleColor(2);
+    record(app, name + "." + std::to_string(i));
+  }
+  ImGui::PopStyleVar();
+  return changed;
+}
+
+namespace {
+
+// Parses what a person types on a phone: "8.2", "8,2", " 8.2 ", "−1".
+std::optional<double> parse_number(std::string text) {
+  for (char& ch : text) if (ch == ',') ch = '.';
+  std::string t;
+  for (size_t i = 0; i < text.size(); ++i) {
+    if (text.compare(i, 3, "\u2212") == 0) {
+      t += '-';
+      i += 2;
+    } else if (text[i] != ' ') {
+      t += text[i];
+    }
+  }
+  if (t.empty()) return std::nullopt;
+  char* end = nullptr;
+  const double v = std::strtod(t.c_str(), &end);
+  if (end != t.c_str() + t.size() || !std::isfinite(v)) return std::nullopt;
+  return v;
+}
+
+std::string range_hint(const NumberSpec& s) {
+  return "Accepted " + fmtx::fixed(s.lo, s.decimals) + " to " + fmtx::fixed(s.hi, s.decimals) + " " + s.unit;
+}
+
+// The value box: shows the value, opens the platform's text field when tapped, and takes the
+// typed text when it comes back. Returns true when a new valid value arrived.
+bool value_box(AppState& app, const std::string& name, const NumberSpec& spec, std::optional<double>* value,
+               float width) {
+  const float e = em(app);
+  bool changed = false;
+  if (app.ui.entry && app.ui.entry->key == name) {
+    const EntryResult r = *app.ui.entry;
+    app.ui.entry.reset();
+    if (r.accepted) {
+      const auto v = parse_number(r.text);
+      if (!v) {
+        notify(app, std::string(spec.label) + ": \"" + r.text + "\" is not a number", true);
+      } else if (*v < spec.lo || *v > spec.hi) {
+        notify(app, std::string(spec.label) + " " + fmtx::fixed(*v, spec.decimals) + " " + spec.unit +
+                        " is outside the accepted range " + fmtx::fixed(spec.lo, spec.decimals) + " to " +
+                        fmtx::fixed(spec.hi, spec.decimals) + " " + spec.unit, true);
+      } else {
+        *value = *v;
+        changed = true;
+      }
+    }
+  }
+  const std::string shown = value->has_value() ? fmtx::fixed(**value, spec.decimals) + " " + spec.unit
+                                               : std::string("Tap to enter");
+  ImGui::PushStyleColor(ImGuiCol_Button, theme::kSurface);
+  ImGui::PushStyleColor(ImGuiCol_Text, value->has_value() ? theme::kText : theme::kTextDim);
+  ImGui::PushFont(app.ui.fonts.bold);
+  ImGui::PushID(name.c_str());
+  if (ImGui::Button(shown.c_str(), ImVec2(width, kTargetEm * e))) {
+    platform::TextEntryRequest req;
+    req.key = name;
+    req.label = std::string(spec.label) + (spec.unit[0] ? std::string(" (") + spec.unit + ")" : "");
+    req.initial = value->has_value() ? fmtx::fixed(**value, spec.decimals) : "";
+    if (req.initial.rfind("\u2212", 0) == 0) req.initial.replace(0, 3, "-");
+    req.hint = range_hint(spec);
+    req.numeric = true;
+    platform::open_text_entry(req);
+  }
+  ImGui::PopID();
+  ImGui::PopFont();
+  ImGui::PopStyleColor(2);
+  record(app, name);
+  return changed;
+}
+
+}  // namespace
+
+bool optional_number_field(AppState& app, const std::string& name, const NumberSpec& spec,
+                           std::optional<double>* value) {
+  const float e = em(app);
+  dim_text(spec.label);
+  const float avail = ImGui::GetContentRegionAvail().x;
+  const float step_w = kTargetEm * e * 1.15f;
+  const float gap = ImGui::GetStyle().ItemSpacing.x;
+  bool changed = false;
+  if (!spec.steppers) return value_box(app, name, spec, value, avail);
+  ImGui::PushID(name.c_str());
+  ImGui::PushFont(app.ui.fonts.bold);
+  const bool minus = ImGui::Button("\u2212", ImVec2(step_w, kTargetEm * e));
+  ImGui::PopFont();
+  ImGui::PopID();
+  record(app, name + ".minus");
+  ImGui::SameLine();
+  changed |= value_box(app, name, spec, value, avail - 2 * step_w - 2 * gap);
+  ImGui::SameLine();
+  ImGui::PushID(name.c_str());
+  ImGui::PushFont(app.ui.fonts.bold);
+  const bool plus = ImGui::Button("+", ImVec2(step_w, kTargetEm * e));
+  ImGui::PopFont();
+  ImGui::PopID();
+  record(app, name + ".plus");
+  if ((minus || plus) && value->has_value()) {
+    const double q = std::pow(10.0, spec.decimals);
+    double v = **value + (plus ? spec.step : -spec.step);
+    v = std::round(v * q) / q;  // keep steps on the shown digits
+    v = std::clamp(v, spec.lo, spec.hi);
+    if (v != **value) {
+      *value = v;
+      changed = true;
+    }
+  }
+  return changed;
+}
+
+bool number_field(AppState& app, const std::string& name, const NumberSpec& spec, double* value) {
+  std::optional<double> v = *value;
+  const bool changed = optional_number_field(app, name, spec, &v);
+  if (changed && v) *value = *v;
+  return changed;
+}
+
+bool text_field(AppState& app, const std::string& name, const char* label, std::string* value,
+                const char* hint) {
+  const float e = em(app);
+  dim_text(label);
+  bool changed = false;
+  if (app.ui.entry && app.ui.entry->key == name) {
+    const EntryResult r = *app.ui.entry;
+    app.ui.entry.reset();
+    if (r.accepted && r.text != *value) {
+      *value = r.text;
+      changed = true;
+    }
+  }
+  ImGui::PushStyleColor(ImGuiCol_Button, theme::kSurface);
+  ImGui::PushStyleVar(ImGuiStyleVar_ButtonTextAlign, ImVec2(0.0f, 0.5f));
+  ImGui::PushID(name.c_str());
+  const std::string shown = value->empty() ? std::string("Tap to enter") : *value;
+  if (ImGui::Button(shown.c_str(), ImVec2(ImGui::GetContentRegionAvail().x, kTargetEm * e))) {
+    platform::open_text_entry({name, label, *value, hint ? hint : "", false});
+  }
+  ImGui::PopID();
+  ImGui::PopStyleVar();
+  ImGui::PopStyleColor();
+  record(app, name);
+  return changed;
+}
+
+// ---------------------------------------------------------------- card and column
+namespace {
+struct Inset {
+  ImVec2 start;
+  float old_work_max = 0, old_content_max = 0;
+};
+// Cards do not nest, columns do not nest: one of each at a time.
+Inset g_card;    // NOLINT: widget scratch between begin and end of one card, not app state
+Inset g_column;  // NOLINT: same for the column
+}  // namespace
+
+void card_begin(AppState& app) {
+  const float pad = 0.8f * em(app);
+  ImGuiWindow* w = ImGui::GetCurrentWindow();
+  w->DrawList->ChannelsSplit(2);
+  w->DrawList->ChannelsSetCurrent(1);
+  g_card.start = ImGui::GetCursorScreenPos();
+  g_card.old_work_max = w->WorkRect.Max.x;
+  g_card.old_content_max = w->ContentRegionRect.Max.x;
+  w->WorkRect.Max.x -= pad;
+  w->ContentRegionRect.Max.x -= pad;
+  ImGui::Dummy(ImVec2(0, pad - ImGui::GetStyle().ItemSpacing.y));
+  ImGui::Indent(pad);
+}
+
+void card_end(AppState& app) {
+  const float pad = 0.8f * em(app);
+  ImGuiWindow* w = ImGui::GetCurrentWindow();
+  ImGui::Unindent(pad);
+  w->WorkRect.Max.x = g_card.old_work_max;
+  w->ContentRegionRect.Max.x = g_card.old_content_max;
+  ImGui::Dummy(ImVec2(0, pad - ImGui::GetStyle().ItemSpacing.y));
+  const ImVec2 end(w->WorkRect.Max.x, ImGui::GetCursorScreenPos().y - ImGui::GetStyle().ItemSpacing.y);
+  w->DrawList->ChannelsSetCurrent(0);
+  w->DrawList->AddRectFilled(g_card.start, end, theme::kSurface, 0.7f * em(app));
+  w->DrawList->AddRect(g_card.start, end, IM_COL32(38, 58, 67, 255), 0.7f * em(app));
+  w->DrawList->ChannelsMerge();
+  ImGui::Dummy(ImVec2(0, 0.2f * em(app)));
+}
+
+void column_begin(AppState& app, float max_em) {
+  ImGuiWindow* w = ImGui::GetCurrentWindow();
+  const float avail = ImGui::GetContentRegionAvail().x;
+  const float width = std::min(avail, max_em * em(app));
+  const float left = std::floor((avail - width) / 2);
+  g_column.old_work_max = w->WorkRect.Max.x;
+  g_column.old_content_max = w->ContentRegionRect.Max.x;
+  g_column.start.x = left;
+  if (left > 0) ImGui::Indent(left);
+  w->WorkRect.Max.x = w->DC.CursorPos.x + width;
+  w->ContentRegionRect.Max.x = w->DC.CursorPos.x + width;
+}
+
+void column_end(AppState&) {
+  ImGuiWindow* w = ImGui::GetCurrentWindow();
+  if (g_column.start.x > 0) ImGui::Unindent(g_column.start.x);
+  w->WorkRect.Max.x = g_column.old_work_max;
+  w->ContentRegionRect.Max.x = g_column.old_content_max;
+}
+
+// ---------------------------------------------------------------- touch scrolling
+void touch_scroll(AppState& app) {
+  ImGuiIO& io = ImGui::GetIO();
+  UiState& ui = app.ui;
+  const float threshold = 0.5f * em(app);
+  const bool hovered = ImGui::IsWindowHovered(ImGuiHoveredFlags_ChildWindows |
+                                              ImGuiHoveredFlags_AllowWhenBlockedByActiveItem);
+  if (io.MouseClicked[0]) {
+    ui.drag_travel = 0;
+    ui.drag_scrolling = false;
+    ui.fling_velocity = 0;
+  }
+  if (io.MouseDown[0] && hovered && !ui.drag_owned && !platform::text_entry_open()) {
+    ui.drag_travel += std::fabs(io.MouseDelta.y) + std::fabs(io.MouseDelta.x);
+    if (!ui.drag_scrolling && ui.drag_travel > threshold && ImGui::GetScrollMaxY() > 0) {
+      ui.drag_scrolling = true;
+      ImGui::ClearActiveID();  // the press is a scroll now, not a tap on what is under it
+    }
+    if (ui.drag_scrolling) {
+      ImGui::SetScrollY(ImGui::GetScrollY() - io.MouseDelta.y);
+      ui.fling_velocity = 0.6f * ui.fling_velocity + 0.4f * io.MouseDelta.y;
+    }
+  } else if (ui.drag_scrolling) {
+    ui.drag_scrolling = false;  // released: keep gliding a little
+  } else if (std::fabs(ui.fling_velocity) > 0.5f) {
+    ImGui::SetScrollY(ImGui::GetScrollY() - ui.fling_velocity);
+    ui.fling_velocity *= 0.9f;
+    platform::request_frames(2);
+  }
+  ui.drag_owned = false;
+}
+
+}  // namespace twapp::ui

@@ -1,0 +1,66 @@
+// Widgets made for a thumb: every control is at least 2.75 em tall, sizes are in em, nothing
+// depends on hover. Each named widget records its rectangle (tests tap by name) and can be
+// scrolled into view by name. Numbers are typed in the platform's text field (a phone's
+// decimal keyboard) or nudged with − / + steppers; they are never drag-sliders.
+#pragma once
+
+#include <optional>
+#include <string>
+
+#include "app_state.hpp"
+#include "imgui.h"
+
+namespace twapp::ui {
+
+inline constexpr float kTargetEm = 2.75f;  // minimum height of anything tapped
+
+float em(const AppState& app);
+
+// Records the last item's rectangle under `name` (and scrolls to it if asked to reveal it).
+void record(AppState& app, const std::string& name);
+
+enum class Tone { Normal, Primary, Danger, Quiet };
+// width 0 = the whole line; < 0 = fit the label.
+bool button(AppState& app, const std::string& name, const char* label, float width = 0,
+            Tone tone = Tone::Normal);
+
+void heading(AppState& app, const char* text);
+void dim_text(const char* text);       // wrapped, dimmed
+void wrapped(const char* text);        // wrapped
+void colored_wrapped(ImU32 color, const char* text);
+void label_value(AppState& app, const char* label, const std::string& value, ImU32 value_color = 0);
+
+// A row of choices (segmented), wrapping onto more rows when narrow. Returns true on change.
+bool choice(AppState& app, const std::string& name, const char* label, int* index,
+            const char* const* options, int count);
+
+struct NumberSpec {
+  const char* label;    // "Alkalinity"
+  const char* unit;     // "dKH" (shown beside the value)
+  int decimals = 1;
+  double step = 0.1;    // one tap of − or +
+  double lo = 0, hi = 1e9;  // accepted range (from the core's ranges)
+  bool steppers = true;
+};
+// Value box (tap to type) with − / + beside it. `value` is in the shown unit. Typed text is
+// refused with a message naming the field and the accepted range.
+bool number_field(AppState& app, const std::string& name, const NumberSpec& spec, double* value);
+// Same, but the value may be empty (shows "Tap to enter").
+bool optional_number_field(AppState& app, const std::string& name, const NumberSpec& spec,
+                           std::optional<double>* value);
+bool text_field(AppState& app, const std::string& name, const char* label, std::string* value,
+                const char* hint);
+
+// A rounded panel behind a group of widgets (content is inset by one padding on each side).
+void card_begin(AppState& app);
+void card_end(AppState& app);
+
+// Limits the content to a readable column (max_em wide, centred) inside the current window.
+void column_begin(AppState& app, float max_em);
+void column_end(AppState& app);
+
+// Drag on a scrolling window scrolls it (with a little momentum); a press that moves more
+// than a fraction of an em stops being a tap, so scrolling never edits anything.
+void touch_scroll(AppState& app);
+
+}  // namespace twapp::ui

@@ -1,0 +1,152 @@
+#include "water.hpp"
+
+#include "actions.hpp"
+#include "format.hpp"
+#include "platform.hpp"
+#include "tidewright/seawater.hpp"
+
+namespace twapp {
+
+namespace cb = tw::carbonate;
+namespace jn = tw::journal;
+
+LatestReadings latest_readings(const AppState& app) {
+  LatestReadings r;
+  const jn::System* sys = current_system(app);
+  if (!sys) return r;
+  auto last = [&](jn::Parameter p) -> const jn::Event* {
+    jn::EventFilter f;
+    f.system_id = sys->id;
+    f.parameter = p;
+    const auto events = jn::select_events(app.journal, f);
+    return events.empty() ? nullptr : events.back();
+  };
+  if (const jn::Event* e = last(jn::Parameter::Alkalinity)) {
+    if (auto v = jn::canonical_value(std::get<jn::TestResult>(e->data)); v) {
+      r.alkalinity_dkh = *v;
+      r.alkalinity_time_s = e->time_s;
+    }
+  }
+  if (const jn::Event* e = last(jn::Parameter::PH)) {
+    const auto& t = std::get<jn::TestResult>(e->data);
+    r.ph = t.value;
+    r.ph_scale = t.ph_scale.value_or(cb::PhScale::NBS);
+    r.ph_time_s = e->time_s;
+  }
+  const jn::Event* sal = last(jn::Parameter::Salinity);
+  const jn::Event* sg = last(jn::Parameter::SpecificGravity);
+  if (sal && (!sg || sal->time_s >= sg->time_s)) {
+    if (auto v = jn::canonical_value(std::get<jn::TestResult>(sal->data)); v) r.salinity = *v;
+  } else if (sg) {
+    if (auto v = jn::canonical_value(std::get<jn::TestResult>(sg->data)); v) {
+      if (auto s = tw::seawater::salinity_from_specific_gravity(*v); s) r.salinity = *s;
+    }
+  }
+  if (const jn::Event* e = last(jn::Parameter::Temperature)) {
+    if (auto v = jn::canonical_value(std::get<jn::TestResult>(e->data)); v) r.temperature_c = *v;
+  }
+  if (const jn::Event* e = last(jn::Parameter::Calcium)) {
+    if (auto v = jn::canonical_value(std::get<jn::TestResult>(e->data)); v) r.calcium_mg_l = *v;
+  }
+  return r;
+}
+
+namespace {
+
+void fill_from_journal(AppState& app) {
+  WaterInputs& w = app.water;
+  const jn::System* sys = current_system(app);
+  if (!sys) {
+    w.what_if = true;
+    w.source = "No system yet: these are example numbers.";
+    return;
+  }
+  const LatestReadings r = latest_readings(app);
+  const int tz = platform::utc_offset_minutes();
+  w.pair = r.ph ? WaterPair::AlkalinityPH : WaterPair::AlkalinityAir;
+  w.salinity = r.salinity.value_or(sys->default_salinity);
+  w.temperature_c = r.temperature_c.value_or(sys->default_temperature_c);
+  std::string src = "Latest readings of " + sys->name + ": ";
+  if (r.alkalinity_dkh) {
+    w.alkalinity_dkh = *r.alkalinity_dkh;
+    src += "alkalinity " + fmtx::local_time_text(r.alkalinity_time_s, tz);
+  } else {
+    w.alkalinity_dkh = sys->targets.alkalinity_dkh.value_or(8.0);
+    src += "no alkalinity logged (using " + std::string(sys->targets.alkalinity_dkh ? "the target" : "8 dKH") + ")";
+  }
+  if (r.ph) {
+    w.ph = *r.ph;
+    w.ph_scale = *r.ph_scale;
+    src += ", pH " + fmtx::local_time_text(r.ph_time_s, tz);
+  } else {
+    src += "; no pH logged, so pH is taken at equilibrium with the room's air";
+  }
+  src += r.salinity ? "" : "; salinity from the system's default";
+  src += r.temperature_c ? "" : "; temperature from the system's default";
+  w.source = src + ".";
+}
+
+std::optional<cb::CarbonateState> solve_at(const cb::Constants& k, const cb::InputPair& pair) {
+  auto s = cb::solve(k, pair);
+  if (!s) return std::nullopt;
+  return std::move(s).value();
+}
+
+}  // namespace
+
+void refresh_water(AppState& app) {
+  if (!app.water_stale) return;
+  app.water_stale = false;
+  if (!app.water.what_if) fill_from_journal(app);
+  const WaterInputs& w = app.water;
+  WaterResult out;
+  out.computed_count = app.water_result.computed_count + 1;
+  cb::Conditions cond;
+  cond.salinity = w.salinity;
+  cond.temperature_c = w.temperature_c;
+  auto constants = cb::compute_constants(cond);
+  if (!constants) {
+    out.error = constants.error().message;
+    app.water_result = std::move(out);
+    return;
+  }
+  const cb::Constants& k = *constants;
+  out.density_kg_per_l = tw::seawater::density_kg_per_l(w.salinity, w.temperature_c);
+  const double alk = tw::units::alkalinity_to_umol_kg(w.alkalinity_dkh, tw::units::AlkalinityUnit::DKH,
+                                                      out.density_kg_per_l);
+  tw::Result<cb::CarbonateState> state = tw::Error{"", ""};
+  const cb::Measurement a{cb::Quantity::Alkalinity, alk};
+  switch (w.pair) {
+    case WaterPair::AlkalinityPH: state = cb::solve(k, {a, {cb::Quantity::PH, w.ph}, w.ph_scale}); break;
+    case WaterPair::AlkalinityPCO2: state = cb::solve(k, {a, {cb::Quantity::PCO2, w.pco2_uatm}, w.ph_scale}); break;
+    case WaterPair::AlkalinityDIC: state = cb::solve(k, {a, {cb::Quantity::DIC, w.dic_umol_kg}, w.ph_scale}); break;
+    case WaterPair::AlkalinityAir: state = cb::equilibrate_with_air(k, alk, app.settings.room_co2_ppm); break;
+  }
+  if (!state) {
+    out.error = state.error().message;
+    app.water_result = std::move(out);
+    return;
+  }
+  out.ok = true;
+  out.state = std::move(state).value();
+  auto air = cb::equilibrate_with_air(k, alk, app.settings.room_co2_ppm);
+  if (air) {
+    out.air = std::move(air).value();
+  } else {
+    out.air_error = air.error().message;
+  }
+  // Species across pH 6..10 on the shown scale, at this water's DIC (the core solves each point).
+  const double dic = out.state.dic_umol_kg;
+  for (int i = 0; i <= 80; ++i) {
+    const double ph = 6.0 + 0.05 * i;
+    auto p = solve_at(k, {{cb::Quantity::PH, ph}, {cb::Quantity::DIC, dic}, w.ph_scale});
+    if (!p || p->dic_umol_kg <= 0) continue;
+    out.curve.ph.push_back(static_cast<float>(ph));
+    out.curve.co2.push_back(static_cast<float>(p->co2_umol_kg / p->dic_umol_kg));
+    out.curve.hco3.push_back(static_cast<float>(p->hco3_umol_kg / p->dic_umol_kg));
+    out.curve.co3.push_back(static_cast<float>(p->co3_umol_kg / p->dic_umol_kg));
+  }
+  app.water_result = std::move(out);
+}
+
+}  // namespace twapp
