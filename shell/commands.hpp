@@ -17,5 +17,6 @@ struct CommandError : std::runtime_error {
 void register_chem(CLI::App& app);      // carbonate state, one or a CSV batch
 void register_salinity(CLI::App& app);  // specific gravity <-> conductivity <-> salinity
 void register_log(CLI::App& app);       // the tank journal: add, import, export, list
+void register_demand(CLI::App& app);    // consumption estimate per system from the journal
 
 }  // namespace tw::shell

@@ -11,6 +11,7 @@ int main(int argc, char** argv) {
   tw::shell::register_chem(app);
   tw::shell::register_salinity(app);
   tw::shell::register_log(app);
+  tw::shell::register_demand(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {

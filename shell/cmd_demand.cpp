@@ -1,0 +1,275 @@
+// `tidewright demand`: daily demand of alkalinity, calcium and magnesium per system from the
+// journal's tests, doses, water changes and top-offs (core: estimate.hpp), with uncertainty,
+// outlier flags, the Ca:alkalinity reading and a forecast under the current dosing.
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include "commands.hpp"
+#include "file_io.hpp"
+#include "tidewright/datetime.hpp"
+#include "tidewright/estimate.hpp"
+#include "tidewright/journal.hpp"
+#include "tidewright/journal_file.hpp"
+
+namespace tw::shell {
+namespace {
+
+namespace est = tw::estimate;
+
+struct DemandOptions {
+  std::string journal_path;
+  std::string system;
+  int days = 7;
+  double dose_window_days = 7.0;
+  bool json = false;
+  bool history = false;
+};
+
+std::vector<const journal::System*> pick_systems(const journal::Journal& j, const std::string& key) {
+  std::vector<const journal::System*> out;
+  if (key.empty()) {
+    for (const auto& s : j.systems) out.push_back(&s);
+    return out;
+  }
+  if (const journal::System* s = journal::find_system_by_name(j, key)) return {s};
+  try {
+    std::size_t used = 0;
+    const long long id = std::stoll(key, &used);
+    if (used == key.size()) {
+      if (const journal::System* s = journal::find_system(j, id)) return {s};
+    }
+  } catch (const std::exception&) {
+  }
+  std::string names;
+  for (const auto& s : j.systems) names += fmt::format("{}'{}' (id {})", names.empty() ? "" : ", ", s.name, s.id);
+  throw CommandError(fmt::format("--system '{}': no system of that name or id; the journal has: {}",
+                                 key, names.empty() ? "no systems" : names));
+}
+
+std::string when(double time_days) {
+  return datetime::format_iso8601_utc(static_cast<std::int64_t>(std::llround(time_days * 86400.0)));
+}
+std::string date_of(double time_days) {
+  return datetime::format_date_utc(static_cast<std::int64_t>(std::llround(time_days * 86400.0)));
+}
+
+struct ParamResult {
+  est::Parameter p;
+  est::SeriesEstimate e;
+  double dose_per_day = 0.0;
+  std::vector<est::ForecastPoint> forecast;
+};
+
+struct SystemResult {
+  const journal::System* system;
+  est::SystemSeries series;
+  double now_days = 0.0;
+  std::vector<ParamResult> params;
+  est::CalciumAlkalinityReading ratio;
+};
+
+SystemResult compute(const journal::Journal& j, const journal::System& sys, const DemandOptions& o) {
+  auto series = est::series_from_journal(j, sys.id);
+  if (!series) throw CommandError(series.error().message);
+  SystemResult r{&sys, std::move(series).value(), 0.0, {}, {}};
+  bool any = false;
+  for (est::Parameter p : est::kAllParameters) {
+    const auto& ev = r.series.of(p).events;
+    if (!ev.empty()) {
+      r.now_days = any ? std::max(r.now_days, est::time_of(ev.back())) : est::time_of(ev.back());
+      any = true;
+    }
+  }
+  for (est::Parameter p : est::kAllParameters) {
+    const est::FilterOptions fo = est::default_filter_options(p);
+    auto e = est::estimate_series(r.series.of(p), fo, r.now_days);
+    if (!e) throw CommandError(fmt::format("{} of '{}': {}", est::to_string(p), sys.name, e.error().message));
+    ParamResult pr{p, std::move(e).value(), 0.0, {}};
+    pr.dose_per_day = est::recent_daily_addition(r.series.of(p), o.dose_window_days, r.now_days);
+    if (pr.e.demand_known) {
+      auto f = est::forecast_levels(pr.e, pr.dose_per_day, o.days, fo);
+      if (!f) throw CommandError(f.error().message);
+      pr.forecast = std::move(f).value();
+    }
+    r.params.push_back(std::move(pr));
+  }
+  r.ratio = est::read_calcium_alkalinity(r.params[0].e, r.params[1].e);
+  return r;
+}
+
+// ------------------------------------------------------------ JSON
+nlohmann::json param_json(const ParamResult& pr) {
+  const est::SeriesEstimate& e = pr.e;
+  nlohmann::json j{{"unit", est::unit_of(pr.p)},
+                   {"tests", e.tests},
+                   {"tests_used", e.tests_used},
+                   {"demand_known", e.demand_known}};
+  if (e.tests_used > 0) {
+    j["level"] = e.level;
+    j["level_sd"] = e.level_sd;
+  }
+  if (e.demand_known) {
+    j["demand_per_day"] = e.demand_per_day;
+    j["demand_sd"] = e.demand_sd;
+    j["demand_low95"] = e.demand_low95;
+    j["demand_high95"] = e.demand_high95;
+  } else {
+    j["demand_per_day"] = nullptr;
+  }
+  j["daily_dose_effect"] = pr.dose_per_day;
+  nlohmann::json hist = nlohmann::json::array();
+  for (const auto& h : e.history) {
+    hist.push_back({{"time", when(h.time_days)}, {"reading", h.reading}, {"status", est::to_string(h.status)},
+                    {"level", h.level}, {"level_sd", h.level_sd}, {"demand_per_day", h.demand_per_day},
+                    {"demand_sd", h.demand_sd}, {"smoothed_demand_per_day", h.smoothed_demand_per_day},
+                    {"smoothed_demand_sd", h.smoothed_demand_sd}});
+  }
+  j["history"] = hist;
+  nlohmann::json out = nlohmann::json::array();
+  for (const auto& f : e.outliers) {
+    out.push_back({{"time", when(f.time_days)}, {"reading", f.reading}, {"expected", f.expected},
+                   {"expected_sd", f.expected_sd}, {"z", f.z}, {"reason", f.reason}});
+  }
+  j["outliers"] = out;
+  nlohmann::json fc = nlohmann::json::array();
+  for (const auto& f : pr.forecast) {
+    fc.push_back({{"day", f.day}, {"date", date_of(f.time_days)}, {"level", f.level},
+                  {"level_sd", f.level_sd}, {"low95", f.low95}, {"high95", f.high95}});
+  }
+  j["forecast"] = fc;
+  return j;
+}
+
+nlohmann::json system_json(const SystemResult& r) {
+  nlohmann::json params = nlohmann::json::object();
+  for (const auto& pr : r.params) params[est::to_string(pr.p)] = param_json(pr);
+  const auto& c = r.ratio;
+  nlohmann::json ratio{{"verdict", est::to_string(c.verdict)},
+                       {"expected_mg_l_per_dkh", c.expected_mg_l_per_dkh},
+                       {"reading", c.reading}};
+  if (c.verdict != est::RatioVerdict::NotEnoughData) {
+    ratio["excess_calcium_mg_l_per_day"] = c.excess_calcium_mg_l_per_day;
+    ratio["excess_sd"] = c.excess_sd;
+  }
+  if (c.ratio_valid) {
+    ratio["ratio_mg_l_per_dkh"] = c.ratio_mg_l_per_dkh;
+    ratio["ratio_sd"] = c.ratio_sd;
+  }
+  return {{"id", r.system->id},         {"name", r.system->name},
+          {"volume_l", r.system->volume_l}, {"now", when(r.now_days)},
+          {"parameters", params},       {"calcium_alkalinity", ratio},
+          {"notes", r.series.notes}};
+}
+
+// ------------------------------------------------------------ text
+int decimals(est::Parameter p) { return p == est::Parameter::Alkalinity ? 2 : 1; }
+
+void print_trimmed(std::string line) {
+  while (!line.empty() && line.back() == ' ') line.pop_back();
+  std::printf("%s\n", line.c_str());
+}
+
+void print_system(const SystemResult& r, const DemandOptions& o) {
+  std::printf("%s (id %lld, %g L), state at %s\n", r.system->name.c_str(),
+              static_cast<long long>(r.system->id), r.system->volume_l, when(r.now_days).c_str());
+  for (const auto& pr : r.params) {
+    const auto& e = pr.e;
+    const char* u = est::unit_of(pr.p);
+    const int d = decimals(pr.p);
+    if (!e.demand_known) {
+      std::printf("  %-10s  not enough tests for a demand (%zu test%s; needs two usable on different days)\n",
+                  est::to_string(pr.p), e.tests, e.tests == 1 ? "" : "s");
+      continue;
+    }
+    std::printf("  %-10s  demand %s +/- %s %s/day (95 %%: %s to %s); level %s +/- %s %s; %zu tests, %zu used\n",
+                est::to_string(pr.p), fmt::format("{:.{}f}", e.demand_per_day, d + 1).c_str(),
+                fmt::format("{:.{}f}", e.demand_sd, d + 1).c_str(), u,
+                fmt::format("{:.{}f}", e.demand_low95, d + 1).c_str(),
+                fmt::format("{:.{}f}", e.demand_high95, d + 1).c_str(),
+                fmt::format("{:.{}f}", e.level, d).c_str(), fmt::format("{:.{}f}", e.level_sd, d).c_str(), u,
+                e.tests, e.tests_used);
+    for (const auto& f : e.outliers)
+      std::printf("              outlier %s: %s\n", when(f.time_days).c_str(), f.reason.c_str());
+    if (o.history) {
+      std::printf("              %-20s %9s %-13s %10s %10s %10s\n", "time", "reading", "status", "demand", "sd",
+                  "smoothed");
+      for (const auto& h : e.history)
+        std::printf("              %-20s %9.*f %-13s %10.*f %10.*f %10.*f\n", when(h.time_days).c_str(), d,
+                    h.reading, est::to_string(h.status), d + 1, h.demand_per_day, d + 1, h.demand_sd, d + 1,
+                    h.smoothed_demand_per_day);
+    }
+  }
+  std::printf("  Ca:alkalinity: %s\n", r.ratio.reading.c_str());
+  std::vector<const ParamResult*> fc;
+  for (const auto& pr : r.params)
+    if (!pr.forecast.empty()) fc.push_back(&pr);
+  if (!fc.empty()) {
+    std::printf("  Forecast with the logged dosing of the last %g days continuing (", o.dose_window_days);
+    for (std::size_t i = 0; i < fc.size(); ++i)
+      std::printf("%s%s %+.*f %s/day", i ? ", " : "", est::to_string(fc[i]->p), decimals(fc[i]->p) + 1,
+                  fc[i]->dose_per_day, est::unit_of(fc[i]->p));
+    std::printf("; water changes not included), level and 95 %% band:\n");
+    std::string line = fmt::format("    {:<4} {:<10}", "day", "date");
+    for (const auto* pr : fc) line += fmt::format(" {:<26}", fmt::format("{} {}", est::to_string(pr->p), est::unit_of(pr->p)));
+    print_trimmed(line);
+    for (int k = 0; k < o.days; ++k) {
+      line = fmt::format("    {:<4} {:<10}", k + 1, date_of(fc[0]->forecast[static_cast<std::size_t>(k)].time_days));
+      for (const auto* pr : fc) {
+        const auto& f = pr->forecast[static_cast<std::size_t>(k)];
+        const int d = decimals(pr->p);
+        line += fmt::format(" {:<26}", fmt::format("{:.{}f} ({:.{}f} to {:.{}f})", f.level, d, f.low95, d, f.high95, d));
+      }
+      print_trimmed(line);
+    }
+  }
+  for (const auto& n : r.series.notes) std::printf("  note: %s\n", n.c_str());
+}
+
+void run(const DemandOptions& o) {
+  if (o.days < 1 || o.days > 365)
+    throw CommandError(fmt::format("--days {} is outside the accepted range 1 to 365", o.days));
+  if (!(o.dose_window_days >= 1.0 && o.dose_window_days <= 90.0))
+    throw CommandError(fmt::format("--dose-window {:g} is outside the accepted range 1 to 90 days", o.dose_window_days));
+  auto parsed = journal::parse_journal(read_text_file(o.journal_path));
+  if (!parsed) throw CommandError(fmt::format("--journal '{}': {}", o.journal_path, parsed.error().message));
+  const journal::Journal& j = *parsed;
+  std::vector<SystemResult> results;
+  for (const journal::System* s : pick_systems(j, o.system)) results.push_back(compute(j, *s, o));
+  if (o.json) {
+    nlohmann::json out{{"systems", nlohmann::json::array()}};
+    for (const auto& r : results) out["systems"].push_back(system_json(r));
+    std::printf("%s\n", out.dump(2).c_str());
+    return;
+  }
+  for (std::size_t i = 0; i < results.size(); ++i) {
+    if (i) std::printf("\n");
+    print_system(results[i], o);
+  }
+}
+
+}  // namespace
+
+void register_demand(CLI::App& app) {
+  auto o = std::make_shared<DemandOptions>();
+  CLI::App* cmd = app.add_subcommand(
+      "demand", "Daily demand of alkalinity, calcium and magnesium per system from the journal, with "
+                "uncertainty, outliers, the Ca:alkalinity reading and a forecast");
+  cmd->add_option("--journal", o->journal_path, "Journal file (tidewright-journal JSON)")->required();
+  cmd->add_option("--system", o->system, "Only this system (name or id); default: every system");
+  cmd->add_option("--days", o->days, "Days to forecast, 1 to 365 (default 7)");
+  cmd->add_option("--dose-window", o->dose_window_days,
+                  "Days of logged doses averaged as the current dosing, 1 to 90 (default 7)");
+  cmd->add_flag("--history", o->history, "Also print the demand at every test (text output)");
+  cmd->add_flag("--json", o->json, "JSON output (always includes the history)");
+  cmd->callback([o] { run(*o); });
+}
+
+}  // namespace tw::shell
