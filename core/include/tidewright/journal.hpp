@@ -114,7 +114,9 @@ struct Dose {
   std::string additive_id;  // catalog id (additives.hpp), e.g. "sodium_carbonate"
   double amount = 0;
   DoseUnit unit = DoseUnit::Grams;
-  std::optional<double> stock_g_per_l;  // for mL doses of a stock solution: grams per litre
+  // For mL doses of a stock solution: grams of the catalog compound as sold (with its water
+  // of hydration, e.g. CaCl2.2H2O) per litre of stock.
+  std::optional<double> stock_g_per_l;
   bool operator==(const Dose&) const = default;
 };
 
