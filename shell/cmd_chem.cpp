@@ -1,4 +1,5 @@
 // `tidewright chem`: one carbonate state from options, or a CSV batch (--batch FILE|-).
+#include <cmath>
 #include <cstdio>
 #include <fstream>
 #include <iostream>
@@ -159,6 +160,10 @@ void run_single(const ChemOptions& o) {
   std::vector<carbonate::Measurement> given;
   if (o.alkalinity) {
     auto unit = or_fail(units::alkalinity_unit_from_string(o.alkalinity_unit));
+    // Refuse in the user's own unit, so the message speaks it (dKH, meq/L ...).
+    const double max_in_unit = units::alkalinity_from_umol_kg(carbonate::kAlkalinityMaxUmolKg, unit, density);
+    auto in_range = check_range("--alkalinity", *o.alkalinity, 0.0, std::floor(max_in_unit), units::to_string(unit));
+    if (!in_range) throw CommandError(in_range.error().message);
     given.push_back({carbonate::Quantity::Alkalinity, units::alkalinity_to_umol_kg(*o.alkalinity, unit, density)});
   }
   if (o.dic) given.push_back({carbonate::Quantity::DIC, *o.dic});
