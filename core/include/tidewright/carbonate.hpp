@@ -141,6 +141,12 @@ struct CarbonateState {
   std::vector<std::string> warnings;  // constant-range warnings carried forward
 };
 
+// Any two different quantities except pCO2 + fCO2 (not independent). Pairs that need
+// iteration (alkalinity with DIC, pCO2, fCO2 or CO3) use a bracketed Newton over pH_T 2..12;
+// the others are closed forms. Alkalinity + CO3 can fit two states (the second one hydroxide-
+// dominated, at high pH): the lower-pH one is returned and a warning names the other.
+// Errors: an input outside its range (field = that input), a pair no state in pH_T 2..12
+// fits (field = the input to check, message says why), or "solver" if the iteration cap hits.
 Result<CarbonateState> solve(const Constants& constants, const InputPair& inputs,
                              const SolverOptions& options = {});
 
@@ -151,7 +157,7 @@ Result<CarbonateState> solve_alkalinity_dic(const Constants& constants, double a
 // ---------------------------------------------------------------- 6. Air
 // State of water of the given alkalinity in equilibrium with air of the given CO2 mole
 // fraction (dry air, ppm) at 1 atm total pressure, with water vapour pressure after
-// Weiss & Price (1980).
+// Weiss & Price (1980). air_co2_ppm accepted 1..1e6.
 Result<CarbonateState> equilibrate_with_air(const Constants& constants, double alkalinity_umol_kg,
                                             double air_co2_ppm);
 // pCO2 [uatm] of moist air at 1 atm: xCO2 (1 atm - pH2O), pH2O of Weiss & Price (1980).
