@@ -2,6 +2,7 @@
 // IDBFS for storage, and the JavaScript glue in web_pre.js (Module.tw.*). Also the exported
 // C functions that the page and the browser tests call (tw_*).
 #include <emscripten.h>
+#include <emscripten/heap.h>
 #include <emscripten/html5.h>
 #include <GLFW/glfw3.h>
 #include <GLES3/gl3.h>
@@ -38,7 +39,7 @@ EM_JS(void, js_poll_pointer, (float* out), { Module.tw.poll(out); });
 EM_JS(int, js_take_dirty, (), { return Module.tw.takeDirty() ? 1 : 0; });
 EM_JS(void, js_flush_storage, (), { Module.tw.flush(); });
 EM_JS(int, js_store_error, (char* out, int size), {
-  var e = Module.tw.storeError; Module.tw.storeError = '';
+  var e = Module.tw.storeError; Module.tw.storeError = "";
   if (!e) return 0;
   stringToUTF8(e, out, size); return 1;
 });
@@ -51,6 +52,14 @@ EM_JS(void, js_download, (const char* name, const char* mime, const char* text),
 });
 EM_JS(void, js_pick_file, (), { Module.tw.pickFile(); });
 EM_JS(void, js_first_frame, (), { Module.tw.firstFrame(); });
+// Sets the canvas's pixel size and tells Emscripten's GLFW, without glfwSetWindowSize (which
+// asks for fullscreen when the size equals the screen's).
+EM_JS(void, js_set_canvas_size, (int w, int h), {
+  var c = Module.canvas;
+  if (c.width != w) c.width = w;
+  if (c.height != h) c.height = h;
+  if (GLFW.active) { GLFW.active.width = w; GLFW.active.height = h; }
+});
 EM_JS(int, js_utc_offset_minutes, (), { return -new Date().getTimezoneOffset(); });
 // clang-format on
 
@@ -66,7 +75,7 @@ void track_canvas_size() {
   int cur_w = 0, cur_h = 0;
   glfwGetWindowSize(g_window, &cur_w, &cur_h);
   if (cur_w != w || cur_h != h) {
-    glfwSetWindowSize(g_window, w, h);
+    js_set_canvas_size(w, h);
     g_pending_frames = std::max(g_pending_frames, 3);
   }
 }

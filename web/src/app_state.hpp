@@ -24,7 +24,7 @@ namespace twapp {
 
 // Screens in tab-bar order. To add one: a value here, a row in kTabs (nav.cpp), and
 // void draw_<name>(AppState&) in screen_<name>.cpp declared in screens.hpp.
-enum class Screen { Systems, Log, Water, Demand, Hatchery, Mixes, Settings };
+enum class Screen { Systems, Log, Water, Demand, Plan, Hatchery, Mixes, Settings };
 const char* screen_name(Screen s);  // "systems", "log", "water", "settings" (test interface)
 
 struct Settings {
@@ -76,6 +76,7 @@ struct Fonts {
   ImFont* body = nullptr;   // text
   ImFont* bold = nullptr;   // headings, values
   ImFont* big = nullptr;    // the one big number of a screen
+  ImFont* small = nullptr;  // tab labels (ASCII only)
 };
 
 // A finished text entry (platform text field), waiting for the widget that asked for it.

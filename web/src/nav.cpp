@@ -65,6 +65,7 @@ const Tab kTabs[] = {
     {Screen::Log, "Log", "tab.log", icon_log, draw_log},
     {Screen::Water, "Water", "tab.water", icon_water, draw_water},
     {Screen::Demand, "Demand", "tab.demand", icons::demand, draw_demand},
+    {Screen::Plan, "Plan", "tab.plan", icons::plan, draw_plan},
     {Screen::Hatchery, "Hatchery", "tab.hatchery", icons::hatchery, draw_hatchery},
     {Screen::Mixes, "Mixes", "tab.mixes", icons::mixes, draw_mixes},
     {Screen::Settings, "Settings", "tab.settings", icon_settings, draw_settings},
@@ -113,7 +114,13 @@ void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
                        selected ? IM_COL32(79, 194, 176, 40) : IM_COL32(255, 255, 255, 20), 0.8f * e);
     }
     t.icon(d, icon_c, 0.5f * e, col);
-    ImGui::PushFont(selected ? app.ui.fonts.bold : app.ui.fonts.body);
+    // Labels shrink to the small font when seven tabs share a phone's width.
+    ImFont* font = selected ? app.ui.fonts.bold : app.ui.fonts.body;
+    ImGui::PushFont(font);
+    if (ImGui::CalcTextSize(t.label).x > cell.x - 0.3f * e) {
+      ImGui::PopFont();
+      ImGui::PushFont(app.ui.fonts.small);
+    }
     const ImVec2 ts = ImGui::CalcTextSize(t.label);
     d->AddText(ImVec2(p.x + (cell.x - ts.x) / 2, p.y + cell.y * 0.62f), col, t.label);
     ImGui::PopFont();

@@ -114,7 +114,7 @@ void draw_results(AppState& app, const jn::UnitPreferences& u) {
     if (sc == meter) continue;
     ui::label_value(app, (std::string("pH, ") + fmtx::ph_scale_label(sc) + " scale").c_str(), fmtx::fixed(fmtx::ph_on_scale(s, sc), 3));
   }
-  ImGui::Separator();
+  ui::divider(app);
   ui::label_value(app, "Alkalinity", fmtx::alkalinity_text(app.water.alkalinity_dkh, u.alkalinity));
   ui::label_value(app, "DIC", fmtx::fixed(s.dic_umol_kg, 0) + " \u03bcmol/kg");
   ui::label_value(app, "Bicarbonate HCO\u2083\u207b", fmtx::fixed(s.hco3_umol_kg, 0) + " \u03bcmol/kg", theme::kHco3);

@@ -3,8 +3,6 @@
 
 extern const unsigned char tw_font_regular[];
 extern const unsigned long tw_font_regular_size;
-extern const unsigned char tw_font_bold[];
-extern const unsigned long tw_font_bold_size;
 
 namespace twapp::theme {
 
@@ -14,7 +12,7 @@ namespace {
 
 // Latin-1, Greek (Omega, mu), dashes and quotes, super- and subscripts (CO₂, CO₃²⁻), minus,
 // approximately, less/greater-or-equal.
-const ImWchar kGlyphRanges[] = {0x0020, 0x00FF, 0x0394, 0x0394, 0x03A9, 0x03A9, 0x03BC, 0x03BC,
+const ImWchar kGlyphRanges[] = {0x0020, 0x00FF, 0x0394, 0x0394, 0x03A9, 0x03A9, 0x03B2, 0x03B2, 0x03BC, 0x03BC,
                                 0x2009, 0x2026, 0x2070, 0x208E, 0x2212, 0x2212, 0x2248, 0x2248,
                                 0x2264, 0x2265, 0};
 // The big font only shows numbers and short words.
@@ -87,8 +85,11 @@ void build(UiState& ui, float scale) {
   io.Fonts->Clear();
   const float px = kBaseFontPx * scale;
   ui.fonts.body = add_font(tw_font_regular, tw_font_regular_size, px, kGlyphRanges);
-  ui.fonts.bold = add_font(tw_font_bold, tw_font_bold_size, px, kGlyphRanges);
-  ui.fonts.big = add_font(tw_font_bold, tw_font_bold_size, px * 1.9f, kBigGlyphRanges);
+  // One embedded face (Roboto Regular) keeps the download small; "bold" is the same face a
+  // little larger, and headings get the accent colour.
+  ui.fonts.bold = add_font(tw_font_regular, tw_font_regular_size, px * 1.06f, kGlyphRanges);
+  ui.fonts.small = add_font(tw_font_regular, tw_font_regular_size, px * 0.8f, kBigGlyphRanges);
+  ui.fonts.big = add_font(tw_font_regular, tw_font_regular_size, px * 1.9f, kBigGlyphRanges);
   io.Fonts->Build();
   io.FontDefault = ui.fonts.body;
   apply_style(scale);

@@ -71,6 +71,14 @@ void heading(AppState& app, const char* text) {
   ImGui::PopFont();
 }
 
+void divider(AppState& app) {
+  const ImVec2 p = ImGui::GetCursorScreenPos();
+  const float w = ImGui::GetContentRegionAvail().x;
+  ImGui::GetWindowDrawList()->AddLine(ImVec2(p.x, p.y + 0.2f * em(app)), ImVec2(p.x + w, p.y + 0.2f * em(app)),
+                                      theme::kBorder, std::max(1.0f, 0.06f * em(app)));
+  ImGui::Dummy(ImVec2(w, 0.4f * em(app)));
+}
+
 void dim_text(const char* text) { colored_wrapped(theme::kTextDim, text); }
 void wrapped(const char* text) { ImGui::TextWrapped("%s", text); }
 void colored_wrapped(ImU32 color, const char* text) {

@@ -25,6 +25,7 @@ bool button(AppState& app, const std::string& name, const char* label, float wid
             Tone tone = Tone::Normal);
 
 void heading(AppState& app, const char* text);
+void divider(AppState& app);  // a thin line across the current column or card
 void dim_text(const char* text);       // wrapped, dimmed
 void wrapped(const char* text);        // wrapped
 void colored_wrapped(ImU32 color, const char* text);

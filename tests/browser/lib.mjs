@@ -1,0 +1,80 @@
+// Shared helpers of the browser tests and the benchmark: Chromium (Debian's, through
+// playwright-core), the app's test interface (Module.ccall('tw_test_*')) and taps by widget name.
+import { chromium } from 'playwright-core';
+import { mkdirSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+export const HERE = dirname(fileURLToPath(import.meta.url));
+export const OUTPUT = join(HERE, 'output');
+mkdirSync(OUTPUT, { recursive: true });
+
+export const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu-sandbox', '--use-gl=swiftshader', '--enable-unsafe-swiftshader',
+  '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+
+export function launch() {
+  return chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: CHROMIUM_ARGS });
+}
+
+export const PHONE = { viewport: { width: 390, height: 844 }, deviceScaleFactor: 3, hasTouch: true, isMobile: true };
+export const DESKTOP = { viewport: { width: 1280, height: 800 }, deviceScaleFactor: 1, hasTouch: false };
+
+// Collects console errors and page errors of a page.
+export function watchErrors(page) {
+  const errors = [];
+  page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });
+  page.on('pageerror', (e) => errors.push(String(e)));
+  return errors;
+}
+
+export async function waitReady(page, timeout = 30000) {
+  await page.waitForFunction(() => window.__twFirstFrameMs !== undefined, null, { timeout });
+}
+
+export async function state(page) {
+  return JSON.parse(await page.evaluate(() => Module.ccall('tw_test_state', 'string', [], [])));
+}
+
+export async function widget(page, name) {
+  return JSON.parse(await page.evaluate((n) => Module.ccall('tw_test_widget', 'string', ['string'], [n]), name));
+}
+
+// Draws n more frames and waits for them.
+export async function frames(page, n = 3) {
+  const start = (await state(page)).frames;
+  await page.evaluate((k) => Module.ccall('tw_test_animate', null, ['number'], [k]), n + 2);
+  await page.waitForFunction((s) => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).frames >= s,
+    start + n, { timeout: 10000 });
+}
+
+// Taps (touch) or clicks (mouse) the centre of a named widget, scrolling it into view first.
+export async function tap(page, name) {
+  let w = await widget(page, name);
+  for (let i = 0; i < 4 && (!w.found || !w.visible); i++) {
+    await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
+    await frames(page, 3);
+    w = await widget(page, name);
+  }
+  if (!w.found || !w.visible) throw new Error(`widget ${name} not on screen: ${JSON.stringify(w)}`);
+  const x = w.x + w.w / 2, y = w.y + w.h / 2;
+  const touch = await page.evaluate(() => navigator.maxTouchPoints > 0);
+  if (touch) await page.touchscreen.tap(x, y); else await page.mouse.click(x, y);
+  await frames(page, 3);
+}
+
+// Types into the app's text entry field (opened by tapping a field) and confirms.
+export async function enter(page, text) {
+  await page.waitForSelector('#entry.open', { timeout: 5000 });
+  await page.fill('#entry-input', text);
+  await page.press('#entry-input', 'Enter');
+  await frames(page, 3);
+}
+
+// Waits until the browser copy of the store is flushed into IndexedDB.
+export async function flushed(page) {
+  await page.waitForFunction(() => !Module.tw.flushing(), null, { timeout: 10000 });
+}
+
+export function check(cond, what) {
+  if (!cond) throw new Error(what);
+}

@@ -1,0 +1,192 @@
+// Browser tests of the Tidewright app in headless Chromium (Debian's, via playwright-core).
+//   node run-all.mjs [site-dir]      (default ../../build-web/site)
+// Prints one line per test and "N passed, M failed"; exits non-zero on any failure.
+// Screenshots go to tests/browser/output/.
+import { resolve, join } from 'node:path';
+import { readFileSync } from 'node:fs';
+import { startServer } from './serve.mjs';
+import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE } from './lib.mjs';
+
+const site = resolve(process.argv[2] || join(HERE, '../../build-web/site'));
+const server = await startServer(site);
+const browser = await launch();
+const SCREENS = ['systems', 'log', 'water', 'demand', 'hatchery', 'mixes', 'settings'];
+// Chromium's own notices about software WebGL are not app errors.
+const benign = (t) => /GL Driver Message|GPU stall|WebGL/.test(t);
+
+async function open(opts) {
+  const context = await browser.newContext({ ...opts, acceptDownloads: true });
+  const page = await context.newPage();
+  const errors = watchErrors(page);
+  await page.goto(server.url);
+  await waitReady(page);
+  await frames(page, 3);
+  return { context, page, errors };
+}
+
+const tests = [];
+const test = (name, fn) => tests.push({ name, fn });
+
+test('page loads with no console errors (390x844 phone)', async () => {
+  const { context, page, errors } = await open(PHONE);
+  const s = await state(page);
+  check(s.store.loaded, 'store not loaded');
+  check(s.systems.length > 0, 'demo systems missing on first start');
+  check(s.pixel_ratio === 3, `pixel ratio ${s.pixel_ratio}, expected 3`);
+  const size = await page.evaluate(() => [Module.canvas.width, Module.canvas.height]);
+  check(size[0] === 1170 && size[1] === 2532, `canvas ${size} is not CSS size x devicePixelRatio`);
+  await context.close();
+  const real = errors.filter((e) => !benign(e));
+  check(real.length === 0, `console errors: ${real.join(' | ')}`);
+});
+
+for (const [label, opts] of [['phone 390x844', PHONE], ['desktop 1280x800', DESKTOP]]) {
+  test(`every screen reached by taps (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    const tag = opts.hasTouch ? 'phone' : 'desktop';
+    const have = SCREENS.filter((n) => true);
+    for (const name of have) {
+      const w = JSON.parse(await page.evaluate((n) => Module.ccall('tw_test_widget', 'string', ['string'], [n]), `tab.${name}`));
+      if (!w.found) throw new Error(`tab.${name} is not in the tab bar`);
+      await tap(page, `tab.${name}`);
+      const s = await state(page);
+      check(s.screen === name, `after tapping tab.${name} the screen is ${s.screen}`);
+      await page.screenshot({ path: join(OUTPUT, `${tag}-${name}.png`) });
+    }
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
+// One context for the data tests: log -> reload -> offline reload -> export/import.
+let shared = null;
+test('a test result typed in shows in the journal and the chemistry', async () => {
+  shared = await open(PHONE);
+  const { page } = shared;
+  await tap(page, 'tab.log');
+  await tap(page, 'log.parameter.0');        // Alkalinity
+  const before = await state(page);
+  await tap(page, 'log.unit.0');              // dKH
+  await tap(page, 'log.value');
+  await enter(page, '9,35');                  // a phone in a comma locale
+  await tap(page, 'log.save');
+  const s = await state(page);
+  check(s.events === before.events + 1, `events ${before.events} -> ${s.events}`);
+  const last = s.recent_events.find((e) => e.parameter === 'alkalinity' && e.value === 9.35);
+  check(last && last.unit === 'dKH', `logged event not found: ${JSON.stringify(s.recent_events.slice(-2))}`);
+  check(Math.abs(s.latest.alkalinity_dkh - 9.35) < 1e-9, `latest alkalinity ${s.latest.alkalinity_dkh}`);
+  await tap(page, 'tab.water');
+  const w = await state(page);
+  check(w.water.ok && Math.abs(w.water.inputs.alkalinity_dkh - 9.35) < 1e-9, `water inputs ${JSON.stringify(w.water.inputs)}`);
+  check(w.water.alkalinity_umol_kg > 3000 && w.water.alkalinity_umol_kg < 3400, `alkalinity ${w.water.alkalinity_umol_kg} umol/kg for 9.35 dKH`);
+  check(w.water.curve_points > 50, 'species chart has no curve');
+  await page.screenshot({ path: join(OUTPUT, 'phone-water-after-log.png') });
+  // A refused value: pH 3 is outside the journal's range, nothing is logged.
+  await tap(page, 'tab.log');
+  await tap(page, 'log.parameter.3');
+  await tap(page, 'log.value');
+  await enter(page, '3');
+  const r = await state(page);
+  check(r.message_is_error && /range/.test(r.message), `no range message for pH 3: ${r.message}`);
+  check(r.events === s.events, 'a refused value was logged');
+  await flushed(page);
+});
+
+test('reload keeps the logged result', async () => {
+  const { page } = shared;
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 2);
+  const s = await state(page);
+  check(Math.abs(s.latest.alkalinity_dkh - 9.35) < 1e-9, `after reload latest alkalinity ${s.latest.alkalinity_dkh}`);
+  check(s.store.problem === '', `store problem: ${s.store.problem}`);
+});
+
+test('offline reload works (service worker)', async () => {
+  const { page, context } = shared;
+  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
+  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, null, { timeout: 10000 });
+  await context.setOffline(true);
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 2);
+  const s = await state(page);
+  check(Math.abs(s.latest.alkalinity_dkh - 9.35) < 1e-9, 'offline: data missing');
+  await page.screenshot({ path: join(OUTPUT, 'phone-offline.png') });
+  await context.setOffline(false);
+});
+
+test('export then import restores everything', async () => {
+  const { page } = shared;
+  await tap(page, 'tab.settings');
+  await tap(page, 'settings.alkalinity.1');   // meq/L, saved with the system
+  const before = await state(page);
+  const [download] = await Promise.all([page.waitForEvent('download'), tap(page, 'settings.export')]);
+  const file = join(OUTPUT, 'export.json');
+  await download.saveAs(file);
+  const doc = JSON.parse(readFileSync(file, 'utf8'));
+  check(doc.format === 'tidewright-journal' && doc.app && doc.app.schema_version === 1, 'export is not a journal with the app part');
+  // Change things: remove the demo systems, then import the file.
+  await tap(page, 'settings.remove_demo');
+  const emptied = await state(page);
+  check(emptied.systems.length < before.systems.length, 'remove demo did not remove systems');
+  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), tap(page, 'settings.import')]);
+  await chooser.setFiles(file);
+  await page.waitForFunction((n) => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).systems.length === n,
+    before.systems.length, { timeout: 10000 });
+  await frames(page, 2);
+  const after = await state(page);
+  check(JSON.stringify(after.systems) === JSON.stringify(before.systems), 'systems differ after import');
+  check(after.events === before.events, `events ${before.events} -> ${after.events}`);
+  check(after.settings.alkalinity_unit === 'meq/L', 'unit setting not restored');
+  check(JSON.stringify(after.demo_system_ids) === JSON.stringify(before.demo_system_ids), 'demo ids not restored');
+  await shared.context.close();
+  const real = shared.errors.filter((e) => !benign(e));
+  check(real.length === 0, `console errors: ${real.join(' | ')}`);
+});
+
+test('a damaged store gives a clear message and keeps a copy', async () => {
+  const { context, page } = await open(PHONE);
+  await page.evaluate(() => { Module.FS.writeFile('/persist/tidewright.json', '{"format": "tidewright-journal", broken'); Module.tw.flush(); });
+  await flushed(page);
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 2);
+  const s = await state(page);
+  check(/could not be read/.test(s.store.problem), `no damage message: ${s.store.problem}`);
+  const files = await page.evaluate(() => Module.FS.readdir('/persist'));
+  check(files.some((f) => f.startsWith('tidewright-damaged-')), `no copy kept: ${files}`);
+  await page.screenshot({ path: join(OUTPUT, 'phone-damaged-store.png') });
+  await context.close();
+});
+
+test('text size setting and desktop Tab key navigation', async () => {
+  const { context, page } = await open(DESKTOP);
+  await tap(page, 'tab.settings');
+  const em0 = (await state(page)).em_px;
+  await tap(page, 'settings.text_size.2');
+  await frames(page, 3);
+  const em1 = (await state(page)).em_px;
+  check(em1 > em0 * 1.15, `text size ${em0} -> ${em1}`);
+  await page.keyboard.press('Tab');
+  await frames(page, 2);
+  await context.close();
+});
+
+let passed = 0, failed = 0;
+for (const t of tests) {
+  const t0 = Date.now();
+  try {
+    await t.fn();
+    passed++;
+    console.log(`ok   ${t.name} (${Date.now() - t0} ms)`);
+  } catch (e) {
+    failed++;
+    console.log(`FAIL ${t.name}: ${e.message.split('\n')[0]}`);
+  }
+}
+await browser.close();
+await server.close();
+console.log(`${passed} passed, ${failed} failed`);
+process.exit(failed ? 1 : 0);
