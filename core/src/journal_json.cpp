@@ -97,7 +97,9 @@ std::string serialize_journal(const Journal& journal) {
   json events = json::array();
   for (const auto& e : journal.events) events.push_back(event_to_json(e));
   doc["events"] = std::move(events);
-  return doc.dump(2) + "\n";
+  // Validated journals hold only UTF-8 text; the replace handler is a safety net so that a
+  // journal edited in memory without validation (e.g. its description) never throws here.
+  return doc.dump(2, ' ', false, json::error_handler_t::replace) + "\n";
 }
 
 // ---------------------------------------------------------------- 2. field readers

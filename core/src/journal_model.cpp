@@ -17,6 +17,40 @@ std::string lower(std::string s) {
   return s;
 }
 
+// Text fields must be valid UTF-8 (the file format is JSON text) without NUL bytes.
+bool valid_utf8(const std::string& s) {
+  size_t i = 0;
+  while (i < s.size()) {
+    const auto c = static_cast<unsigned char>(s[i]);
+    size_t n = 0;
+    std::uint32_t cp = 0;
+    if (c == 0) return false;
+    if (c < 0x80) { ++i; continue; }
+    if ((c & 0xE0) == 0xC0) { n = 1; cp = c & 0x1Fu; }
+    else if ((c & 0xF0) == 0xE0) { n = 2; cp = c & 0x0Fu; }
+    else if ((c & 0xF8) == 0xF0) { n = 3; cp = c & 0x07u; }
+    else return false;
+    if (i + n >= s.size()) return false;  // sequence cut off at the end
+    for (size_t k = 1; k <= n; ++k) {
+      const auto d = static_cast<unsigned char>(s[i + k]);
+      if ((d & 0xC0) != 0x80) return false;
+      cp = (cp << 6) | (d & 0x3Fu);
+    }
+    if ((n == 1 && cp < 0x80) || (n == 2 && cp < 0x800) || (n == 3 && cp < 0x10000) ||
+        cp > 0x10FFFF || (cp >= 0xD800 && cp <= 0xDFFF))
+      return false;
+    i += n + 1;
+  }
+  return true;
+}
+
+Status check_text(const char* field, const std::string& s) {
+  if (!valid_utf8(s)) {
+    return Error{field, std::string(field) + " must be UTF-8 text without NUL characters"};
+  }
+  return Ok{};
+}
+
 Status in_range(const std::string& field, double v, const Range& r) {
   return check_range(field, v, r.lo, r.hi, r.unit);
 }
@@ -100,6 +134,9 @@ Status validate_test(const TestResult& t) {
     return Error{"ph_scale", "ph_scale is only for pH results"};
   }
   if (t.kit.size() > 100) return Error{"kit", "kit name is longer than 100 characters"};
+  if (Status k = check_text("kit", t.kit); !k) return k;
+  if (Status k = check_text("unit", t.unit); !k) return k;
+  if (Status k = check_text("other_name", t.other_name); !k) return k;
   return Ok{};
 }
 
@@ -107,6 +144,7 @@ Status validate_dose(const Dose& d) {
   if (d.additive_id.empty() || d.additive_id.size() > 60) {
     return Error{"additive_id", "additive_id must name a catalog additive in 1 to 60 characters"};
   }
+  if (Status t = check_text("additive_id", d.additive_id); !t) return t;
   Status s = positive_in_range("amount", d.amount, kDoseAmountRange);
   if (!s) return s;
   if (d.stock_g_per_l) {
@@ -168,6 +206,7 @@ Status validate_system(const Journal& journal, const System& s) {
   if (s.name.empty() || s.name.size() > 100) {
     return Error{"name", "name must have 1 to 100 characters"};
   }
+  if (Status t = check_text("name", s.name); !t) return t;
   for (const auto& other : journal.systems) {
     if (other.id != s.id && lower(other.name) == lower(s.name)) {
       return Error{"name", "name '" + s.name + "' is already used by another system"};
@@ -211,6 +250,7 @@ Status validate_event(const Journal& journal, const Event& e) {
                                      e.time_s)};
   }
   if (e.time_text.size() > 100) return Error{"time_text", "time_text is longer than 100 characters"};
+  if (Status t = check_text("time_text", e.time_text); !t) return t;
   if (const auto* t = std::get_if<TestResult>(&e.data)) return validate_test(*t);
   if (const auto* d = std::get_if<Dose>(&e.data)) return validate_dose(*d);
   if (const auto* w = std::get_if<WaterChange>(&e.data)) return validate_water_change(*w, *sys);
@@ -219,6 +259,7 @@ Status validate_event(const Journal& journal, const Event& e) {
   if (n.text.empty() || n.text.size() > 10000) {
     return Error{"text", "a note needs 1 to 10000 characters of text"};
   }
+  if (Status t = check_text("text", n.text); !t) return t;
   return Ok{};
 }
 

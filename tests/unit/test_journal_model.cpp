@@ -158,7 +158,12 @@ TEST_CASE("journal: doses, water changes and top-offs are validated") {
   r = add_event(j, Event{0, sys, 400, "", Note{""}});
   REQUIRE_FALSE(r.ok());
   CHECK(r.error().field == "text");
-  CHECK(add_event(j, Event{0, sys, 400, "", Note{"fed frozen mysis"}}).ok());
+  // Text must be UTF-8 (the file is JSON text); a stray byte from a foreign spreadsheet is refused.
+  r = add_event(j, Event{0, sys, 400, "", Note{"bad \xff byte"}});
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.error().field == "text");
+  CHECK_FALSE(add_event(j, Event{0, sys, 400, "\xc3", Note{"cut-off sequence in time_text"}}).ok());
+  CHECK(add_event(j, Event{0, sys, 400, "", Note{"fed frozen mysis \xc3\xa9\xe2\x80\x94"}}).ok());
   CHECK(j.events.size() == 4);
 }
 
