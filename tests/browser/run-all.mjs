@@ -87,6 +87,7 @@ test('a test result typed in shows in the journal and the chemistry', async () =
   await tap(page, 'log.parameter.3');
   await tap(page, 'log.value');
   await enter(page, '3');
+  await tap(page, 'log.save');
   const r = await state(page);
   check(r.message_is_error && /range/.test(r.message), `no range message for pH 3: ${r.message}`);
   check(r.events === s.events, 'a refused value was logged');

@@ -350,11 +350,11 @@ void touch_scroll(AppState& app) {
   const bool hovered = ImGui::IsWindowHovered(ImGuiHoveredFlags_ChildWindows |
                                               ImGuiHoveredFlags_AllowWhenBlockedByActiveItem);
   if (io.MouseClicked[0]) {
+    // The press itself may arrive with a jump of the pointer (a tap elsewhere): not travel.
     ui.drag_travel = 0;
     ui.drag_scrolling = false;
     ui.fling_velocity = 0;
-  }
-  if (io.MouseDown[0] && hovered && !ui.drag_owned && !platform::text_entry_open()) {
+  } else if (io.MouseDown[0] && hovered && !ui.drag_owned && !platform::text_entry_open()) {
     ui.drag_travel += std::fabs(io.MouseDelta.y) + std::fabs(io.MouseDelta.x);
     if (!ui.drag_scrolling && ui.drag_travel > threshold && ImGui::GetScrollMaxY() > 0) {
       ui.drag_scrolling = true;
