@@ -16,6 +16,7 @@ struct CommandError : std::runtime_error {
 
 void register_chem(CLI::App& app);      // carbonate state, one or a CSV batch
 void register_salinity(CLI::App& app);  // specific gravity <-> conductivity <-> salinity
+void register_buffer(CLI::App& app);    // hatchery buffering: flow, batch, pump table
 void register_log(CLI::App& app);       // the tank journal: add, import, export, list
 void register_demand(CLI::App& app);    // consumption estimate per system from the journal
 

@@ -10,6 +10,7 @@ int main(int argc, char** argv) {
   app.set_version_flag("--version", "tidewright 0.1.0");
   tw::shell::register_chem(app);
   tw::shell::register_salinity(app);
+  tw::shell::register_buffer(app);
   tw::shell::register_log(app);
   tw::shell::register_demand(app);
   try {
