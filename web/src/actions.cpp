@@ -25,6 +25,7 @@ const char* screen_name(Screen s) {
     case Screen::Demand: return "demand";
     case Screen::Hatchery: return "hatchery";
     case Screen::Mixes: return "mixes";
+    case Screen::Plan: return "plan";
     case Screen::Settings: return "settings";
   }
   return "?";

@@ -7,6 +7,7 @@
 
 #include "actions.hpp"
 #include "platform.hpp"
+#include "tidewright/datetime.hpp"
 #include "tidewright/seawater.hpp"
 #include "tidewright/units.hpp"
 
@@ -16,6 +17,10 @@ namespace est = tw::estimate;
 namespace hat = tw::hatchery;
 namespace add = tw::additives;
 namespace cb = tw::carbonate;
+
+namespace {
+std::string fmtx_g_per_l(double g) { return std::to_string(static_cast<long long>(std::llround(g))) + " g/L"; }
+}  // namespace
 
 // ---------------------------------------------------------------- Demand
 void refresh_demand(AppState& app) {
@@ -222,6 +227,156 @@ void refresh_mixes(AppState& app) {
     out.solubility_error = sol.error().message;
   }
   out.cautions = add::cautions_for(add::additive_from_compound(id));
+  c = std::move(out);
+}
+
+// ---------------------------------------------------------------- Plan
+namespace {
+
+namespace pl = tw::plan;
+
+// A stock of one compound as an additive dosed by the mL (the core checks the solubility).
+tw::Result<add::Additive> stock_additive(add::CompoundId id, double g_per_l, const std::string& name) {
+  add::StockRecipe r;
+  r.name = name;
+  r.ingredients.push_back({id, g_per_l});
+  r.temperature_c = 25;
+  auto a = add::additive_from_stock(r);
+  if (a) a->name = name + " " + fmtx_g_per_l(g_per_l);
+  return a;
+}
+
+}  // namespace
+
+void refresh_plan(AppState& app) {
+  refresh_demand(app);
+  const PlanForm& f = app.ui.dosing.plan;
+  const DemandCache& dc = app.ui.dosing.demand_cache;
+  PlanCache& c = app.ui.dosing.plan_cache;
+  if (c.valid && c.key == f && c.system == app.current_system && c.demand_computed == dc.computed_count &&
+      c.room_co2_ppm == app.settings.room_co2_ppm) {
+    return;
+  }
+  PlanCache out;
+  out.valid = true;
+  out.key = f;
+  out.system = app.current_system;
+  out.demand_computed = dc.computed_count;
+  out.room_co2_ppm = app.settings.room_co2_ppm;
+  out.computed_count = c.computed_count + 1;
+  const tw::journal::System* sys = current_system(app);
+  if (!sys) {
+    out.error = "No system yet: add one on the Systems screen.";
+    c = std::move(out);
+    return;
+  }
+  pl::PlanInput in;
+  in.system.name = sys->name;
+  in.system.volume_l = sys->volume_l;
+  in.system.salinity = sys->default_salinity;
+  in.system.temperature_c = sys->default_temperature_c;
+  in.system.air_co2_ppm = app.settings.room_co2_ppm;
+  // Targets: the system's own, with the band of the Demand screen (common practice).
+  const pl::Targets defaults;
+  const double alk_t = sys->targets.alkalinity_dkh.value_or(defaults.alkalinity_dkh.target);
+  const double ca_t = sys->targets.calcium_mg_l.value_or(defaults.calcium_mg_l.target);
+  const double mg_t = sys->targets.magnesium_mg_l.value_or(defaults.magnesium_mg_l.target);
+  in.targets.alkalinity_dkh = {alk_t, alk_t - 0.5, alk_t + 0.5};
+  in.targets.calcium_mg_l = {ca_t, ca_t - 20, ca_t + 20};
+  in.targets.magnesium_mg_l = {mg_t, mg_t - 50, mg_t + 50};
+  if (!sys->targets.alkalinity_dkh || !sys->targets.calcium_mg_l || !sys->targets.magnesium_mg_l) {
+    out.assumptions.push_back("Targets the system does not set are taken as the planner's defaults.");
+  }
+  // Start levels and demand: from the estimate when known, else the targets and the typed demand.
+  double level[3] = {alk_t, ca_t, mg_t};
+  double demand[3] = {f.alkalinity_demand_dkh_per_day, f.calcium_demand_mg_l_per_day, 0};
+  const char* names[3] = {"alkalinity", "calcium", "magnesium"};
+  for (int i = 0; i < 3; ++i) {
+    const ParameterEstimate& pe = dc.per_parameter[i];
+    const bool have_level = f.use_estimate && pe.ok && pe.estimate.tests_used > 0;
+    if (have_level) {
+      level[i] = pe.estimate.level;
+    } else {
+      out.assumptions.push_back(std::string("Start ") + names[i] + ": the target (no estimate).");
+    }
+    if (f.use_estimate) {
+      if (pe.ok && pe.estimate.demand_known) {
+        demand[i] = std::max(0.0, pe.estimate.demand_per_day);
+        if (pe.estimate.demand_per_day < 0) {
+          out.assumptions.push_back(std::string("The estimate shows ") + names[i] + " rising without doses: planned as no consumption.");
+        }
+      } else {
+        demand[i] = 0;
+        out.assumptions.push_back(std::string("No consumption estimate of ") + names[i] + ": planned as none.");
+      }
+    }
+  }
+  in.system.alkalinity_dkh = level[0];
+  in.system.calcium_mg_l = level[1];
+  in.system.magnesium_mg_l = level[2];
+  in.demand = pl::demand_from_per_litre(demand[0], demand[1], demand[2], sys->volume_l);
+  // Deliveries.
+  auto pump = [&](add::Additive a, const std::string& device) {
+    pl::Delivery d;
+    d.additive = std::move(a);
+    d.device = device;
+    d.doses_per_day = std::clamp(f.doses_per_day, 1, 24);
+    d.max_dose = f.max_dose_ml;
+    return d;
+  };
+  switch (f.alkalinity) {
+    case PlanAlkalinity::SodiumCarbonate:
+    case PlanAlkalinity::SodiumBicarbonate: {
+      const bool carb = f.alkalinity == PlanAlkalinity::SodiumCarbonate;
+      auto a = stock_additive(carb ? add::CompoundId::SodiumCarbonate : add::CompoundId::SodiumBicarbonate,
+                              f.alkalinity_g_per_l, carb ? "Sodium carbonate" : "Sodium bicarbonate");
+      if (!a) {
+        out.error = "Alkalinity stock: " + a.error().message;
+        c = std::move(out);
+        return;
+      }
+      in.deliveries.push_back(pump(std::move(a).value(), "pump 1"));
+      break;
+    }
+    case PlanAlkalinity::Limewater: {
+      auto a = add::limewater_additive(sys->default_temperature_c);
+      if (!a) {
+        out.error = "Limewater: " + a.error().message;
+        c = std::move(out);
+        return;
+      }
+      pl::Delivery d = pump(std::move(a).value(), "top-off");
+      d.max_dose = 1e6;
+      in.deliveries.push_back(std::move(d));
+      in.evaporation_l_per_day = f.evaporation_l_per_day;
+      break;
+    }
+    case PlanAlkalinity::None: break;
+  }
+  if (f.calcium == PlanCalcium::CalciumChloride) {
+    auto a = stock_additive(add::CompoundId::CalciumChlorideDihydrate, f.calcium_g_per_l, "Calcium chloride dihydrate");
+    if (!a) {
+      out.error = "Calcium stock: " + a.error().message;
+      c = std::move(out);
+      return;
+    }
+    in.deliveries.push_back(pump(std::move(a).value(), "pump 2"));
+  }
+  in.horizon_days = std::clamp(f.horizon_days, 1, 60);
+  const std::int64_t local_s = platform::now_unix_seconds() + 60LL * platform::utc_offset_minutes();
+  const std::int64_t tomorrow = (local_s / 86400 + 1) * 86400;
+  in.start_date = tw::datetime::format_date_utc(tomorrow);
+  out.start_day = static_cast<double>(tomorrow - 60LL * platform::utc_offset_minutes()) / 86400.0;
+  auto plan = pl::make_plan(in);
+  if (!plan) {
+    out.error = plan.error().message;
+    out.input = std::move(in);
+    c = std::move(out);
+    return;
+  }
+  out.check = pl::check_plan(in, *plan);
+  out.plan = std::move(plan).value();
+  out.input = std::move(in);
   c = std::move(out);
 }
 

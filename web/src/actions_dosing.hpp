@@ -17,6 +17,10 @@ void refresh_hatchery(AppState& app);
 // Mixes: the form -> stock strength or the recipe for an effect, with the solubility check.
 void refresh_mixes(AppState& app);
 
+// Plan: the form + the Demand estimate (levels, consumption) -> schedule, checked again by the
+// core's independent checker. Calls refresh_demand first.
+void refresh_plan(AppState& app);
+
 // Dissolvable solids offered on the Mixes screen (catalog order, gases left out).
 const std::vector<tw::additives::CompoundId>& mix_compounds();
 

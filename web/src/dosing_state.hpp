@@ -7,6 +7,7 @@
 //     demand    which parameter, forecast days, touched time  -> DemandCache (estimate, forecast)
 //     hatchery  HatcheryForm (water, target, buffer, flow or volume) -> HatcheryCache
 //     mixes     MixesForm (recipe -> strength, effect -> recipe)     -> MixesCache
+//     plan      PlanForm (additives, pumps, horizon; demand from the Demand estimate) -> PlanCache
 #pragma once
 
 #include <cstdint>
@@ -18,6 +19,7 @@
 #include "tidewright/estimate.hpp"
 #include "tidewright/hatchery.hpp"
 #include "tidewright/journal.hpp"
+#include "tidewright/plan.hpp"
 
 namespace twapp {
 
@@ -123,6 +125,42 @@ struct MixesCache {
   int computed_count = 0;
 };
 
+// ---------------------------------------------------------------- Plan
+enum class PlanAlkalinity { SodiumCarbonate, SodiumBicarbonate, Limewater, None };
+enum class PlanCalcium { CalciumChloride, None };
+
+struct PlanForm {
+  PlanAlkalinity alkalinity = PlanAlkalinity::SodiumCarbonate;
+  double alkalinity_g_per_l = 80.0;   // stock strength (as sold, per L of solution)
+  PlanCalcium calcium = PlanCalcium::CalciumChloride;
+  double calcium_g_per_l = 200.0;     // CaCl2.2H2O per L of solution
+  int doses_per_day = 4;              // per pump, 1..24
+  double max_dose_ml = 50.0;          // largest single dose of a pump
+  double evaporation_l_per_day = 2.0; // bounds limewater
+  int horizon_days = 14;              // 1..60
+  bool use_estimate = true;           // demand and levels from the Demand screen's estimate
+  double alkalinity_demand_dkh_per_day = 1.0;  // when not from the estimate
+  double calcium_demand_mg_l_per_day = 7.0;
+  bool show_all_days = false;
+  int export_index = 0;               // 0 CSV, 1 iCalendar, 2 text
+  bool operator==(const PlanForm&) const = default;
+};
+
+struct PlanCache {
+  bool valid = false;
+  PlanForm key;
+  tw::journal::SystemId system = 0;
+  int demand_computed = -1;  // DemandCache::computed_count it was made from
+  double room_co2_ppm = 0;
+  std::string error;
+  std::vector<std::string> assumptions;  // where the start levels and demand came from
+  std::optional<tw::plan::PlanInput> input;
+  std::optional<tw::plan::Plan> plan;
+  std::optional<tw::plan::CheckReport> check;  // the independent checker's replay
+  double start_day = 0;                        // days since epoch of day 1, 00:00 local
+  int computed_count = 0;
+};
+
 struct DosingState {
   DemandView demand;
   DemandCache demand_cache;
@@ -130,6 +168,10 @@ struct DosingState {
   HatcheryCache hatchery_cache;
   MixesForm mixes;
   MixesCache mixes_cache;
+  PlanForm plan;
+  PlanCache plan_cache;
+  int plan_chart = 0;                    // parameter shown on the Plan chart (not a plan input)
+  std::optional<double> plan_probe_day;  // time touched on the Plan chart
 };
 
 }  // namespace twapp

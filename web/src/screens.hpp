@@ -13,6 +13,7 @@ void draw_settings(AppState& app);  // screen_settings.cpp
 void draw_demand(AppState& app);    // screen_demand.cpp
 void draw_hatchery(AppState& app);  // screen_hatchery.cpp
 void draw_mixes(AppState& app);     // screen_mixes.cpp
+void draw_plan(AppState& app);      // screen_plan.cpp
 
 // Carbonate species across pH with this water marked (chart_species.cpp).
 void draw_species_chart(AppState& app);

@@ -1,0 +1,278 @@
+// Plan: the day-by-day dose schedule for the current system from the core's planner
+// (tw::plan::make_plan), with the water predicted after each dose, every safety limit's status
+// beside its default and source, the independent checker's replay and cautions. Map: 1. form  2. chart  3. days and doses
+// 4. limits  5. draw_plan.
+#include <algorithm>
+#include <cmath>
+#include <string>
+
+#include "actions.hpp"
+#include "actions_dosing.hpp"
+#include "chart_timeseries.hpp"
+#include "format.hpp"
+#include "platform.hpp"
+#include "screens.hpp"
+#include "theme.hpp"
+#include "ui.hpp"
+
+namespace twapp {
+
+namespace {
+
+namespace pl = tw::plan;
+
+// ---------------------------------------------------------------- 1. Form
+void draw_form(AppState& app, PlanForm& f) {
+  ui::card_begin(app);
+  int alk = static_cast<int>(f.alkalinity);
+  const char* const alks[] = {"Na\u2082CO\u2083 stock", "NaHCO\u2083 stock", "Limewater", "None"};
+  if (ui::choice(app, "plan.alkalinity", "Alkalinity from", &alk, alks, 4)) f.alkalinity = static_cast<PlanAlkalinity>(alk);
+  if (f.alkalinity == PlanAlkalinity::SodiumCarbonate || f.alkalinity == PlanAlkalinity::SodiumBicarbonate) {
+    ui::number_field(app, "plan.alk_strength", {"Stock strength", "g/L", 0, 5, 1, 400}, &f.alkalinity_g_per_l);
+  } else if (f.alkalinity == PlanAlkalinity::Limewater) {
+    ui::number_field(app, "plan.evaporation", {"Evaporation (top-off per day)", "L/day", 1, 0.5, 0, 1000},
+                     &f.evaporation_l_per_day);
+  }
+  int ca = static_cast<int>(f.calcium);
+  const char* const cas[] = {"CaCl\u2082\u00b72H\u2082O stock", "None"};
+  if (ui::choice(app, "plan.calcium", "Calcium from", &ca, cas, 2)) f.calcium = static_cast<PlanCalcium>(ca);
+  if (f.calcium == PlanCalcium::CalciumChloride) {
+    ui::number_field(app, "plan.ca_strength", {"Stock strength", "g/L", 0, 10, 1, 800}, &f.calcium_g_per_l);
+  }
+  double n = f.doses_per_day;
+  if (ui::number_field(app, "plan.doses_per_day", {"Doses per day per pump", "", 0, 1, 1, 24}, &n)) f.doses_per_day = static_cast<int>(n);
+  ui::number_field(app, "plan.max_dose", {"Largest single dose", "mL", 0, 5, 1, 1000}, &f.max_dose_ml);
+  double h = f.horizon_days;
+  if (ui::number_field(app, "plan.horizon", {"Days to plan", "days", 0, 1, 1, 60}, &h)) f.horizon_days = static_cast<int>(h);
+  int src = f.use_estimate ? 0 : 1;
+  const char* const srcs[] = {"From the log", "Typed here"};
+  if (ui::choice(app, "plan.demand_source", "Levels and consumption", &src, srcs, 2)) f.use_estimate = src == 0;
+  if (!f.use_estimate) {
+    ui::number_field(app, "plan.alk_demand", {"Alkalinity consumption", "dKH/day", 2, 0.1, 0, 5}, &f.alkalinity_demand_dkh_per_day);
+    ui::number_field(app, "plan.ca_demand", {"Calcium consumption", "mg/L/day", 1, 1, 0, 50}, &f.calcium_demand_mg_l_per_day);
+  }
+  ui::card_end(app);
+}
+
+// ---------------------------------------------------------------- 2. Chart
+double value_of(const pl::WaterState& w, int p) {
+  return p == 0 ? w.alkalinity_dkh : p == 1 ? w.calcium_mg_l : w.magnesium_mg_l;
+}
+
+double dose_time(const PlanCache& c, const pl::DoseRecord& d) {
+  return c.start_day + (d.day - 1) + d.minute / 1440.0;
+}
+
+void draw_chart(AppState& app, const PlanCache& c) {
+  const pl::Plan& plan = *c.plan;
+  int& p = app.ui.dosing.plan_chart;
+  const char* const names[] = {"Alkalinity", "Calcium", "Magnesium"};
+  if (ui::choice(app, "plan.chart_param", "", &p, names, 3)) app.ui.dosing.plan_probe_day.reset();
+  const pl::Band& band = p == 0 ? c.input->targets.alkalinity_dkh : p == 1 ? c.input->targets.calcium_mg_l
+                                                                           : c.input->targets.magnesium_mg_l;
+  chart::TimeSeries ts;
+  ts.name = "plan.chart";
+  ts.y_unit = p == 0 ? "dKH (predicted)" : "mg/L (predicted)";
+  ts.decimals = p == 0 ? 1 : 0;
+  ts.utc_offset_minutes = platform::utc_offset_minutes();
+  ts.target = band.target;
+  ts.band_lo = band.low;
+  ts.band_hi = band.high;
+  chart::Band line{{}, {}, {}, {}, theme::kAccent, false};
+  const double v0 = value_of(plan.start, p);
+  line.t.push_back(c.start_day);
+  line.mid.push_back(v0);
+  for (size_t i = 0; i < plan.doses.size(); ++i) {
+    const pl::DoseRecord& d = plan.doses[i];
+    const double t = dose_time(c, d);
+    const double v = value_of(d.after, p);
+    line.t.push_back(t);
+    line.mid.push_back(v);
+    const double next = i + 1 < plan.doses.size() ? dose_time(c, plan.doses[i + 1]) : c.start_day + static_cast<double>(plan.days.size());
+    line.t.push_back(std::max(t, next - 1e-3));
+    line.mid.push_back(value_of(d.before_next, p));
+    ts.marks.push_back({t, chart::MarkKind::Dose});
+  }
+  line.lo = line.mid;
+  line.hi = line.mid;
+  ts.bands.push_back(line);
+  std::optional<double>& probe = app.ui.dosing.plan_probe_day;
+  chart::draw_timeseries(app, ts, &probe);
+  ui::dim_text("Predicted level after each dose and just before the next; ticks: doses; shaded: the target band.");
+  if (probe && !plan.doses.empty()) {
+    const pl::DoseRecord* best = &plan.doses.front();
+    for (const auto& d : plan.doses) if (std::fabs(dose_time(c, d) - *probe) < std::fabs(dose_time(c, *best) - *probe)) best = &d;
+    const pl::Delivery& del = c.input->deliveries[best->delivery];
+    char hm[24];
+    std::snprintf(hm, sizeof hm, "%02d:%02d", best->minute / 60, best->minute % 60);
+    const std::string r = "Day " + std::to_string(best->day) + " " + hm + ", " + del.device + ": " +
+                          fmtx::fixed(best->amount, 1) + " " + tw::additives::to_string(del.additive.unit) + " of " +
+                          del.additive.name + ". After: " + fmtx::fixed(best->after.alkalinity_dkh, 2) + " dKH, " +
+                          fmtx::fixed(best->after.calcium_mg_l, 0) + " mg/L Ca, pH " + fmtx::fixed(best->after.ph_total, 2) +
+                          " (total), \u03a9 " + fmtx::fixed(best->after.omega_aragonite, 2) +
+                          (best->cap.empty() ? "" : ". Held back by: " + best->cap);
+    ui::wrapped(r.c_str());
+    ui::record(app, "plan.readout");
+  }
+}
+
+// ---------------------------------------------------------------- 3. Days and doses
+void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
+  const pl::Plan& plan = *c.plan;
+  const auto& del = c.input->deliveries;
+  const int cols = 3 + static_cast<int>(del.size());
+  if (ImGui::BeginTable("##days", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
+    ImGui::TableSetupColumn("Day");
+    for (const auto& d : del) ImGui::TableSetupColumn((d.device + ", " + tw::additives::to_string(d.additive.unit)).c_str());
+    ImGui::TableSetupColumn("dKH end");
+    ImGui::TableSetupColumn("Ca end");
+    ImGui::TableHeadersRow();
+    const size_t shown = f.show_all_days ? plan.days.size() : std::min<size_t>(plan.days.size(), 7);
+    for (size_t i = 0; i < shown; ++i) {
+      const pl::DaySummary& d = plan.days[i];
+      ImGui::TableNextRow();
+      ImGui::TableNextColumn();
+      ImGui::Text("%d (%s)", d.day, chart::day_label(c.start_day + d.day - 1 + 0.5, platform::utc_offset_minutes()).c_str());
+      for (double a : d.amount_per_delivery) {
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(fmtx::fixed(a, 1).c_str());
+      }
+      ImGui::TableNextColumn();
+      ImGui::TextUnformatted(fmtx::fixed(d.end.alkalinity_dkh, 2).c_str());
+      ImGui::TableNextColumn();
+      ImGui::TextUnformatted(fmtx::fixed(d.end.calcium_mg_l, 0).c_str());
+    }
+    ImGui::EndTable();
+  }
+  ui::record(app, "plan.days");
+  if (plan.days.size() > 7) {
+    if (ui::button(app, "plan.show_all_days", f.show_all_days ? "Show the first week" : "Show every day", 0, ui::Tone::Quiet)) {
+      f.show_all_days = !f.show_all_days;
+    }
+  }
+  // Doses of day 1 with the water after each.
+  ui::heading(app, "Doses of day 1");
+  int count = 0;
+  for (const pl::DoseRecord& d : plan.doses) {
+    if (d.day != 1) continue;
+    const pl::Delivery& dv = del[d.delivery];
+    char hm[24];
+    std::snprintf(hm, sizeof hm, "%02d:%02d", d.minute / 60, d.minute % 60);
+    ui::label_value(app, (std::string(hm) + "  " + dv.device).c_str(),
+                    fmtx::fixed(d.amount, 1) + " " + tw::additives::to_string(dv.additive.unit));
+    ui::dim_text(("after: " + fmtx::fixed(d.after.alkalinity_dkh, 2) + " dKH, " + fmtx::fixed(d.after.calcium_mg_l, 0) +
+                  " mg/L Ca, pH " + fmtx::fixed(d.after.ph_total, 2) + " total, \u03a9 arag. " +
+                  fmtx::fixed(d.after.omega_aragonite, 2) + (d.cap.empty() ? "" : "; held back by " + d.cap))
+                     .c_str());
+    if (++count >= 24) break;
+  }
+  if (count == 0) ui::dim_text("No dose on day 1.");
+  ui::record(app, "plan.doses");
+}
+
+// ---------------------------------------------------------------- 4. Limits
+void draw_limits(AppState& app, const PlanCache& c) {
+  const pl::Plan& plan = *c.plan;
+  // What the plan reaches for each limit.
+  double reached[pl::kLimitCount] = {};
+  for (const auto& d : plan.days) {
+    reached[0] = std::max(reached[0], d.rise_alkalinity_dkh);
+    reached[1] = std::max(reached[1], d.rise_calcium_mg_l);
+    reached[2] = std::max(reached[2], d.rise_magnesium_mg_l);
+  }
+  auto take = [&](const pl::WaterState& w) {
+    reached[3] = std::max(reached[3], w.ph_total);
+    reached[4] = std::max(reached[4], w.omega_aragonite);
+    reached[5] = std::max(reached[5], w.alkalinity_dkh);
+    reached[6] = std::max(reached[6], w.calcium_mg_l);
+    reached[7] = std::max(reached[7], w.magnesium_mg_l);
+  };
+  take(plan.start);
+  for (const auto& d : plan.doses) take(d.after);
+  for (const auto& d : plan.days) take(d.end);
+  ui::card_begin(app);
+  for (const pl::LimitSpec& s : pl::limit_specs()) {
+    const size_t i = static_cast<size_t>(s.id);
+    const double limit = plan.limits.get(s.id);
+    const bool over = reached[i] > limit * (1 + 1e-6);
+    const bool near = !over && reached[i] >= 0.97 * limit;
+    const ImU32 col = over ? theme::kError : near ? theme::kWarning : theme::kAccent;
+    const int dec = std::fabs(limit) < 20 ? 2 : 0;
+    ImGui::PushFont(app.ui.fonts.bold);
+    std::string desc = s.description;
+    if (!desc.empty()) desc[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(desc[0])));
+    ui::wrapped(desc.c_str());
+    ImGui::PopFont();
+    ui::label_value(app, ("limit " + fmtx::fixed(limit, dec) + " " + s.unit).c_str(),
+                    (over ? "over: " : near ? "at the limit: " : "within: ") + fmtx::fixed(reached[i], dec), col);
+    ui::record(app, std::string("plan.limit.") + s.key);
+    ui::dim_text(("Default " + fmtx::fixed(s.default_value, dec) + " " + s.unit + " (" + s.source + "); hard ceiling " +
+                  fmtx::fixed(s.hard_ceiling, dec) + ".").c_str());
+  }
+  for (const std::string& r : plan.limits.record) ui::colored_wrapped(theme::kWarning, r.c_str());
+  if (c.check) {
+    if (c.check->ok()) {
+      ui::colored_wrapped(theme::kAccent, "Independent check: every dose replayed, no limit exceeded.");
+    } else {
+      ui::colored_wrapped(theme::kError, ("Independent check found " + std::to_string(c.check->violations.size()) +
+                                          " limit breaks and " + std::to_string(c.check->other.size()) + " other problems:").c_str());
+      for (size_t i = 0; i < std::min<size_t>(c.check->violations.size(), 5); ++i) ui::dim_text(c.check->violations[i].message.c_str());
+      for (const std::string& o : c.check->other) ui::dim_text(o.c_str());
+    }
+    ui::record(app, "plan.check");
+  }
+  ui::card_end(app);
+}
+
+}  // namespace
+
+// ---------------------------------------------------------------- 5. The screen
+void draw_plan(AppState& app) {
+  PlanForm& f = app.ui.dosing.plan;
+  const auto* sys = current_system(app);
+  ui::heading(app, sys ? ("Dose plan for " + sys->name).c_str() : "Dose plan");
+  draw_form(app, f);
+  refresh_plan(app);
+  const PlanCache& c = app.ui.dosing.plan_cache;
+  for (const std::string& a : c.assumptions) ui::dim_text(("\u2022 " + a).c_str());
+  if (!c.error.empty()) {
+    ui::card_begin(app);
+    ui::colored_wrapped(theme::kError, c.error.c_str());
+    ui::record(app, "plan.error");
+    ui::card_end(app);
+  }
+  if (!c.plan) return;
+  const pl::Plan& plan = *c.plan;
+  ui::card_begin(app);
+  const char* pnames[3] = {"Alkalinity", "Calcium", "Magnesium"};
+  for (int i = 0; i < 3; ++i) {
+    const auto& td = plan.target_day[static_cast<size_t>(i)];
+    ui::label_value(app, pnames[i], td ? "in band on day " + std::to_string(*td) : std::string("not in band in this plan"),
+                    td ? theme::kAccent : theme::kWarning);
+  }
+  ui::record(app, "plan.summary");
+  for (const std::string& s : plan.findings) ui::colored_wrapped(theme::kWarning, ("\u2022 " + s).c_str());
+  for (const auto& r : plan.reservoirs_empty) {
+    ui::colored_wrapped(theme::kWarning, (c.input->deliveries[r.delivery].device + " runs dry on day " + std::to_string(r.day)).c_str());
+  }
+  if (plan.salinity.per_day > 0) {
+    ui::dim_text(("Salts left behind raise salinity by about " + fmtx::fixed(plan.salinity.per_day, 3) +
+                  " a day; a water change of " + fmtx::fixed(plan.salinity.water_change_percent_per_week, 1) +
+                  "% a week holds it.").c_str());
+  }
+  ui::card_end(app);
+  ui::heading(app, "Predicted water");
+  draw_chart(app, c);
+  ui::heading(app, "Day by day");
+  draw_days(app, f, c);
+  ui::heading(app, "Safety limits");
+  ui::dim_text("pH and \u03a9 are computed right after each dose, fully mixed, before gas exchange (total pH scale).");
+  draw_limits(app, c);
+  if (!plan.cautions.empty()) {
+    ui::heading(app, "Cautions");
+    for (const std::string& s : plan.cautions) ui::colored_wrapped(theme::kWarning, ("\u2022 " + s).c_str());
+    ui::record(app, "plan.cautions");
+  }
+}
+
+}  // namespace twapp
