@@ -133,9 +133,11 @@ void run_batch(const ChemOptions& o) {
   options.boron = parse_boron(o.boron);
   auto summary = or_fail(carbonate::solve_csv_batch(read_all(o.batch), options));
   write_output(o.out, summary.csv);
+  // Every row is written; a row that failed still makes the exit status non-zero, as in
+  // `tidewright salinity --batch`, so scripts notice.
   if (summary.failed > 0) {
-    std::fprintf(stderr, "tidewright: %d of %d rows could not be computed (see the warnings column)\n",
-                 summary.failed, summary.rows);
+    throw CommandError(fmt::format("{} of {} rows could not be computed (see the warnings column)",
+                                   summary.failed, summary.rows));
   }
 }
 
