@@ -44,7 +44,7 @@ export async function frames(page, n = 3) {
   const start = (await state(page)).frames;
   await page.evaluate((k) => Module.ccall('tw_test_animate', null, ['number'], [k]), n + 2);
   await page.waitForFunction((s) => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).frames >= s,
-    start + n, { timeout: 10000 });
+    start + n, { timeout: 30000 });
 }
 
 // Taps (touch) or clicks (mouse) the centre of a named widget, scrolling it into view first.

@@ -82,6 +82,10 @@ test('a test result typed in shows in the journal and the chemistry', async () =
   check(w.water.alkalinity_umol_kg > 3000 && w.water.alkalinity_umol_kg < 3400, `alkalinity ${w.water.alkalinity_umol_kg} umol/kg for 9.35 dKH`);
   check(w.water.curve_points > 50, 'species chart has no curve');
   await page.screenshot({ path: join(OUTPUT, 'phone-water-after-log.png') });
+  await tap(page, 'water.chart');  // touch to read the chart at a pH
+  const readout = await page.evaluate(() => JSON.parse(Module.ccall('tw_test_widget', 'string', ['string'], ['water.chart_readout'])));
+  check(readout.found && readout.visible, 'chart read-out not shown');
+  await page.screenshot({ path: join(OUTPUT, 'phone-water-chart.png') });
   // A refused value: pH 3 is outside the journal's range, nothing is logged.
   await tap(page, 'tab.log');
   await tap(page, 'log.parameter.3');

@@ -94,6 +94,11 @@ void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
   }
   const int n = static_cast<int>(sizeof kTabs / sizeof kTabs[0]);
   const ImVec2 cell = vertical ? ImVec2(size.x, 4.2f * e) : ImVec2(size.x / static_cast<float>(n), size.y);
+  // All labels use the small font when any of them would not fit its cell (seven tabs on a phone).
+  bool small_labels = false;
+  ImGui::PushFont(app.ui.fonts.bold);
+  for (int i = 0; i < n; ++i) small_labels |= ImGui::CalcTextSize(kTabs[i].label).x > cell.x - 0.3f * e;
+  ImGui::PopFont();
   for (int i = 0; i < n; ++i) {
     const Tab& t = kTabs[i];
     const ImVec2 p = vertical ? ImVec2(pos.x, pos.y + e + cell.y * static_cast<float>(i))
@@ -115,12 +120,7 @@ void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
     }
     t.icon(d, icon_c, 0.5f * e, col);
     // Labels shrink to the small font when seven tabs share a phone's width.
-    ImFont* font = selected ? app.ui.fonts.bold : app.ui.fonts.body;
-    ImGui::PushFont(font);
-    if (ImGui::CalcTextSize(t.label).x > cell.x - 0.3f * e) {
-      ImGui::PopFont();
-      ImGui::PushFont(app.ui.fonts.small);
-    }
+    ImGui::PushFont(small_labels ? app.ui.fonts.small : selected ? app.ui.fonts.bold : app.ui.fonts.body);
     const ImVec2 ts = ImGui::CalcTextSize(t.label);
     d->AddText(ImVec2(p.x + (cell.x - ts.x) / 2, p.y + cell.y * 0.62f), col, t.label);
     ImGui::PopFont();

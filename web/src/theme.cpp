@@ -85,9 +85,9 @@ void build(UiState& ui, float scale) {
   io.Fonts->Clear();
   const float px = kBaseFontPx * scale;
   ui.fonts.body = add_font(tw_font_regular, tw_font_regular_size, px, kGlyphRanges);
-  // One embedded face (Roboto Regular) keeps the download small; "bold" is the same face a
-  // little larger, and headings get the accent colour.
-  ui.fonts.bold = add_font(tw_font_regular, tw_font_regular_size, px * 1.06f, kGlyphRanges);
+  // One embedded face (Roboto Regular) keeps the download small, and one atlas entry per size
+  // keeps the start fast: "bold" is the body font (headings get the accent colour instead).
+  ui.fonts.bold = ui.fonts.body;
   ui.fonts.small = add_font(tw_font_regular, tw_font_regular_size, px * 0.8f, kBigGlyphRanges);
   ui.fonts.big = add_font(tw_font_regular, tw_font_regular_size, px * 1.9f, kBigGlyphRanges);
   io.Fonts->Build();
