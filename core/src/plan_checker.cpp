@@ -112,6 +112,16 @@ CheckReport check_doses(const PlanInput& in, const std::vector<PlannedDose>& dos
     const double day_alk0 = t.alk_umol_kg / umol_per_dkh, day_ca0 = t.ca_mg_l, day_mg0 = t.mg_mg_l;
     std::vector<double> given_today(in.deliveries.size(), 0.0);
     double limewater_ml = 0;
+    // The model steps at every slot of every delivery (plan.hpp), dosed or not.
+    std::vector<int> ticks;
+    for (const Delivery& dv : in.deliveries) {
+      const double window = (dv.last_hour - dv.first_hour + 1) * 60.0;
+      for (int j = 0; j < dv.doses_per_day; ++j) {
+        ticks.push_back(static_cast<int>(std::floor(dv.first_hour * 60.0 + (j + 0.5) * window / dv.doses_per_day)));
+      }
+    }
+    std::sort(ticks.begin(), ticks.end());
+    std::size_t tick = 0;
     while (next < order.size() && doses[order[next]].day == day) {
       const std::size_t idx = order[next++];
       const PlannedDose& d = doses[idx];
@@ -120,9 +130,15 @@ CheckReport check_doses(const PlanInput& in, const std::vector<PlannedDose>& dos
         continue;
       }
       const Delivery& dv = in.deliveries[d.delivery];
-      const double h = (day - 1) * 24.0 + d.minute / 60.0;
-      if (!pass_time(t, h - clock_h)) rep.other.push_back("carbonate solve failed");
-      clock_h = h;
+      while (tick < ticks.size() && ticks[tick] <= d.minute) {
+        const double h = (day - 1) * 24.0 + ticks[tick] / 60.0;
+        if (!pass_time(t, h - clock_h)) rep.other.push_back("carbonate solve failed");
+        clock_h = h;
+        ++tick;
+      }
+      if (std::abs(clock_h - ((day - 1) * 24.0 + d.minute / 60.0)) > 1e-9) {
+        rep.other.push_back(fmt::format("dose {} at minute {} is not at a slot of any delivery", idx, d.minute));
+      }
       if (d.minute < dv.first_hour * 60 || d.minute >= (dv.last_hour + 1) * 60) {
         rep.other.push_back(fmt::format("dose {} at minute {} is outside the allowed hours", idx, d.minute));
       }
@@ -180,6 +196,11 @@ CheckReport check_doses(const PlanInput& in, const std::vector<PlannedDose>& dos
     if (limewater_ml > in.evaporation_l_per_day * 1000.0 * (1 + 1e-12) + 1e-9) {
       rep.other.push_back(fmt::format("day {}: {:g} mL limewater exceeds the {:g} L evaporation", day, limewater_ml,
                                       in.evaporation_l_per_day));
+    }
+    for (; tick < ticks.size(); ++tick) {
+      const double h = (day - 1) * 24.0 + ticks[tick] / 60.0;
+      if (!pass_time(t, h - clock_h)) rep.other.push_back("carbonate solve failed");
+      clock_h = h;
     }
     if (!pass_time(t, day * 24.0 - clock_h)) rep.other.push_back("carbonate solve failed");
     clock_h = day * 24.0;

@@ -281,19 +281,20 @@ Result<Plan> make_plan(const PlanInput& in) {
       double want;
     };
     std::vector<Event> events;
+    // Every slot of every delivery is a step of the water model, dosed or not, so the model's
+    // time steps depend on the input only (the checker steps at the same instants).
     for (std::size_t i = 0; i < n; ++i) {
       const Delivery& d = in.deliveries[i];
-      if (daily[i] <= 0) continue;
       double per = daily[i] / d.doses_per_day;
-      int count = d.doses_per_day;
-      if (per < d.min_dose) {  // fewer, larger doses of the smallest size the pump gives
+      int count = daily[i] > 0 ? d.doses_per_day : 0;
+      if (daily[i] > 0 && per < d.min_dose) {  // fewer, larger doses of the smallest size the pump gives
         count = static_cast<int>(std::floor(daily[i] / d.min_dose));
         per = d.min_dose;
       }
       for (int j = 0; j < d.doses_per_day; ++j) {
         const bool give = (static_cast<long long>(j + 1) * count) / d.doses_per_day >
                           (static_cast<long long>(j) * count) / d.doses_per_day;
-        if (give) events.push_back({detail::slot_minute(d, j), i, std::min(per, d.max_dose)});
+        events.push_back({detail::slot_minute(d, j), i, give ? std::min(per, d.max_dose) : 0.0});
       }
     }
     std::stable_sort(events.begin(), events.end(), [](const Event& a, const Event& b) { return a.minute < b.minute; });
@@ -302,15 +303,15 @@ Result<Plan> make_plan(const PlanInput& in) {
       const double t = (day - 1) * 1440.0 + e.minute;
       if (auto s = advance(m, w, (t - now_min) / 60.0); !s) return s.error();
       now_min = t;
+      const Delivery& d = in.deliveries[e.delivery];
+      double want = std::min({e.want, reservoir_left[e.delivery], d.max_per_day - ds.amount_per_delivery[e.delivery]});
+      if (d.additive.limewater) want = std::min(want, evap_left_ml);
+      if (want <= 0) continue;
       if (last_dose) {
         auto bn = describe(m, w);
         if (!bn) return bn.error();
         plan.doses[*last_dose].before_next = *bn;
       }
-      const Delivery& d = in.deliveries[e.delivery];
-      double want = std::min({e.want, reservoir_left[e.delivery], d.max_per_day - ds.amount_per_delivery[e.delivery]});
-      if (d.additive.limewater) want = std::min(want, evap_left_ml);
-      if (want <= 0) continue;
       DoseOutcome o = cap_dose(m, w, day_start, d.additive, want);
       if (!o.cap.empty()) cap_count[o.cap + "|" + d.additive.name]++;
       if (o.amount < std::max(d.min_dose, 1e-3)) continue;
