@@ -58,7 +58,9 @@ void refresh_demand(AppState& app) {
     const est::Parameter p = est::kAllParameters[i];
     const est::Series& s = series->of(p);
     ParameterEstimate& pe = out.per_parameter[i];
-    double last_t = out.now_days;
+    // The estimate is read at the last logged event, not carried on to the clock: doses given
+    // since then but not logged yet would otherwise show as a falling level.
+    double last_t = -1e300;
     for (const est::SeriesEvent& ev : s.events) {
       last_t = std::max(last_t, est::time_of(ev));
       if (const auto* a = std::get_if<est::Addition>(&ev)) {
@@ -70,7 +72,7 @@ void refresh_demand(AppState& app) {
       }
     }
     const est::FilterOptions opts = est::default_filter_options(p);
-    auto r = est::estimate_series(s, opts, last_t);
+    auto r = s.events.empty() ? est::estimate_series(s, opts) : est::estimate_series(s, opts, last_t);
     if (!r) {
       pe.error = r.error().message;
       continue;

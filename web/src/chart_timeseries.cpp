@@ -183,10 +183,10 @@ bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* 
   for (const Mark& m : s.marks) {
     const float x = sx(m.t);
     if (m.kind == MarkKind::Dose) {
-      d->AddLine(ImVec2(x, b.y), ImVec2(x, b.y - 0.6f * e), theme::kCo3, 1.6f * line);
+      d->AddLine(ImVec2(x, b.y), ImVec2(x, b.y - 0.45f * e), IM_COL32(150, 160, 255, 150), 0.8f * line);
     } else {
-      d->AddTriangle(ImVec2(x, b.y - 0.7f * e), ImVec2(x - 0.35f * e, b.y), ImVec2(x + 0.35f * e, b.y), theme::kCo2,
-                     1.4f * line);
+      d->AddTriangle(ImVec2(x, b.y - 0.9f * e), ImVec2(x - 0.25f * e, b.y - 0.45f * e),
+                     ImVec2(x + 0.25f * e, b.y - 0.45f * e), theme::kCo2, 1.2f * line);
     }
   }
 

@@ -94,8 +94,7 @@ void level_readout(AppState& app, const ParameterEstimate& pe, const Shown& s, d
   if (h->status == est::TestStatus::Flagged || h->status == est::TestStatus::LevelRestart) {
     for (const auto& o : e.outliers) {
       if (std::fabs(o.time_days - h->time_days) < 1e-6) {
-        const std::string why = "Why flagged: " + o.reason + " (expected " + val(s, o.expected) + " \u00b1 " +
-                                val(s, o.expected_sd) + " " + s.unit + ", z = " + fmtx::fixed(o.z, 1) + ")";
+        const std::string why = "Why flagged: " + o.reason;
         ui::colored_wrapped(theme::kWarning, why.c_str());
         ui::record(app, "demand.readout_reason");
       }
@@ -231,7 +230,7 @@ void draw_summary(AppState& app, const ParameterEstimate& pe, const Shown& s) {
     ui::wrapped(range.c_str());
   }
   if (e.tests > 0) {
-    ui::label_value(app, "Level now (estimate)", val(s, e.level) + " \u00b1 " + val(s, 1.96 * e.level_sd) + " " + s.unit);
+    ui::label_value(app, ("Level " + chart::day_label(e.time_days, platform::utc_offset_minutes()) + " (estimate)").c_str(), val(s, e.level) + " \u00b1 " + val(s, 1.96 * e.level_sd) + " " + s.unit);
     ui::label_value(app, "Tests used", std::to_string(e.tests_used) + " of " + std::to_string(e.tests));
     ui::label_value(app, "Flagged tests", std::to_string(e.outliers.size()),
                     e.outliers.empty() ? 0 : theme::kWarning);

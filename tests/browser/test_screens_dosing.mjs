@@ -1,0 +1,169 @@
+// Browser tests of the dosing screens (Demand, Plan, Hatchery, Mixes) on the demo data, in
+// headless Chromium at phone (390x844) and desktop (1280x800) sizes.
+//   node test_screens_dosing.mjs [site-dir]      (default ../../build-web/site)
+// Prints one line per test and "N passed, M failed"; exits non-zero on any failure.
+// Screenshots go to tests/browser/output/dosing-*.png.
+import { resolve, join } from 'node:path';
+import { readFileSync } from 'node:fs';
+import { startServer } from './serve.mjs';
+import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, widget, tap, frames, check, OUTPUT, HERE } from './lib.mjs';
+
+const site = resolve(process.argv[2] || join(HERE, '../../build-web/site'));
+const server = await startServer(site);
+const browser = await launch();
+const benign = (t) => /GL Driver Message|GPU stall|WebGL/.test(t);
+
+async function open(opts) {
+  const context = await browser.newContext({ ...opts, acceptDownloads: true });
+  const page = await context.newPage();
+  const errors = watchErrors(page);
+  await page.goto(server.url);
+  await waitReady(page);
+  await frames(page, 3);
+  return { context, page, errors };
+}
+
+async function shot(page, name) {
+  await frames(page, 2);
+  await page.screenshot({ path: join(OUTPUT, `dosing-${name}.png`) });
+}
+
+async function reveal(page, name) {
+  await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
+  await frames(page, 4);
+  return widget(page, name);
+}
+
+async function found(page, name) {
+  const w = await reveal(page, name);
+  check(w.found, `widget ${name} not drawn`);
+  return w;
+}
+
+// Touches the chart at fractions of its width until `wanted` appears under it; returns true then.
+async function scanChart(page, chart, wanted, steps = 60) {
+  const touch = await page.evaluate(() => navigator.maxTouchPoints > 0);
+  for (let i = 0; i <= steps; i++) {
+    const c = await reveal(page, chart);
+    if (!c.found) return false;
+    const x = c.x + c.w * (0.12 + 0.86 * i / steps), y = c.y + c.h / 2;
+    if (touch) await page.touchscreen.tap(x, y); else await page.mouse.click(x, y);
+    await frames(page, 3);
+    if ((await widget(page, wanted)).found) return true;
+  }
+  return false;
+}
+
+const tests = [];
+const test = (name, fn) => tests.push({ name, fn });
+
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`demand: consumption, level chart, read-out, flagged test with its reason (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.demand');
+    check((await state(page)).screen === 'demand', 'not on the demand screen');
+    await found(page, 'demand.consumption');
+    await shot(page, `${label}-demand`);
+    await found(page, 'demand.chart.level');
+    await found(page, 'demand.chart.demand');
+    await found(page, 'demand.forecast_table');
+    // The demo carries misread tests: find one on some system and parameter by touching the chart.
+    const s = await state(page);
+    let reason = false;
+    for (const sys of s.systems) {
+      await tap(page, 'header.switch');
+      await tap(page, `switch.${sys.id}`);
+      for (const p of [0, 1, 2]) {
+        await tap(page, `demand.param.${p}`);
+        if (!(await widget(page, 'demand.chart.level')).found) continue;
+        if (await scanChart(page, 'demand.chart.level', 'demand.readout_reason')) { reason = true; break; }
+      }
+      if (reason) break;
+    }
+    check(reason, 'no flagged test found on any chart, or its reason is not shown when touched');
+    await reveal(page, 'demand.chart.level');
+    await shot(page, `${label}-demand-flagged`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
+  test(`hatchery: flow-through dose, pump-side table and its CSV download; batch (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.hatchery');
+    check((await state(page)).screen === 'hatchery', 'not on the hatchery screen');
+    await shot(page, `${label}-hatchery`);
+    await found(page, 'hatchery.pump.Na2CO3');
+    await found(page, 'hatchery.water_table');
+    await found(page, 'hatchery.cautions');
+    await shot(page, `${label}-hatchery-result`);
+    await tap(page, 'hatchery.table.show');
+    await found(page, 'hatchery.table');
+    await shot(page, `${label}-hatchery-table`);
+    const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }),
+      tap(page, 'hatchery.table.export_csv')]);
+    const text = readFileSync(await download.path(), 'utf8');
+    check(download.suggestedFilename().endsWith('.csv'), `download named ${download.suggestedFilename()}`);
+    const lines = text.trim().split(/\r?\n/);
+    check(lines.length >= 5, `pump table CSV has ${lines.length} lines`);
+    await tap(page, 'hatchery.mode.1');
+    await found(page, 'hatchery.grams.Na2CO3');
+    await shot(page, `${label}-hatchery-batch`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
+  test(`mixes: recipe to strength, effect to recipe, solubility (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.mixes');
+    check((await state(page)).screen === 'mixes', 'not on the mixes screen');
+    await found(page, 'mixes.per_ml');
+    await found(page, 'mixes.saturation');
+    await shot(page, `${label}-mixes`);
+    // "1 mL raises 100 L by 0.1 dKH" needs more baking soda than dissolves: refused, with the reason.
+    await tap(page, 'mixes.direction.1');
+    await found(page, 'mixes.error');
+    check(!(await widget(page, 'mixes.recipe')).found, 'a recipe above solubility was shown');
+    await shot(page, `${label}-mixes-refused`);
+    await tap(page, 'mixes.compound.1');  // sodium carbonate dissolves far better
+    await found(page, 'mixes.recipe');
+    await shot(page, `${label}-mixes-effect`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
+  test(`plan: schedule, limits with defaults, independent check (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.plan');
+    check((await state(page)).screen === 'plan', 'not on the plan screen');
+    await shot(page, `${label}-plan`);
+    await found(page, 'plan.summary');
+    await found(page, 'plan.chart');
+    await shot(page, `${label}-plan-chart`);
+    await found(page, 'plan.days');
+    await found(page, 'plan.limit.ph_after_dose_total');
+    await found(page, 'plan.check');
+    await shot(page, `${label}-plan-limits`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
+let passed = 0, failed = 0;
+for (const t of tests) {
+  try {
+    await t.fn();
+    console.log(`ok    ${t.name}`);
+    passed++;
+  } catch (e) {
+    console.log(`FAIL  ${t.name}\n      ${e.message}`);
+    failed++;
+  }
+}
+console.log(`${passed} passed, ${failed} failed`);
+await browser.close();
+await server.close();
+process.exit(failed ? 1 : 0);
