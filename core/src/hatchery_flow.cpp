@@ -132,7 +132,15 @@ Result<double> stock_strength_g_per_l(Compound compound, const StockOptions& sto
   if (auto r = check_range("stock_fraction_of_saturation", stock.fraction_of_saturation, 0.05, 1.0, ""); !r)
     return r.error();
   if (compound == Compound::SodiumHydroxide) return std::min(kHydroxideDefaultGPerL, stock.fraction_of_saturation * *sat);
-  return stock.fraction_of_saturation * *sat;
+  // Carbonate solubility falls steeply in the cold (facts.md 6: 21.8 g/100 g at 20 C, 12.2 at
+  // 10 C), so the default also stays under 95 % of saturation 5 C colder than the stock room
+  // (our margin, common practice: no single source).
+  double strength = stock.fraction_of_saturation * *sat;
+  if (stock.temperature_c >= 5.0) {
+    auto colder = stock_saturation_g_per_l(compound, stock.temperature_c - 5.0);
+    if (colder) strength = std::min(strength, 0.95 * *colder);
+  }
+  return strength;
 }
 
 // ================================================================ 4. Point of injection
@@ -275,6 +283,13 @@ Result<FlowPlan> plan_flow(const Water& intake, double flow_l_per_min, const Set
                                           "pump: consider a weaker stock (stock_g_per_l)", formula_of(c), sl.pump_ml_per_min));
     }
     plan.lines.push_back(sl);
+  }
+  // Hartmann et al. (2023, Biogeosciences 20:781): CO2-equilibrated alkaline additions carry the
+  // lowest risk of alkalinity loss below a rise of 2400 umol/kg (about natural seawater TA).
+  if (plan.treatment.dose.alkalinity_umol_kg() > 2400.0) {
+    plan.warnings.push_back(fmt::format("added alkalinity {:.0f} umol/kg is above 2400 (Hartmann et al. 2023: "
+                                        "larger additions risk carbonate loss); check the intake readings",
+                                        plan.treatment.dose.alkalinity_umol_kg()));
   }
   const double om_mix = plan.treatment.after_mixing.omega_aragonite;
   if (om_mix > ceiling) {
