@@ -38,10 +38,10 @@ void draw_species_chart(AppState& app) {
   const SpeciesCurve& c = r.curve;
   const float e = ui::em(app);
   const float w = ImGui::GetContentRegionAvail().x;
-  const float h = 13 * e;
+  const float h = 14 * e;
   const ImVec2 origin = ImGui::GetCursorScreenPos();
   // Plot area inside the axes.
-  const ImVec2 a(origin.x + 3.0f * e, origin.y + 0.8f * e);
+  const ImVec2 a(origin.x + 3.0f * e, origin.y + 1.9f * e);
   const ImVec2 b(origin.x + w - 0.6f * e, origin.y + h - 2.6f * e);
   const float x_lo = 6.0f, x_hi = 10.0f;
   auto sx = [&](float ph) { return a.x + (ph - x_lo) / (x_hi - x_lo) * (b.x - a.x); };
@@ -79,7 +79,7 @@ void draw_species_chart(AppState& app) {
   const std::string x_title = std::string("pH (") + fmtx::ph_scale_label(app.water.ph_scale) + " scale)";
   const ImVec2 xt = ImGui::CalcTextSize(x_title.c_str());
   d->AddText(ImVec2((a.x + b.x - xt.x) / 2, b.y + 1.3f * e), theme::kTextDim, x_title.c_str());
-  d->AddText(ImVec2(origin.x + 0.4f * e, origin.y + 0.1f * e), theme::kTextDim, "of DIC");
+  d->AddText(ImVec2(origin.x + 0.5f * e, origin.y + 0.35f * e), theme::kTextDim, "Share of DIC");
 
   // Curves.
   const std::vector<float>* ys[3] = {&c.co2, &c.hco3, &c.co3};
@@ -97,7 +97,7 @@ void draw_species_chart(AppState& app) {
     const char* tag = "this water";
     const ImVec2 ts = ImGui::CalcTextSize(tag);
     const float tx = std::min(x + 0.3f * e, b.x - ts.x);
-    d->AddText(ImVec2(tx, a.y), theme::kText, tag);
+    d->AddText(ImVec2(tx, a.y - 1.3f * e), theme::kText, tag);
   }
   // The probe (touched pH).
   if (app.ui.chart_probe_ph) {
