@@ -55,35 +55,39 @@ CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alk,
     if (!std::isfinite(r.ratio_sd)) r.ratio_sd = std::fabs(sc / da);  // dc == 0
   }
   const std::string ratio_text =
-      r.ratio_valid ? fmt::format("{:.2f} +/- {:.2f} mg/L Ca per dKH", r.ratio_mg_l_per_dkh, r.ratio_sd)
-                    : std::string("ratio not readable: alkalinity demand is not clearly above zero");
+      r.ratio_valid
+          ? fmt::format("measured {:.2f} +/- {:.2f} mg/L Ca per dKH", r.ratio_mg_l_per_dkh, r.ratio_sd)
+          : std::string("no ratio, as the alkalinity demand is not clearly above zero");
   const std::string excess_text =
-      fmt::format("calcium demand {:+.2f} +/- {:.2f} mg/L/day against what the alkalinity demand "
-                  "predicts ({:.3f} mg/L Ca per dKH, Gazeau et al. 2015)",
+      fmt::format("the calcium demand is {:+.2f} +/- {:.2f} mg/L/day off the {:.3f} mg/L per dKH "
+                  "of calcification (1 Ca : 2 alkalinity, Gazeau et al. 2015)",
                   r.excess_calcium_mg_l_per_day, r.excess_sd, k);
   if (std::fabs(r.excess_calcium_mg_l_per_day) <= kZ95 * r.excess_sd) {
     r.verdict = RatioVerdict::Consistent;
     r.reading = fmt::format(
-        "Calcium and alkalinity fall together as calcification predicts ({}; {}); the "
-        "difference is within the 95 % uncertainty.",
+        "Calcium and alkalinity fall together as calcification predicts: {}; {}, within the "
+        "95 % uncertainty.",
         ratio_text, excess_text);
   } else if (r.excess_calcium_mg_l_per_day > 0.0) {
     r.verdict = RatioVerdict::CalciumFasterThanAlkalinity;
     r.reading = fmt::format(
-        "Calcium is falling faster than calcification's 1 Ca : 2 alkalinity explains ({}; {}). "
+        "Calcium is falling faster than calcification's 1 Ca : 2 alkalinity explains: {}; {}, "
+        "beyond the 95 % uncertainty. "
         "Possible reasons: a calcium kit reading low or drifting, or an alkalinity kit reading "
         "high; a calcium supplement weaker, or an alkalinity supplement stronger, than logged; "
         "alkalinity added by something the log does not know (denitrification, sulfate reduction "
-        "in deep sand, alkaline food or salt); calcium carbonate precipitating on equipment at "
-        "times the tests miss. Retest both with fresh reagents before changing the dosing.",
+        "in deep sand, alkaline food or salt). Calcium carbonate precipitating on heaters or "
+        "pumps removes both in the same 1 : 2 ratio, so it does not explain this by itself. "
+        "Retest both with fresh reagents before changing the dosing.",
         ratio_text, excess_text);
   } else {
     r.verdict = RatioVerdict::AlkalinityFasterThanCalcium;
     r.reading = fmt::format(
-        "Alkalinity is falling faster than the calcium consumption explains ({}; {}). Possible "
-        "reasons: nitrification (ammonia to nitrate) consumes alkalinity without calcium; acids "
-        "from breakdown of food and waste; magnesium carbonate laid down by coralline algae "
-        "(Mg-calcite; compare the magnesium demand); an alkalinity kit reading low or a calcium "
+        "Alkalinity is falling faster than the calcium consumption explains: {}; {}, beyond "
+        "the 95 % uncertainty. Possible reasons: nitrification (ammonia to nitrate) consumes "
+        "alkalinity without calcium; acids from breakdown of food and waste; magnesium "
+        "carbonate laid down by coralline algae (Mg-calcite; compare the magnesium demand); an "
+        "alkalinity kit reading low or a calcium "
         "kit reading high; supplement strengths different from those logged. Retest both with "
         "fresh reagents before changing the dosing.",
         ratio_text, excess_text);
