@@ -19,5 +19,7 @@ void register_salinity(CLI::App& app);  // specific gravity <-> conductivity <->
 void register_buffer(CLI::App& app);    // hatchery buffering: flow, batch, pump table
 void register_log(CLI::App& app);       // the tank journal: add, import, export, list
 void register_demand(CLI::App& app);    // consumption estimate per system from the journal
+void register_plan(CLI::App& app);      // dose plan within safety limits, with exports
+void register_mix(CLI::App& app);       // stock solution recipes both ways
 
 }  // namespace tw::shell

@@ -13,6 +13,8 @@ int main(int argc, char** argv) {
   tw::shell::register_buffer(app);
   tw::shell::register_log(app);
   tw::shell::register_demand(app);
+  tw::shell::register_plan(app);
+  tw::shell::register_mix(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {
