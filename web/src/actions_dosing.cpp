@@ -8,6 +8,7 @@
 #include "actions.hpp"
 #include "platform.hpp"
 #include "tidewright/datetime.hpp"
+#include "tidewright/plan.hpp"
 #include "tidewright/seawater.hpp"
 #include "tidewright/units.hpp"
 
@@ -17,6 +18,7 @@ namespace est = tw::estimate;
 namespace hat = tw::hatchery;
 namespace add = tw::additives;
 namespace cb = tw::carbonate;
+namespace pl = tw::plan;
 
 namespace {
 std::string fmtx_g_per_l(double g) { return std::to_string(static_cast<long long>(std::llround(g))) + " g/L"; }
@@ -173,6 +175,45 @@ bool export_pump_table(AppState& app, bool csv) {
   notify(app, "Pump-side table saved to " + where);
   return true;
 }
+
+// Plan export: format 0 CSV (RFC 4180), 1 iCalendar (RFC 5545), 2 plain text.
+bool export_plan(AppState& app, int format) {
+  const PlanCache& c = app.ui.dosing.plan_cache;
+  if (!c.plan || !c.input) {
+    notify(app, "No schedule to export: " + (c.error.empty() ? std::string("make one first") : c.error), true);
+    return false;
+  }
+  std::string text, name, mime;
+  if (format == 0) {
+    text = pl::plan_to_csv(*c.input, *c.plan);
+    name = "tidewright-schedule.csv";
+    mime = "text/csv";
+  } else if (format == 1) {
+    const std::string iso = tw::datetime::format_iso8601_utc(platform::now_unix_seconds());  // 2026-12-01T20:00:00Z
+    std::string stamp;
+    for (char ch : iso) if (ch != '-' && ch != ':') stamp += ch;
+    auto ics = pl::plan_to_icalendar(*c.input, *c.plan, stamp);
+    if (!ics) {
+      notify(app, "Calendar not made: " + ics.error().message, true);
+      return false;
+    }
+    text = std::move(ics).value();
+    name = "tidewright-schedule.ics";
+    mime = "text/calendar";
+  } else {
+    text = pl::plan_to_text(*c.input, *c.plan);
+    name = "tidewright-schedule.txt";
+    mime = "text/plain";
+  }
+  std::string where;
+  if (!platform::export_file(name, mime, text, &where)) {
+    notify(app, "Export failed: " + where, true);
+    return false;
+  }
+  notify(app, "Schedule saved to " + where);
+  return true;
+}
+
 
 // ---------------------------------------------------------------- Mixes
 const std::vector<add::CompoundId>& mix_compounds() {

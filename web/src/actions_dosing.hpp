@@ -20,6 +20,8 @@ void refresh_mixes(AppState& app);
 // Plan: the form + the Demand estimate (levels, consumption) -> schedule, checked again by the
 // core's independent checker. Calls refresh_demand first.
 void refresh_plan(AppState& app);
+// Downloads the current schedule: format 0 CSV, 1 iCalendar, 2 plain text.
+bool export_plan(AppState& app, int format);
 
 // Dissolvable solids offered on the Mixes screen (catalog order, gases left out).
 const std::vector<tw::additives::CompoundId>& mix_compounds();

@@ -273,6 +273,10 @@ void draw_plan(AppState& app) {
     for (const std::string& s : plan.cautions) ui::colored_wrapped(theme::kWarning, ("\u2022 " + s).c_str());
     ui::record(app, "plan.cautions");
   }
+  ui::heading(app, "Download");
+  const char* const formats[] = {"CSV", "iCalendar", "Text"};
+  ui::choice(app, "plan.export_format", "", &f.export_index, formats, 3);
+  if (ui::button(app, "plan.export", "Download the schedule", 0, ui::Tone::Primary)) export_plan(app, f.export_index);
 }
 
 }  // namespace twapp
