@@ -11,7 +11,10 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "file_io.hpp"
+#include "tidewright/journal_file.hpp"
 #include "tidewright/plan.hpp"
+#include "tidewright/plan_from_journal.hpp"
 
 namespace tw::shell {
 namespace {
@@ -22,6 +25,7 @@ struct PlanOptions {
   bool json = false, csv = false, ics = false, text = false;
   int horizon_days = 0;
   std::string dtstamp;
+  std::string journal, system;  // --journal FILE --system NAME|ID
 };
 
 std::string read_all(const std::string& path) {
@@ -40,15 +44,39 @@ std::string now_dtstamp() {
   return buf;
 }
 
+// --journal/--system: the system's state and demand from the journal (plan_from_journal.hpp).
+std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in) {
+  if (o.journal.empty()) throw CommandError("--system: needs --journal FILE");
+  if (o.system.empty()) throw CommandError("--journal: needs --system NAME or ID");
+  auto j = journal::parse_journal(read_text_file(o.journal));
+  if (!j) throw CommandError(fmt::format("--journal: {}: {}", o.journal, j.error().message));
+  const journal::System* sys = journal::find_system_by_name(*j, o.system);
+  if (sys == nullptr && !o.system.empty() && o.system.find_first_not_of("0123456789") == std::string::npos &&
+      o.system.size() < 18) {
+    sys = journal::find_system(*j, std::stoll(o.system));
+  }
+  if (sys == nullptr) throw CommandError(fmt::format("--system: no system \"{}\" in {}", o.system, o.journal));
+  auto basis = plan::plan_basis_from_journal(*j, sys->id);
+  if (!basis) throw CommandError(fmt::format("--journal: {}", basis.error().message));
+  return plan::apply_journal_basis(*basis, in);
+}
+
 void run(const PlanOptions& o) {
   auto in = plan::plan_input_from_json(read_all(o.input));
   if (!in) throw CommandError(in.error().message);
   if (o.horizon_days > 0) in->horizon_days = o.horizon_days;
+  std::vector<std::string> basis_lines;
+  if (!o.journal.empty() || !o.system.empty()) basis_lines = apply_journal(o, in.value());
   auto plan = plan::make_plan(*in);
   if (!plan) throw CommandError(plan.error().message);
   std::string text;
   if (o.json) {
     text = plan::plan_to_json(*in, *plan);
+    if (!basis_lines.empty()) {
+      auto doc = nlohmann::json::parse(text);
+      doc["basis"] = basis_lines;
+      text = doc.dump(2) + "\n";
+    }
   } else if (o.csv) {
     text = plan::plan_to_csv(*in, *plan);
   } else if (o.ics) {
@@ -57,6 +85,11 @@ void run(const PlanOptions& o) {
     text = *ics;
   } else {
     text = plan::plan_to_text(*in, *plan);
+    if (!basis_lines.empty()) {
+      std::string head;
+      for (const auto& l : basis_lines) head += (head.empty() ? "" : "  ") + l + "\n";
+      text = head + "\n" + text;
+    }
     if (!o.text) {
       text += "\nIf a dose is missed or a pump runs twice (largest dose of each additive):\n";
       for (const auto& w : plan::mishap_summary(*in, *plan)) text += "  " + w.summary + "\n";
@@ -90,6 +123,8 @@ void register_plan(CLI::App& app) {
   fmt_group->add_flag("--text", opts->text, "plain text for print");
   fmt_group->require_option(0, 1);
   sub->add_option("--dtstamp", opts->dtstamp, "DTSTAMP for --ics as YYYYMMDDTHHMMSSZ (default: now)");
+  sub->add_option("--journal", opts->journal, "take the system's state and demand from this journal (JSON)");
+  sub->add_option("--system", opts->system, "the journal's system, by name or id (with --journal)");
   sub->add_option("--out", opts->out, "write to this file instead of stdout");
   sub->callback([opts] { run(*opts); });
 }
