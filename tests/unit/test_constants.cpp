@@ -87,7 +87,7 @@ TEST_CASE("constants: Mucci (1983) solubility products and extra points") {
 }
 
 TEST_CASE("constants: Millero (2010) K1 K2 on the seawater scale") {
-  // Computed here from the CO2SYS transcription of Millero (2010) (carbonate_formulas.hpp);
+  // Computed here from the CO2SYS copy of Millero (2010) (carbonate_formulas.hpp);
   // it sits within 0.003 of Millero et al. (2006)'s published pK1* 5.8401 and pK2* 8.9636
   // (facts.md 1), a different fit of much the same data.
   const tc::PkPair pk = tc::k1_k2_sws_millero2010(35, kT25);

@@ -81,7 +81,7 @@ double pk2_total_lueker2000(double salinity, double temperature_k);
 
 // -log10 K1 and K2, SEAWATER scale, Millero (2010) Mar. Freshwater Res. 61:139, pK = pK0 +
 // A + B/T + C ln T with pK0 the pure-water fit (p. 141) and A, B, C from tables 2 and 3
-// (p. 140). Coefficients as transcribed in CO2SYS (several independent copies agree);
+// (p. 140). Coefficients as copied in CO2SYS (several independent copies agree);
 // the paper itself was not read. Check (computed here from these coefficients): pK1 = 5.8413,
 // pK2 = 8.9609 (SWS) at S = 35, 25 C, close to Millero et al. (2006)'s published 5.8401 and
 // 8.9636; S = 0 gives the freshwater pK1 6.3515, pK2 10.3297.
