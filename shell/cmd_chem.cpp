@@ -12,6 +12,7 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
+#include "file_io.hpp"
 #include "tidewright/carbonate.hpp"
 #include "tidewright/carbonate_batch.hpp"
 #include "tidewright/seawater.hpp"
@@ -109,29 +110,13 @@ void print_state_text(const carbonate::CarbonateState& s, const carbonate::Condi
   for (const auto& w : s.warnings) fmt::print("Warning {}\n", w);
 }
 
-std::string read_all(const std::string& path) {
-  if (path == "-") return {std::istreambuf_iterator<char>(std::cin), {}};
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw CommandError("--batch: cannot read '" + path + "'");
-  return {std::istreambuf_iterator<char>(in), {}};
-}
 
-void write_output(const std::string& path, const std::string& text) {
-  if (path.empty() || path == "-") {
-    std::fwrite(text.data(), 1, text.size(), stdout);
-    return;
-  }
-  std::ofstream out(path, std::ios::binary);
-  if (!out || !out.write(text.data(), static_cast<std::streamsize>(text.size()))) {
-    throw CommandError("--out: cannot write '" + path + "'");
-  }
-}
 
 void run_batch(const ChemOptions& o) {
   carbonate::BatchOptions options;
   options.k1k2 = parse_k1k2(o.k1k2);
   options.boron = parse_boron(o.boron);
-  auto summary = or_fail(carbonate::solve_csv_batch(read_all(o.batch), options));
+  auto summary = or_fail(carbonate::solve_csv_batch(read_text_file(o.batch), options));
   write_output(o.out, summary.csv);
   // Every row is written; a row that failed still makes the exit status non-zero, as in
   // `tidewright salinity --batch`, so scripts notice.

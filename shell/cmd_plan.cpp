@@ -28,12 +28,6 @@ struct PlanOptions {
   std::string journal, system;  // --journal FILE --system NAME|ID
 };
 
-std::string read_all(const std::string& path) {
-  if (path == "-") return std::string(std::istreambuf_iterator<char>(std::cin), {});
-  std::ifstream f(path, std::ios::binary);
-  if (!f) throw CommandError(fmt::format("input: cannot open {}", path));
-  return std::string(std::istreambuf_iterator<char>(f), {});
-}
 
 std::string now_dtstamp() {
   const std::time_t t = std::time(nullptr);
@@ -62,7 +56,7 @@ std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in
 }
 
 void run(const PlanOptions& o) {
-  auto in = plan::plan_input_from_json(read_all(o.input));
+  auto in = plan::plan_input_from_json(read_text_file(o.input));
   if (!in) throw CommandError(in.error().message);
   if (o.horizon_days > 0) in->horizon_days = o.horizon_days;
   std::vector<std::string> basis_lines;

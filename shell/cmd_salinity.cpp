@@ -15,6 +15,7 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
+#include "file_io.hpp"
 #include "tidewright/salinity_convert.hpp"
 #include "tidewright/seawater.hpp"
 #include "tidewright/units.hpp"
@@ -149,30 +150,14 @@ void print_report(const sw::SalinityReport& r, const SalinityOptions& o) {
   for (const auto& n : r.notes) fmt::print("Note              {}\n", n);
 }
 
-std::string read_all(const std::string& path) {
-  if (path == "-") return {std::istreambuf_iterator<char>(std::cin), {}};
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw CommandError("--batch: cannot read '" + path + "'");
-  return {std::istreambuf_iterator<char>(in), {}};
-}
 
-void write_output(const std::string& path, const std::string& text) {
-  if (path.empty() || path == "-") {
-    std::fwrite(text.data(), 1, text.size(), stdout);
-    return;
-  }
-  std::ofstream out(path, std::ios::binary);
-  if (!out || !out.write(text.data(), static_cast<std::streamsize>(text.size()))) {
-    throw CommandError("--out: cannot write '" + path + "'");
-  }
-}
 
 void run_batch(const SalinityOptions& o) {
   if (o.salinity || o.specific_gravity || o.conductivity || o.conductivity_ratio || o.density) {
     throw CommandError("--batch reads its samples from the CSV; drop --salinity, "
                        "--specific-gravity, --conductivity, --conductivity-ratio and --density");
   }
-  auto batch = sw::describe_salinity_csv(read_all(o.batch), conditions(o));
+  auto batch = sw::describe_salinity_csv(read_text_file(o.batch), conditions(o));
   if (!batch) throw CommandError("--batch: " + batch.error().message);
   if (o.json) {
     nlohmann::json rows = nlohmann::json::array();

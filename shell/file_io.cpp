@@ -138,4 +138,8 @@ void write_text_file_atomic(const std::string& path, const std::string& text, bo
   sync_directory(directory_of(path));
 }
 
+void write_output(const std::string& path, const std::string& text) {
+  write_text_file_atomic(path.empty() ? std::string("-") : path, text, /*keep_backup=*/false);
+}
+
 }  // namespace tw::shell

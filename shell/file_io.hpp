@@ -24,4 +24,8 @@ std::string read_text_file(const std::string& path);
 void write_text_file_atomic(const std::string& path, const std::string& text,
                             bool keep_backup = true);
 
+// Where an --out option points: standard output when path is empty or "-", otherwise an
+// atomic replacement of the file (no .bak: outputs are regenerated, not edited).
+void write_output(const std::string& path, const std::string& text);
+
 }  // namespace tw::shell
