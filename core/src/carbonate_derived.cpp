@@ -12,7 +12,7 @@ namespace tw::carbonate::detail {
 //   dh/dDIC = -(dTA/dDIC)/(dTA/dh) at constant TA, dTA/dDIC = (HCO3 + 2 CO3)/DIC.
 // (Analytic form derived here; the fugacity coefficient does not depend on DIC.)
 // Buffer capacity beta = dTA/dpH at constant DIC = -ln(10) h dTA/dh (positive).
-void fill_state(const Constants& k, double h, double dic, CarbonateState& out) {
+void fill_state(const Constants& k, double h, double ph_total, double dic, CarbonateState& out) {
   constexpr double kLn10 = 2.302585092994046;
   const double k1k2 = k.k1 * k.k2;
   const double den = h * h + k.k1 * h + k1k2;
@@ -25,7 +25,7 @@ void fill_state(const Constants& k, double h, double dic, CarbonateState& out) {
   const double alk = hco3 + 2.0 * co3 + n.value;
   const double dta_dh = dic * c.d_dh + n.d_dh;
 
-  out.ph_total = -std::log10(h);
+  out.ph_total = ph_total;  // = -log10(h), passed in: the caller has it already
   out.ph_sws = out.ph_total + k.ph_sws_minus_total;
   out.ph_free = out.ph_total + k.ph_free_minus_total;
   out.ph_nbs = out.ph_total + k.ph_nbs_minus_total;

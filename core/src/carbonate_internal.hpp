@@ -85,7 +85,8 @@ inline constexpr double kHAtPhMax = 1e-12;  // pH 12
 inline constexpr double kHAtPhMin = 1e-2;   // pH 2
 
 // ---------------------------------------------------------------- state
-// The full state from h (total scale) and DIC (mol/kg); warnings are not touched.
-void fill_state(const Constants& k, double h, double dic, CarbonateState& out);
+// The full state from h (total scale, with its pH_T = -log10 h) and DIC (mol/kg); warnings
+// are not touched.
+void fill_state(const Constants& k, double h, double ph_total, double dic, CarbonateState& out);
 
 }  // namespace tw::carbonate::detail

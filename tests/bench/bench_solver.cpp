@@ -1,17 +1,17 @@
 // Solver speed: solves per second for the alkalinity+DIC and alkalinity+pH pairs, with the
 // constants computed once (cached) and computed for every solve. Prints figures only; not
-// part of the pass/fail suite. Portable (std::chrono and std::clock only) so it runs under
-// Emscripten too. Each figure is given per second of wall time and per second of this
-// process's CPU time (std::clock): on a shared, loaded machine only the second one measures
-// the code rather than the neighbours.
+// part of the pass/fail suite. Portable, so it runs under Emscripten (Node.js) too. Each
+// figure is given per second of wall time and per second of this process's CPU time
+// (process_cpu_clock.hpp): on a shared, loaded machine only the second one measures the code
+// rather than the neighbours, and scripts/bench.sh takes the WebAssembly/native ratio of both.
 //
 //   bench_solver [seconds_per_case]   (default 0.5)
 #include <chrono>
 #include <cstdio>
 #include <cstdlib>
-#include <ctime>
 #include <vector>
 
+#include "bench/process_cpu_clock.hpp"
 #include "tidewright/carbonate.hpp"
 
 namespace tc = tw::carbonate;
@@ -47,7 +47,7 @@ template <class Body>
 Rate rate_per_second(double seconds, const Body& body) {
   using clock = std::chrono::steady_clock;
   const auto start = clock::now();
-  const std::clock_t cpu_start = std::clock();
+  const double cpu_start = process_cpu_seconds();
   long n = 0;
   double elapsed = 0.0;
   do {
@@ -55,7 +55,7 @@ Rate rate_per_second(double seconds, const Body& body) {
     n += 4096;
     elapsed = std::chrono::duration<double>(clock::now() - start).count();
   } while (elapsed < seconds);
-  const double cpu = static_cast<double>(std::clock() - cpu_start) / CLOCKS_PER_SEC;
+  const double cpu = cpu_start < 0 ? 0.0 : process_cpu_seconds() - cpu_start;
   return {static_cast<double>(n) / elapsed, static_cast<double>(n) / (cpu > 0 ? cpu : elapsed)};
 }
 

@@ -21,6 +21,8 @@ class Result {
  public:
   Result(T value) : data_(std::move(value)) {}           // NOLINT: implicit on purpose
   Result(Error error) : data_(std::move(error)) {}       // NOLINT: implicit on purpose
+  // A default-made value built in place (for hot paths that fill it and return it by NRVO).
+  explicit Result(std::in_place_t) : data_(std::in_place_index<0>) {}
 
   bool ok() const { return std::holds_alternative<T>(data_); }
   explicit operator bool() const { return ok(); }
