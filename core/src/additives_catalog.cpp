@@ -91,7 +91,7 @@ const char* const kLabel = "label the stock with its name and concentration; kee
 
 // Solubility tables cited in facts.md 6.
 const char* const kChemdatabase =
-    "Chemdatabase (chemister.ru), citing Comey & Hahn 1921 and Seidell (facts.md 6)";
+    "Chemdatabase (chemister.ru), citing Comey & Hahn 1921 and Seidell";
 
 std::vector<Compound> build_catalog() {
   std::vector<Compound> rows;
@@ -109,7 +109,7 @@ std::vector<Compound> build_catalog() {
     c.crystal_density_g_ml = 2.20;
     c.solubility = {{0, 6.9}, {10, 8.2}, {20, 9.6}, {25, 10.4}, {30, 11.1}, {40, 12.7}, {60, 16.4}};
     c.solubility_source = kChemdatabase;
-    c.hazard_source = "usually not classified under GHS (facts.md 11, from memory: unverified)";
+    c.hazard_source = "usually not classified under GHS (from memory: unverified)";
     c.cautions = {kLabel};
     c.note = "lowers pH slightly at the moment of dosing; the mildest alkalinity source per equivalent";
     rows.push_back(c);
@@ -133,7 +133,7 @@ std::vector<Compound> build_catalog() {
         "linear interpolation between 30 and 40 C misses the maximum near 35.4 C";
     c.signal_word = "Warning";
     c.hazard_statements = {kH319};
-    c.hazard_source = "ILO ICSC 1135 (2024), facts.md 11";
+    c.hazard_source = "ILO ICSC 1135 (2024)";
     c.cautions = {kEyesGloves,
                   "its solution is a medium-strong base; it reacts violently with acids, giving heat and CO2 "
                   "(ILO ICSC 1135)",
@@ -169,7 +169,7 @@ std::vector<Compound> build_catalog() {
         "two remembered points only; the solution is dangerously corrosive long before it is saturated";
     c.signal_word = "Danger";
     c.hazard_statements = {kH314, kH290, kH318};
-    c.hazard_source = "EU CLP Annex VI (Skin Corr. 1A, H314); supplier SDS add H290 and H318 (facts.md 11)";
+    c.hazard_source = "EU CLP Annex VI (Skin Corr. 1A, H314); supplier SDS add H290 and H318";
     c.cautions = {kEyesGloves,
                   "add solid sodium hydroxide slowly to cold water, never water onto the solid: dissolving "
                   "releases much heat",
@@ -198,11 +198,11 @@ std::vector<Compound> build_catalog() {
                     {30, 0.153 * scale}, {40, 0.141 * scale}};
     c.solubility_source =
         "Bates, Bower & Smith 1956, J. Res. NBS 56:305 (25 C level); temperature shape from an "
-        "unsourced secondary table (facts.md 6)";
+        "unsourced secondary table";
     c.solubility_note = "retrograde (weaker when warmer); the temperature curve is approximate";
     c.signal_word = "Danger";
     c.hazard_statements = {kH315, kH318, kH335};
-    c.hazard_source = "EU supplier eSDS (REACH/CLP) and ECHA dossier (facts.md 11)";
+    c.hazard_source = "EU supplier eSDS (REACH/CLP) and ECHA dossier";
     c.cautions = {kEyesGloves,
                   "saturated limewater has pH about 12.4 (Bates et al. 1956): drip it slowly where it mixes "
                   "fast, never in one pour",
@@ -242,13 +242,13 @@ std::vector<Compound> build_catalog() {
     c.per_mole.chloride_mol = 2;
     c.crystal_density_g_ml = row.density;
     c.solubility = {{20, 74.0}, {100, 159.0}};
-    c.solubility_source = "Great Soviet Encyclopedia, \"Calcium chloride\" (facts.md 6), anhydrous basis";
+    c.solubility_source = "Great Soviet Encyclopedia, \"Calcium chloride\", anhydrous basis";
     c.solubility_note =
         "only two points (20 and 100 C): the straight line between them is thin data; the stable solid is "
         "the hexahydrate up to 29.8 C; no hydrate-specific table was found";
     c.signal_word = "Warning";
     c.hazard_statements = {kH319};
-    c.hazard_source = "supplier SDS via a secondary infobox (facts.md 11)";
+    c.hazard_source = "supplier SDS via a secondary infobox";
     c.cautions = {kEyesGloves,
                   row.waters == 0 ? "the anhydrous salt heats up strongly when dissolved; add it slowly"
                                   : "dissolving the hydrate cools the solution slightly",
@@ -268,7 +268,7 @@ std::vector<Compound> build_catalog() {
     c.crystal_density_g_ml = 1.57;
     c.solubility = {{0, 52.9}, {10, 53.8}, {20, 54.8}, {25, 55.5}, {30, 56.0}, {40, 58.0}};
     c.solubility_source = std::string(kChemdatabase) + ", anhydrous MgCl2 with MgCl2.6H2O as solid";
-    c.hazard_source = "usually not classified under GHS (facts.md 11, from memory: unverified)";
+    c.hazard_source = "usually not classified under GHS (from memory: unverified)";
     c.cautions = {kLabel};
     rows.push_back(c);
   }
@@ -302,7 +302,7 @@ std::vector<Compound> build_catalog() {
     c.phase = Phase::Gas;
     c.per_mole.dic_mol = 1;
     c.hazard_source = "gas under pressure in cylinders (from memory: unverified); OSHA limit 5000 ppm "
-                      "8-h TWA (facts.md 10)";
+                      "8-h TWA";
     c.signal_word = "Warning";
     c.hazard_statements = {"H280 contains gas under pressure; may explode if heated (from memory: unverified)"};
     c.cautions = {"CO2 lowers pH and adds no alkalinity; in closed rooms it displaces air (common practice)"};

@@ -53,7 +53,7 @@ Result<DailyAddition> daily_addition(const ContinuousSource& source, const TankL
     if (out.calcium_mg_per_meq > 0 && std::abs(out.calcium_mg_per_meq / 20.04 - 1.0) > 0.35) {
       out.notes.push_back(fmt::format(
           "net output has {:.1f} mg calcium per meq alkalinity; dissolving calcium carbonate gives 20.0 "
-          "(facts.md 5): retest the effluent",
+          "per meq: retest the effluent",
           out.calcium_mg_per_meq));
     }
   }

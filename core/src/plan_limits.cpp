@@ -22,7 +22,7 @@ const std::array<LimitSpec, kLimitCount> kSpecs = {{
      8.45, 8.6, "common practice; hard ceiling chosen here"},
     {LimitId::OmegaAragoniteAfterDose, "omega_aragonite_after_dose",
      "highest aragonite saturation right after a dose, fully mixed", "", 5.0, 7.0,
-     "Moras et al. 2022, Biogeosciences 19:3537 (facts.md 9): no precipitation at Omega 5, aragonite above 7"},
+     "Moras et al. 2022, Biogeosciences 19:3537: no precipitation at Omega 5, aragonite above 7"},
     {LimitId::AlkalinityCeiling, "alkalinity_max_dkh", "highest alkalinity at any time", "dKH", 12.0, 14.0,
      "common practice; hard ceiling chosen here"},
     {LimitId::CalciumCeiling, "calcium_max_mg_l", "highest calcium at any time", "mg/L", 500.0, 550.0,
