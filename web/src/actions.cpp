@@ -219,6 +219,33 @@ bool set_room_co2(AppState& app, double ppm) {
   return true;
 }
 
+std::vector<tw::plan::LimitSetting> safety_limit_settings(const Settings& settings) {
+  std::vector<tw::plan::LimitSetting> out;
+  for (const auto& spec : tw::plan::limit_specs()) {
+    const double v = settings.safety_limits[static_cast<std::size_t>(spec.id)];
+    if (v != spec.default_value) out.push_back({spec.id, v, false, {}});
+  }
+  return out;
+}
+
+bool set_safety_limit(AppState& app, tw::plan::LimitId id, double value) {
+  // The core's rules decide (make_limits); its message names the limit and the range.
+  auto checked = tw::plan::make_limits({{id, value, false, {}}});
+  if (!checked) {
+    notify(app, checked.error().message, true);
+    return false;
+  }
+  app.settings.safety_limits[static_cast<std::size_t>(id)] = value;
+  changed(app);
+  return true;
+}
+
+void reset_safety_limits(AppState& app) {
+  app.settings.safety_limits = tw::plan::default_limits().value;
+  notify(app, "Safety limits are back to their defaults");
+  changed(app);
+}
+
 // ---------------------------------------------------------------- water
 void set_water_inputs(AppState& app, const WaterInputs& inputs) {
   app.water = inputs;

@@ -31,6 +31,12 @@ bool remove_event(AppState& app, tw::journal::EventId id);
 void set_units(AppState& app, const tw::journal::UnitPreferences& units);
 void set_text_size(AppState& app, float text_size);
 bool set_room_co2(AppState& app, double ppm);
+// A safety limit of the planner: refused (message names the limit and its accepted range)
+// below its floor or past its hard ceiling; loosening up to the ceiling is kept and noted.
+bool set_safety_limit(AppState& app, tw::plan::LimitId id, double value);
+void reset_safety_limits(AppState& app);
+// The settings as the planner takes them (every limit that differs from its default).
+std::vector<tw::plan::LimitSetting> safety_limit_settings(const Settings& settings);
 
 // Water screen
 void set_water_inputs(AppState& app, const WaterInputs& inputs);  // becomes a what-if

@@ -297,7 +297,7 @@ void refresh_plan(AppState& app) {
   const DemandCache& dc = app.ui.dosing.demand_cache;
   PlanCache& c = app.ui.dosing.plan_cache;
   if (c.valid && c.key == f && c.system == app.current_system && c.demand_computed == dc.computed_count &&
-      c.room_co2_ppm == app.settings.room_co2_ppm) {
+      c.room_co2_ppm == app.settings.room_co2_ppm && c.safety_limits == app.settings.safety_limits) {
     return;
   }
   PlanCache out;
@@ -306,6 +306,7 @@ void refresh_plan(AppState& app) {
   out.system = app.current_system;
   out.demand_computed = dc.computed_count;
   out.room_co2_ppm = app.settings.room_co2_ppm;
+  out.safety_limits = app.settings.safety_limits;
   out.computed_count = c.computed_count + 1;
   const tw::journal::System* sys = current_system(app);
   if (!sys) {
@@ -406,6 +407,13 @@ void refresh_plan(AppState& app) {
     in.deliveries.push_back(pump(std::move(a).value(), "pump 2"));
   }
   in.horizon_days = std::clamp(f.horizon_days, 1, 60);
+  auto limits = pl::make_limits(safety_limit_settings(app.settings));
+  if (!limits) {  // cannot happen for stored values (checked when set and when loaded)
+    out.error = "Safety limits: " + limits.error().message;
+    c = std::move(out);
+    return;
+  }
+  in.limits = std::move(limits).value();
   const std::int64_t local_s = platform::now_unix_seconds() + 60LL * platform::utc_offset_minutes();
   const std::int64_t tomorrow = (local_s / 86400 + 1) * 86400;
   in.start_date = tw::datetime::format_date_utc(tomorrow);

@@ -10,6 +10,7 @@
 //     plan      PlanForm (additives, pumps, horizon; demand from the Demand estimate) -> PlanCache
 #pragma once
 
+#include <array>
 #include <cstdint>
 #include <optional>
 #include <string>
@@ -152,6 +153,7 @@ struct PlanCache {
   tw::journal::SystemId system = 0;
   int demand_computed = -1;  // DemandCache::computed_count it was made from
   double room_co2_ppm = 0;
+  std::array<double, tw::plan::kLimitCount> safety_limits{};
   std::string error;
   std::vector<std::string> assumptions;  // where the start levels and demand came from
   std::optional<tw::plan::PlanInput> input;

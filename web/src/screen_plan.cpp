@@ -203,13 +203,15 @@ void draw_limits(AppState& app, const PlanCache& c) {
     if (!desc.empty()) desc[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(desc[0])));
     ui::wrapped(desc.c_str());
     ImGui::PopFont();
-    ui::label_value(app, ("limit " + fmtx::fixed(limit, dec) + " " + s.unit).c_str(),
+    const std::string unit = *s.unit ? std::string(" ") + s.unit : std::string();  // Omega has none
+    ui::label_value(app, ("limit " + fmtx::fixed(limit, dec) + unit).c_str(),
                     (over ? "over: " : near ? "at the limit: " : "within: ") + fmtx::fixed(reached[i], dec), col);
     ui::record(app, std::string("plan.limit.") + s.key);
-    ui::dim_text(("Default " + fmtx::fixed(s.default_value, dec) + " " + s.unit + " (" + s.source + "); hard ceiling " +
+    ui::dim_text(("Default " + fmtx::fixed(s.default_value, dec) + unit + " (" + s.source + "); hard ceiling " +
                   fmtx::fixed(s.hard_ceiling, dec) + ".").c_str());
   }
   for (const std::string& r : plan.limits.record) ui::colored_wrapped(theme::kWarning, r.c_str());
+  if (ui::button(app, "plan.limits_settings", "Change the limits (Settings)", 0, ui::Tone::Quiet)) go_to(app, Screen::Settings);
   if (c.check) {
     if (c.check->ok()) {
       ui::colored_wrapped(theme::kAccent, "Independent check: every dose replayed, no limit exceeded.");

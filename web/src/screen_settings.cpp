@@ -1,5 +1,7 @@
 // Settings: units (stored with the current system and as the default for new ones), the pH
-// scale of the user's meter, text size, room CO2, and the user's data (export, import).
+// scale of the user's meter, text size, room CO2, the planner's safety limits, and the user's
+// data (export, import).
+#include <cctype>
 #include <cmath>
 #include <string>
 
@@ -26,6 +28,53 @@ const char* const kScales[] = {"NBS", "Total", "Seawater", "Free"};
 const cb::PhScale kScaleValues[] = {cb::PhScale::NBS, cb::PhScale::Total, cb::PhScale::Seawater, cb::PhScale::Free};
 const char* const kTextSizes[] = {"Small", "Normal", "Large", "Huge"};
 const float kTextSizeValues[] = {0.85f, 1.0f, 1.2f, 1.45f};
+
+// How each safety limit is entered: step, decimals and the lowest value offered. The lowest
+// values are this screen's choice (a limit below them leaves no useful plan); the core only
+// asks for a value above its floor. The highest is always the core's hard ceiling.
+struct LimitEntry {
+  int decimals;
+  double step, lowest;
+};
+LimitEntry limit_entry(tw::plan::LimitId id) {
+  using L = tw::plan::LimitId;
+  switch (id) {
+    case L::AlkalinityRisePerDay: return {2, 0.1, 0.1};
+    case L::CalciumRisePerDay: return {0, 1, 1};
+    case L::MagnesiumRisePerDay: return {0, 5, 5};
+    case L::PhAfterDose: return {2, 0.05, 7.8};
+    case L::OmegaAragoniteAfterDose: return {1, 0.1, 1.5};
+    case L::AlkalinityCeiling: return {1, 0.5, 5};
+    case L::CalciumCeiling: return {0, 10, 350};
+    case L::MagnesiumCeiling: return {0, 10, 1000};
+  }
+  return {2, 0.1, 0.1};
+}
+
+void draw_safety_limits(AppState& app) {
+  ui::heading(app, "Safety limits of the dose plan");
+  ui::dim_text("Tighten any limit for sensitive livestock. Raising one above its default is allowed up to its hard ceiling and is shown with every plan; past the ceiling the app refuses.");
+  ui::card_begin(app);
+  for (const tw::plan::LimitSpec& spec : tw::plan::limit_specs()) {
+    const LimitEntry e = limit_entry(spec.id);
+    double v = app.settings.safety_limits[static_cast<std::size_t>(spec.id)];
+    std::string label = spec.description;
+    if (!label.empty()) label[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(label[0])));
+    const std::string name = std::string("settings.limit.") + spec.key;
+    if (ui::number_field(app, name, {label.c_str(), spec.unit, e.decimals, e.step, e.lowest, spec.hard_ceiling}, &v)) {
+      set_safety_limit(app, spec.id, v);
+    }
+    const bool loosened = v > spec.default_value * (1 + 1e-9);
+    const std::string note = "Default " + fmtx::fixed(spec.default_value, e.decimals) + ", hard ceiling " +
+                             fmtx::fixed(spec.hard_ceiling, e.decimals) + " (" + spec.source + ")";
+    if (loosened) ui::colored_wrapped(theme::kWarning, ("Above the default. " + note).c_str());
+    else ui::dim_text(note.c_str());
+  }
+  ui::card_end(app);
+  if (app.settings.safety_limits != tw::plan::default_limits().value) {
+    if (ui::button(app, "settings.limits_reset", "Back to the default limits", 0, ui::Tone::Quiet)) reset_safety_limits(app);
+  }
+}
 
 template <class T, int N>
 int index_of(const T (&values)[N], T v) {
@@ -75,6 +124,8 @@ void draw_settings(AppState& app) {
     set_room_co2(app, co2);
   }
   ui::dim_text("Outdoor air is about 420 ppm; closed rooms with people in them often reach 800 to 2000 ppm, which lowers the pH that tank water settles at.");
+
+  draw_safety_limits(app);
 
   ui::heading(app, "Your data");
   ui::dim_text(("Kept in " + platform::storage_location() + ", saved after every change.").c_str());

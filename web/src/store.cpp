@@ -34,6 +34,23 @@ jn::UnitPreferences units_from_json(const json& j) {
   return u;
 }
 
+json limits_to_json(const std::array<double, tw::plan::kLimitCount>& limits) {
+  json out = json::object();
+  for (const auto& spec : tw::plan::limit_specs()) out[spec.key] = limits[static_cast<std::size_t>(spec.id)];
+  return out;
+}
+
+// Takes each known limit the core accepts without an override; anything else keeps its default
+// (a damaged or hand-edited value must never loosen a limit past its hard ceiling).
+void limits_from_json(const json& j, std::array<double, tw::plan::kLimitCount>& limits) {
+  if (!j.is_object()) return;
+  for (const auto& spec : tw::plan::limit_specs()) {
+    if (!j.contains(spec.key) || !j[spec.key].is_number()) continue;
+    const double v = j[spec.key].get<double>();
+    if (tw::plan::make_limits({{spec.id, v, false, {}}})) limits[static_cast<std::size_t>(spec.id)] = v;
+  }
+}
+
 }  // namespace
 
 std::string store_to_text(const AppState& app) {
@@ -42,7 +59,8 @@ std::string store_to_text(const AppState& app) {
   a["schema_version"] = kAppSchemaVersion;
   a["settings"] = {{"units", units_to_json(app.settings.units)},
                    {"text_size", app.settings.text_size},
-                   {"room_co2_ppm", app.settings.room_co2_ppm}};
+                   {"room_co2_ppm", app.settings.room_co2_ppm},
+                   {"safety_limits", limits_to_json(app.settings.safety_limits)}};
   a["current_system"] = app.current_system;
   a["demo_system_ids"] = app.demo_system_ids;
   doc["app"] = std::move(a);
@@ -80,6 +98,7 @@ tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
     if (size >= 0.8 && size <= 1.6) out.settings.text_size = static_cast<float>(size);
     const double co2 = s.value("room_co2_ppm", out.settings.room_co2_ppm);
     if (co2 >= 100 && co2 <= 10000) out.settings.room_co2_ppm = co2;
+    if (s.contains("safety_limits")) limits_from_json(s["safety_limits"], out.settings.safety_limits);
   }
   const jn::SystemId current = app_part.value("current_system", jn::SystemId{0});
   if (jn::find_system(out.journal, current)) out.current_system = current;

@@ -66,6 +66,20 @@ std::string state_json() {
                    {"temperature_unit", jn::to_string(a.settings.units.temperature)},
                    {"ph_scale", jn::ph_scale_name(a.settings.units.ph_scale)},
                    {"text_size", a.settings.text_size}, {"room_co2_ppm", a.settings.room_co2_ppm}};
+  json limits = json::object();
+  for (const auto& spec : tw::plan::limit_specs()) limits[spec.key] = a.settings.safety_limits[static_cast<size_t>(spec.id)];
+  j["settings"]["safety_limits"] = limits;
+  // The last plan the Plan screen made (only when it has been shown): the limits it used, the
+  // largest daily alkalinity rise it plans and the independent checker's verdict.
+  const PlanCache& pc = a.ui.dosing.plan_cache;
+  if (pc.plan) {
+    json used = json::object();
+    for (const auto& spec : tw::plan::limit_specs()) used[spec.key] = pc.plan->limits.get(spec.id);
+    double rise = 0;
+    for (const auto& d : pc.plan->days) rise = std::max(rise, d.rise_alkalinity_dkh);
+    j["plan"] = {{"limits", used}, {"max_alkalinity_rise_dkh", rise}, {"check_ok", pc.check && pc.check->ok()},
+                 {"computed_count", pc.computed_count}};
+  }
   j["demo_system_ids"] = a.demo_system_ids;
   j["store"] = {{"loaded", a.store.loaded}, {"problem", a.store.problem}, {"save_error", a.store.save_error},
                 {"saves", a.store.saves}};
