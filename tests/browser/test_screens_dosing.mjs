@@ -6,7 +6,7 @@
 import { resolve, join } from 'node:path';
 import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, widget, tap, frames, check, OUTPUT, HERE } from './lib.mjs';
+import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build-web/site'));
 const server = await startServer(site);
@@ -40,18 +40,14 @@ async function found(page, name) {
   return w;
 }
 
-// Touches the chart at fractions of its width until `wanted` appears under it; returns true then.
-async function scanChart(page, chart, wanted, steps = 60) {
-  const touch = await page.evaluate(() => navigator.maxTouchPoints > 0);
-  for (let i = 0; i <= steps; i++) {
-    const c = await reveal(page, chart);
-    if (!c.found) return false;
-    const x = c.x + c.w * (0.12 + 0.86 * i / steps), y = c.y + c.h / 2;
-    if (touch) await page.touchscreen.tap(x, y); else await page.mouse.click(x, y);
-    await frames(page, 3);
-    if ((await widget(page, wanted)).found) return true;
-  }
-  return false;
+// Touches the first flagged test on the level chart (the chart names each flagged point
+// "<chart>.flagged.<n>"); returns true when the reason of the flag is then shown.
+async function touchFlagged(page, chart) {
+  const point = `${chart}.flagged.0`;
+  const p = await widget(page, point);
+  if (!p.found) return false;
+  await tap(page, point);
+  return (await widget(page, 'demand.readout_reason')).found;
 }
 
 const tests = [];
@@ -76,7 +72,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
       for (const p of [0, 1, 2]) {
         await tap(page, `demand.param.${p}`);
         if (!(await widget(page, 'demand.chart.level')).found) continue;
-        if (await scanChart(page, 'demand.chart.level', 'demand.readout_reason')) { reason = true; break; }
+        if (await touchFlagged(page, 'demand.chart.level')) { reason = true; break; }
       }
       if (reason) break;
     }
@@ -146,6 +142,44 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await found(page, 'plan.limit.ph_after_dose_total');
     await found(page, 'plan.check');
     await shot(page, `${label}-plan-limits`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
+  test(`plan: a limit tightened in Settings is planned to, one past its hard ceiling is refused, reload keeps it (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    const key = 'alkalinity_rise_dkh_per_day';
+    await tap(page, 'tab.plan');
+    let s = await state(page);
+    check(s.plan && Math.abs(s.plan.limits[key] - 1.0) < 1e-12, `default limit in the plan: ${JSON.stringify(s.plan && s.plan.limits)}`);
+    await tap(page, 'plan.limits_settings');
+    check((await state(page)).screen === 'settings', 'the limits button did not open Settings');
+    await tap(page, `settings.limit.${key}`);
+    await enter(page, '0.4');
+    s = await state(page);
+    check(Math.abs(s.settings.safety_limits[key] - 0.4) < 1e-12, `limit after typing 0.4: ${s.settings.safety_limits[key]}`);
+    await reveal(page, `settings.limit.${key}`);
+    await shot(page, `${label}-settings-limits`);
+    // Past the hard ceiling (1.5 dKH/day): refused with the range, the stored 0.4 kept.
+    await tap(page, `settings.limit.${key}`);
+    await enter(page, '2');
+    s = await state(page);
+    check(s.message_is_error && /1\.5/.test(s.message), `no clear refusal: "${s.message}"`);
+    check(Math.abs(s.settings.safety_limits[key] - 0.4) < 1e-12, `limit after a refused 2: ${s.settings.safety_limits[key]}`);
+    await tap(page, 'tab.plan');
+    s = await state(page);
+    check(Math.abs(s.plan.limits[key] - 0.4) < 1e-12, `plan used ${s.plan.limits[key]}`);
+    check(s.plan.max_alkalinity_rise_dkh <= 0.4 + 1e-9, `plan raises alkalinity ${s.plan.max_alkalinity_rise_dkh} dKH in a day`);
+    check(s.plan.check_ok, 'the independent check of the tightened plan failed');
+    await found(page, 'plan.limit.alkalinity_rise_dkh_per_day');
+    await shot(page, `${label}-plan-tightened`);
+    await flushed(page);
+    await page.reload();
+    await waitReady(page);
+    await frames(page, 3);
+    s = await state(page);
+    check(Math.abs(s.settings.safety_limits[key] - 0.4) < 1e-12, `after reload the limit is ${s.settings.safety_limits[key]}`);
     await context.close();
     const real = errors.filter((e) => !benign(e));
     check(real.length === 0, `console errors: ${real.join(' | ')}`);

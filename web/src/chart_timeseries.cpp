@@ -193,11 +193,15 @@ bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* 
   // Readings: used = filled dot; flagged = hollow ring in the warning colour with a cross;
   // level restart = filled square in the warning colour.
   const float r = 0.27f * e;
+  int flagged = 0;
   for (const Point& p : s.points) {
     const ImVec2 c(sx(p.t), sy(p.v));
     switch (p.kind) {
       case PointKind::Used: d->AddCircleFilled(c, r, theme::kText); break;
       case PointKind::Flagged:
+        // Named "<chart>.flagged.<n>" for the test interface (where to touch to read it).
+        ui::record_rect(app, s.name + ".flagged." + std::to_string(flagged++), ImVec2(c.x - r, c.y - r),
+                        ImVec2(c.x + r, c.y + r));
         d->AddCircle(c, r * 1.5f, theme::kError, 0, 1.6f * line);
         d->AddLine(ImVec2(c.x - r, c.y - r), ImVec2(c.x + r, c.y + r), theme::kError, 1.4f * line);
         d->AddLine(ImVec2(c.x - r, c.y + r), ImVec2(c.x + r, c.y - r), theme::kError, 1.4f * line);

@@ -15,8 +15,10 @@ namespace twapp::ui {
 float em(const AppState& app) { return app.ui.em; }
 
 void record(AppState& app, const std::string& name) {
-  const ImVec2 a = ImGui::GetItemRectMin();
-  const ImVec2 b = ImGui::GetItemRectMax();
+  record_rect(app, name, ImGui::GetItemRectMin(), ImGui::GetItemRectMax());
+}
+
+void record_rect(AppState& app, const std::string& name, ImVec2 a, ImVec2 b) {
   const ImGuiWindow* w = ImGui::GetCurrentWindow();
   const ImRect clip = w->InnerClipRect;
   Rect r;

@@ -18,6 +18,8 @@ float em(const AppState& app);
 
 // Records the last item's rectangle under `name` (and scrolls to it if asked to reveal it).
 void record(AppState& app, const std::string& name);
+// Same for a rectangle drawn inside a widget (a chart's data point): tests can tap it.
+void record_rect(AppState& app, const std::string& name, ImVec2 min, ImVec2 max);
 
 enum class Tone { Normal, Primary, Danger, Quiet };
 // width 0 = the whole line; < 0 = fit the label.
