@@ -4,6 +4,7 @@
 #include "actions.hpp"
 
 #include <algorithm>
+#include <variant>
 
 #include "format.hpp"
 #include "platform.hpp"
@@ -160,23 +161,72 @@ void select_system(AppState& app, jn::SystemId id) {
 }
 
 // ---------------------------------------------------------------- journal
-bool log_test(AppState& app, const jn::TestResult& test) {
+namespace {
+
+// Entries may be dated up to a few minutes ahead (clocks of phone and test kit disagree).
+constexpr std::int64_t kFutureSlackS = 10 * 60;
+
+bool refuse_future(AppState& app, std::int64_t when_s) {
+  const std::int64_t now = platform::now_unix_seconds();
+  if (when_s <= now + kFutureSlackS) return false;
+  notify(app, "time " + fmtx::local_time_text(when_s, platform::utc_offset_minutes()) +
+                  " is in the future; accepted: any time up to now", true);
+  return true;
+}
+
+std::string logged_text(const jn::EventData& data) {
+  if (const auto* t = std::get_if<jn::TestResult>(&data)) {
+    return std::string(fmtx::parameter_label(t->parameter)) + " " + fmtx::fixed(t->value, 2) + " " + t->unit;
+  }
+  if (std::holds_alternative<jn::Dose>(data)) return "the dose";
+  if (std::holds_alternative<jn::WaterChange>(data)) return "the water change";
+  if (std::holds_alternative<jn::TopOff>(data)) return "the top-off";
+  return "the entry";
+}
+
+}  // namespace
+
+bool log_event(AppState& app, const jn::EventData& data, std::optional<std::int64_t> when_s) {
   const jn::System* sys = current_system(app);
   if (!sys) {
-    notify(app, "Add a system first: a test result belongs to a system", true);
+    notify(app, "Add a system first: every log entry belongs to a system", true);
     return false;
   }
   jn::Event e;
   e.system_id = sys->id;
-  e.time_s = platform::now_unix_seconds();
-  e.data = test;
+  e.time_s = when_s.value_or(platform::now_unix_seconds());
+  if (refuse_future(app, e.time_s)) return false;
+  e.data = data;
   auto id = jn::add_event(app.journal, e);
   if (!id) {
     notify(app, id.error().message, true);
     return false;
   }
   app.water.what_if = false;  // the Water screen follows the new reading
-  notify(app, std::string("Logged ") + fmtx::parameter_label(test.parameter) + " " + fmtx::fixed(test.value, 2) + " " + test.unit);
+  notify(app, "Logged " + logged_text(data));
+  changed(app);
+  return true;
+}
+
+bool log_test(AppState& app, const jn::TestResult& test) { return log_event(app, test, std::nullopt); }
+
+bool update_logged_event(AppState& app, jn::EventId id, const jn::EventData& data, std::int64_t when_s) {
+  const jn::Event* old = jn::find_event(app.journal, id);
+  if (!old) {
+    notify(app, "That entry is no longer in the log", true);
+    return false;
+  }
+  if (refuse_future(app, when_s)) return false;
+  jn::Event e = *old;
+  e.time_s = when_s;
+  e.data = data;
+  auto st = jn::update_event(app.journal, e);
+  if (!st) {
+    notify(app, st.error().message, true);
+    return false;
+  }
+  app.water.what_if = false;
+  notify(app, "Changed " + logged_text(data));
   changed(app);
   return true;
 }

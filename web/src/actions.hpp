@@ -3,6 +3,8 @@
 // They return false (and set the banner message) when the core refuses.
 #pragma once
 
+#include <cstdint>
+#include <optional>
 #include <string>
 
 #include "app_state.hpp"
@@ -25,6 +27,12 @@ tw::journal::System new_system_defaults(const AppState& app);
 
 // Journal
 bool log_test(AppState& app, const tw::journal::TestResult& test);
+// Any event for the current system at when_s (empty = now). Refused (message names the field
+// and its range) when the core refuses it or when the time is in the future.
+bool log_event(AppState& app, const tw::journal::EventData& data, std::optional<std::int64_t> when_s);
+// Replaces what a logged event says and when; its system and id stay.
+bool update_logged_event(AppState& app, tw::journal::EventId id, const tw::journal::EventData& data,
+                         std::int64_t when_s);
 bool remove_event(AppState& app, tw::journal::EventId id);
 
 // Settings (units go to the current system too, so the journal and the screen agree)

@@ -1,6 +1,6 @@
 // The frame: (1) platform results (typed text, imported files) into AppState, (2) fonts
 // rebuilt when pixel ratio or text size changed, (3) stale core results recomputed,
-// (4) the layout: header, message banner, the screen in a scrolling column, navigation.
+// (4) the layout: header, the screen in a scrolling column, the message strip, navigation.
 #include "app.hpp"
 
 #include <algorithm>
@@ -18,30 +18,38 @@ namespace twapp {
 
 namespace {
 
-void draw_banner(AppState& app) {
-  const double now = platform::now_ms();
-  if (app.ui.message.empty()) return;
-  if (now > app.ui.message_until_ms) {
+// The message of the last action, in a strip at the bottom of the page area. The page above
+// it only gets shorter (its content keeps its place), so nothing shifts under a finger and
+// nothing is covered when the message comes or goes. Tap it to dismiss it; errors stay 8 s,
+// other messages 4 s (actions.cpp).
+bool message_showing(AppState& app) {
+  if (app.ui.message.empty()) return false;
+  if (platform::now_ms() > app.ui.message_until_ms) {
     app.ui.message.clear();
-    return;
+    return false;
   }
-  platform::request_frames(2);  // keep drawing so the banner goes away on time
+  platform::request_frames(2);  // keep drawing so the message goes away on time
+  return true;
+}
+
+float message_height(const AppState& app, float width) {
   const float e = ui::em(app);
-  ImGui::PushStyleColor(ImGuiCol_Button, app.ui.message_is_error ? IM_COL32(92, 40, 36, 255) : theme::kAccentDark);
-  ImGui::PushStyleVar(ImGuiStyleVar_ButtonTextAlign, ImVec2(0, 0.5f));
-  // Tap the banner to dismiss it. Long messages wrap inside it.
-  const float w = ImGui::GetContentRegionAvail().x;
-  const float wrap = w - 2 * e;
-  const ImVec2 ts = ImGui::CalcTextSize(app.ui.message.c_str(), nullptr, false, wrap);
+  const ImVec2 ts = ImGui::CalcTextSize(app.ui.message.c_str(), nullptr, false, width - 2 * e);
+  return std::max(ui::kTargetEm * e, ts.y + 1.2f * e);
+}
+
+void draw_message(AppState& app, float width, float height) {
+  const float e = ui::em(app);
   const ImVec2 pos = ImGui::GetCursorScreenPos();
-  ImGui::PushID("banner");
-  if (ImGui::Button("##banner", ImVec2(w, std::max(ui::kTargetEm * e, ts.y + e)))) app.ui.message.clear();
-  ImGui::PopID();
+  ImDrawList* d = ImGui::GetWindowDrawList();
+  const ImU32 fill = app.ui.message_is_error ? IM_COL32(110, 44, 38, 255) : IM_COL32(28, 92, 84, 255);
+  d->AddRectFilled(pos, ImVec2(pos.x + width, pos.y + height), fill);
+  if (ImGui::InvisibleButton("##message_dismiss", ImVec2(width, height))) app.ui.message.clear();
   ui::record(app, "banner");
-  ImGui::GetWindowDrawList()->AddText(nullptr, 0, ImVec2(pos.x + e, pos.y + 0.5f * e), theme::kText,
-                                      app.ui.message.c_str(), nullptr, wrap);
-  ImGui::PopStyleVar();
-  ImGui::PopStyleColor();
+  const float wrap = width - 2 * e;
+  const ImVec2 ts = ImGui::CalcTextSize(app.ui.message.c_str(), nullptr, false, wrap);
+  d->AddText(nullptr, 0, ImVec2(pos.x + e, pos.y + (height - ts.y) / 2), theme::kText, app.ui.message.c_str(), nullptr,
+             wrap);
 }
 
 void draw_layout(AppState& app) {
@@ -64,17 +72,19 @@ void draw_layout(AppState& app) {
   ImGui::BeginChild("##main", ImVec2(vp->Size.x - rail_w, vp->Size.y - bar_h), false,
                     ImGuiWindowFlags_NoScrollbar | ImGuiWindowFlags_NoScrollWithMouse);
   draw_header(app, header_h);
+  const float main_w = vp->Size.x - rail_w;
+  const float message_h = message_showing(app) ? message_height(app, main_w) : 0;
   ImGui::PushStyleVar(ImGuiStyleVar_WindowPadding, ImVec2(e, 0.6f * e));
-  ImGui::BeginChild("##page", ImVec2(0, 0), false, ImGuiWindowFlags_AlwaysUseWindowPadding);
+  ImGui::BeginChild("##page", ImVec2(0, -message_h), false, ImGuiWindowFlags_AlwaysUseWindowPadding);
   ImGui::PopStyleVar();
   ui::column_begin(app, 36);
   ImGui::Dummy(ImVec2(0, 0.1f * e));
-  draw_banner(app);
   draw_current_screen(app);
   ImGui::Dummy(ImVec2(0, 2 * e));  // room below the last control for the thumb
   ui::column_end(app);
   ui::touch_scroll(app);
   ImGui::EndChild();
+  if (message_h > 0) draw_message(app, main_w, message_h);
   ImGui::EndChild();
   if (!wide) draw_tabs(app, ImVec2(vp->Pos.x, vp->Pos.y + vp->Size.y - bar_h), ImVec2(vp->Size.x, bar_h), false);
   ImGui::End();

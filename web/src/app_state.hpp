@@ -96,12 +96,29 @@ struct Rect {
 };
 
 // The test-result form of the Log screen.
+// The Log screen's entry form: one kind of event at a time, new or an edit of a logged one.
+enum class LogKind { Test, Dose, WaterChange, TopOff };
+
 struct LogForm {
+  LogKind kind = LogKind::Test;
+  tw::journal::EventId editing = 0;        // 0 = a new entry; else the event being changed
+  std::optional<std::int64_t> when_s;      // empty = now (taken when saved)
+  // test result
   tw::journal::Parameter parameter = tw::journal::Parameter::Alkalinity;
   std::string unit;          // empty = the parameter's preferred unit
   std::string value_text;    // as typed
   tw::carbonate::PhScale ph_scale = tw::carbonate::PhScale::NBS;
-  std::string error;
+  // dose (compound: index into the Log screen's list of dosable compounds)
+  int dose_compound = 0;            // -1: an additive the list does not offer (kept as logged)
+  std::string dose_additive_as_logged;
+  std::optional<double> dose_amount;
+  bool dose_in_ml = true;           // mL of a stock solution, or grams of dry salt
+  double dose_stock_g_per_l = 80;   // grams of the compound as sold per litre of stock
+  // water change and top-off (volumes in litres; shown in the system's unit)
+  std::optional<double> change_volume_l;
+  std::optional<double> change_alkalinity_dkh, change_calcium_mg_l, change_magnesium_mg_l, change_salinity;
+  std::optional<double> topoff_volume_l;
+  bool topoff_limewater = false;
 };
 
 // The system editor of the Systems screen (a copy; saved through actions).

@@ -1,6 +1,7 @@
 #include "test_api.hpp"
 
 #include <algorithm>
+#include <vector>
 #include <nlohmann/json.hpp>
 
 #include "actions.hpp"
@@ -37,10 +38,15 @@ std::string state_json() {
                                        {"volume", tw::units::to_string(s.units.volume)}}}});
   }
   j["events"] = a.journal.events.size();
+  // The ten most recently created events (highest ids), whatever time they are dated.
+  std::vector<const jn::Event*> newest;
+  for (const auto& e : a.journal.events) newest.push_back(&e);
+  std::sort(newest.begin(), newest.end(), [](const jn::Event* x, const jn::Event* y) { return x->id < y->id; });
+  if (newest.size() > 10) newest.erase(newest.begin(), newest.end() - 10);
   j["recent_events"] = json::array();
-  for (size_t i = a.journal.events.size() > 10 ? a.journal.events.size() - 10 : 0; i < a.journal.events.size(); ++i) {
-    j["recent_events"].push_back(jn::event_to_json(a.journal.events[i]));
-  }
+  for (const jn::Event* e : newest) j["recent_events"].push_back(jn::event_to_json(*e));
+  j["log_form"] = {{"editing", a.ui.log.editing}, {"kind", static_cast<int>(a.ui.log.kind)},
+                   {"when_s", a.ui.log.when_s ? json(*a.ui.log.when_s) : json(nullptr)}};
   const LatestReadings r = latest_readings(a);
   j["latest"] = {{"alkalinity_dkh", opt(r.alkalinity_dkh)}, {"ph", opt(r.ph)},
                  {"salinity", opt(r.salinity)}, {"temperature_c", opt(r.temperature_c)}};
