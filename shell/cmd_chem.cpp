@@ -116,7 +116,7 @@ void run_batch(const ChemOptions& o) {
   carbonate::BatchOptions options;
   options.k1k2 = parse_k1k2(o.k1k2);
   options.boron = parse_boron(o.boron);
-  auto summary = or_fail(carbonate::solve_csv_batch(read_text_file(o.batch), options));
+  auto summary = or_fail(carbonate::solve_csv_batch(read_text_file(o.batch, "--batch"), options));
   write_output(o.out, summary.csv);
   // Every row is written; a row that failed still makes the exit status non-zero, as in
   // `tidewright salinity --batch`, so scripts notice.

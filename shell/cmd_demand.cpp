@@ -238,7 +238,7 @@ void run(const DemandOptions& o) {
     throw CommandError(fmt::format("--days {} is outside the accepted range 1 to 365", o.days));
   if (!(o.dose_window_days >= 1.0 && o.dose_window_days <= 90.0))
     throw CommandError(fmt::format("--dose-window {:g} is outside the accepted range 1 to 90 days", o.dose_window_days));
-  auto parsed = journal::parse_journal(read_text_file(o.journal_path));
+  auto parsed = journal::parse_journal(read_text_file(o.journal_path, "--journal"));
   if (!parsed) throw CommandError(fmt::format("--journal '{}': {}", o.journal_path, parsed.error().message));
   const journal::Journal& j = *parsed;
   std::vector<SystemResult> results;

@@ -67,7 +67,7 @@ Journal load(const std::string& path, bool must_exist) {
     }
     return Journal{};
   }
-  const std::string text = read_text_file(path);
+  const std::string text = read_text_file(path, "--journal");
   auto j = parse_journal(text);
   if (!j) {
     const bool newer = j.error().field == "schema_version";

@@ -42,7 +42,7 @@ std::string now_dtstamp() {
 std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in) {
   if (o.journal.empty()) throw CommandError("--system: needs --journal FILE");
   if (o.system.empty()) throw CommandError("--journal: needs --system NAME or ID");
-  auto j = journal::parse_journal(read_text_file(o.journal));
+  auto j = journal::parse_journal(read_text_file(o.journal, "--journal"));
   if (!j) throw CommandError(fmt::format("--journal: {}: {}", o.journal, j.error().message));
   const journal::System* sys = journal::find_system_by_name(*j, o.system);
   if (sys == nullptr && !o.system.empty() && o.system.find_first_not_of("0123456789") == std::string::npos &&

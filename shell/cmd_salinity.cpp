@@ -157,7 +157,7 @@ void run_batch(const SalinityOptions& o) {
     throw CommandError("--batch reads its samples from the CSV; drop --salinity, "
                        "--specific-gravity, --conductivity, --conductivity-ratio and --density");
   }
-  auto batch = sw::describe_salinity_csv(read_text_file(o.batch), conditions(o));
+  auto batch = sw::describe_salinity_csv(read_text_file(o.batch, "--batch"), conditions(o));
   if (!batch) throw CommandError("--batch: " + batch.error().message);
   if (o.json) {
     nlohmann::json rows = nlohmann::json::array();

@@ -86,12 +86,13 @@ bool file_exists(const std::string& path) {
   return ::stat(path.c_str(), &st) == 0;
 }
 
-std::string read_text_file(const std::string& path) {
+std::string read_text_file(const std::string& path, const std::string& option) {
+  const std::string prefix = option.empty() ? "" : option + ": ";
   if (path == "-") {
     return std::string(std::istreambuf_iterator<char>(std::cin), std::istreambuf_iterator<char>());
   }
   const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
-  if (fd < 0) throw CommandError("cannot read " + path + ": " + reason());
+  if (fd < 0) throw CommandError(prefix + "cannot read " + path + ": " + reason());
   std::string out;
   char buf[65536];
   for (;;) {
@@ -100,7 +101,7 @@ std::string read_text_file(const std::string& path) {
       if (errno == EINTR) continue;
       const std::string why = reason();
       ::close(fd);
-      throw CommandError("cannot read " + path + ": " + why);
+      throw CommandError(prefix + "cannot read " + path + ": " + why);
     }
     if (n == 0) break;
     out.append(buf, static_cast<size_t>(n));

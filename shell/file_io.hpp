@@ -10,8 +10,8 @@ namespace tw::shell {
 bool file_exists(const std::string& path);
 
 // Reads a whole file, or standard input for "-". Throws CommandError
-// "cannot read PATH: reason" on failure.
-std::string read_text_file(const std::string& path);
+// "OPTION: cannot read PATH: reason" on failure (no "OPTION: " when option is empty).
+std::string read_text_file(const std::string& path, const std::string& option = "");
 
 // Replaces path with text atomically:
 //   1. writes PATH.tmp-<pid> in the same directory and fsyncs it;

@@ -7,7 +7,7 @@ import { join, resolve } from 'node:path';
 import { startServer } from './serve.mjs';
 import { launch, PHONE, waitReady, state, tap, frames, HERE } from './lib.mjs';
 
-const site = resolve(process.argv[2] || join(HERE, '../../build-web/site'));
+const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const files = ['tidewright.wasm', 'tidewright.js', 'index.html', 'sw.js', 'manifest.webmanifest'];
 let total = 0;
 for (const f of files) {

@@ -1,5 +1,5 @@
 // Browser tests of the Tidewright app in headless Chromium (Debian's, via playwright-core).
-//   node run-all.mjs [site-dir]      (default ../../build-web/site)
+//   node run-all.mjs [site-dir]      (default ../../build/web/site)
 // Prints one line per test and "N passed, M failed"; exits non-zero on any failure.
 // Screenshots go to tests/browser/output/.
 import { resolve, join } from 'node:path';
@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
 import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE } from './lib.mjs';
 
-const site = resolve(process.argv[2] || join(HERE, '../../build-web/site'));
+const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
 const browser = await launch();
 const SCREENS = ['systems', 'log', 'water', 'demand', 'hatchery', 'mixes', 'settings'];

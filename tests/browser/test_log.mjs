@@ -1,14 +1,14 @@
 // Browser tests of the Log screen on the demo data, in headless Chromium at phone size
 // (390x844): a dose dated a day earlier, a water change, editing a logged entry, refusals of
 // a bad time and a time in the future (nothing stored), and reload keeping it all.
-//   node test_log.mjs [site-dir]      (default ../../build-web/site)
+//   node test_log.mjs [site-dir]      (default ../../build/web/site)
 // Prints one line per test and "N passed, M failed"; exits non-zero on any failure.
 // Screenshots go to tests/browser/output/log-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
 import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE } from './lib.mjs';
 
-const site = resolve(process.argv[2] || join(HERE, '../../build-web/site'));
+const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
 const browser = await launch();
 const benign = (t) => /GL Driver Message|GPU stall|WebGL/.test(t);

@@ -1,6 +1,6 @@
 // Browser tests of the dosing screens (Demand, Plan, Hatchery, Mixes) on the demo data, in
 // headless Chromium at phone (390x844) and desktop (1280x800) sizes.
-//   node test_screens_dosing.mjs [site-dir]      (default ../../build-web/site)
+//   node test_screens_dosing.mjs [site-dir]      (default ../../build/web/site)
 // Prints one line per test and "N passed, M failed"; exits non-zero on any failure.
 // Screenshots go to tests/browser/output/dosing-*.png.
 import { resolve, join } from 'node:path';
@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
 import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE } from './lib.mjs';
 
-const site = resolve(process.argv[2] || join(HERE, '../../build-web/site'));
+const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
 const browser = await launch();
 const benign = (t) => /GL Driver Message|GPU stall|WebGL/.test(t);
@@ -142,6 +142,17 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await found(page, 'plan.limit.ph_after_dose_total');
     await found(page, 'plan.check');
     await shot(page, `${label}-plan-limits`);
+    // The schedule through the browser's download, in each of the three formats.
+    const wanted = [['csv', /^day,|\nday,|,day,/i], ['ics', /BEGIN:VCALENDAR[\s\S]*BEGIN:VEVENT[\s\S]*END:VCALENDAR/], ['txt', /pump 1/]];
+    for (let i = 0; i < 3; i++) {
+      await tap(page, `plan.export_format.${i}`);
+      const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }), tap(page, 'plan.export')]);
+      const name = download.suggestedFilename();
+      const text = readFileSync(await download.path(), 'utf8');
+      check(name.endsWith(`.${wanted[i][0]}`), `plan download ${i} named ${name}`);
+      check(wanted[i][1].test(text), `plan download ${name} does not look right: ${text.slice(0, 200)}`);
+    }
+    await shot(page, `${label}-plan-downloaded`);
     await context.close();
     const real = errors.filter((e) => !benign(e));
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
