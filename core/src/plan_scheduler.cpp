@@ -427,7 +427,7 @@ Result<Plan> make_plan(const PlanInput& in) {
   plan.salinity.water_change_percent_per_week = 100.0 * 7.0 * plan.salinity.per_day / in.salinity_tolerance;
   plan.findings.push_back(fmt::format(
       "salinity drift: the sodium, chloride and sulfate left by dosing add {:.4f} salinity units a day ({:.3f} over "
-      "{} days); a water change of {:.1f} % a week holds the excess at {:g} (top off with fresh water only)",
+      "{} days); a water change of {:.1f} % a week keeps the excess at or below {:g} salinity units (top off with fresh water only)",
       plan.salinity.per_day, plan.salinity.over_horizon, in.horizon_days, plan.salinity.water_change_percent_per_week,
       in.salinity_tolerance));
   for (const auto& d : in.deliveries) {

@@ -143,7 +143,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await found(page, 'plan.check');
     await shot(page, `${label}-plan-limits`);
     // The schedule through the browser's download, in each of the three formats.
-    const wanted = [['csv', /^day,|\nday,|,day,/i], ['ics', /BEGIN:VCALENDAR[\s\S]*BEGIN:VEVENT[\s\S]*END:VCALENDAR/], ['txt', /pump 1/]];
+    const wanted = [['csv', /^day,|\nday,|,day,/i], ['ics', /BEGIN:VCALENDAR[\s\S]*BEGIN:VEVENT[\s\S]*END:VCALENDAR/], ['txt', /Dose plan for[\s\S]*Limits:[\s\S]*Day /]];
     for (let i = 0; i < 3; i++) {
       await tap(page, `plan.export_format.${i}`);
       const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }), tap(page, 'plan.export')]);

@@ -331,7 +331,15 @@ std::string event_text(const jn::Event& e, const jn::UnitPreferences& units) {
     if (d->stock_g_per_l) s += " (" + fmtx::fixed(*d->stock_g_per_l, 0) + " g/L stock)";
     return s;
   }
-  if (const auto* w = std::get_if<jn::WaterChange>(&e.data)) return "Water change " + fmtx::volume_text(w->volume_l, units.volume);
+  if (const auto* w = std::get_if<jn::WaterChange>(&e.data)) {
+    std::string known;  // the new water's levels, when they were logged
+    const auto add_part = [&known](const std::string& part) { known += (known.empty() ? "" : ", ") + part; };
+    if (w->alkalinity_dkh) add_part(fmtx::alkalinity_text(*w->alkalinity_dkh, units.alkalinity));
+    if (w->calcium_mg_l) add_part("Ca " + fmtx::fixed(*w->calcium_mg_l, 0) + " mg/L");
+    if (w->magnesium_mg_l) add_part("Mg " + fmtx::fixed(*w->magnesium_mg_l, 0) + " mg/L");
+    if (w->salinity) add_part("salinity " + fmtx::fixed(*w->salinity, 1));
+    return "Water change " + fmtx::volume_text(w->volume_l, units.volume) + (known.empty() ? "" : " (new water " + known + ")");
+  }
   if (const auto* o = std::get_if<jn::TopOff>(&e.data)) {
     return std::string("Top-off ") + fmtx::volume_text(o->volume_l, units.volume) +
            (o->kind == jn::TopOffKind::Limewater ? " limewater" : " fresh water");
