@@ -2,11 +2,7 @@
 // printed as a table (default), JSON, CSV, iCalendar or plain text, to stdout or --out.
 #include <cstdio>
 #include <ctime>
-#include <fstream>
-#include <iostream>
-#include <iterator>
 #include <memory>
-#include <sstream>
 
 #include <fmt/format.h>
 
@@ -89,14 +85,12 @@ void run(const PlanOptions& o) {
       for (const auto& w : plan::mishap_summary(*in, *plan)) text += "  " + w.summary + "\n";
     }
   }
-  if (o.out.empty() || o.out == "-") {
-    std::fwrite(text.data(), 1, text.size(), stdout);
-  } else {
-    std::ofstream f(o.out, std::ios::binary);
-    if (!f) throw CommandError(fmt::format("out: cannot write {}", o.out));
-    f << text;
+  write_output(o.out, text);
+  // CSV and iCalendar have no place for them: where the numbers came from (--journal) and the
+  // cautions go to stderr. Cautions go there for JSON too (a file nobody reads aloud).
+  if (o.csv || o.ics) {
+    for (const auto& l : basis_lines) std::fprintf(stderr, "basis: %s\n", l.c_str());
   }
-  // Cautions go to stderr too when the output is a file or a machine format.
   if ((o.json || o.csv || o.ics) && !plan->cautions.empty()) {
     for (const auto& c : plan->cautions) std::fprintf(stderr, "caution: %s\n", c.c_str());
   }

@@ -124,7 +124,11 @@ void write_text_file_atomic(const std::string& path, const std::string& text, bo
   }
   const std::string tmp = path + ".tmp-" + std::to_string(::getpid());
   ::unlink(tmp.c_str());
-  write_new_synced(tmp, text, mode);
+  try {
+    write_new_synced(tmp, text, mode);
+  } catch (const CommandError& e) {  // name the file the user asked for, not only the temporary one
+    throw CommandError("cannot write " + path + " (" + e.what() + ")");
+  }
   try {
     if (exists && keep_backup) keep_backup_of(path, mode);
   } catch (...) {
@@ -140,7 +144,11 @@ void write_text_file_atomic(const std::string& path, const std::string& text, bo
 }
 
 void write_output(const std::string& path, const std::string& text) {
-  write_text_file_atomic(path.empty() ? std::string("-") : path, text, /*keep_backup=*/false);
+  try {
+    write_text_file_atomic(path.empty() ? std::string("-") : path, text, /*keep_backup=*/false);
+  } catch (const CommandError& e) {
+    throw CommandError(std::string("--out: ") + e.what());
+  }
 }
 
 }  // namespace tw::shell

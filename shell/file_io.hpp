@@ -25,7 +25,8 @@ void write_text_file_atomic(const std::string& path, const std::string& text,
                             bool keep_backup = true);
 
 // Where an --out option points: standard output when path is empty or "-", otherwise an
-// atomic replacement of the file (no .bak: outputs are regenerated, not edited).
+// atomic replacement of the file (no .bak: outputs are regenerated, not edited). Errors start
+// with "--out: ".
 void write_output(const std::string& path, const std::string& text);
 
 }  // namespace tw::shell

@@ -236,7 +236,7 @@ Result<Core> solve_core(const Constants& k, Measurement a, Measurement b, PhScal
 }
 
 Result<CarbonateState> finish(const Constants& k, const Core& c) {
-  // One Result, built in place and returned by NRVO (a single return): the state (about
+  // One Result, built in place and returned by NRVO (every return names it): the state (about
   // 150 bytes) is never copied, which is a fifth of a solve in WebAssembly.
   Result<CarbonateState> out{std::in_place};
   CarbonateState& st = out.value();
