@@ -1,12 +1,9 @@
 // `tidewright chem`: one carbonate state from options, or a CSV batch (--batch FILE|-).
 #include <cmath>
 #include <cstdio>
-#include <fstream>
-#include <iostream>
 #include <iterator>
 #include <memory>
 #include <optional>
-#include <sstream>
 
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
@@ -91,23 +88,25 @@ nlohmann::json state_json(const carbonate::CarbonateState& s, const carbonate::C
           {"warnings", s.warnings}};
 }
 
-void print_state_text(const carbonate::CarbonateState& s, const carbonate::Conditions& c,
-                      double density_kg_l) {
+std::string state_text(const carbonate::CarbonateState& s, const carbonate::Conditions& c, double density_kg_l) {
+  std::string out;
+  const auto put = std::back_inserter(out);
   const double dkh = units::alkalinity_from_umol_kg(s.alkalinity_umol_kg, units::AlkalinityUnit::DKH, density_kg_l);
-  fmt::print("Water   salinity {:.2f}, {:.2f} C (density {:.5f} kg/L)\n", c.salinity,
+  fmt::format_to(put, "Water   salinity {:.2f}, {:.2f} C (density {:.5f} kg/L)\n", c.salinity,
              c.temperature_c, density_kg_l);
-  fmt::print("pH      {:.4f} total | {:.4f} seawater | {:.4f} free | {:.4f} NBS\n", s.ph_total,
+  fmt::format_to(put, "pH      {:.4f} total | {:.4f} seawater | {:.4f} free | {:.4f} NBS\n", s.ph_total,
              s.ph_sws, s.ph_free, s.ph_nbs);
-  fmt::print("Alk     {:.1f} umol/kg ({:.2f} dKH)\n", s.alkalinity_umol_kg, dkh);
-  fmt::print("DIC     {:.1f} umol/kg\n", s.dic_umol_kg);
-  fmt::print("CO2     pCO2 {:.1f} uatm, fCO2 {:.1f} uatm, CO2* {:.2f} umol/kg\n", s.pco2_uatm,
+  fmt::format_to(put, "Alk     {:.1f} umol/kg ({:.2f} dKH)\n", s.alkalinity_umol_kg, dkh);
+  fmt::format_to(put, "DIC     {:.1f} umol/kg\n", s.dic_umol_kg);
+  fmt::format_to(put, "CO2     pCO2 {:.1f} uatm, fCO2 {:.1f} uatm, CO2* {:.2f} umol/kg\n", s.pco2_uatm,
              s.fco2_uatm, s.co2_umol_kg);
-  fmt::print("Species HCO3- {:.1f}, CO3-- {:.1f}, B(OH)4- {:.1f}, OH- {:.2f} umol/kg\n",
+  fmt::format_to(put, "Species HCO3- {:.1f}, CO3-- {:.1f}, B(OH)4- {:.1f}, OH- {:.2f} umol/kg\n",
              s.hco3_umol_kg, s.co3_umol_kg, s.borate_umol_kg, s.hydroxide_umol_kg);
-  fmt::print("Omega   aragonite {:.3f}, calcite {:.3f}\n", s.omega_aragonite, s.omega_calcite);
-  fmt::print("Buffer  Revelle factor {:.2f}, buffer capacity {:.1f} umol/kg per pH unit\n",
+  fmt::format_to(put, "Omega   aragonite {:.3f}, calcite {:.3f}\n", s.omega_aragonite, s.omega_calcite);
+  fmt::format_to(put, "Buffer  Revelle factor {:.2f}, buffer capacity {:.1f} umol/kg per pH unit\n",
              s.revelle_factor, s.buffer_capacity_umol_kg);
-  for (const auto& w : s.warnings) fmt::print("Warning {}\n", w);
+  for (const auto& w : s.warnings) fmt::format_to(put, "Warning {}\n", w);
+  return out;
 }
 
 
@@ -178,11 +177,7 @@ void run_single(const ChemOptions& o) {
     }
     state = or_fail(carbonate::solve(constants, pair));
   }
-  if (o.json) {
-    std::cout << state_json(state, conditions).dump(2) << "\n";
-  } else {
-    print_state_text(state, conditions, density);
-  }
+  write_output(o.out, o.json ? state_json(state, conditions).dump(2) + "\n" : state_text(state, conditions, density));
 }
 
 }  // namespace
@@ -218,7 +213,7 @@ void register_chem(CLI::App& app) {
   cmd->add_option("--boron", o->boron, "Total boron: uppstrom1974 or lee2010")->default_str("uppstrom1974");
   cmd->add_flag("--json", o->json, "Print JSON instead of text");
   cmd->add_option("--batch", o->batch, "CSV file of samples (- for stdin); see the README for its columns");
-  cmd->add_option("--out", o->out, "With --batch: write the CSV here instead of stdout");
+  cmd->add_option("--out", o->out, "Write the result (text, JSON or the --batch CSV) here instead of stdout");
   cmd->callback([o] {
     if (!o->batch.empty()) {
       run_batch(*o);

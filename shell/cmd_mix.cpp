@@ -1,9 +1,13 @@
 // `tidewright mix`: stock solution recipes both ways.
 //   tidewright mix --compound sodium_carbonate --grams-per-l 100            -> strength per mL
+//   tidewright mix --compound CaCl2.2H2O --grams-per-l 150 --compound MgCl2.6H2O --grams-per-l 100
+//                                                       (several compounds in one stock, paired in order)
 //   tidewright mix --compound sodium_carbonate --raise 0.1 --per-ml 1 --in-l 100 [--parameter alkalinity]
 //                                                                           -> grams per litre
 #include <cstdio>
 #include <memory>
+#include <string>
+#include <vector>
 
 #include <fmt/format.h>
 
@@ -14,8 +18,8 @@ namespace tw::shell {
 namespace {
 
 struct MixOptions {
-  std::string compound;
-  double grams_per_l = 0;
+  std::vector<std::string> compounds;  // --compound, repeatable
+  std::vector<double> grams_per_l;     // --grams-per-l, one per --compound, in the same order
   double raise = 0, per_ml = 1, in_l = 100;
   std::string parameter = "alkalinity";
   double temperature_c = 25;
@@ -28,28 +32,61 @@ void print_strength(const additives::StockStrength& s) {
   for (const auto& n : s.notes) std::printf("note: %s\n", n.c_str());
 }
 
-void run(const MixOptions& o) {
-  auto c = additives::find_compound(o.compound);
-  if (!c) throw CommandError(c.error().message);
-  const auto id = (*c)->id;
-  if (o.raise > 0) {
-    auto p = additives::parameter_from_string(o.parameter);
-    if (!p) throw CommandError(p.error().message);
-    auto r = additives::recipe_for_effect(id, {*p, o.raise, o.per_ml, o.in_l}, o.temperature_c);
-    if (!r) throw CommandError(r.error().message);
-    std::printf("%s: dissolve %.2f g per litre of finished solution (%s), so that %g mL raises %g L by %g %s\n",
-                (*c)->name.c_str(), r->grams_per_l, (*c)->formula.c_str(), o.per_ml, o.in_l, o.raise,
-                additives::unit_of(*p));
-    print_strength(r->strength);
-  } else {
-    if (!(o.grams_per_l > 0)) throw CommandError("grams-per-l: give --grams-per-l (> 0) or --raise");
-    auto s = additives::stock_strength({(*c)->key, {{id, o.grams_per_l}}, o.temperature_c});
-    if (!s) throw CommandError(s.error().message);
-    std::printf("%s, %g g per litre of finished solution at %g C\n", (*c)->name.c_str(), o.grams_per_l,
-                o.temperature_c);
-    print_strength(*s);
+std::vector<const additives::Compound*> find_all(const std::vector<std::string>& keys) {
+  std::vector<const additives::Compound*> out;
+  for (const auto& k : keys) {
+    auto c = additives::find_compound(k);
+    if (!c) throw CommandError("--compound: " + c.error().message);
+    out.push_back(*c);
   }
-  additives::Additive a = additives::additive_from_compound(id);
+  return out;
+}
+
+// Strength of a stock of one or more compounds, each at its --grams-per-l.
+void run_strength(const MixOptions& o, const std::vector<const additives::Compound*>& compounds) {
+  if (o.grams_per_l.size() != compounds.size()) {
+    throw CommandError(fmt::format("--grams-per-l: give one per --compound, in the same order ({} compound{}, {} "
+                                   "amount{}), or --raise for a recipe",
+                                   compounds.size(), compounds.size() == 1 ? "" : "s", o.grams_per_l.size(),
+                                   o.grams_per_l.size() == 1 ? "" : "s"));
+  }
+  additives::StockRecipe recipe;
+  recipe.temperature_c = o.temperature_c;
+  std::string described;
+  for (size_t i = 0; i < compounds.size(); ++i) {
+    if (!(o.grams_per_l[i] > 0)) {
+      throw CommandError(fmt::format("--grams-per-l: {:g} for {} must be above 0 g/L", o.grams_per_l[i],
+                                     compounds[i]->key));
+    }
+    recipe.ingredients.push_back({compounds[i]->id, o.grams_per_l[i]});
+    recipe.name += (i ? " + " : "") + compounds[i]->key;
+    described += fmt::format("{}{} {:g} g", i ? ", " : "", compounds[i]->name, o.grams_per_l[i]);
+  }
+  auto s = additives::stock_strength(recipe);
+  if (!s) throw CommandError(s.error().field + ": " + s.error().message);
+  std::printf("%s per litre of finished solution at %g C\n", described.c_str(), o.temperature_c);
+  print_strength(*s);
+  auto a = additives::additive_from_stock(recipe);
+  if (a) for (const auto& line : additives::cautions_for(*a)) std::printf("caution: %s\n", line.c_str());
+}
+
+void run(const MixOptions& o) {
+  const auto compounds = find_all(o.compounds);
+  if (o.raise <= 0) {
+    run_strength(o, compounds);
+    return;
+  }
+  if (compounds.size() != 1) throw CommandError("--raise: a recipe for an effect takes exactly one --compound");
+  const additives::Compound* c = compounds.front();
+  auto p = additives::parameter_from_string(o.parameter);
+  if (!p) throw CommandError(p.error().message);
+  auto r = additives::recipe_for_effect(c->id, {*p, o.raise, o.per_ml, o.in_l}, o.temperature_c);
+  if (!r) throw CommandError(r.error().message);
+  std::printf("%s: dissolve %.2f g per litre of finished solution (%s), so that %g mL raises %g L by %g %s\n",
+              c->name.c_str(), r->grams_per_l, c->formula.c_str(), o.per_ml, o.in_l, o.raise,
+              additives::unit_of(*p));
+  print_strength(r->strength);
+  additives::Additive a = additives::additive_from_compound(c->id);
   for (const auto& line : additives::cautions_for(a)) std::printf("caution: %s\n", line.c_str());
 }
 
@@ -58,8 +95,11 @@ void run(const MixOptions& o) {
 void register_mix(CLI::App& app) {
   auto o = std::make_shared<MixOptions>();
   CLI::App* sub = app.add_subcommand("mix", "Stock solution recipes: strength from a recipe, or a recipe for an effect");
-  sub->add_option("--compound", o->compound, "catalog key or formula, e.g. sodium_carbonate, CaCl2.2H2O")->required();
-  sub->add_option("--grams-per-l", o->grams_per_l, "grams of the compound per litre of finished solution");
+  sub->add_option("--compound", o->compounds,
+                  "catalog key or formula, e.g. sodium_carbonate, CaCl2.2H2O; repeat for a stock of several")
+      ->required();
+  sub->add_option("--grams-per-l", o->grams_per_l,
+                  "grams of the compound per litre of finished solution; one per --compound, same order");
   sub->add_option("--raise", o->raise, "wanted rise per dose (dKH or mg/L)");
   sub->add_option("--per-ml", o->per_ml, "dose in mL for that rise (default 1)");
   sub->add_option("--in-l", o->in_l, "tank volume in L for that rise (default 100)");

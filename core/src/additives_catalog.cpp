@@ -372,7 +372,7 @@ Result<Solubility> solubility_at(const Compound& c, double temperature_c) {
       if (b.temperature_c - a.temperature_c > 10.0 && temperature_c > a.temperature_c &&
           temperature_c < b.temperature_c) {
         out.note += (out.note.empty() ? "" : "; ") +
-                    fmt::format("interpolated across a {:g} C gap in the data", b.temperature_c - a.temperature_c);
+                    fmt::format("interpolated between data points {:g} C apart", b.temperature_c - a.temperature_c);
       }
       return out;
     }
