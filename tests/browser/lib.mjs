@@ -78,3 +78,38 @@ export async function flushed(page) {
 export function check(cond, what) {
   if (!cond) throw new Error(what);
 }
+
+// Chromium's own notices about software WebGL are not app errors.
+export const benign = (t) => /GL Driver Message|GPU stall|WebGL/.test(t);
+
+// A fresh browser context (no storage, no cache) with the app loaded and drawn.
+export async function openApp(browser, url, opts) {
+  const context = await browser.newContext({ ...opts, acceptDownloads: true });
+  const page = await context.newPage();
+  const errors = watchErrors(page);
+  await page.goto(url);
+  await waitReady(page);
+  await frames(page, 3);
+  return { context, page, errors };
+}
+
+// Runs tests ([{name, fn}]) in order: one "ok"/"FAIL" line each, then "N passed, M failed";
+// closes the browser and the server and exits non-zero on any failure.
+export async function runTests(tests, browser, server) {
+  let passed = 0, failed = 0;
+  for (const t of tests) {
+    const t0 = Date.now();
+    try {
+      await t.fn();
+      passed++;
+      console.log(`ok   ${t.name} (${Date.now() - t0} ms)`);
+    } catch (e) {
+      failed++;
+      console.log(`FAIL ${t.name}: ${e.message.split('\n')[0]}`);
+    }
+  }
+  await browser.close();
+  await server.close();
+  console.log(`${passed} passed, ${failed} failed`);
+  process.exit(failed ? 1 : 0);
+}

@@ -5,24 +5,14 @@
 import { resolve, join } from 'node:path';
 import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE } from './lib.mjs';
+import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
 const browser = await launch();
 const SCREENS = ['systems', 'log', 'water', 'demand', 'hatchery', 'mixes', 'settings'];
-// Chromium's own notices about software WebGL are not app errors.
-const benign = (t) => /GL Driver Message|GPU stall|WebGL/.test(t);
 
-async function open(opts) {
-  const context = await browser.newContext({ ...opts, acceptDownloads: true });
-  const page = await context.newPage();
-  const errors = watchErrors(page);
-  await page.goto(server.url);
-  await waitReady(page);
-  await frames(page, 3);
-  return { context, page, errors };
-}
+const open = (opts) => openApp(browser, server.url, opts);
 
 const tests = [];
 const test = (name, fn) => tests.push({ name, fn });
@@ -179,19 +169,4 @@ test('text size setting and desktop Tab key navigation', async () => {
   await context.close();
 });
 
-let passed = 0, failed = 0;
-for (const t of tests) {
-  const t0 = Date.now();
-  try {
-    await t.fn();
-    passed++;
-    console.log(`ok   ${t.name} (${Date.now() - t0} ms)`);
-  } catch (e) {
-    failed++;
-    console.log(`FAIL ${t.name}: ${e.message.split('\n')[0]}`);
-  }
-}
-await browser.close();
-await server.close();
-console.log(`${passed} passed, ${failed} failed`);
-process.exit(failed ? 1 : 0);
+await runTests(tests, browser, server);

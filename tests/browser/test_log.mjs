@@ -6,22 +6,13 @@
 // Screenshots go to tests/browser/output/log-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, watchErrors, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE } from './lib.mjs';
+import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
 const browser = await launch();
-const benign = (t) => /GL Driver Message|GPU stall|WebGL/.test(t);
 
-async function open(opts) {
-  const context = await browser.newContext(opts);
-  const page = await context.newPage();
-  const errors = watchErrors(page);
-  await page.goto(server.url);
-  await waitReady(page);
-  await frames(page, 3);
-  return { context, page, errors };
-}
+const open = (opts) => openApp(browser, server.url, opts);
 
 const shot = (page, name) => page.screenshot({ path: join(OUTPUT, `log-${name}.png`) });
 const newest = (s, type) => [...s.recent_events].reverse().find((e) => e.type === type);
@@ -122,18 +113,4 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
   });
 }
 
-let passed = 0, failed = 0;
-for (const t of tests) {
-  try {
-    await t.fn();
-    console.log(`ok    ${t.name}`);
-    passed++;
-  } catch (e) {
-    console.log(`FAIL  ${t.name}\n      ${e.message}`);
-    failed++;
-  }
-}
-console.log(`${passed} passed, ${failed} failed`);
-await browser.close();
-await server.close();
-process.exit(failed ? 1 : 0);
+await runTests(tests, browser, server);
