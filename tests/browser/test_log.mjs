@@ -1,6 +1,7 @@
 // Browser tests of the Log screen on the demo data, in headless Chromium at phone size
-// (390x844): a dose dated a day earlier, a water change, editing a logged entry, refusals of
-// a bad time and a time in the future (nothing stored), and reload keeping it all.
+// (390x844) and desktop size (1280x800): a dose dated a day earlier, a water change, a
+// specific-gravity reading, editing a logged entry, refusals of a bad time and a time in the
+// future (nothing stored), and reload keeping it all.
 //   node test_log.mjs [site-dir]      (default ../../build/web/site)
 // Prints one line per test and "N passed, M failed"; exits non-zero on any failure.
 // Screenshots go to tests/browser/output/log-*.png.
@@ -82,6 +83,24 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(s.message_is_error && /future/.test(s.message), `no refusal of a future time: ${s.message}`);
     check(s.events === beforeFuture, 'a future entry was stored');
     await shot(page, `${label}-future-refused`);
+
+    // A refractometer reading: specific gravity 1.0264 is kept as read, and the Water screen
+    // takes salinity 35.04 from it (EOS-80 at 25/25 C; the CLI `tidewright salinity --sg 1.0264`
+    // gives the same figure).
+    await tap(page, 'log.kind.0');
+    await tap(page, 'log.when.0');
+    await tap(page, 'log.parameter.5');
+    await tap(page, 'log.value');
+    await enter(page, '1.0264');
+    await shot(page, `${label}-sg`);
+    await tap(page, 'log.save');
+    s = await state(page);
+    const sg = newest(s, 'test');
+    check(sg && sg.parameter === 'specific_gravity' && sg.value === 1.0264, `SG stored as ${JSON.stringify(sg)}`);
+    await tap(page, 'tab.water');
+    s = await state(page);
+    check(Math.abs(s.latest.salinity - 35.04) < 0.01, `salinity from SG 1.0264: ${s.latest.salinity}`);
+    await tap(page, 'tab.log');
 
     // Edit the dose: 12 -> 15 mL, same id, same time, no new event.
     await tap(page, `log.edit.${dose.id}`);

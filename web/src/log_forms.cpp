@@ -12,6 +12,7 @@
 #include "actions_dosing.hpp"
 #include "format.hpp"
 #include "tidewright/additives.hpp"
+#include "tidewright/seawater.hpp"
 #include "ui.hpp"
 
 namespace twapp::log_forms {
@@ -37,10 +38,14 @@ bool converted_field(AppState& app, const std::string& name, ui::NumberSpec spec
 }
 
 // ---------------------------------------------------------------- 1. Test result
-const char* const kParams[] = {"Alkalinity", "Calcium", "Magnesium", "pH", "Salinity", "Temperature", "Nitrate", "Phosphate"};
+// "SG": specific gravity from a refractometer or hydrometer (the journal keeps it as read; the
+// Water screen turns it into salinity).
+const char* const kParams[] = {"Alkalinity", "Calcium", "Magnesium", "pH", "Salinity", "SG", "Temperature", "Nitrate",
+                               "Phosphate"};
 const jn::Parameter kParamValues[] = {jn::Parameter::Alkalinity, jn::Parameter::Calcium, jn::Parameter::Magnesium,
-                                      jn::Parameter::PH, jn::Parameter::Salinity, jn::Parameter::Temperature,
-                                      jn::Parameter::Nitrate, jn::Parameter::Phosphate};
+                                      jn::Parameter::PH, jn::Parameter::Salinity, jn::Parameter::SpecificGravity,
+                                      jn::Parameter::Temperature, jn::Parameter::Nitrate, jn::Parameter::Phosphate};
+constexpr int kParamCount = static_cast<int>(sizeof kParams / sizeof kParams[0]);
 const char* const kScales[] = {"NBS", "Total", "Seawater", "Free"};
 const cb::PhScale kScaleValues[] = {cb::PhScale::NBS, cb::PhScale::Total, cb::PhScale::Seawater, cb::PhScale::Free};
 
@@ -57,6 +62,7 @@ std::vector<UnitChoice> units_for(jn::Parameter p) {
     case jn::Parameter::Magnesium: return {{"mg/L", "mg/L"}, {"mmol/kg", "mmol/kg"}};
     case jn::Parameter::PH: return {{"pH", ""}};
     case jn::Parameter::Salinity: return {{"psu", "psu"}};
+    case jn::Parameter::SpecificGravity: return {{"sg", ""}};
     case jn::Parameter::Temperature: return {{"C", "\u00b0C"}, {"F", "\u00b0F"}};
     default: return {{"mg/L", "mg/L"}};
   }
@@ -76,6 +82,7 @@ int preferred_unit(jn::Parameter p, const jn::UnitPreferences& u) {
 
 int decimals_for(jn::Parameter p, const std::string& unit) {
   if (p == jn::Parameter::PH) return 2;
+  if (p == jn::Parameter::SpecificGravity) return 4;
   if (p == jn::Parameter::Phosphate) return 3;
   if (unit == "meq/L" || unit == "mmol/kg") return 2;
   if (unit == "mg/L CaCO3" || p == jn::Parameter::Calcium || p == jn::Parameter::Magnesium) return 0;
@@ -84,8 +91,8 @@ int decimals_for(jn::Parameter p, const std::string& unit) {
 
 void draw_test(AppState& app, const jn::System& sys, LogForm& f) {
   int param = 0;
-  for (int i = 0; i < 8; ++i) if (kParamValues[i] == f.parameter) param = i;
-  if (ui::choice(app, "log.parameter", "What you measured", &param, kParams, 8)) {
+  for (int i = 0; i < kParamCount; ++i) if (kParamValues[i] == f.parameter) param = i;
+  if (ui::choice(app, "log.parameter", "What you measured", &param, kParams, kParamCount)) {
     f.parameter = kParamValues[param];
     f.unit.clear();
     f.value_text.clear();
@@ -108,11 +115,18 @@ void draw_test(AppState& app, const jn::System& sys, LogForm& f) {
   std::optional<double> value;
   if (!f.value_text.empty()) value = std::strtod(f.value_text.c_str(), nullptr);
   const int dec = decimals_for(f.parameter, f.unit);
-  const std::string label = std::string(kParams[param]) + " result";
+  const std::string label = f.parameter == jn::Parameter::SpecificGravity ? std::string("Specific gravity")
+                                                                          : std::string(kParams[param]) + " result";
   const double step = dec == 0 ? 1 : dec == 1 ? 0.1 : dec == 2 ? 0.01 : 0.001;
   // The core checks the range when the result is saved (its message names the range).
   if (ui::optional_number_field(app, "log.value", {label.c_str(), units[static_cast<size_t>(unit)].shown, dec, step, -1e6, 1e6}, &value) && value) {
     f.value_text = fmtx::fixed(*value, dec + 1);
+  }
+  if (f.parameter == jn::Parameter::SpecificGravity && value) {
+    // What the reading means, as the Water screen will use it (refractometer convention 25/25 C).
+    auto s = tw::seawater::salinity_from_specific_gravity(*value);
+    ui::dim_text(s ? ("= salinity " + fmtx::fixed(*s, 1) + " (EOS-80, read at 25 \u00b0C against pure water at 25 \u00b0C)").c_str()
+                   : s.error().message.c_str());
   }
 }
 
@@ -322,6 +336,7 @@ std::string event_text(const jn::Event& e, const jn::UnitPreferences& units) {
     std::string s = std::string(fmtx::parameter_label(t->parameter)) + " " +
                     fmtx::fixed(t->value, decimals_for(t->parameter, t->unit));
     if (t->parameter == jn::Parameter::PH) return s + " (" + fmtx::ph_scale_label(t->ph_scale.value_or(cb::PhScale::NBS)) + ")";
+    if (t->parameter == jn::Parameter::SpecificGravity) return s;  // a ratio: no unit
     return s + " " + t->unit;
   }
   if (const auto* d = std::get_if<jn::Dose>(&e.data)) {
