@@ -75,6 +75,28 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
   });
 
+  test(`demand: a calcium reactor's output against the consumption; a flow past 1000 mL/min refused (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.demand');
+    await tap(page, 'demand.reactor.open');
+    await tap(page, 'demand.reactor.flow');
+    await enter(page, '100');
+    await tap(page, 'demand.reactor.alkalinity');
+    await enter(page, '20');
+    const alk = await found(page, 'demand.reactor.alkalinity_result');
+    check(alk.visible, 'reactor result not on screen');
+    await found(page, 'demand.reactor.calcium_result');
+    check(!(await widget(page, 'demand.reactor.error')).found, 'the reactor figures were refused');
+    await shot(page, `${label}-demand-reactor`);
+    await tap(page, 'demand.reactor.flow');
+    await enter(page, '2000');
+    const s = await state(page);
+    check(s.message_is_error && /1000/.test(s.message), `no clear refusal of 2000 mL/min: "${s.message}"`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
   test(`hatchery: flow-through dose, pump-side table and its CSV download; batch (${label})`, async () => {
     const { context, page, errors } = await open(opts);
     await tap(page, 'tab.hatchery');

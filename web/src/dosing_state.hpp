@@ -30,6 +30,12 @@ struct DemandView {
   int forecast_days = 14;   // 3 .. 60
   std::optional<double> probe_day;         // time (days since epoch) touched on the level chart
   std::optional<double> probe_demand_day;  // same on the consumption chart
+  // "Does my reactor cover it?" card: a flow-through source described by its measured output.
+  bool reactor_open = false;
+  double reactor_flow_ml_per_min = 30;
+  double reactor_alkalinity_dkh = 30;    // effluent (kept in dKH and mg/L, shown in the user's units);
+  double reactor_calcium_mg_l = 575;     // starting values: a typical effluent, ~7.1 mg/L Ca per dKH
+  std::optional<double> reactor_magnesium_mg_l;
 };
 
 struct ParameterEstimate {

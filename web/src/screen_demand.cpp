@@ -314,6 +314,7 @@ void draw_demand(AppState& app) {
     ui::wrapped(c.ratio.reading.c_str());
     ui::record(app, "demand.ratio");
   }
+  draw_reactor_check(app);
   if (!c.notes.empty()) {
     ui::heading(app, "Log entries left out or assumed");
     for (const std::string& n : c.notes) ui::dim_text(("\u2022 " + n).c_str());

@@ -15,6 +15,10 @@ void draw_hatchery(AppState& app);  // screen_hatchery.cpp
 void draw_mixes(AppState& app);     // screen_mixes.cpp
 void draw_plan(AppState& app);      // screen_plan.cpp
 
+// The Demand screen's card: a calcium reactor's net daily addition against the estimated
+// consumption (demand_reactor.cpp).
+void draw_reactor_check(AppState& app);
+
 // Carbonate species across pH with this water marked (chart_species.cpp).
 void draw_species_chart(AppState& app);
 

@@ -1,8 +1,11 @@
 #include "ui.hpp"
 
 #include <algorithm>
+#include <cstring>
 #include <cmath>
 #include <cstdlib>
+#include <utility>
+#include <vector>
 
 #include "actions.hpp"
 #include "format.hpp"
@@ -81,11 +84,70 @@ void divider(AppState& app) {
   ImGui::Dummy(ImVec2(w, 0.4f * em(app)));
 }
 
+namespace {
+// Wraps at spaces only. ImGui 1.86's own wrapping may break after a '.' or ',' inside a number
+// ("0." at the end of a line, "2 dKH" on the next); here numbers and their units stay whole.
+// A word wider than the line is cut where it must. Widths add up exactly (ImGui does not
+// kern), so each word is measured once. Lines are spaced like one wrapped text: item spacing
+// only after the last.
+void text_wrapped_at_spaces(const char* text) {
+  const float width = std::max(1.0f, ImGui::GetContentRegionAvail().x);
+  const float space = ImGui::CalcTextSize(" ").x;
+  std::vector<std::pair<const char*, const char*>> lines;
+  const char* p = text;
+  for (;;) {  // one paragraph per '\n'
+    const char* para_end = std::strchr(p, '\n');
+    if (!para_end) para_end = p + std::strlen(p);
+    const char* line = nullptr;  // the line being filled: [line, line_end)
+    const char* line_end = nullptr;
+    float line_w = 0;
+    for (const char* w = p; w < para_end;) {
+      while (w < para_end && *w == ' ') ++w;
+      const char* w_end = w;
+      while (w_end < para_end && *w_end != ' ') ++w_end;
+      if (w == w_end) break;
+      float ww = ImGui::CalcTextSize(w, w_end).x;
+      if (line && line_w + space + ww > width) {
+        lines.emplace_back(line, line_end);
+        line = nullptr;
+      }
+      while (!line && ww > width) {  // a word longer than a line: cut it where it fills one
+        const char* cut = ImGui::GetFont()->CalcWordWrapPositionA(1.0f, w, w_end, width);
+        if (cut <= w) cut = w + 1;
+        lines.emplace_back(w, cut);
+        w = cut;
+        ww = ImGui::CalcTextSize(w, w_end).x;
+      }
+      if (w == w_end) continue;
+      if (!line) {
+        line = w;
+        line_w = ww;
+      } else {
+        line_w += space + ww;
+      }
+      line_end = w_end;
+      w = w_end;
+    }
+    if (line) lines.emplace_back(line, line_end);
+    else if (para_end == p) lines.emplace_back(p, p);  // an empty paragraph is an empty line
+    if (*para_end == '\0') break;
+    p = para_end + 1;
+  }
+  const ImVec2 spacing = ImGui::GetStyle().ItemSpacing;
+  for (size_t i = 0; i < lines.size(); ++i) {
+    const bool last = i + 1 == lines.size();
+    if (!last) ImGui::PushStyleVar(ImGuiStyleVar_ItemSpacing, ImVec2(spacing.x, 0));
+    ImGui::TextUnformatted(lines[i].first, lines[i].second);
+    if (!last) ImGui::PopStyleVar();
+  }
+}
+}  // namespace
+
 void dim_text(const char* text) { colored_wrapped(theme::kTextDim, text); }
-void wrapped(const char* text) { ImGui::TextWrapped("%s", text); }
+void wrapped(const char* text) { text_wrapped_at_spaces(text); }
 void colored_wrapped(ImU32 color, const char* text) {
   ImGui::PushStyleColor(ImGuiCol_Text, color);
-  ImGui::TextWrapped("%s", text);
+  text_wrapped_at_spaces(text);
   ImGui::PopStyleColor();
 }
 
