@@ -90,8 +90,11 @@ datetime::ParseOptions time_options(const LogOptions& o) {
 
 // The event time: --time parsed, or now (the shell reads the clock; the core never does).
 std::pair<std::int64_t, std::string> event_time(const LogOptions& o) {
-  if (o.time.empty()) return {static_cast<std::int64_t>(std::time(nullptr)), ""};
-  return {or_fail(datetime::parse_datetime(o.time, time_options(o))), o.time};
+  const auto now = static_cast<std::int64_t>(std::time(nullptr));
+  if (o.time.empty()) return {now, ""};
+  const std::int64_t t = or_fail(datetime::parse_datetime(o.time, time_options(o)));
+  or_fail(check_not_in_future(t, now));
+  return {t, o.time};
 }
 
 const System& system_arg(const Journal& j, const std::string& text) {

@@ -6,6 +6,7 @@
 
 #include <fmt/format.h>
 
+#include "tidewright/datetime.hpp"
 #include "tidewright/journal.hpp"
 
 namespace tw::journal {
@@ -237,6 +238,13 @@ Status validate_system(const Journal& journal, const System& s) {
   if (!(st = optional_in_range("target calcium_mg_l", s.targets.calcium_mg_l, kCalciumMgLRange)))
     return st;
   return optional_in_range("target magnesium_mg_l", s.targets.magnesium_mg_l, kMagnesiumMgLRange);
+}
+
+Status check_not_in_future(std::int64_t time_s, std::int64_t now_s) {
+  if (time_s <= now_s + kFutureSlackS) return Ok{};
+  return Error{"time", fmt::format("time {} is in the future (now {}); accepted: up to {} minutes after now",
+                                   datetime::format_iso8601_utc(time_s), datetime::format_iso8601_utc(now_s),
+                                   kFutureSlackS / 60)};
 }
 
 Status validate_event(const Journal& journal, const Event& e) {

@@ -81,6 +81,8 @@ with tempfile.TemporaryDirectory() as d:
                                                   "--volume", "500"], "volume", cwd=d)
     refused("time that is not a time", ["log", "--journal", "j.json", "add", "test", "--parameter", "ph",
                                         "--value", "8.1", "--time", "yesterday"], "time", cwd=d)
+    refused("time in the future", ["log", "--journal", "j.json", "add", "test", "--parameter", "ph",
+                                   "--value", "8.1", "--time", "2199-01-01T00:00Z"], "time", "future", cwd=d)
     check("journal unchanged after refusals", open(os.path.join(d, "j.json"), "rb").read() == before)
 
 print(f"{passed} passed, {failed} failed")

@@ -245,3 +245,15 @@ TEST_CASE("journal: canonical values convert units") {
   CHECK(*normalize_unit(Parameter::Salinity, "ppt") == "psu");
   CHECK_FALSE(normalize_unit(Parameter::PH, "dKH").ok());
 }
+
+TEST_CASE("journal: an entry may be dated up to ten minutes after now, not later") {
+  const std::int64_t now = 1796083200;  // 2026-12-01T00:00:00Z
+  CHECK(check_not_in_future(now - 86400, now));
+  CHECK(check_not_in_future(now, now));
+  CHECK(check_not_in_future(now + kFutureSlackS, now));
+  const tw::Status late = check_not_in_future(now + kFutureSlackS + 1, now);
+  REQUIRE_FALSE(late);
+  CHECK(late.error().field == "time");
+  CHECK(late.error().message.find("2026-12-01T00:10:01Z is in the future") != std::string::npos);
+  CHECK(late.error().message.find("10 minutes") != std::string::npos);
+}

@@ -163,12 +163,9 @@ void select_system(AppState& app, jn::SystemId id) {
 // ---------------------------------------------------------------- journal
 namespace {
 
-// Entries may be dated up to a few minutes ahead (clocks of phone and test kit disagree).
-constexpr std::int64_t kFutureSlackS = 10 * 60;
-
+// The core's rule (jn::check_not_in_future), worded in the user's local time.
 bool refuse_future(AppState& app, std::int64_t when_s) {
-  const std::int64_t now = platform::now_unix_seconds();
-  if (when_s <= now + kFutureSlackS) return false;
+  if (jn::check_not_in_future(when_s, platform::now_unix_seconds())) return false;
   notify(app, "time " + fmtx::local_time_text(when_s, platform::utc_offset_minutes()) +
                   " is in the future; accepted: any time up to now", true);
   return true;
@@ -207,8 +204,6 @@ bool log_event(AppState& app, const jn::EventData& data, std::optional<std::int6
   changed(app);
   return true;
 }
-
-bool log_test(AppState& app, const jn::TestResult& test) { return log_event(app, test, std::nullopt); }
 
 bool update_logged_event(AppState& app, jn::EventId id, const jn::EventData& data, std::int64_t when_s) {
   const jn::Event* old = jn::find_event(app.journal, id);

@@ -26,7 +26,6 @@ const tw::journal::System* current_system(const AppState& app);
 tw::journal::System new_system_defaults(const AppState& app);
 
 // Journal
-bool log_test(AppState& app, const tw::journal::TestResult& test);
 // Any event for the current system at when_s (empty = now). Refused (message names the field
 // and its range) when the core refuses it or when the time is in the future.
 bool log_event(AppState& app, const tw::journal::EventData& data, std::optional<std::int64_t> when_s);

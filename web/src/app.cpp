@@ -34,8 +34,7 @@ bool message_showing(AppState& app) {
 
 float message_height(const AppState& app, float width) {
   const float e = ui::em(app);
-  const ImVec2 ts = ImGui::CalcTextSize(app.ui.message.c_str(), nullptr, false, width - 2 * e);
-  return std::max(ui::kTargetEm * e, ts.y + 1.2f * e);
+  return std::max(ui::kTargetEm * e, ui::wrapped_height(app.ui.message.c_str(), width - 2 * e) + 1.2f * e);
 }
 
 void draw_message(AppState& app, float width, float height) {
@@ -47,9 +46,8 @@ void draw_message(AppState& app, float width, float height) {
   if (ImGui::InvisibleButton("##message_dismiss", ImVec2(width, height))) app.ui.message.clear();
   ui::record(app, "banner");
   const float wrap = width - 2 * e;
-  const ImVec2 ts = ImGui::CalcTextSize(app.ui.message.c_str(), nullptr, false, wrap);
-  d->AddText(nullptr, 0, ImVec2(pos.x + e, pos.y + (height - ts.y) / 2), theme::kText, app.ui.message.c_str(), nullptr,
-             wrap);
+  const float text_h = ui::wrapped_height(app.ui.message.c_str(), wrap);
+  ui::draw_wrapped(d, ImVec2(pos.x + e, pos.y + (height - text_h) / 2), theme::kText, app.ui.message.c_str(), wrap);
 }
 
 void draw_layout(AppState& app) {

@@ -90,8 +90,8 @@ namespace {
 // A word wider than the line is cut where it must. Widths add up exactly (ImGui does not
 // kern), so each word is measured once. Lines are spaced like one wrapped text: item spacing
 // only after the last.
-void text_wrapped_at_spaces(const char* text) {
-  const float width = std::max(1.0f, ImGui::GetContentRegionAvail().x);
+std::vector<std::pair<const char*, const char*>> wrap_at_spaces(const char* text, float width) {
+  width = std::max(1.0f, width);
   const float space = ImGui::CalcTextSize(" ").x;
   std::vector<std::pair<const char*, const char*>> lines;
   const char* p = text;
@@ -112,7 +112,8 @@ void text_wrapped_at_spaces(const char* text) {
         line = nullptr;
       }
       while (!line && ww > width) {  // a word longer than a line: cut it where it fills one
-        const char* cut = ImGui::GetFont()->CalcWordWrapPositionA(1.0f, w, w_end, width);
+        const char* cut = ImGui::GetFont()->CalcWordWrapPositionA(ImGui::GetFontSize() / ImGui::GetFont()->FontSize, w,
+                                                                  w_end, width);
         if (cut <= w) cut = w + 1;
         lines.emplace_back(w, cut);
         w = cut;
@@ -133,6 +134,11 @@ void text_wrapped_at_spaces(const char* text) {
     if (*para_end == '\0') break;
     p = para_end + 1;
   }
+  return lines;
+}
+
+void text_wrapped_at_spaces(const char* text) {
+  const auto lines = wrap_at_spaces(text, ImGui::GetContentRegionAvail().x);
   const ImVec2 spacing = ImGui::GetStyle().ItemSpacing;
   for (size_t i = 0; i < lines.size(); ++i) {
     const bool last = i + 1 == lines.size();
@@ -142,6 +148,17 @@ void text_wrapped_at_spaces(const char* text) {
   }
 }
 }  // namespace
+
+float wrapped_height(const char* text, float width) {
+  return static_cast<float>(wrap_at_spaces(text, width).size()) * ImGui::GetTextLineHeight();
+}
+
+void draw_wrapped(ImDrawList* d, ImVec2 pos, ImU32 color, const char* text, float width) {
+  for (const auto& [begin, end] : wrap_at_spaces(text, width)) {
+    d->AddText(pos, color, begin, end);
+    pos.y += ImGui::GetTextLineHeight();
+  }
+}
 
 void dim_text(const char* text) { colored_wrapped(theme::kTextDim, text); }
 void wrapped(const char* text) { text_wrapped_at_spaces(text); }

@@ -28,10 +28,14 @@ bool button(AppState& app, const std::string& name, const char* label, float wid
 
 void heading(AppState& app, const char* text);
 void divider(AppState& app);  // a thin line across the current column or card
-void dim_text(const char* text);       // wrapped, dimmed
+void dim_text(const char* text);       // wrapped (at spaces only), dimmed
 void wrapped(const char* text);        // wrapped
 void colored_wrapped(ImU32 color, const char* text);
 void label_value(AppState& app, const char* label, const std::string& value, ImU32 value_color = 0);
+// The same wrapping (at spaces only, never inside a number) for text drawn straight into a
+// draw list: its height at a width, and drawing it with its top-left at pos.
+float wrapped_height(const char* text, float width);
+void draw_wrapped(ImDrawList* d, ImVec2 pos, ImU32 color, const char* text, float width);
 
 // A row of choices (segmented), wrapping onto more rows when narrow. Returns true on change.
 bool choice(AppState& app, const std::string& name, const char* label, int* index,

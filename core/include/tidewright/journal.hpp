@@ -233,6 +233,11 @@ Status validate_system(const Journal& journal, const System& system);
 // Checks one event: known system, time range, and the payload's ranges. Errors name the field
 // ("value", "volume_l", "additive_id"...) and the accepted range.
 Status validate_event(const Journal& journal, const Event& event);
+// A new or changed entry may be dated at most kFutureSlackS after now (the clocks of a phone,
+// a meter and a computer disagree by minutes) [common practice: our choice]. The caller reads
+// the clock; the core never does. Error field "time", times in UTC.
+inline constexpr std::int64_t kFutureSlackS = 10 * 60;
+Status check_not_in_future(std::int64_t time_s, std::int64_t now_s);
 
 // Adding: id 0 assigns the next id; a non-zero id must be unused. Returns the id.
 Result<SystemId> add_system(Journal& journal, System system);
