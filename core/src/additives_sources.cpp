@@ -65,4 +65,17 @@ Result<DailyAddition> daily_addition(const ContinuousSource& source, const TankL
   return out;
 }
 
+Result<Coverage> coverage(double added_per_day, double consumed_per_day, double flow_ml_per_min) {
+  if (!(consumed_per_day > 0)) {
+    return Error{"consumed_per_day", fmt::format("consumption {:g} a day must be above 0 to compare with",
+                                                 consumed_per_day)};
+  }
+  if (!std::isfinite(added_per_day)) return Error{"added_per_day", "the daily addition is not a number"};
+  Coverage c;
+  c.share = added_per_day / consumed_per_day;
+  c.matches = std::abs(c.share - 1.0) <= 0.15;
+  if (c.share > 0 && flow_ml_per_min > 0) c.matching_flow_ml_per_min = flow_ml_per_min / c.share;
+  return c;
+}
+
 }  // namespace tw::additives

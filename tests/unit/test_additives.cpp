@@ -257,6 +257,25 @@ TEST_CASE("additives: calcium reactor daily addition from measured output") {
   CHECK(bad.error().field == "flow_ml_per_min");
 }
 
+TEST_CASE("additives: a source's coverage of the consumption and the flow that matches it") {
+  // 4.31 dKH/day added at 100 mL/min against 1.13 consumed: 3.81x, 26.2 mL/min would match
+  // (hand-worked: 100 x 1.13 / 4.31).
+  auto c = coverage(4.31, 1.13, 100.0);
+  REQUIRE(c.ok());
+  CHECK(c->share == doctest::Approx(4.31 / 1.13));
+  REQUIRE(c->matching_flow_ml_per_min);
+  CHECK(*c->matching_flow_ml_per_min == doctest::Approx(100.0 * 1.13 / 4.31));
+  CHECK_FALSE(c->matches);
+  CHECK(coverage(1.0, 1.13, 30.0)->matches);  // 88 %: within 15 %
+  CHECK_FALSE(coverage(0.9, 1.13, 30.0)->matches);  // 80 %
+  auto removes = coverage(-0.2, 1.13, 30.0);
+  REQUIRE(removes.ok());
+  CHECK_FALSE(removes->matching_flow_ml_per_min);
+  auto none = coverage(1.0, 0.0, 30.0);
+  REQUIRE_FALSE(none.ok());
+  CHECK(none.error().field == "consumed_per_day");
+}
+
 TEST_CASE("additives: cautions for caustic additives defer to local codes") {
   auto c = cautions_for(additive_from_compound(CompoundId::SodiumHydroxide));
   bool danger = false, codes = false;

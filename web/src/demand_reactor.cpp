@@ -39,12 +39,15 @@ void coverage_line(AppState& app, const char* name, double added, std::optional<
                    const std::string& unit, double factor, int decimals, const std::string& widget) {
   std::string text = std::string(name) + ": adds " + fmtx::fixed(added * factor, decimals + 1) + " " + unit + " a day";
   ImU32 color = 0;
+  std::optional<add::Coverage> cov;
   if (demand) {
-    const double share = added / *demand;
-    text += ", " + fmtx::fixed(100 * share, 0) + "% of the estimated consumption of " +
+    if (auto r = add::coverage(added, *demand, flow)) cov = *r;
+  }
+  if (cov) {
+    text += ", " + fmtx::fixed(100 * cov->share, 0) + "% of the estimated consumption of " +
             fmtx::fixed(*demand * factor, decimals + 1) + " " + unit + " a day";
-    if (added > 0) text += "; " + fmtx::fixed(flow / share, 0) + " mL/min would match it";
-    color = share >= 0.85 && share <= 1.15 ? theme::kAccent : theme::kWarning;  // within 15 %: a match
+    if (cov->matching_flow_ml_per_min) text += "; " + fmtx::fixed(*cov->matching_flow_ml_per_min, 0) + " mL/min would match it";
+    color = cov->matches ? theme::kAccent : theme::kWarning;
   } else {
     text += " (no consumption estimate to compare with yet)";
   }

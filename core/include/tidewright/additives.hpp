@@ -10,7 +10,8 @@
 //   5. Stock solutions: recipe -> strength (checked against solubility), target -> recipe
 //   6. A user's own product from its label claim
 //   7. Additive: the one thing the planner and the journal dose (per mL or per g)
-//   8. Continuous sources (calcium reactor): measured output -> daily addition
+//   8. Continuous sources (calcium reactor): measured output -> daily addition, coverage of
+//      the consumption
 //
 // Units: amounts of chemistry in mol (alkalinity in equivalents), masses in g, volumes of
 // solution in mL, volumes of systems in L, temperatures in degrees C. Tank concentrations are
@@ -18,6 +19,7 @@
 // Alkalinity of a rise is in dKH (1 dKH = 0.35665 meq/L, units.hpp) unless the name says meq.
 #pragma once
 
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -286,5 +288,17 @@ struct TankLevels {
 };
 Result<DailyAddition> daily_addition(const ContinuousSource& source, const TankLevels& tank,
                                      double system_volume_l);
+
+// How a source's net addition of one parameter compares with the consumption (both per day,
+// same unit). The addition is proportional to the flow at fixed effluent and tank levels, so
+// the flow that would match is flow / share. A share within 15 % of 1 counts as a match
+// [our choice: about the spread of two hobby test kits]. No matching flow when the source
+// adds nothing or removes the parameter.
+struct Coverage {
+  double share = 0;                         // added / consumed
+  std::optional<double> matching_flow_ml_per_min;
+  bool matches = false;
+};
+Result<Coverage> coverage(double added_per_day, double consumed_per_day, double flow_ml_per_min);
 
 }  // namespace tw::additives
