@@ -131,7 +131,7 @@ void draw_systems(AppState& app) {
   if (app.journal.systems.empty()) {
     ui::dim_text("No systems yet. A system is one body of water with its own volume and log: a display tank, a grow-out raceway, a larval culture tank.");
   } else {
-    ui::dim_text("Tap a system to make it current. Log, Water and Settings work on the current system.");
+    ui::dim_text("Tap a system to make it current. Log, Water, Demand, Plan and the units in Settings work on the current system.");
   }
   for (const auto& s : app.journal.systems) draw_row(app, s);
   if (ui::button(app, "systems.add", "+ Add a system", 0, ui::Tone::Primary)) {
