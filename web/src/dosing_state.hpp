@@ -33,8 +33,10 @@ struct DemandView {
   // "Does my reactor cover it?" card: a flow-through source described by its measured output.
   bool reactor_open = false;
   double reactor_flow_ml_per_min = 30;
-  double reactor_alkalinity_dkh = 30;    // effluent (kept in dKH and mg/L, shown in the user's units);
-  double reactor_calcium_mg_l = 575;     // starting values: a typical effluent, ~7.1 mg/L Ca per dKH
+  // Effluent, kept in dKH and mg/L and shown in the user's units. Starting values are our choice:
+  // what dissolving CaCO3 gives (7.15 mg/L Ca per dKH) above a tank at 8 dKH and 420 mg/L.
+  double reactor_alkalinity_dkh = 30;
+  double reactor_calcium_mg_l = 575;
   std::optional<double> reactor_magnesium_mg_l;
 };
 
