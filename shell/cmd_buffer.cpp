@@ -11,9 +11,9 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
-#include "tidewright/hatchery.hpp"
-#include "tidewright/seawater.hpp"
-#include "tidewright/units.hpp"
+#include "tidewright/hatchery/hatchery.hpp"
+#include "tidewright/seawater/seawater.hpp"
+#include "tidewright/common/units.hpp"
 
 namespace tw::shell {
 namespace {

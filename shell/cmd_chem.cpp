@@ -10,10 +10,10 @@
 
 #include "commands.hpp"
 #include "file_io.hpp"
-#include "tidewright/carbonate.hpp"
-#include "tidewright/carbonate_batch.hpp"
-#include "tidewright/seawater.hpp"
-#include "tidewright/units.hpp"
+#include "tidewright/carbonate/carbonate.hpp"
+#include "tidewright/carbonate/carbonate_batch.hpp"
+#include "tidewright/seawater/seawater.hpp"
+#include "tidewright/common/units.hpp"
 
 namespace tw::shell {
 namespace {

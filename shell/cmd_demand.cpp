@@ -14,10 +14,10 @@
 
 #include "commands.hpp"
 #include "file_io.hpp"
-#include "tidewright/datetime.hpp"
-#include "tidewright/estimate.hpp"
-#include "tidewright/journal.hpp"
-#include "tidewright/journal_file.hpp"
+#include "tidewright/common/datetime.hpp"
+#include "tidewright/estimate/estimate.hpp"
+#include "tidewright/journal/journal.hpp"
+#include "tidewright/journal/journal_file.hpp"
 
 namespace tw::shell {
 namespace {

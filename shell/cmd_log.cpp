@@ -16,11 +16,11 @@
 #include "commands.hpp"
 #include "file_io.hpp"
 #include "log_format.hpp"
-#include "tidewright/additives.hpp"
-#include "tidewright/datetime.hpp"
-#include "tidewright/journal.hpp"
-#include "tidewright/journal_csv.hpp"
-#include "tidewright/journal_file.hpp"
+#include "tidewright/additives/additives.hpp"
+#include "tidewright/common/datetime.hpp"
+#include "tidewright/journal/journal.hpp"
+#include "tidewright/journal/journal_csv.hpp"
+#include "tidewright/journal/journal_file.hpp"
 
 namespace tw::shell {
 namespace {

@@ -12,7 +12,7 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
-#include "tidewright/additives.hpp"
+#include "tidewright/additives/additives.hpp"
 
 namespace tw::shell {
 namespace {

@@ -8,9 +8,9 @@
 
 #include "commands.hpp"
 #include "file_io.hpp"
-#include "tidewright/journal_file.hpp"
-#include "tidewright/plan.hpp"
-#include "tidewright/plan_from_journal.hpp"
+#include "tidewright/journal/journal_file.hpp"
+#include "tidewright/plan/plan.hpp"
+#include "tidewright/plan/plan_from_journal.hpp"
 
 namespace tw::shell {
 namespace {

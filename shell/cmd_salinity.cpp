@@ -16,9 +16,9 @@
 
 #include "commands.hpp"
 #include "file_io.hpp"
-#include "tidewright/salinity_convert.hpp"
-#include "tidewright/seawater.hpp"
-#include "tidewright/units.hpp"
+#include "tidewright/seawater/salinity_convert.hpp"
+#include "tidewright/seawater/seawater.hpp"
+#include "tidewright/common/units.hpp"
 
 namespace tw::shell {
 namespace {

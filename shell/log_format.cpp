@@ -2,7 +2,7 @@
 
 #include <fmt/format.h>
 
-#include "tidewright/datetime.hpp"
+#include "tidewright/common/datetime.hpp"
 
 namespace tw::shell {
 

@@ -3,7 +3,7 @@
 
 #include <string>
 
-#include "tidewright/journal.hpp"
+#include "tidewright/journal/journal.hpp"
 
 namespace tw::shell {
 

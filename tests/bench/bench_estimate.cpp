@@ -6,7 +6,7 @@
 #include <random>
 #include <vector>
 
-#include "tidewright/estimate.hpp"
+#include "tidewright/estimate/estimate.hpp"
 
 using namespace tw::estimate;
 

@@ -4,7 +4,7 @@
 #include <chrono>
 #include <cstdio>
 
-#include "tidewright/plan.hpp"
+#include "tidewright/plan/plan.hpp"
 
 int main() {
   namespace ad = tw::additives;

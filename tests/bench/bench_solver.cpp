@@ -12,7 +12,7 @@
 #include <vector>
 
 #include "bench/process_cpu_clock.hpp"
-#include "tidewright/carbonate.hpp"
+#include "tidewright/carbonate/carbonate.hpp"
 
 namespace tc = tw::carbonate;
 

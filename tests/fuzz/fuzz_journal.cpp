@@ -7,8 +7,8 @@
 #include <cstdlib>
 #include <string>
 
-#include "tidewright/journal_csv.hpp"
-#include "tidewright/journal_file.hpp"
+#include "tidewright/journal/journal_csv.hpp"
+#include "tidewright/journal/journal_file.hpp"
 
 using namespace tw::journal;
 

@@ -9,7 +9,7 @@
 #include "format.hpp"
 #include "platform.hpp"
 #include "store.hpp"
-#include "tidewright/datetime.hpp"
+#include "tidewright/common/datetime.hpp"
 
 extern const unsigned char tw_demo_journal[];
 extern const unsigned long tw_demo_journal_size;

@@ -7,10 +7,10 @@
 
 #include "actions.hpp"
 #include "platform.hpp"
-#include "tidewright/datetime.hpp"
-#include "tidewright/plan.hpp"
-#include "tidewright/seawater.hpp"
-#include "tidewright/units.hpp"
+#include "tidewright/common/datetime.hpp"
+#include "tidewright/plan/plan.hpp"
+#include "tidewright/seawater/seawater.hpp"
+#include "tidewright/common/units.hpp"
 
 namespace twapp {
 

@@ -17,8 +17,8 @@
 #include <string>
 #include <vector>
 
-#include "tidewright/carbonate.hpp"
-#include "tidewright/journal.hpp"
+#include "tidewright/carbonate/carbonate.hpp"
+#include "tidewright/journal/journal.hpp"
 #include "dosing_state.hpp"  // forms and cached results of Demand, Hatchery, Mixes, Plan
 
 namespace twapp {

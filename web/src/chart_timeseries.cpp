@@ -7,7 +7,7 @@
 
 #include "format.hpp"
 #include "theme.hpp"
-#include "tidewright/datetime.hpp"
+#include "tidewright/common/datetime.hpp"
 #include "ui.hpp"
 
 namespace twapp::chart {

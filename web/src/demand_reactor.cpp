@@ -9,7 +9,7 @@
 #include "format.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
-#include "tidewright/additives.hpp"
+#include "tidewright/additives/additives.hpp"
 #include "ui.hpp"
 
 namespace twapp {

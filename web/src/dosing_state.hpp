@@ -16,11 +16,11 @@
 #include <string>
 #include <vector>
 
-#include "tidewright/additives.hpp"
-#include "tidewright/estimate.hpp"
-#include "tidewright/hatchery.hpp"
-#include "tidewright/journal.hpp"
-#include "tidewright/plan.hpp"
+#include "tidewright/additives/additives.hpp"
+#include "tidewright/estimate/estimate.hpp"
+#include "tidewright/hatchery/hatchery.hpp"
+#include "tidewright/journal/journal.hpp"
+#include "tidewright/plan/plan.hpp"
 
 namespace twapp {
 

@@ -3,7 +3,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
-#include "tidewright/datetime.hpp"
+#include "tidewright/common/datetime.hpp"
 
 namespace twapp::fmtx {
 

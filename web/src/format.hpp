@@ -6,9 +6,9 @@
 #include <cstdint>
 #include <string>
 
-#include "tidewright/carbonate.hpp"
-#include "tidewright/journal.hpp"
-#include "tidewright/units.hpp"
+#include "tidewright/carbonate/carbonate.hpp"
+#include "tidewright/journal/journal.hpp"
+#include "tidewright/common/units.hpp"
 
 namespace twapp::fmtx {
 

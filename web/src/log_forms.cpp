@@ -11,8 +11,8 @@
 #include "actions.hpp"
 #include "actions_dosing.hpp"
 #include "format.hpp"
-#include "tidewright/additives.hpp"
-#include "tidewright/seawater.hpp"
+#include "tidewright/additives/additives.hpp"
+#include "tidewright/seawater/seawater.hpp"
 #include "ui.hpp"
 
 namespace twapp::log_forms {

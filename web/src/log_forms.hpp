@@ -8,7 +8,7 @@
 #include <string>
 
 #include "app_state.hpp"
-#include "tidewright/journal.hpp"
+#include "tidewright/journal/journal.hpp"
 
 namespace twapp::log_forms {
 

@@ -10,7 +10,7 @@
 #include "platform.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
-#include "tidewright/datetime.hpp"
+#include "tidewright/common/datetime.hpp"
 #include "ui.hpp"
 
 namespace twapp {

@@ -4,7 +4,7 @@
 
 #include <nlohmann/json.hpp>
 
-#include "tidewright/journal_file.hpp"
+#include "tidewright/journal/journal_file.hpp"
 
 namespace twapp {
 namespace {

@@ -9,7 +9,7 @@
 #include <string>
 
 #include "app_state.hpp"
-#include "tidewright/result.hpp"
+#include "tidewright/common/result.hpp"
 
 namespace twapp {
 

@@ -6,7 +6,7 @@
 
 #include "actions.hpp"
 #include "platform.hpp"
-#include "tidewright/journal_file.hpp"
+#include "tidewright/journal/journal_file.hpp"
 #include "water.hpp"
 
 namespace twapp::test_api {

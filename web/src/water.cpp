@@ -3,7 +3,7 @@
 #include "actions.hpp"
 #include "format.hpp"
 #include "platform.hpp"
-#include "tidewright/seawater.hpp"
+#include "tidewright/seawater/seawater.hpp"
 
 namespace twapp {
 

@@ -1,0 +1,58 @@
+// Calendar dates and times as text <-> seconds since the Unix epoch (UTC).
+// Own small implementation (no date library): the civil-calendar conversions follow Howard
+// Hinnant's public-domain algorithms "days_from_civil" and "civil_from_days" (proleptic
+// Gregorian calendar), written here from their published description.
+#pragma once
+
+#include <cstdint>
+#include <string>
+
+#include "tidewright/common/result.hpp"
+
+namespace tw::datetime {
+
+// Days since 1970-01-01 for a proleptic Gregorian date (Hinnant, "chrono-Compatible Low-Level
+// Date Algorithms", days_from_civil). Check value: 2000-03-01 -> 11017.
+std::int64_t days_from_civil(std::int64_t year, unsigned month, unsigned day);
+
+struct CivilDate {
+  std::int64_t year;
+  unsigned month;  // 1..12
+  unsigned day;    // 1..31
+};
+// Inverse of days_from_civil (Hinnant, civil_from_days).
+CivilDate civil_from_days(std::int64_t days);
+
+bool is_leap_year(std::int64_t year);
+unsigned days_in_month(std::int64_t year, unsigned month);
+
+// How to read a date written with the day and month both as numbers, e.g. 03/04/2026.
+enum class DateOrder {
+  Unspecified,  // infer when only one reading is a valid date; refuse when both are
+  DayMonthYear,  // "dmy": 03/04/2026 is 3 April
+  MonthDayYear,  // "mdy": 03/04/2026 is 4 March
+};
+Result<DateOrder> date_order_from_string(const std::string& text);  // "dmy", "mdy", "" -> Unspecified
+
+struct ParseOptions {
+  DateOrder order = DateOrder::Unspecified;
+  // Offset of local time from UTC in minutes for texts without a zone (e.g. +60 for UTC+1).
+  int utc_offset_minutes = 0;
+};
+
+// Parses one date-time into seconds since 1970-01-01T00:00:00Z. Accepted forms:
+//   ISO 8601: YYYY-MM-DD, YYYY-MM-DDTHH:MM[:SS[.fff]] with 'T' or a space, optional zone
+//             Z, +HH:MM, +HHMM or +HH (fractions of a second are dropped);
+//   YYYY/MM/DD and YYYY.MM.DD [HH:MM[:SS]];
+//   DD/MM/YYYY or MM/DD/YYYY (also with '.' or '-') [HH:MM[:SS]], read with options.order;
+//   a bare integer of seconds since the epoch, prefixed with '@' (e.g. @1780000000).
+// Errors name the field "time" and say what was expected; an ambiguous day/month says to
+// choose dmy or mdy.
+Result<std::int64_t> parse_datetime(const std::string& text, const ParseOptions& options = {});
+
+// "2026-08-01T08:00:00Z" (always UTC, whole seconds).
+std::string format_iso8601_utc(std::int64_t seconds);
+// "2026-08-01" (UTC).
+std::string format_date_utc(std::int64_t seconds);
+
+}  // namespace tw::datetime

@@ -1,0 +1,234 @@
+// Consumption estimates: level and daily demand of alkalinity, calcium and magnesium from logged
+// tests, with doses, water changes and top-off as known inputs (design.md "Consumption").
+//
+// Map of this header
+//   1. Parameters and internal units
+//   2. The plain input: a per-parameter series of events in time order
+//   3. Filter options (noise model, prior, outlier rule) and their defaults
+//   4. The estimate: Kalman filter + Rauch-Tung-Striebel smoother       (estimate_filter.cpp)
+//   5. Reading the estimate: Ca:alkalinity ratio, forecast               (estimate_report.cpp)
+//   6. Journal -> series adapter                                         (estimate_series.cpp)
+//
+// Model (per parameter, one independent filter each):
+//   state x = [level, demand per day];  demand > 0 means the water loses that much per day.
+//   between events, over dt days:  level <- level - demand*dt + w_level,  demand <- demand + w_demand
+//   where demand is a random walk (white-noise rate of change, spectral density q_d) and the
+//   level carries a small white noise of its own (q_l) for what the log does not record.
+//   known addition:  level <- level + delta                       (dose, limewater top-off)
+//   water change:    level <- (1-f) level + f c_new; demand unchanged (the animals still calcify
+//                    at the same rate; demand is per litre of the same system volume)
+//   test:            z = level + v, v ~ N(0, sigma^2) with sigma the kit's precision.
+// Prior: the first test sets the level (variance sigma^2); the demand starts at 0 with a very
+// wide sd (default 10x any plausible demand), so it is learned from the tests (a weak, nearly
+// diffuse prior).
+// Outliers: a test whose normalized innovation |z| = |reading - predicted| / sqrt(predicted
+// variance + sigma^2) exceeds outlier_z (default 3.5: a correct reading lands there about once
+// in 2,000 tests) is kept, reported with the reason, and left out of the update. Two flagged
+// tests in a row on the same side are read as a real, unlogged change in level (a dose or water
+// change missing from the log), not a misreading: the second one restarts the level.
+//
+// Units inside the core's estimate: as test kits read them (common practice):
+//   alkalinity dKH, calcium mg/L, magnesium mg/L;  demand in those units per day;  time in days.
+#pragma once
+
+#include <cstddef>
+#include <optional>
+#include <string>
+#include <variant>
+#include <vector>
+
+#include "tidewright/journal/journal.hpp"
+#include "tidewright/common/result.hpp"
+
+namespace tw::estimate {
+
+// ============================================================ 1. Parameters and units
+enum class Parameter { Alkalinity, Calcium, Magnesium };
+inline constexpr Parameter kAllParameters[] = {Parameter::Alkalinity, Parameter::Calcium,
+                                               Parameter::Magnesium};
+
+const char* to_string(Parameter p);  // "alkalinity", "calcium", "magnesium"
+const char* unit_of(Parameter p);    // "dKH", "mg/L", "mg/L"
+
+// ============================================================ 2. Plain input series
+// One test result: value in the parameter's unit, sigma = the kit's precision (1 sd, > 0).
+struct Measurement {
+  double time_days = 0.0;
+  double value = 0.0;
+  double sigma = 0.0;
+};
+// A known instantaneous change of level (dose, limewater): delta in the parameter's unit,
+// delta_sd its uncertainty (pump or scoop accuracy; 0 = exact).
+struct Addition {
+  double time_days = 0.0;
+  double delta = 0.0;
+  double delta_sd = 0.0;
+};
+// A water change: fraction_replaced of the volume (0..1) replaced by water at new_water_value.
+struct Dilution {
+  double time_days = 0.0;
+  double fraction_replaced = 0.0;
+  double new_water_value = 0.0;
+  double new_water_sd = 0.0;  // uncertainty of new_water_value (0 = measured exactly)
+};
+using SeriesEvent = std::variant<Measurement, Addition, Dilution>;
+double time_of(const SeriesEvent& e);
+
+// Events must be in time order (equal times are applied in the given order).
+struct Series {
+  Parameter parameter = Parameter::Alkalinity;
+  std::vector<SeriesEvent> events;
+};
+
+// ============================================================ 3. Filter options
+struct FilterOptions {
+  double demand_noise_sd_per_sqrt_day = 0.0;  // sqrt(q_d): demand random walk, unit/day/sqrt(day)
+  double level_noise_sd_per_sqrt_day = 0.0;   // sqrt(q_l): unlogged level wander, unit/sqrt(day)
+  double prior_demand = 0.0;                  // unit/day
+  double prior_demand_sd = 0.0;               // unit/day; wide = weak prior
+  double outlier_z = 3.5;                     // |normalized innovation| above this is flagged
+  bool restart_on_two_outliers = true;        // two same-side flags in a row restart the level
+  bool smooth = true;                         // also compute the RTS-smoothed history
+};
+
+// Defaults, chosen as follows (a judgement of common practice, not a published figure):
+//   demand random walk: 0.03 dKH/day per sqrt(day) for alkalinity, i.e. the demand may drift by
+//   about +/-0.16 dKH/day (1 sd) over a month -- about 15 % of a typical 1 dKH/day reef, which
+//   follows coral growth and changes in feeding or lighting while a single kit error (0.2 dKH)
+//   moves the estimate by only a few hundredths. Calcium uses the same in calcification
+//   equivalents (x 7.147 mg/L per dKH, about 0.2 mg/L/day per sqrt(day)); magnesium 0.1.
+//   level noise: 0.03 dKH, 0.2 mg/L Ca, 0.5 mg/L Mg per sqrt(day) (well under kit precision).
+//   prior demand sd: 10 dKH/day, 100 mg/L/day Ca, 100 mg/L/day Mg (no tank consumes that).
+FilterOptions default_filter_options(Parameter p);
+Status check_options(const FilterOptions& o);
+
+// ============================================================ 4. The estimate
+enum class TestStatus {
+  First,        // set the initial level
+  Used,         // entered the update
+  Flagged,      // outlier: kept in the log, left out of the update
+  LevelRestart  // second same-side outlier in a row: read as a real, unlogged level change
+};
+const char* to_string(TestStatus s);
+
+struct HistoryPoint {  // one per test, in time order
+  double time_days = 0.0;
+  double reading = 0.0;
+  TestStatus status = TestStatus::Used;
+  double level = 0.0, level_sd = 0.0;                  // filtered: known at that time
+  double demand_per_day = 0.0, demand_sd = 0.0;        // filtered
+  double smoothed_demand_per_day = 0.0, smoothed_demand_sd = 0.0;  // RTS: with later tests too
+};
+
+struct OutlierFlag {
+  double time_days = 0.0;
+  double reading = 0.0;
+  double expected = 0.0, expected_sd = 0.0;  // predicted reading and its sd (state + kit)
+  double z = 0.0;                            // normalized innovation
+  std::string reason;                        // plain words
+};
+
+struct SeriesEstimate {
+  Parameter parameter = Parameter::Alkalinity;
+  std::size_t tests = 0;        // all tests in the series
+  std::size_t tests_used = 0;   // tests that entered the estimate (First/Used/LevelRestart)
+  bool demand_known = false;    // at least two used tests at different times
+  double time_days = 0.0;       // time of the state below ("now")
+  double level = 0.0, level_sd = 0.0;
+  double level_demand_cov = 0.0;
+  double demand_per_day = 0.0, demand_sd = 0.0;
+  double demand_low95 = 0.0, demand_high95 = 0.0;  // demand +/- 1.959964 sd
+  std::vector<HistoryPoint> history;
+  std::vector<OutlierFlag> outliers;
+};
+
+// Runs the filter (and the smoother if options.smooth) over the series. now_days, if given
+// and not before the last event, carries the state forward to that time. A series with no
+// test gives demand_known = false and no error; errors are for bad input (order, sigma <= 0,
+// fraction outside 0..1, non-finite numbers), naming the event index and field.
+Result<SeriesEstimate> estimate_series(const Series& series, const FilterOptions& options,
+                                       std::optional<double> now_days = std::nullopt);
+
+// ============================================================ 5. Reading the estimate
+// Calcification takes 1 mmol Ca per 2 meq alkalinity (Gazeau et al. 2015, MEPS 527, the
+// alkalinity-anomaly basis): 20.04 mg/L Ca per meq/L, i.e. 7.147 mg/L Ca per dKH.
+double calcium_mg_l_per_dkh_calcification_gazeau2015();
+
+enum class RatioVerdict {
+  NotEnoughData,            // either demand unknown (fewer than two usable tests)
+  Consistent,               // Ca demand within the uncertainty of 7.147 x alkalinity demand
+  CalciumFasterThanAlkalinity,
+  AlkalinityFasterThanCalcium
+};
+const char* to_string(RatioVerdict v);
+
+struct CalciumAlkalinityReading {
+  RatioVerdict verdict = RatioVerdict::NotEnoughData;
+  double expected_mg_l_per_dkh = 7.147;
+  bool ratio_valid = false;  // alkalinity demand clearly > 0 (its 95 % band above zero)
+  double ratio_mg_l_per_dkh = 0.0, ratio_sd = 0.0;  // Ca demand / alk demand, delta method
+  double excess_calcium_mg_l_per_day = 0.0;  // Ca demand - 7.147 x alkalinity demand
+  double excess_sd = 0.0;                    // from both demands' sd (independent filters)
+  std::string reading;                       // plain words, "possible reasons"
+};
+// The departure counts only when |excess| > 1.96 excess_sd (95 %).
+CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alkalinity,
+                                                 const SeriesEstimate& calcium);
+
+struct ForecastPoint {
+  int day = 0;              // days after the estimate's time
+  double time_days = 0.0;
+  double level = 0.0, level_sd = 0.0;
+  double low95 = 0.0, high95 = 0.0;
+};
+// Level for days 1..days under a steady daily dose effect (unit/day added by the current
+// dosing), with the filter's process noise carried forward. days 1..3650.
+Result<std::vector<ForecastPoint>> forecast_levels(const SeriesEstimate& estimate,
+                                                   double daily_dose_effect_per_day, int days,
+                                                   const FilterOptions& options);
+
+// ============================================================ 6. Journal -> series
+// One system's journal events as three series (estimate_series.cpp). Time: days since
+// 1970-01-01T00:00Z (time_s / 86400). Each event becomes:
+//   test of alkalinity/calcium/magnesium -> Measurement in dKH / mg/L, sigma = the test's kit
+//     precision, else journal::typical_precision (0.2 dKH, 10 mg/L, 25 mg/L);
+//   dose -> Addition to every parameter it changes: amount (g, or mL x stock g/L / 1000) of the
+//     catalog compound x its change per mole / system volume (additives::rise_of);
+//   limewater top-off -> Addition of volume x strength (g/L Ca(OH)2, saturated 1.50 g/L if
+//     unset) of Ca(OH)2: +2 eq alkalinity, +1 Ca per mol, into the system volume (top-off
+//     replaces evaporated water, so the volume stays);  plain top-off -> nothing (evaporation
+//     concentrated the water and fresh water restores it: no change in concentration);
+//   water change -> Dilution, f = change volume / system volume, new water at the logged value;
+//     if the new water's value was not logged, the system's target is used with a wide sd
+//     (new_water_unknown_sd) and a note; with no target either, the change is left out with
+//     a note.
+// Events that cannot be turned into chemistry (unknown additive, mL without stock strength)
+// are skipped with a note, never fatal.
+struct SystemSeries {
+  journal::SystemId system_id = 0;
+  std::string system_name;
+  double volume_l = 0.0;
+  Series alkalinity{Parameter::Alkalinity, {}};
+  Series calcium{Parameter::Calcium, {}};
+  Series magnesium{Parameter::Magnesium, {}};
+  std::vector<std::string> notes;  // skipped or assumed events, plain words
+  const Series& of(Parameter p) const;
+};
+
+struct JournalSeriesOptions {
+  // sd of the new water's value when the target stands in for it [common practice: salt mixes
+  // vary by batch]: 0.5 dKH, 20 mg/L Ca, 50 mg/L Mg.
+  double new_water_unknown_sd[3] = {0.5, 20.0, 50.0};
+};
+
+// Errors: field "system" when the id is not in the journal.
+Result<SystemSeries> series_from_journal(const journal::Journal& journal, journal::SystemId system,
+                                         const JournalSeriesOptions& options = {});
+
+// Average known addition per day over the window_days before the series' last event (or
+// before until_days if given): sum of Addition deltas / window_days. The "current dosing"
+// for a forecast when no schedule is given.
+double recent_daily_addition(const Series& series, double window_days,
+                             std::optional<double> until_days = std::nullopt);
+
+}  // namespace tw::estimate

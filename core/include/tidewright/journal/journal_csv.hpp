@@ -1,0 +1,65 @@
+// Journal <-> spreadsheet CSV (RFC 4180), text in and out. Column names are ours and are
+// documented in docs/journal-format.md; headers are matched case-insensitively.
+//
+// Long form (one event per row):
+//   time, system, type, parameter, other_name, value, unit, precision, ph_scale, kit,
+//   additive, amount, amount_unit, stock_g_per_l, volume, volume_unit, top_off_kind,
+//   limewater_g_per_l, new_alkalinity_dkh, new_calcium_mg_l, new_magnesium_mg_l, new_salinity,
+//   note
+//   Only "time" is required (and "system" when the journal has several systems and no
+//   default is given). "type" (test, dose, water_change, top_off, note) may be left out: a row
+//   with a parameter is a test, with an additive a dose, with only a note a note. An empty
+//   unit cell takes the system's unit preference (units per row); an empty ph_scale the
+//   system's pH scale. A note on a test or dose row is added as its own note event.
+// Wide form (one column per parameter, the unit in the column name; units per column):
+//   alkalinity_dkh, alkalinity_meq_l, alkalinity_mg_l_caco3, calcium_mg_l, magnesium_mg_l,
+//   ph_nbs, ph_total, ph_sws, ph_free, salinity_psu, specific_gravity, temperature_c,
+//   temperature_f, nitrate_mg_l, phosphate_mg_l. Every non-empty cell becomes a test result.
+//   Wide and long columns may be mixed in one file.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "tidewright/common/datetime.hpp"
+#include "tidewright/journal/journal.hpp"
+#include "tidewright/common/result.hpp"
+
+namespace tw::journal {
+
+struct CsvImportOptions {
+  datetime::ParseOptions time;             // date order (dmy/mdy) and local UTC offset
+  std::optional<SystemId> default_system;  // for rows without a system cell
+};
+
+struct RejectedRow {
+  int line = 0;       // 1-based line of the CSV text where the row starts
+  std::string field;  // column or field at fault, e.g. "time", "value"
+  std::string reason; // readable reason naming the accepted range or forms
+};
+
+struct CsvImportReport {
+  std::vector<EventId> added;       // ids of the new events, in file order
+  int duplicates_skipped = 0;       // rows equal to an event already in the journal
+  std::vector<RejectedRow> rejected;
+};
+
+// Adds every valid row to the journal and reports every other row with its line and reason.
+// Nothing already in the journal is changed or removed. A row identical to an existing event
+// (same system, time and content) is skipped and counted, so importing a file twice adds
+// nothing the second time. A file-level error (no header, no time column, unclosed quote, no
+// way to tell the system) is returned as an Error and then nothing is added.
+Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
+                                   const CsvImportOptions& options = {});
+
+// Long-form CSV of the selected events (all columns above, times as ISO 8601 UTC, systems by
+// name, CRLF line ends). Text cells that a spreadsheet would run as a formula (first character
+// = + - @ TAB or CR) get a leading apostrophe; numbers, negative ones included, stay plain
+// numbers. import_csv removes such an apostrophe again, so export -> import gives the same
+// events.
+std::string export_csv(const Journal& journal, const EventFilter& filter = {});
+
+// The long-form header used by export_csv.
+const std::vector<std::string>& csv_long_columns();
+
+}  // namespace tw::journal

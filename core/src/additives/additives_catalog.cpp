@@ -1,0 +1,414 @@
+// Additive compounds as data: one row per compound (formula, change per mole, solubility,
+// hazards), the atomic weights they are built from, solubility interpolation, saturated
+// limewater and baking soda baked to sodium carbonate.
+//
+// Sections: 1. atomic weights  2. ChemicalChange  3. the catalog rows  4. lookups
+//           5. solubility  6. limewater  7. baked baking soda
+#include <algorithm>
+#include <cctype>
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "tidewright/additives/additives.hpp"
+
+namespace tw::additives {
+
+// ================================================================ 1. Atomic weights
+// IUPAC/CIAAW abridged standard atomic weights [g/mol], as listed in facts.md 5 (quoted from
+// memory there, not re-fetched). K 39.098 is from memory: unverified. Check: NaHCO3 84.006.
+double atomic_weight_iupac(Element element) {
+  switch (element) {
+    case Element::H: return 1.008;
+    case Element::C: return 12.011;
+    case Element::O: return 15.999;
+    case Element::Na: return 22.990;
+    case Element::Mg: return 24.305;
+    case Element::S: return 32.06;
+    case Element::Cl: return 35.45;
+    case Element::Ca: return 40.078;
+    case Element::K: return 39.098;
+  }
+  return 0.0;
+}
+
+const char* to_string(Element element) {
+  switch (element) {
+    case Element::H: return "H";
+    case Element::C: return "C";
+    case Element::O: return "O";
+    case Element::Na: return "Na";
+    case Element::Mg: return "Mg";
+    case Element::S: return "S";
+    case Element::Cl: return "Cl";
+    case Element::Ca: return "Ca";
+    case Element::K: return "K";
+  }
+  return "?";
+}
+
+double molar_mass_g_mol(const std::vector<ElementCount>& formula) {
+  double sum = 0.0;
+  for (const auto& part : formula) sum += atomic_weight_iupac(part.element) * part.count;
+  return sum;
+}
+
+// ================================================================ 2. ChemicalChange
+ChemicalChange ChemicalChange::scaled(double f) const {
+  return {alkalinity_eq * f, dic_mol * f,      calcium_mol * f,  magnesium_mol * f,
+          sodium_mol * f,    potassium_mol * f, chloride_mol * f, sulfate_mol * f};
+}
+
+ChemicalChange& ChemicalChange::operator+=(const ChemicalChange& o) {
+  alkalinity_eq += o.alkalinity_eq;
+  dic_mol += o.dic_mol;
+  calcium_mol += o.calcium_mol;
+  magnesium_mol += o.magnesium_mol;
+  sodium_mol += o.sodium_mol;
+  potassium_mol += o.potassium_mol;
+  chloride_mol += o.chloride_mol;
+  sulfate_mol += o.sulfate_mol;
+  return *this;
+}
+
+ChemicalChange operator+(ChemicalChange a, const ChemicalChange& b) { return a += b; }
+
+// ================================================================ 3. Catalog rows
+namespace {
+
+using E = Element;
+
+// Hazard statements (GHS wording paraphrased), facts.md 11.
+const char* const kH314 = "H314 causes severe skin burns and eye damage";
+const char* const kH290 = "H290 may be corrosive to metals";
+const char* const kH318 = "H318 causes serious eye damage";
+const char* const kH315 = "H315 causes skin irritation";
+const char* const kH335 = "H335 may cause respiratory irritation";
+const char* const kH319 = "H319 causes serious eye irritation";
+
+const char* const kEyesGloves = "wear eye protection and gloves (common practice)";
+const char* const kLabel = "label the stock with its name and concentration; keep away from children (common practice)";
+
+// Solubility tables cited in facts.md 6.
+const char* const kChemdatabase =
+    "Chemdatabase (chemister.ru), citing Comey & Hahn 1921 and Seidell";
+
+std::vector<Compound> build_catalog() {
+  std::vector<Compound> rows;
+
+  {  // ---- sodium bicarbonate: +1 eq TA, +1 DIC (facts.md 5)
+    Compound c{};
+    c.id = CompoundId::SodiumBicarbonate;
+    c.key = "sodium_bicarbonate";
+    c.name = "Sodium bicarbonate (baking soda)";
+    c.formula = "NaHCO3";
+    c.formula_unit = {{E::Na, 1}, {E::H, 1}, {E::C, 1}, {E::O, 3}};
+    c.per_mole.alkalinity_eq = 1;
+    c.per_mole.dic_mol = 1;
+    c.per_mole.sodium_mol = 1;
+    c.crystal_density_g_ml = 2.20;
+    c.solubility = {{0, 6.9}, {10, 8.2}, {20, 9.6}, {25, 10.4}, {30, 11.1}, {40, 12.7}, {60, 16.4}};
+    c.solubility_source = kChemdatabase;
+    c.hazard_source = "usually not classified under GHS (from memory: unverified)";
+    c.cautions = {kLabel};
+    c.note = "lowers pH slightly at the moment of dosing; the mildest alkalinity source per equivalent";
+    rows.push_back(c);
+  }
+  {  // ---- sodium carbonate: +2 eq TA, +1 DIC
+    Compound c{};
+    c.id = CompoundId::SodiumCarbonate;
+    c.key = "sodium_carbonate";
+    c.name = "Sodium carbonate (soda ash)";
+    c.formula = "Na2CO3";
+    c.formula_unit = {{E::Na, 2}, {E::C, 1}, {E::O, 3}};
+    c.per_mole.alkalinity_eq = 2;
+    c.per_mole.dic_mol = 1;
+    c.per_mole.sodium_mol = 2;
+    c.crystal_density_g_ml = 2.54;
+    c.solubility = {{0, 7.0},  {10, 12.2}, {20, 21.8}, {25, 29.4},
+                    {30, 39.7}, {40, 48.8}, {50, 47.3}, {60, 46.4}};
+    c.solubility_source = std::string(kChemdatabase) + "; maximum near 35.4 C";
+    c.solubility_note =
+        "the solid phase changes (decahydrate below about 32 C), so the curve is not monotonic; "
+        "linear interpolation between 30 and 40 C misses the maximum near 35.4 C";
+    c.signal_word = "Warning";
+    c.hazard_statements = {kH319};
+    c.hazard_source = "ILO ICSC 1135 (2024)";
+    c.cautions = {kEyesGloves,
+                  "its solution is a medium-strong base; it reacts violently with acids, giving heat and CO2 "
+                  "(ILO ICSC 1135)",
+                  "never mix acid and carbonate stocks in a closed container: CO2 pressure (common practice)",
+                  kLabel};
+    rows.push_back(c);
+  }
+  {  // ---- sodium carbonate made from baking soda by heating
+    Compound c = rows.back();
+    c.id = CompoundId::SodiumCarbonateFromBakedSoda;
+    c.key = "baked_baking_soda";
+    c.name = "Baking soda heated to constant mass (sodium carbonate)";
+    c.note =
+        "made by heating NaHCO3 until its mass stops falling: 2 NaHCO3 -> Na2CO3 + H2O + CO2, "
+        "mass x 0.6308 (loss 36.9 %); decomposition runs over about 87-177 C (Wu & Shih 1993); "
+        "weigh before and after, and heat again if the loss is short of 36.9 % (common practice)";
+    rows.push_back(c);
+  }
+  {  // ---- sodium hydroxide: +1 eq TA, 0 DIC
+    Compound c{};
+    c.id = CompoundId::SodiumHydroxide;
+    c.key = "sodium_hydroxide";
+    c.name = "Sodium hydroxide (lye)";
+    c.formula = "NaOH";
+    c.formula_unit = {{E::Na, 1}, {E::O, 1}, {E::H, 1}};
+    c.per_mole.alkalinity_eq = 1;
+    c.per_mole.sodium_mol = 1;
+    c.caustic = true;
+    c.crystal_density_g_ml = 2.13;
+    c.solubility = {{0, 42.0}, {25, 100.0}};
+    c.solubility_source = "from memory: unverified (about 42 g/100 g at 0 C and 100 g/100 g at 25 C)";
+    c.solubility_note =
+        "two remembered points only; the solution is dangerously corrosive long before it is saturated";
+    c.signal_word = "Danger";
+    c.hazard_statements = {kH314, kH290, kH318};
+    c.hazard_source = "EU CLP Annex VI (Skin Corr. 1A, H314); supplier SDS add H290 and H318";
+    c.cautions = {kEyesGloves,
+                  "add solid sodium hydroxide slowly to cold water, never water onto the solid: dissolving "
+                  "releases much heat",
+                  "store airtight: it absorbs CO2 from air and turns into carbonate, which lowers its strength",
+                  "solutions of 2 % or more are corrosive to skin and eyes (CLP bands, from memory: unverified)",
+                  kLabel};
+    rows.push_back(c);
+  }
+  {  // ---- calcium hydroxide: +2 eq TA, +1 Ca, 0 DIC
+    Compound c{};
+    c.id = CompoundId::CalciumHydroxide;
+    c.key = "calcium_hydroxide";
+    c.name = "Calcium hydroxide (slaked lime; limewater when dissolved)";
+    c.formula = "Ca(OH)2";
+    c.formula_unit = {{E::Ca, 1}, {E::O, 2}, {E::H, 2}};
+    c.per_mole.alkalinity_eq = 2;
+    c.per_mole.calcium_mol = 1;
+    c.caustic = true;
+    c.crystal_density_g_ml = 2.21;
+    // Secondary table (facts.md 6, unverified) scaled by 0.9457 so that 25 C matches Bates, Bower
+    // & Smith (1956): 0.0203 mol/kg water x 74.092 g/mol = 0.1504 g/100 g. The secondary table
+    // gives 0.159 at 25 C (midpoint of 0.165 and 0.153); scaling keeps its retrograde shape and
+    // takes the lower, published level, so limewater is never planned above saturation.
+    const double scale = 0.0203 * 74.092 / 10.0 / 0.159;
+    c.solubility = {{0, 0.185 * scale}, {10, 0.176 * scale}, {20, 0.165 * scale},
+                    {30, 0.153 * scale}, {40, 0.141 * scale}};
+    c.solubility_source =
+        "Bates, Bower & Smith 1956, J. Res. NBS 56:305 (25 C level); temperature shape from an "
+        "unsourced secondary table";
+    c.solubility_note = "retrograde (weaker when warmer); the temperature curve is approximate";
+    c.signal_word = "Danger";
+    c.hazard_statements = {kH315, kH318, kH335};
+    c.hazard_source = "EU supplier eSDS (REACH/CLP) and ECHA dossier";
+    c.cautions = {kEyesGloves,
+                  "saturated limewater has pH about 12.4 (Bates et al. 1956): drip it slowly where it mixes "
+                  "fast, never in one pour",
+                  "avoid breathing the powder (H335)",
+                  "keep limewater covered: it absorbs CO2 from air and loses strength as carbonate settles",
+                  kLabel};
+    rows.push_back(c);
+  }
+  // ---- calcium chloride, three hydration states: +1 Ca, +2 Cl
+  const struct {
+    CompoundId id;
+    const char* key;
+    const char* name;
+    const char* formula;
+    int waters;
+    double density;
+  } chlorides[] = {
+      {CompoundId::CalciumChlorideAnhydrous, "calcium_chloride", "Calcium chloride, anhydrous", "CaCl2", 0, 2.15},
+      {CompoundId::CalciumChlorideDihydrate, "calcium_chloride_dihydrate", "Calcium chloride dihydrate",
+       "CaCl2.2H2O", 2, 1.85},
+      {CompoundId::CalciumChlorideHexahydrate, "calcium_chloride_hexahydrate", "Calcium chloride hexahydrate",
+       "CaCl2.6H2O", 6, 1.71},
+  };
+  for (const auto& row : chlorides) {
+    Compound c{};
+    c.id = row.id;
+    c.key = row.key;
+    c.name = row.name;
+    c.formula = row.formula;
+    c.formula_unit = {{E::Ca, 1}, {E::Cl, 2}};
+    if (row.waters > 0) {
+      c.formula_unit.push_back({E::H, 2 * row.waters});
+      c.formula_unit.push_back({E::O, row.waters});
+    }
+    c.waters_of_hydration = row.waters;
+    c.per_mole.calcium_mol = 1;
+    c.per_mole.chloride_mol = 2;
+    c.crystal_density_g_ml = row.density;
+    c.solubility = {{20, 74.0}, {100, 159.0}};
+    c.solubility_source = "Great Soviet Encyclopedia, \"Calcium chloride\", anhydrous basis";
+    c.solubility_note =
+        "only two points (20 and 100 C): the straight line between them is thin data; the stable solid is "
+        "the hexahydrate up to 29.8 C; no hydrate-specific table was found";
+    c.signal_word = "Warning";
+    c.hazard_statements = {kH319};
+    c.hazard_source = "supplier SDS via a secondary infobox";
+    c.cautions = {kEyesGloves,
+                  row.waters == 0 ? "the anhydrous salt heats up strongly when dissolved; add it slowly"
+                                  : "dissolving the hydrate cools the solution slightly",
+                  kLabel};
+    rows.push_back(c);
+  }
+  {  // ---- magnesium chloride hexahydrate: +1 Mg, +2 Cl
+    Compound c{};
+    c.id = CompoundId::MagnesiumChlorideHexahydrate;
+    c.key = "magnesium_chloride_hexahydrate";
+    c.name = "Magnesium chloride hexahydrate";
+    c.formula = "MgCl2.6H2O";
+    c.formula_unit = {{E::Mg, 1}, {E::Cl, 2}, {E::H, 12}, {E::O, 6}};
+    c.waters_of_hydration = 6;
+    c.per_mole.magnesium_mol = 1;
+    c.per_mole.chloride_mol = 2;
+    c.crystal_density_g_ml = 1.57;
+    c.solubility = {{0, 52.9}, {10, 53.8}, {20, 54.8}, {25, 55.5}, {30, 56.0}, {40, 58.0}};
+    c.solubility_source = std::string(kChemdatabase) + ", anhydrous MgCl2 with MgCl2.6H2O as solid";
+    c.hazard_source = "usually not classified under GHS (from memory: unverified)";
+    c.cautions = {kLabel};
+    rows.push_back(c);
+  }
+  {  // ---- magnesium sulfate heptahydrate: +1 Mg, +1 SO4
+    Compound c{};
+    c.id = CompoundId::MagnesiumSulfateHeptahydrate;
+    c.key = "magnesium_sulfate_heptahydrate";
+    c.name = "Magnesium sulfate heptahydrate (Epsom salt)";
+    c.formula = "MgSO4.7H2O";
+    c.formula_unit = {{E::Mg, 1}, {E::S, 1}, {E::O, 11}, {E::H, 14}};
+    c.waters_of_hydration = 7;
+    c.per_mole.magnesium_mol = 1;
+    c.per_mole.sulfate_mol = 1;
+    c.crystal_density_g_ml = 1.68;
+    c.solubility = {{0, 22.0}, {10, 28.2}, {20, 33.7}, {30, 38.9}, {40, 44.5}};
+    c.solubility_source = "from memory: unverified (handbook-style table, anhydrous MgSO4 basis)";
+    c.solubility_note = "not in the project's checked facts; treat as approximate";
+    c.hazard_source = "usually not classified under GHS (from memory: unverified)";
+    c.cautions = {kLabel,
+                  "sulfate alone raises sulfate above natural seawater over time; many keepers mix it with "
+                  "magnesium chloride (common practice)"};
+    rows.push_back(c);
+  }
+  {  // ---- carbon dioxide: +1 DIC, 0 TA
+    Compound c{};
+    c.id = CompoundId::CarbonDioxide;
+    c.key = "carbon_dioxide";
+    c.name = "Carbon dioxide";
+    c.formula = "CO2";
+    c.formula_unit = {{E::C, 1}, {E::O, 2}};
+    c.phase = Phase::Gas;
+    c.per_mole.dic_mol = 1;
+    c.hazard_source = "gas under pressure in cylinders (from memory: unverified); OSHA limit 5000 ppm "
+                      "8-h TWA";
+    c.signal_word = "Warning";
+    c.hazard_statements = {"H280 contains gas under pressure; may explode if heated (from memory: unverified)"};
+    c.cautions = {"CO2 lowers pH and adds no alkalinity; in closed rooms it displaces air (common practice)"};
+    rows.push_back(c);
+  }
+  return rows;
+}
+
+std::string lower(std::string s) {
+  for (auto& ch : s) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+  return s;
+}
+
+}  // namespace
+
+double Compound::molar_mass_g_mol() const { return additives::molar_mass_g_mol(formula_unit); }
+
+double Compound::anhydrous_molar_mass_g_mol() const {
+  const double water = 2 * atomic_weight_iupac(Element::H) + atomic_weight_iupac(Element::O);
+  return molar_mass_g_mol() - waters_of_hydration * water;
+}
+
+// ================================================================ 4. Lookups
+const std::vector<Compound>& catalog() {
+  static const std::vector<Compound> rows = build_catalog();
+  return rows;
+}
+
+const Compound& compound(CompoundId id) {
+  const auto& rows = catalog();
+  const auto index = static_cast<std::size_t>(id);
+  assert(index < rows.size() && rows[index].id == id && "catalog rows must follow CompoundId order");
+  return rows[index];
+}
+
+Result<const Compound*> find_compound(const std::string& key_or_formula) {
+  const std::string wanted = lower(key_or_formula);
+  std::string keys;
+  for (const auto& c : catalog()) {
+    if (lower(c.key) == wanted || lower(c.formula) == wanted) return &c;
+    keys += (keys.empty() ? "" : ", ") + c.key;
+  }
+  return Error{"compound", fmt::format("compound \"{}\" is unknown; accepted: {}", key_or_formula, keys)};
+}
+
+// ================================================================ 5. Solubility
+Result<Solubility> solubility_at(const Compound& c, double temperature_c) {
+  if (c.solubility.empty()) {
+    return Error{"compound", fmt::format("{} has no solubility table (it cannot be made into a stock solution)",
+                                         c.key)};
+  }
+  const double lo = c.solubility.front().temperature_c;
+  const double hi = c.solubility.back().temperature_c;
+  if (auto s = check_range("temperature_c", temperature_c, lo, hi, "C"); !s) {
+    return Error{"temperature_c", s.error().message + " (solubility data for " + c.key + ")"};
+  }
+  Solubility out;
+  out.source = c.solubility_source;
+  out.note = c.solubility_note;
+  for (std::size_t i = 0; i + 1 < c.solubility.size(); ++i) {
+    const auto& a = c.solubility[i];
+    const auto& b = c.solubility[i + 1];
+    if (temperature_c <= b.temperature_c) {
+      const double f = (temperature_c - a.temperature_c) / (b.temperature_c - a.temperature_c);
+      out.g_anhydrous_per_100g_water =
+          a.g_anhydrous_per_100g_water + f * (b.g_anhydrous_per_100g_water - a.g_anhydrous_per_100g_water);
+      if (b.temperature_c - a.temperature_c > 10.0 && temperature_c > a.temperature_c &&
+          temperature_c < b.temperature_c) {
+        out.note += (out.note.empty() ? "" : "; ") +
+                    fmt::format("interpolated between data points {:g} C apart", b.temperature_c - a.temperature_c);
+      }
+      return out;
+    }
+  }
+  out.g_anhydrous_per_100g_water = c.solubility.back().g_anhydrous_per_100g_water;
+  return out;
+}
+
+// ================================================================ 6. Limewater
+// Saturated Ca(OH)2 per litre of solution. Molality from the calcium hydroxide row's solubility
+// (Bates et al. 1956 at 25 C, approximate temperature shape), converted per litre assuming a
+// litre of this dilute solution holds 1 kg of water: that over-states strength by at most 0.8 %
+// (water density 0.992 at 40 C), erring toward more alkalinity per mL, the safe side for pH and
+// Omega checks. Check value: 25 C -> 0.0203 mol/L, 40.6 meq/L, 814 mg Ca/L (facts.md 6).
+Result<LimewaterStrength> saturated_limewater(double temperature_c) {
+  const Compound& lime = compound(CompoundId::CalciumHydroxide);
+  auto sol = solubility_at(lime, temperature_c);
+  if (!sol) return sol.error();
+  LimewaterStrength out;
+  out.temperature_c = temperature_c;
+  out.calcium_hydroxide_mol_per_l = sol->g_anhydrous_per_100g_water * 10.0 / lime.molar_mass_g_mol();
+  out.alkalinity_meq_per_ml = 2.0 * out.calcium_hydroxide_mol_per_l;  // mol/L x 2 eq = meq/mL
+  out.calcium_mg_per_ml = out.calcium_hydroxide_mol_per_l * atomic_weight_iupac(Element::Ca);
+  out.source = lime.solubility_source;
+  return out;
+}
+
+// ================================================================ 7. Baked baking soda
+// 2 NaHCO3 -> Na2CO3 + H2O + CO2 (facts.md 6): M(Na2CO3) / (2 M(NaHCO3)) = 0.6308.
+double baked_soda_mass_ratio() {
+  return compound(CompoundId::SodiumCarbonate).molar_mass_g_mol() /
+         (2.0 * compound(CompoundId::SodiumBicarbonate).molar_mass_g_mol());
+}
+
+double sodium_carbonate_from_baked_soda_g(double sodium_bicarbonate_g) {
+  return sodium_bicarbonate_g * baked_soda_mass_ratio();
+}
+
+}  // namespace tw::additives

@@ -1,0 +1,130 @@
+// compute_constants: every equilibrium constant at the conditions, the pH-scale ratios, and
+// warnings where a formula is used outside its calibration range. The formulas live in
+// constants_formulas.cpp; the tables below map each option to its formula.
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "tidewright/carbonate/carbonate.hpp"
+
+namespace tw::carbonate {
+
+const char* to_string(K1K2Option option) {
+  switch (option) {
+    case K1K2Option::Lueker2000: return "lueker2000";
+    case K1K2Option::Millero2010: return "millero2010";
+  }
+  return "lueker2000";
+}
+const char* to_string(BoronOption option) {
+  switch (option) {
+    case BoronOption::Uppstrom1974: return "uppstrom1974";
+    case BoronOption::Lee2010: return "lee2010";
+  }
+  return "uppstrom1974";
+}
+const char* to_string(FluorideOption option) {
+  switch (option) {
+    case FluorideOption::PerezFraga1987: return "perezfraga1987";
+    case FluorideOption::DicksonRiley1979: return "dicksonriley1979";
+  }
+  return "perezfraga1987";
+}
+
+namespace {
+
+void warn_if_outside(const ValidityRange& range, double salinity, double temperature_c,
+                     std::vector<std::string>& warnings) {
+  if (!outside(range, salinity, temperature_c)) return;
+  warnings.push_back(fmt::format(
+      "salinity {:g} / temperature {:g} C is outside the calibration range of {} for {} "
+      "(S {:g} to {:g}, {:g} to {:g} C{}); values are extrapolated",
+      salinity, temperature_c, range.source, range.quantity, range.salinity_min,
+      range.salinity_max, range.temperature_min_c, range.temperature_max_c,
+      range.from_memory ? "; range from memory" : ""));
+}
+
+Status check_conditions(const Conditions& c) {
+  if (auto s = check_range("salinity", c.salinity, kSalinityMin, kSalinityMax, ""); !s) return s;
+  if (auto s = check_range("temperature_c", c.temperature_c, kTemperatureMinC, kTemperatureMaxC, "C");
+      !s)
+    return s;
+  if (c.calcium_umol_kg) {
+    if (auto s = check_range("calcium_umol_kg", *c.calcium_umol_kg, 0.0, kCalciumMaxUmolKg, "umol/kg");
+        !s)
+      return s;
+  }
+  if (auto s = check_range("phosphate_umol_kg", c.phosphate_umol_kg, 0.0, kNutrientMaxUmolKg, "umol/kg");
+      !s)
+    return s;
+  return check_range("silicate_umol_kg", c.silicate_umol_kg, 0.0, kNutrientMaxUmolKg, "umol/kg");
+}
+
+}  // namespace
+
+Result<Constants> compute_constants(const Conditions& conditions) {
+  if (auto ok = check_conditions(conditions); !ok) return ok.error();
+  const double s = conditions.salinity, tc = conditions.temperature_c, tk = tc + 273.15;
+  Constants k;
+  k.conditions = conditions;
+  k.totals = compute_totals(conditions);
+  auto& w = k.warnings;
+
+  k.k0 = std::exp(ln_k0_weiss1974(s, tk));
+  warn_if_outside(kRangeWeiss1974, s, tc, w);
+
+  // Bisulfate and fluoride first: they define the pH scales.
+  k.ks_free = std::exp(ln_ks_free_dickson1990(s, tk));
+  warn_if_outside(kRangeDickson1990S, s, tc, w);
+  k.free_to_total = 1.0 + k.totals.sulfate / k.ks_free;
+  switch (conditions.fluoride) {
+    case FluorideOption::PerezFraga1987:
+      k.kf = std::exp(ln_kf_total_perez_fraga1987(s, tk));
+      k.kf_free = k.kf / k.free_to_total;
+      warn_if_outside(kRangePerezFraga1987, s, tc, w);
+      break;
+    case FluorideOption::DicksonRiley1979:
+      k.kf_free = std::exp(ln_kf_free_dickson_riley1979(s, tk));
+      k.kf = k.kf_free * k.free_to_total;
+      warn_if_outside(kRangeDicksonRiley1979, s, tc, w);
+      break;
+  }
+  k.sws_to_total = k.free_to_total / (k.free_to_total + k.totals.fluoride / k.kf_free);
+  k.nbs_activity_coefficient = nbs_activity_coefficient_takahashi1982(s, tk);
+  warn_if_outside(kRangeTakahashi1982, s, tc, w);
+  k.ph_free_minus_total = std::log10(k.free_to_total);
+  k.ph_sws_minus_total = std::log10(k.sws_to_total);
+  k.ph_nbs_minus_total = k.ph_sws_minus_total - std::log10(k.nbs_activity_coefficient);
+
+  switch (conditions.k1k2) {
+    case K1K2Option::Lueker2000:
+      k.k1 = std::pow(10.0, -pk1_total_lueker2000(s, tk));
+      k.k2 = std::pow(10.0, -pk2_total_lueker2000(s, tk));
+      warn_if_outside(kRangeLueker2000, s, tc, w);
+      break;
+    case K1K2Option::Millero2010: {
+      const PkPair pk = k1_k2_sws_millero2010(s, tk);  // seawater scale -> total scale
+      k.k1 = std::pow(10.0, -pk.pk1) * k.sws_to_total;
+      k.k2 = std::pow(10.0, -pk.pk2) * k.sws_to_total;
+      warn_if_outside(kRangeMillero2010, s, tc, w);
+      break;
+    }
+  }
+
+  k.kb = std::exp(ln_kb_total_dickson1990(s, tk));
+  warn_if_outside(kRangeDickson1990B, s, tc, w);
+  k.kw = std::exp(ln_kw_total_millero1995(s, tk));
+  warn_if_outside(kRangeMillero1995W, s, tc, w);
+  k.k1p = std::exp(ln_k1p_total_millero1995(s, tk));
+  k.k2p = std::exp(ln_k2p_total_millero1995(s, tk));
+  k.k3p = std::exp(ln_k3p_total_millero1995(s, tk));
+  k.ksi = std::exp(ln_ksi_total_millero1995(s, tk));
+  if (k.totals.phosphate > 0 || k.totals.silicate > 0) warn_if_outside(kRangeMillero1995PSi, s, tc, w);
+  k.ksp_calcite = std::pow(10.0, log10_ksp_calcite_mucci1983(s, tk));
+  k.ksp_aragonite = std::pow(10.0, log10_ksp_aragonite_mucci1983(s, tk));
+  warn_if_outside(kRangeMucci1983, s, tc, w);
+  k.fco2_per_pco2 = fugacity_coefficient_co2_weiss1974(tk, 1.0);
+  return k;
+}
+
+}  // namespace tw::carbonate

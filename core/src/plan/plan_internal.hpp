@@ -1,0 +1,15 @@
+// Internal to the planner's .cpp files: input validation shared by make_plan and the exports.
+#pragma once
+
+#include "tidewright/plan/plan.hpp"
+
+namespace tw::plan::detail {
+
+// Every field of the input in range; errors name the field ("system.volume_l",
+// "deliveries[2].max_dose", ...) and the accepted range.
+Status validate_input(const PlanInput& input);
+
+// Minute of the day of slot j (0-based) of n doses spread evenly over first..last hour.
+int slot_minute(const Delivery& d, int j);
+
+}  // namespace tw::plan::detail

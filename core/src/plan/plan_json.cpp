@@ -1,0 +1,222 @@
+// Plan input as JSON (our own format) and the plan as JSON.
+//
+// Input format (every field optional unless marked; defaults as in plan.hpp):
+// { "system": {"name", "volume_l", "salinity", "temperature_c", "alkalinity_dkh", "calcium_mg_l",
+//              "magnesium_mg_l", "ph_total" (total scale; absent = air equilibrium), "air_co2_ppm"},
+//   "targets": {"alkalinity_dkh": {"target","low","high"}, "calcium_mg_l": {...}, "magnesium_mg_l": {...}},
+//   "demand": {"alkalinity_meq_per_day", "calcium_mg_per_day", "magnesium_mg_per_day"},
+//   "additives": [  (required, 1..16) each ONE of
+//       {"compound": "<catalog key>"}                      dry, dosed in g
+//       {"stock": {"name", "temperature_c", "ingredients": [{"compound", "grams_per_l"}]}}   mL
+//       {"limewater": {"temperature_c", "fraction_of_saturation"}}                           mL
+//       {"label": {"name", "parameter", "dose_ml", "tank_volume_l", "rise", "dic_per_alkalinity_eq", "caustic"}}
+//     plus delivery fields: "device", "manual", "doses_per_day", "min_dose", "max_dose",
+//     "max_per_day", "first_hour", "last_hour", "reservoir" ],
+//   "limits": {"<limit key>": value, ...}, "overrides": [{"limit", "value", "reason"}],
+//   "evaporation_l_per_day", "horizon_days", "gas_exchange_hours", "salinity_tolerance", "start_date" }
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include "tidewright/plan/plan.hpp"
+
+namespace tw::plan {
+
+namespace {
+using nlohmann::json;
+
+Status read_number(const json& j, const char* key, const std::string& where, double& out) {
+  if (!j.contains(key)) return Ok{};
+  if (!j[key].is_number()) return Error{where + key, where + key + " must be a number"};
+  out = j[key].get<double>();
+  return Ok{};
+}
+Status read_int(const json& j, const char* key, const std::string& where, int& out) {
+  if (!j.contains(key)) return Ok{};
+  if (!j[key].is_number_integer()) return Error{where + key, where + key + " must be a whole number"};
+  out = j[key].get<int>();
+  return Ok{};
+}
+#define TW_TRY(expr)              \
+  do {                            \
+    auto tw_s_ = (expr);          \
+    if (!tw_s_) return tw_s_.error(); \
+  } while (0)
+
+Result<additives::Additive> read_additive(const json& a, const std::string& f) {
+  namespace ad = additives;
+  if (a.contains("compound") && a["compound"].is_string()) {
+    auto c = ad::find_compound(a["compound"].get<std::string>());
+    if (!c) return Error{f + "compound", c.error().message};
+    return ad::additive_from_compound((*c)->id);
+  }
+  if (a.contains("stock") && a["stock"].is_object()) {
+    const json& s = a["stock"];
+    ad::StockRecipe r;
+    r.name = s.value("name", std::string("stock"));
+    TW_TRY(read_number(s, "temperature_c", f + "stock.", r.temperature_c));
+    if (!s.contains("ingredients") || !s["ingredients"].is_array()) {
+      return Error{f + "stock.ingredients", f + "stock.ingredients must be a list of {compound, grams_per_l}"};
+    }
+    for (const auto& g : s["ingredients"]) {
+      auto c = ad::find_compound(g.value("compound", std::string()));
+      if (!c) return Error{f + "stock.ingredients", c.error().message};
+      ad::Ingredient ing{(*c)->id, 0};
+      TW_TRY(read_number(g, "grams_per_l", f + "stock.ingredients.", ing.grams_per_l));
+      r.ingredients.push_back(ing);
+    }
+    auto out = ad::additive_from_stock(r);
+    if (!out) return Error{f + "stock." + out.error().field, out.error().message};
+    return out;
+  }
+  if (a.contains("limewater") && a["limewater"].is_object()) {
+    double t = 25, frac = 1;
+    TW_TRY(read_number(a["limewater"], "temperature_c", f + "limewater.", t));
+    TW_TRY(read_number(a["limewater"], "fraction_of_saturation", f + "limewater.", frac));
+    auto out = ad::limewater_additive(t, frac);
+    if (!out) return Error{f + "limewater." + out.error().field, out.error().message};
+    return out;
+  }
+  if (a.contains("label") && a["label"].is_object()) {
+    const json& l = a["label"];
+    ad::LabelClaim c;
+    c.name = l.value("name", std::string("product"));
+    auto p = ad::parameter_from_string(l.value("parameter", std::string("alkalinity")));
+    if (!p) return Error{f + "label.parameter", p.error().message};
+    c.parameter = *p;
+    TW_TRY(read_number(l, "dose_ml", f + "label.", c.dose_ml));
+    TW_TRY(read_number(l, "tank_volume_l", f + "label.", c.tank_volume_l));
+    TW_TRY(read_number(l, "rise", f + "label.", c.rise));
+    TW_TRY(read_number(l, "dic_per_alkalinity_eq", f + "label.", c.dic_per_alkalinity_eq));
+    c.caustic = l.value("caustic", false);
+    auto out = ad::additive_from_label(c);
+    if (!out) return Error{f + "label." + out.error().field, out.error().message};
+    return out;
+  }
+  return Error{f.substr(0, f.size() - 1), f + " needs one of: compound, stock, limewater, label"};
+}
+
+Status read_band(const json& t, const char* key, Band& b) {
+  if (!t.contains(key)) return Ok{};
+  const std::string w = std::string("targets.") + key + ".";
+  TW_TRY(read_number(t[key], "target", w, b.target));
+  TW_TRY(read_number(t[key], "low", w, b.low));
+  TW_TRY(read_number(t[key], "high", w, b.high));
+  return Ok{};
+}
+}  // namespace
+
+Result<PlanInput> plan_input_from_json(const std::string& text) {
+  json j = json::parse(text, nullptr, false);
+  if (j.is_discarded() || !j.is_object()) return Error{"plan", "the plan input is not a JSON object"};
+  PlanInput in;
+  if (j.contains("system")) {
+    const json& s = j["system"];
+    in.system.name = s.value("name", in.system.name);
+    TW_TRY(read_number(s, "volume_l", "system.", in.system.volume_l));
+    TW_TRY(read_number(s, "salinity", "system.", in.system.salinity));
+    TW_TRY(read_number(s, "temperature_c", "system.", in.system.temperature_c));
+    TW_TRY(read_number(s, "alkalinity_dkh", "system.", in.system.alkalinity_dkh));
+    TW_TRY(read_number(s, "calcium_mg_l", "system.", in.system.calcium_mg_l));
+    TW_TRY(read_number(s, "magnesium_mg_l", "system.", in.system.magnesium_mg_l));
+    TW_TRY(read_number(s, "air_co2_ppm", "system.", in.system.air_co2_ppm));
+    if (s.contains("ph_total")) {
+      double ph = 0;
+      TW_TRY(read_number(s, "ph_total", "system.", ph));
+      in.system.ph_total = ph;
+    }
+  }
+  if (j.contains("targets")) {
+    TW_TRY(read_band(j["targets"], "alkalinity_dkh", in.targets.alkalinity_dkh));
+    TW_TRY(read_band(j["targets"], "calcium_mg_l", in.targets.calcium_mg_l));
+    TW_TRY(read_band(j["targets"], "magnesium_mg_l", in.targets.magnesium_mg_l));
+  }
+  if (j.contains("demand")) {
+    TW_TRY(read_number(j["demand"], "alkalinity_meq_per_day", "demand.", in.demand.alkalinity_meq_per_day));
+    TW_TRY(read_number(j["demand"], "calcium_mg_per_day", "demand.", in.demand.calcium_mg_per_day));
+    TW_TRY(read_number(j["demand"], "magnesium_mg_per_day", "demand.", in.demand.magnesium_mg_per_day));
+  }
+  if (!j.contains("additives") || !j["additives"].is_array()) {
+    return Error{"additives", "additives must be a list of 1 to 16 additives"};
+  }
+  for (std::size_t i = 0; i < j["additives"].size(); ++i) {
+    const json& a = j["additives"][i];
+    const std::string f = fmt::format("additives[{}].", i);
+    auto add = read_additive(a, f);
+    if (!add) return add.error();
+    Delivery d;
+    d.additive = *add;
+    d.device = a.value("device", std::string(d.additive.unit == additives::DoseUnit::Gram ? "hand" : "pump"));
+    d.manual = a.value("manual", d.device == "hand");
+    TW_TRY(read_int(a, "doses_per_day", f, d.doses_per_day));
+    TW_TRY(read_number(a, "min_dose", f, d.min_dose));
+    TW_TRY(read_number(a, "max_dose", f, d.max_dose));
+    TW_TRY(read_number(a, "max_per_day", f, d.max_per_day));
+    TW_TRY(read_int(a, "first_hour", f, d.first_hour));
+    TW_TRY(read_int(a, "last_hour", f, d.last_hour));
+    TW_TRY(read_number(a, "reservoir", f, d.reservoir));
+    in.deliveries.push_back(d);
+  }
+  std::vector<LimitSetting> settings;
+  if (j.contains("limits") && j["limits"].is_object()) {
+    for (auto it = j["limits"].begin(); it != j["limits"].end(); ++it) {
+      auto id = limit_from_key(it.key());
+      if (!id) return id.error();
+      if (!it.value().is_number()) return Error{"limits." + it.key(), "limits." + it.key() + " must be a number"};
+      settings.push_back({*id, it.value().get<double>(), false, ""});
+    }
+  }
+  if (j.contains("overrides") && j["overrides"].is_array()) {
+    for (const auto& o : j["overrides"]) {
+      auto id = limit_from_key(o.value("limit", std::string()));
+      if (!id) return id.error();
+      settings.push_back({*id, o.value("value", 0.0), true, o.value("reason", std::string())});
+    }
+  }
+  auto limits = make_limits(settings);
+  if (!limits) return limits.error();
+  in.limits = *limits;
+  TW_TRY(read_number(j, "evaporation_l_per_day", "", in.evaporation_l_per_day));
+  TW_TRY(read_int(j, "horizon_days", "", in.horizon_days));
+  TW_TRY(read_number(j, "gas_exchange_hours", "", in.gas_exchange_hours));
+  TW_TRY(read_number(j, "salinity_tolerance", "", in.salinity_tolerance));
+  in.start_date = j.value("start_date", in.start_date);
+  return in;
+}
+
+std::string plan_to_json(const PlanInput& in, const Plan& plan) {
+  json j;
+  j["system"] = in.system.name;
+  j["ph_scale"] = plan.ph_scale;
+  auto ws = [](const WaterState& w) {
+    return json{{"alkalinity_dkh", w.alkalinity_dkh}, {"calcium_mg_l", w.calcium_mg_l},
+                {"magnesium_mg_l", w.magnesium_mg_l}, {"ph_total", w.ph_total},
+                {"omega_aragonite", w.omega_aragonite}, {"dic_umol_kg", w.dic_umol_kg}};
+  };
+  json limits = json::object();
+  for (const auto& s : limit_specs()) {
+    limits[s.key] = {{"value", plan.limits.get(s.id)}, {"default", s.default_value}, {"unit", s.unit},
+                     {"source", s.source}};
+  }
+  j["limits"] = limits;
+  j["limit_record"] = plan.limits.record;
+  j["doses"] = json::array();
+  for (const auto& d : plan.doses) {
+    j["doses"].push_back({{"day", d.day}, {"minute", d.minute}, {"additive", in.deliveries[d.delivery].additive.name},
+                          {"amount", d.amount}, {"unit", additives::to_string(in.deliveries[d.delivery].additive.unit)},
+                          {"capped_by", d.cap}, {"after", ws(d.after)}, {"before_next", ws(d.before_next)}});
+  }
+  j["days"] = json::array();
+  for (const auto& d : plan.days) j["days"].push_back({{"day", d.day}, {"start", ws(d.start)}, {"end", ws(d.end)},
+                                                         {"amount_per_additive", d.amount_per_delivery}});
+  const char* names[] = {"alkalinity", "calcium", "magnesium"};
+  for (std::size_t p = 0; p < 3; ++p) {
+    j["target_day"][names[p]] = plan.target_day[p] ? json(*plan.target_day[p]) : json(nullptr);
+  }
+  j["salinity_drift"] = {{"per_day", plan.salinity.per_day}, {"over_horizon", plan.salinity.over_horizon},
+                         {"water_change_percent_per_week", plan.salinity.water_change_percent_per_week}};
+  j["findings"] = plan.findings;
+  j["cautions"] = plan.cautions;
+  return j.dump(2) + "\n";
+}
+
+}  // namespace tw::plan

@@ -1,0 +1,75 @@
+// Plan text in and out: JSON plan input (fields and errors), CSV rows (RFC 4180), iCalendar
+// line folding and alarms, plain text naming the pH scale and the limit sources.
+#include <doctest/doctest.h>
+
+#include <string>
+
+#include "tidewright/common/csv.hpp"
+#include "tidewright/plan/plan.hpp"
+
+using namespace tw::plan;
+
+namespace {
+const char* kInput = R"({
+  "system": {"name": "Test, tank", "volume_l": 200, "alkalinity_dkh": 7.5, "calcium_mg_l": 410},
+  "demand": {"alkalinity_meq_per_day": 40, "calcium_mg_per_day": 800},
+  "additives": [
+    {"stock": {"name": "alk", "ingredients": [{"compound": "sodium_carbonate", "grams_per_l": 100}]},
+     "doses_per_day": 4, "max_dose": 30},
+    {"compound": "calcium_chloride_dihydrate", "device": "hand", "doses_per_day": 1, "max_dose": 20}
+  ],
+  "limits": {"alkalinity_rise_dkh_per_day": 0.5},
+  "horizon_days": 3
+})";
+}
+
+TEST_CASE("plan: JSON input reads fields, limits and additives; errors name the field") {
+  auto in = plan_input_from_json(kInput);
+  REQUIRE(in.ok());
+  CHECK(in->system.volume_l == 200);
+  CHECK(in->deliveries.size() == 2);
+  CHECK(in->deliveries[1].manual);  // hand doses get reminders
+  CHECK(in->limits.get(LimitId::AlkalinityRisePerDay) == 0.5);
+  auto bad = plan_input_from_json(R"({"additives": [{"compound": "unobtainium"}]})");
+  REQUIRE(!bad.ok());
+  CHECK(bad.error().field == "additives[0].compound");
+  auto over = plan_input_from_json(R"({"additives": [{"compound": "sodium_carbonate"}], "limits": {"omega_aragonite_after_dose": 9}})");
+  REQUIRE(!over.ok());
+  CHECK(over.error().field == "limits.omega_aragonite_after_dose");
+  CHECK_FALSE(plan_input_from_json("not json").ok());
+}
+
+TEST_CASE("plan: CSV, iCalendar and text exports") {
+  auto in = plan_input_from_json(kInput);
+  REQUIRE(in.ok());
+  auto plan = make_plan(*in);
+  REQUIRE(plan.ok());
+  auto rows = tw::csv::parse(plan_to_csv(*in, *plan));
+  REQUIRE(rows.ok());
+  CHECK(rows->size() == plan->doses.size() + 1);
+  CHECK(rows->front().cells.front() == "day");
+  auto ics = plan_to_icalendar(*in, *plan, "20261201T120000Z");
+  REQUIRE(ics.ok());
+  std::size_t pos = 0, events = 0, alarms = 0, longest = 0;
+  while (pos < ics->size()) {
+    const std::size_t end = ics->find("\r\n", pos);
+    REQUIRE(end != std::string::npos);  // every line ends in CRLF
+    const std::string line = ics->substr(pos, end - pos);
+    longest = std::max(longest, line.size());
+    events += line == "BEGIN:VEVENT";
+    alarms += line == "BEGIN:VALARM";
+    pos = end + 2;
+  }
+  CHECK(longest <= 75);
+  CHECK(events == plan->doses.size());
+  std::size_t hand = 0;
+  for (const auto& d : plan->doses) hand += in->deliveries[d.delivery].manual ? 1 : 0;
+  CHECK(alarms == hand);
+  CHECK(ics->find("Test\\, tank") != std::string::npos);  // TEXT escaping (RFC 5545 3.3.11)
+  CHECK_FALSE(plan_to_icalendar(*in, *plan, "now").ok());
+  const std::string text = plan_to_text(*in, *plan);
+  CHECK(text.find("TOTAL scale") != std::string::npos);
+  CHECK(text.find("Moras") != std::string::npos);
+  const std::string json = plan_to_json(*in, *plan);
+  CHECK(json.find("\"ph_scale\": \"total\"") != std::string::npos);
+}
