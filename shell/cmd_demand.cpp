@@ -14,6 +14,7 @@
 
 #include "commands.hpp"
 #include "file_io.hpp"
+#include "journal_access.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/estimate/estimate.hpp"
 #include "tidewright/journal/journal.hpp"
@@ -33,25 +34,10 @@ struct DemandOptions {
   bool history = false;
 };
 
-std::vector<const journal::System*> pick_systems(const journal::Journal& j, const std::string& key) {
-  std::vector<const journal::System*> out;
-  if (key.empty()) {
-    for (const auto& s : j.systems) out.push_back(&s);
-    return out;
-  }
-  if (const journal::System* s = journal::find_system_by_name(j, key)) return {s};
-  try {
-    std::size_t used = 0;
-    const long long id = std::stoll(key, &used);
-    if (used == key.size()) {
-      if (const journal::System* s = journal::find_system(j, id)) return {s};
-    }
-  } catch (const std::exception&) {
-  }
-  std::string names;
-  for (const auto& s : j.systems) names += fmt::format("{}'{}' (id {})", names.empty() ? "" : ", ", s.name, s.id);
-  throw CommandError(fmt::format("--system '{}': no system of that name or id; the journal has: {}",
-                                 key, names.empty() ? "no systems" : names));
+// The systems to estimate: the one named by --system, or every system.
+std::vector<journal::System> pick_systems(const store::JournalStore& st, const std::string& key) {
+  if (key.empty()) return st.systems();
+  return {system_or_fail(st, key)};
 }
 
 std::string when(double time_days) {
@@ -69,7 +55,7 @@ struct ParamResult {
 };
 
 struct SystemResult {
-  const journal::System* system;
+  std::shared_ptr<const journal::System> system;
   est::SystemSeries series;
   double now_days = 0.0;
   std::vector<ParamResult> params;
@@ -79,7 +65,7 @@ struct SystemResult {
 SystemResult compute(const journal::Journal& j, const journal::System& sys, const DemandOptions& o) {
   auto series = est::series_from_journal(j, sys.id);
   if (!series) throw CommandError(series.error().message);
-  SystemResult r{&sys, std::move(series).value(), 0.0, {}, {}};
+  SystemResult r{std::make_shared<const journal::System>(sys), std::move(series).value(), 0.0, {}, {}};
   bool any = false;
   for (est::Parameter p : est::kAllParameters) {
     const auto& ev = r.series.of(p).events;
@@ -238,11 +224,15 @@ void run(const DemandOptions& o) {
     throw CommandError(fmt::format("--days {} is outside the accepted range 1 to 365", o.days));
   if (!(o.dose_window_days >= 1.0 && o.dose_window_days <= 90.0))
     throw CommandError(fmt::format("--dose-window {:g} is outside the accepted range 1 to 90 days", o.dose_window_days));
-  auto parsed = journal::parse_journal(read_text_file(o.journal_path, "--journal"));
-  if (!parsed) throw CommandError(fmt::format("--journal '{}': {}", o.journal_path, parsed.error().message));
-  const journal::Journal& j = *parsed;
+  // One system's events at a time from the journal database (core/store): memory follows
+  // the largest system, not the whole journal.
+  auto st = open_journal_or_fail(o.journal_path, store::Access::Read);
   std::vector<SystemResult> results;
-  for (const journal::System* s : pick_systems(j, o.system)) results.push_back(compute(j, *s, o));
+  for (const journal::System& s : pick_systems(*st, o.system)) {
+    auto j = st->system_journal(s.id);
+    if (!j) throw CommandError(j.error().message);
+    results.push_back(compute(*j, j->systems.front(), o));
+  }
   if (o.json) {
     nlohmann::json out{{"systems", nlohmann::json::array()}};
     for (const auto& r : results) out["systems"].push_back(system_json(r));
@@ -262,7 +252,7 @@ void register_demand(CLI::App& app) {
   CLI::App* cmd = app.add_subcommand(
       "demand", "Daily demand of alkalinity, calcium and magnesium per system from the journal, with "
                 "uncertainty, outliers, the Ca:alkalinity reading and a forecast");
-  cmd->add_option("--journal", o->journal_path, "Journal file (tidewright-journal JSON)")->required();
+  cmd->add_option("--journal", o->journal_path, "Journal: a database FILE.db or a JSON journal (see tidewright log --help)")->required();
   cmd->add_option("--system", o->system, "Only this system (name or id); default: every system");
   cmd->add_option("--days", o->days, "Days to forecast, 1 to 365 (default 7)");
   cmd->add_option("--dose-window", o->dose_window_days,

@@ -1,10 +1,14 @@
 // `tidewright log`: the tank journal from the command line.
-//   log add system|test|dose|water-change|top-off|note ...   log import FILE
-//   log export [--format csv|json]   log list [filters]   log systems   log remove --id N
-// Every change loads the journal, applies one validated core call and saves atomically
-// (shell/file_io). A refused change prints one line naming the field and the accepted range,
-// exits non-zero and leaves the file exactly as it was. A damaged file is never overwritten.
+//   log add system|test|dose|water-change|top-off|note ...   log import FILE (CSV or JSON)
+//   log export [--format csv|json]   log list [filters] [--last N]   log systems
+//   log remove --id N   log backup FILE   log restore FILE   log check
+// The journal is a database (core/store, SQLite; --journal rules in journal_location.hpp).
+// Every change is one transaction validated by the core: a refused change prints one line
+// naming the field and the accepted range, exits non-zero and changes nothing. Reads stream
+// from the database: nothing loads the whole journal.
+#include <algorithm>
 #include <cstdio>
+#include <fstream>
 #include <ctime>
 #include <iostream>
 #include <memory>
@@ -15,12 +19,14 @@
 
 #include "commands.hpp"
 #include "file_io.hpp"
+#include "journal_access.hpp"
 #include "log_format.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/journal/journal_csv.hpp"
 #include "tidewright/journal/journal_file.hpp"
+#include "tidewright/store/journal_store.hpp"
 
 namespace tw::shell {
 namespace {
@@ -28,7 +34,7 @@ namespace {
 using namespace tw::journal;
 
 struct LogOptions {
-  std::string journal = "tidewright-journal.json";
+  std::string journal = "tidewright-journal.db";
   bool json = false;
   // shared by add subcommands
   std::string system, time, date_order;
@@ -52,6 +58,7 @@ struct LogOptions {
   // import / export / list / remove
   std::string file, format = "csv", output = "-", from, to;
   std::int64_t id = 0;
+  std::int64_t last = 0;
 };
 
 template <class T>
@@ -60,25 +67,22 @@ T or_fail(Result<T> r) {
   return std::move(r).value();
 }
 
-Journal load(const std::string& path, bool must_exist) {
-  if (!file_exists(path)) {
-    if (must_exist) {
-      throw CommandError("journal " + path + " does not exist (create it with `tidewright log add system`)");
-    }
-    return Journal{};
-  }
-  const std::string text = read_text_file(path, "--journal");
-  auto j = parse_journal(text);
-  if (!j) {
-    const bool newer = j.error().field == "schema_version";
-    throw CommandError(path + ": " + j.error().message + " (the file was not changed" +
-                       (newer ? ")" : "; fix it or restore " + path + ".bak)"));
-  }
-  return std::move(j).value();
+using Store = store::JournalStore;
+using store::Access;
+
+std::unique_ptr<Store> open_for(const LogOptions& o, Access access) { return open_journal_or_fail(o.journal, access); }
+
+template <class T>
+T stored_or_fail(Result<T> r) {
+  if (!r) throw CommandError(r.error().message + " (nothing was changed)");
+  return std::move(r).value();
 }
 
-void save(const std::string& path, const Journal& j) {
-  write_text_file_atomic(path, serialize_journal(j), true);
+// A journal holding every system (few) and no events: what describe_event_line needs.
+Journal systems_only(const Store& st) {
+  Journal j;
+  j.systems = st.systems();
+  return j;
 }
 
 datetime::ParseOptions time_options(const LogOptions& o) {
@@ -97,23 +101,6 @@ std::pair<std::int64_t, std::string> event_time(const LogOptions& o) {
   return {t, o.time};
 }
 
-const System& system_arg(const Journal& j, const std::string& text) {
-  if (text.empty()) {
-    if (j.systems.size() == 1) return j.systems[0];
-    throw CommandError(fmt::format("--system is needed: the journal has {} systems", j.systems.size()));
-  }
-  if (const System* s = find_system_by_name(j, text)) return *s;
-  try {
-    size_t used = 0;
-    const long long id = std::stoll(text, &used);
-    if (used == text.size()) {
-      if (const System* s = find_system(j, id)) return *s;
-    }
-  } catch (const std::exception&) {
-  }
-  throw CommandError("--system '" + text + "' is not a system of this journal (see `tidewright log systems`)");
-}
-
 double to_litres(double v, const std::string& unit_text, units::VolumeUnit fallback) {
   const units::VolumeUnit u = unit_text.empty() ? fallback : or_fail(units::volume_unit_from_string(unit_text));
   return units::volume_to_litres(v, u);
@@ -123,19 +110,20 @@ void print_cautions(const std::vector<std::string>& cautions) {
   for (const auto& c : cautions) std::fprintf(stderr, "caution: %s\n", c.c_str());
 }
 
-void add_event_and_save(const LogOptions& o, Journal& j, Event e) {
-  const EventId id = or_fail(add_event(j, std::move(e)));
-  save(o.journal, j);
-  const Event& added = *find_event(j, id);
+void add_event_and_report(const LogOptions& o, Store& st, const System& sys, Event e) {
+  const EventId id = stored_or_fail(st.add_event(e));
+  const Event added = *st.event(id);
   if (o.json) {
     std::cout << nlohmann::json{{"added", id}, {"event", event_to_json(added)}}.dump(2) << "\n";
   } else {
-    std::cout << "added " << describe_event_line(j, added) << "\n";
+    Journal one;
+    one.systems = {sys};
+    std::cout << "added " << describe_event_line(one, added) << "\n";
   }
 }
 
 void run_add_system(const LogOptions& o) {
-  Journal j = load(o.journal, false);
+  auto st = open_for(o, Access::WriteOrCreate);
   System s;
   s.name = o.name;
   s.kind = or_fail(system_kind_from_string(o.kind));
@@ -163,18 +151,18 @@ void run_add_system(const LogOptions& o) {
                                   : *o.temperature;
   }
   s.targets = Targets{o.target_alk, o.target_ca, o.target_mg};
-  const SystemId id = or_fail(add_system(j, s));
-  save(o.journal, j);
+  const SystemId id = stored_or_fail(st->add_system(s));
+  const System added = *st->system(id);
   if (o.json) {
-    std::cout << nlohmann::json{{"added", id}, {"system", system_to_json(*find_system(j, id))}}.dump(2) << "\n";
+    std::cout << nlohmann::json{{"added", id}, {"system", system_to_json(added)}}.dump(2) << "\n";
   } else {
-    std::cout << "added system " << id << ": " << describe_system_line(*find_system(j, id)) << "\n";
+    std::cout << "added system " << id << ": " << describe_system_line(added) << "\n";
   }
 }
 
 void run_add_test(const LogOptions& o) {
-  Journal j = load(o.journal, true);
-  const System& sys = system_arg(j, o.system);
+  auto st = open_for(o, Access::Write);
+  const System sys = system_or_fail(*st, o.system);
   TestResult t;
   t.parameter = or_fail(parameter_from_string(o.parameter));
   t.other_name = o.other_name;
@@ -195,12 +183,12 @@ void run_add_test(const LogOptions& o) {
   }
   t.kit = o.kit;
   auto [time_s, text] = event_time(o);
-  add_event_and_save(o, j, Event{0, sys.id, time_s, text, t});
+  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, t});
 }
 
 void run_add_dose(const LogOptions& o) {
-  Journal j = load(o.journal, true);
-  const System& sys = system_arg(j, o.system);
+  auto st = open_for(o, Access::Write);
+  const System sys = system_or_fail(*st, o.system);
   if (!o.amount) throw CommandError("--amount is needed");
   Dose d{o.additive, *o.amount, or_fail(dose_unit_from_string(o.amount_unit)), o.stock_g_per_l};
   auto compound = additives::find_compound(o.additive);
@@ -211,22 +199,22 @@ void run_add_dose(const LogOptions& o) {
     print_cautions(additives::cautions_for(additives::additive_from_compound((*compound)->id)));
   }
   auto [time_s, text] = event_time(o);
-  add_event_and_save(o, j, Event{0, sys.id, time_s, text, d});
+  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, d});
 }
 
 void run_add_water_change(const LogOptions& o) {
-  Journal j = load(o.journal, true);
-  const System& sys = system_arg(j, o.system);
+  auto st = open_for(o, Access::Write);
+  const System sys = system_or_fail(*st, o.system);
   if (!o.volume) throw CommandError("--volume is needed");
   WaterChange w{to_litres(*o.volume, o.volume_unit, sys.units.volume), o.new_alk, o.new_ca,
                 o.new_mg, o.new_salinity};
   auto [time_s, text] = event_time(o);
-  add_event_and_save(o, j, Event{0, sys.id, time_s, text, w});
+  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, w});
 }
 
 void run_add_top_off(const LogOptions& o) {
-  Journal j = load(o.journal, true);
-  const System& sys = system_arg(j, o.system);
+  auto st = open_for(o, Access::Write);
+  const System sys = system_or_fail(*st, o.system);
   if (!o.volume) throw CommandError("--volume is needed");
   TopOff t{to_litres(*o.volume, o.volume_unit, sys.units.volume),
            or_fail(top_off_kind_from_string(o.top_off_kind)), o.limewater_g_per_l};
@@ -235,19 +223,19 @@ void run_add_top_off(const LogOptions& o) {
     if (lw) print_cautions(additives::cautions_for(*lw));
   }
   auto [time_s, text] = event_time(o);
-  add_event_and_save(o, j, Event{0, sys.id, time_s, text, t});
+  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, t});
 }
 
 void run_add_note(const LogOptions& o) {
-  Journal j = load(o.journal, true);
-  const System& sys = system_arg(j, o.system);
+  auto st = open_for(o, Access::Write);
+  const System sys = system_or_fail(*st, o.system);
   auto [time_s, text] = event_time(o);
-  add_event_and_save(o, j, Event{0, sys.id, time_s, text, Note{o.text}});
+  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, Note{o.text}});
 }
 
-EventFilter filter_from(const LogOptions& o, const Journal& j) {
+EventFilter filter_from(const LogOptions& o, const Store& st) {
   EventFilter f;
-  if (!o.system.empty()) f.system_id = system_arg(j, o.system).id;
+  if (!o.system.empty()) f.system_id = system_or_fail(st, o.system).id;
   if (!o.parameter.empty()) f.parameter = or_fail(parameter_from_string(o.parameter));
   if (!o.from.empty()) f.from_s = or_fail(datetime::parse_datetime(o.from, time_options(o)));
   if (!o.to.empty()) {
@@ -258,27 +246,55 @@ EventFilter filter_from(const LogOptions& o, const Journal& j) {
   return f;
 }
 
-void run_import(const LogOptions& o) {
-  Journal j = load(o.journal, true);
-  CsvImportOptions opt;
-  opt.time = time_options(o);
-  if (!o.system.empty()) opt.default_system = system_arg(j, o.system).id;
-  const std::string text = read_text_file(o.file);
-  const CsvImportReport rep = or_fail(import_csv(j, text, opt));
-  if (!rep.added.empty()) save(o.journal, j);
+bool looks_like_json(const std::string& path) {
+  if (path.size() >= 5 && path.compare(path.size() - 5, 5, ".json") == 0) return true;
+  std::ifstream in(path);
+  char c = 0;
+  while (in.get(c) && std::isspace(static_cast<unsigned char>(c))) {
+  }
+  return c == '{';
+}
+
+void print_import_report(const LogOptions& o, const Store::ImportReport& rep) {
   if (o.json) {
     nlohmann::json rej = nlohmann::json::array();
     for (const auto& r : rep.rejected) rej.push_back({{"line", r.line}, {"field", r.field}, {"reason", r.reason}});
-    std::cout << nlohmann::json{{"added", rep.added.size()},
+    std::cout << nlohmann::json{{"added", rep.events_added},
+                                {"systems_added", rep.systems_added},
                                 {"duplicates_skipped", rep.duplicates_skipped},
                                 {"rejected", rej}}.dump(2) << "\n";
   } else {
-    std::cout << fmt::format("imported {} events, skipped {} duplicates, rejected {} rows\n",
-                             rep.added.size(), rep.duplicates_skipped, rep.rejected.size());
-    for (const auto& r : rep.rejected) {
-      std::cerr << fmt::format("{}: line {}: {}\n", o.file, r.line, r.reason);
-    }
+    std::cout << fmt::format("imported {} events{}, skipped {} duplicates, rejected {} rows\n", rep.events_added,
+                             rep.systems_added ? fmt::format(" and {} systems", rep.systems_added) : "",
+                             rep.duplicates_skipped, rep.rejected.size());
+    for (const auto& r : rep.rejected) std::cerr << fmt::format("{}: line {}: {}\n", o.file, r.line, r.reason);
   }
+}
+
+// CSV rows (streamed, one transaction: the accepted rows together, every refused row
+// reported), or a whole JSON journal (an export or backup) merged in, all or nothing.
+void run_import(const LogOptions& o) {
+  const bool json_file = o.file != "-" && looks_like_json(o.file);
+  auto st = open_for(o, json_file ? Access::WriteOrCreate : Access::Write);
+  Store::ImportReport rep;
+  if (json_file) {
+    auto j = parse_journal(read_text_file(o.file));
+    if (!j) throw CommandError(o.file + ": " + j.error().message + " (nothing was imported)");
+    rep = stored_or_fail(st->import_journal(*j));
+  } else {
+    CsvImportOptions opt;
+    opt.time = time_options(o);
+    if (!o.system.empty()) opt.default_system = system_or_fail(*st, o.system).id;
+    std::ifstream file;
+    if (o.file != "-") {
+      file.open(o.file, std::ios::binary);
+      if (!file) throw CommandError("cannot read " + o.file + ": " + std::strerror(errno));
+    }
+    auto r = st->import_csv(o.file == "-" ? std::cin : file, opt);
+    if (!r) throw CommandError(o.file + ": " + r.error().message + " (nothing was imported)");
+    rep = std::move(r).value();
+  }
+  print_import_report(o, rep);
   if (!rep.rejected.empty()) {
     std::cout << std::flush;
     std::exit(3);  // documented: some rows were rejected (the accepted ones are saved)
@@ -286,53 +302,135 @@ void run_import(const LogOptions& o) {
 }
 
 void run_export(const LogOptions& o) {
-  const Journal j = load(o.journal, true);
-  if (o.format == "json") {
-    write_text_file_atomic(o.output, serialize_journal(j), false);
-  } else if (o.format == "csv") {
-    write_text_file_atomic(o.output, export_csv(j, filter_from(o, j)), false);
-  } else {
+  auto st = open_for(o, Access::Read);
+  if (o.format != "json" && o.format != "csv") {
     throw CommandError("--format '" + o.format + "' is not known; accepted: csv, json");
   }
+  const EventFilter f = filter_from(o, *st);
+  write_stream_atomic(o.output, [&](std::ostream& out) {
+    Status done = o.format == "json" ? st->export_json(out) : st->export_csv(out, f);
+    if (!done) throw CommandError(done.error().message);
+  });
 }
 
 void run_list(const LogOptions& o) {
-  const Journal j = load(o.journal, true);
-  const auto events = select_events(j, filter_from(o, j));
-  if (o.json) {
-    nlohmann::json arr = nlohmann::json::array();
-    for (const Event* e : events) arr.push_back(event_to_json(*e));
-    std::cout << arr.dump(2) << "\n";
-    return;
+  auto st = open_for(o, Access::Read);
+  const Journal names = systems_only(*st);
+  Store::Query q{filter_from(o, *st), false, 0};
+  if (o.last < 0) throw CommandError("--last must be 1 or more");
+  std::vector<Event> last;  // --last N: the newest N, printed oldest first
+  if (o.last > 0) {
+    q.newest_first = true;
+    q.limit = o.last;
+    Status s = st->for_each_event(q, [&](const Event& e) { last.push_back(e); return true; });
+    if (!s) throw CommandError(s.error().message);
+    std::reverse(last.begin(), last.end());
   }
-  if (events.empty()) {
-    std::cout << "no events\n";
-    return;
+  nlohmann::json arr = nlohmann::json::array();
+  std::size_t shown = 0;
+  auto show = [&](const Event& e) {
+    ++shown;
+    if (o.json) arr.push_back(event_to_json(e));
+    else std::cout << describe_event_line(names, e) << "\n";
+    return true;
+  };
+  if (o.last > 0) {
+    for (const Event& e : last) show(e);
+  } else {
+    Status s = st->for_each_event(q, show);
+    if (!s) throw CommandError(s.error().message);
   }
-  for (const Event* e : events) std::cout << describe_event_line(j, *e) << "\n";
+  if (o.json) std::cout << arr.dump(2) << "\n";
+  else if (shown == 0) std::cout << "no events\n";
 }
 
 void run_systems(const LogOptions& o) {
-  const Journal j = load(o.journal, true);
+  auto st = open_for(o, Access::Read);
+  const auto systems = st->systems();
   if (o.json) {
     nlohmann::json arr = nlohmann::json::array();
-    for (const auto& s : j.systems) arr.push_back(system_to_json(s));
+    for (const auto& s : systems) arr.push_back(system_to_json(s));
     std::cout << arr.dump(2) << "\n";
     return;
   }
-  for (const auto& s : j.systems) std::cout << s.id << "  " << describe_system_line(s) << "\n";
+  for (const auto& s : systems) std::cout << s.id << "  " << describe_system_line(s) << "\n";
 }
 
 void run_remove(const LogOptions& o) {
-  Journal j = load(o.journal, true);
-  if (find_event(j, o.id)) {
-    or_fail(remove_event(j, o.id));
+  auto st = open_for(o, Access::Write);
+  if (st->event(o.id)) {
+    stored_or_fail(st->remove_event(o.id));
   } else {
-    or_fail(remove_system(j, o.id, false));
+    stored_or_fail(st->remove_system(o.id, false));
   }
-  save(o.journal, j);
   if (!o.json) std::cout << "removed " << o.id << "\n";
   else std::cout << nlohmann::json{{"removed", o.id}}.dump() << "\n";
+}
+
+// A copy while others may keep writing: a database (SQLite online backup), or a JSON
+// journal (the documented format) when FILE ends in .json.
+void run_backup(const LogOptions& o) {
+  auto st = open_for(o, Access::Read);
+  const bool json_file = o.file.size() >= 5 && o.file.compare(o.file.size() - 5, 5, ".json") == 0;
+  if (json_file) {
+    if (file_exists(o.file)) throw CommandError(o.file + " already exists; give a new file name (nothing was written)");
+    write_stream_atomic(o.file, [&](std::ostream& out) {
+      Status done = st->export_json(out);
+      if (!done) throw CommandError(done.error().message);
+    });
+  } else {
+    Status done = st->backup_to(o.file);
+    if (!done) throw CommandError(done.error().message);
+  }
+  std::cout << fmt::format("backed up {} systems and {} events to {}\n", st->systems().size(), st->event_count(),
+                           o.file);
+}
+
+// Replaces the whole journal with a backup, after keeping the current one as
+// JOURNAL.before-restore-<time>.db.
+void run_restore(const LogOptions& o) {
+  auto st = open_for(o, Access::WriteOrCreate);
+  std::optional<Journal> from_json;
+  if (!store::is_database_file(o.file)) {
+    auto j = parse_journal(read_text_file(o.file));
+    if (!j) throw CommandError(o.file + ": " + j.error().message + " (nothing was changed)");
+    from_json = std::move(j).value();
+  }
+  const std::string keep = fmt::format("{}.before-restore-{}.db", st->path(), std::time(nullptr));
+  if (st->systems().size() + static_cast<std::size_t>(st->event_count()) > 0) {
+    Status kept = st->backup_to(keep);
+    if (!kept) throw CommandError(kept.error().message + " (nothing was changed)");
+  }
+  Status done = from_json ? st->restore_from_journal(*from_json) : st->restore_from_database(o.file);
+  if (!done) throw CommandError(done.error().message + " (nothing was changed)");
+  std::cout << fmt::format("restored {} systems and {} events from {}", st->systems().size(), st->event_count(),
+                           o.file);
+  if (file_exists(keep)) std::cout << "; the journal as it was is kept in " << keep;
+  std::cout << "\n";
+}
+
+void run_check(const LogOptions& o) {
+  auto st = open_for(o, Access::Read);
+  const auto r = st->check_integrity();
+  if (o.json) {
+    std::cout << nlohmann::json{{"ok", r.ok}, {"schema_version", r.schema_version}, {"systems", r.systems},
+                                {"events", r.events}, {"problems", r.problems}}.dump(2) << "\n";
+  } else {
+    std::cout << fmt::format("{}: schema version {}, {} systems, {} events\n", st->path(), r.schema_version,
+                             r.systems, r.events);
+    if (r.ok) {
+      std::cout << "ok: the database file is sound, every event belongs to a system, and every record "
+                   "passes the same checks as a new entry\n";
+    } else {
+      for (const auto& p : r.problems) std::cout << "problem: " << p << "\n";
+      std::cout << "restore a backup (tidewright log restore FILE) or export what can be read "
+                   "(tidewright log export --format json)\n";
+    }
+  }
+  if (!r.ok) {
+    std::cout << std::flush;
+    std::exit(4);
+  }
 }
 
 void add_time_options(CLI::App* c, LogOptions& o) {
@@ -349,7 +447,7 @@ void register_log(CLI::App& app) {
   CLI::App* log = app.add_subcommand("log", "The tank journal: log tests, doses, water changes, top-offs and notes");
   log->require_subcommand(1);
   log->fallthrough();
-  log->add_option("--journal", o->journal, "Journal file")->default_str("tidewright-journal.json");
+  log->add_option("--journal", o->journal, "Journal: a database FILE.db, or a JSON journal FILE.json (copied into FILE.db on the first change)")->default_str("tidewright-journal.db");
   log->add_flag("--json", o->json, "Print JSON instead of text");
 
   CLI::App* add = log->add_subcommand("add", "Add a system or an event");
@@ -417,8 +515,8 @@ void register_log(CLI::App& app) {
   note->add_option("--text", o->text, "The note")->required();
   note->callback([o] { run_add_note(*o); });
 
-  CLI::App* imp = log->add_subcommand("import", "Import test results and doses from CSV (see docs/journal-format.md); exit 3 if rows were rejected");
-  imp->add_option("file", o->file, "CSV file, or - for standard input")->required();
+  CLI::App* imp = log->add_subcommand("import", "Import test results and doses from CSV, or a whole JSON journal (an export or backup), in one transaction (see docs/journal-format.md); exit 3 if rows were rejected");
+  imp->add_option("file", o->file, "CSV file (- for standard input) or JSON journal")->required();
   imp->add_option("--system", o->system, "System for rows without a system column");
   imp->add_option("--date-order", o->date_order, "dmy or mdy, for dates like 03/04/2026");
   imp->add_option("--utc-offset", o->utc_offset_min, "Minutes east of UTC for times without a zone");
@@ -439,6 +537,7 @@ void register_log(CLI::App& app) {
 
   CLI::App* list = log->add_subcommand("list", "List events");
   add_filters(list);
+  list->add_option("--last", o->last, "Only the newest N events (of the filter)");
   list->callback([o] { run_list(*o); });
 
   CLI::App* systems = log->add_subcommand("systems", "List systems");
@@ -447,6 +546,17 @@ void register_log(CLI::App& app) {
   CLI::App* rm = log->add_subcommand("remove", "Remove an event, or a system without events, by id");
   rm->add_option("--id", o->id, "Id of the event or system")->required();
   rm->callback([o] { run_remove(*o); });
+
+  CLI::App* backup = log->add_subcommand("backup", "Copy the journal to a new file while it stays in use: a database, or JSON if FILE ends in .json");
+  backup->add_option("file", o->file, "New file to write")->required();
+  backup->callback([o] { run_backup(*o); });
+
+  CLI::App* restore = log->add_subcommand("restore", "Replace the journal with a backup (database or JSON journal); the journal as it was is kept beside it");
+  restore->add_option("file", o->file, "Backup to restore")->required();
+  restore->callback([o] { run_restore(*o); });
+
+  CLI::App* chk = log->add_subcommand("check", "Check the journal's integrity: the database file, links between records, and every record against the entry rules; exit 4 on a problem");
+  chk->callback([o] { run_check(*o); });
 }
 
 }  // namespace tw::shell

@@ -8,6 +8,7 @@
 
 #include "commands.hpp"
 #include "file_io.hpp"
+#include "journal_access.hpp"
 #include "tidewright/journal/journal_file.hpp"
 #include "tidewright/plan/plan.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
@@ -38,15 +39,12 @@ std::string now_dtstamp() {
 std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in) {
   if (o.journal.empty()) throw CommandError("--system: needs --journal FILE");
   if (o.system.empty()) throw CommandError("--journal: needs --system NAME or ID");
-  auto j = journal::parse_journal(read_text_file(o.journal, "--journal"));
-  if (!j) throw CommandError(fmt::format("--journal: {}: {}", o.journal, j.error().message));
-  const journal::System* sys = journal::find_system_by_name(*j, o.system);
-  if (sys == nullptr && !o.system.empty() && o.system.find_first_not_of("0123456789") == std::string::npos &&
-      o.system.size() < 18) {
-    sys = journal::find_system(*j, std::stoll(o.system));
-  }
-  if (sys == nullptr) throw CommandError(fmt::format("--system: no system \"{}\" in {}", o.system, o.journal));
-  auto basis = plan::plan_basis_from_journal(*j, sys->id);
+  // Only this system's events are read from the journal database (core/store).
+  auto st = open_journal_or_fail(o.journal, store::Access::Read);
+  const journal::System sys = system_or_fail(*st, o.system);
+  auto j = st->system_journal(sys.id);
+  if (!j) throw CommandError(fmt::format("--journal: {}", j.error().message));
+  auto basis = plan::plan_basis_from_journal(*j, sys.id);
   if (!basis) throw CommandError(fmt::format("--journal: {}", basis.error().message));
   return plan::apply_journal_basis(*basis, in);
 }
@@ -111,7 +109,7 @@ void register_plan(CLI::App& app) {
   fmt_group->add_flag("--text", opts->text, "plain text for print");
   fmt_group->require_option(0, 1);
   sub->add_option("--dtstamp", opts->dtstamp, "DTSTAMP for --ics as YYYYMMDDTHHMMSSZ (default: now)");
-  sub->add_option("--journal", opts->journal, "take the system's state and demand from this journal (JSON)");
+  sub->add_option("--journal", opts->journal, "take the system's state and demand from this journal (database, or JSON journal)");
   sub->add_option("--system", opts->system, "the journal's system, by name or id (with --journal)");
   sub->add_option("--out", opts->out, "write to this file instead of stdout");
   sub->callback([opts] { run(*opts); });

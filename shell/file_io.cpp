@@ -7,6 +7,7 @@
 #include <cerrno>
 #include <cstdio>
 #include <cstring>
+#include <fstream>
 #include <iostream>
 #include <iterator>
 #include <sstream>
@@ -139,6 +140,34 @@ void write_text_file_atomic(const std::string& path, const std::string& text, bo
     const std::string why = reason();
     ::unlink(tmp.c_str());
     throw CommandError("cannot replace " + path + ": " + why);
+  }
+  sync_directory(directory_of(path));
+}
+
+void write_stream_atomic(const std::string& path, const std::function<void(std::ostream&)>& write) {
+  if (path == "-") {
+    write(std::cout);
+    std::cout.flush();
+    return;
+  }
+  const std::string tmp = path + ".tmp-" + std::to_string(::getpid());
+  try {
+    {
+      std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
+      if (!out) throw CommandError("cannot create " + tmp + ": " + reason());
+      write(out);
+      out.flush();
+      if (!out) throw CommandError("cannot write " + path + ": " + reason());
+    }
+    const int fd = ::open(tmp.c_str(), O_RDONLY | O_CLOEXEC);
+    if (fd >= 0) {
+      (void)::fsync(fd);
+      ::close(fd);
+    }
+    if (::rename(tmp.c_str(), path.c_str()) != 0) throw CommandError("cannot replace " + path + ": " + reason());
+  } catch (...) {
+    ::unlink(tmp.c_str());
+    throw;
   }
   sync_directory(directory_of(path));
 }

@@ -2,6 +2,8 @@
 // that keeps the previous copy. (The core never touches files; this is the shell's job.)
 #pragma once
 
+#include <functional>
+#include <ostream>
 #include <string>
 
 namespace tw::shell {
@@ -23,6 +25,11 @@ std::string read_text_file(const std::string& path, const std::string& option = 
 // file is removed, PATH is untouched and CommandError is thrown. "-" writes to standard output.
 void write_text_file_atomic(const std::string& path, const std::string& text,
                             bool keep_backup = true);
+
+// Like write_text_file_atomic without a backup, for output too large to hold in memory:
+// write() fills the stream (PATH.tmp-<pid>, fsynced, renamed over PATH; removed on failure).
+// "-" streams to standard output.
+void write_stream_atomic(const std::string& path, const std::function<void(std::ostream&)>& write);
 
 // Where an --out option points: standard output when path is empty or "-", otherwise an
 // atomic replacement of the file (no .bak: outputs are regenerated, not edited). Errors start

@@ -1,7 +1,7 @@
 #!/usr/bin/python3
 """The tidewright command line as a user meets it: every subcommand answers --help; bad input
 exits non-zero with one line naming the field (or option) and the accepted range; a refused
-entry leaves the journal file byte for byte as it was; multi-compound stocks add what their
+entry leaves the journal exactly as it was; multi-compound stocks add what their
 formula weights say. Usage: check_cli.py <tidewright binary>. Prints "N passed, M failed"."""
 import os
 import subprocess
@@ -68,22 +68,26 @@ check("calcium per mL", abs(ca - 40.89) < 0.01, line)
 check("magnesium per mL", abs(mg - 11.96) < 0.01, line)
 check("cautions of both compounds", "Calcium chloride dihydrate" in out and "Magnesium chloride hexahydrate" in out)
 
-# A refused entry loses nothing: the journal file is byte for byte the same afterwards.
+# A refused entry loses nothing: the journal (database) exports byte for byte the same JSON
+# afterwards.
 with tempfile.TemporaryDirectory() as d:
-    r = run("log", "--journal", "j.json", "add", "system", "--name", "Quarantine", "--volume", "60", cwd=d)
+    r = run("log", "--journal", "j.db", "add", "system", "--name", "Quarantine", "--volume", "60", cwd=d)
     check("add system", r.returncode == 0, r.stderr)
-    r = run("log", "--journal", "j.json", "add", "test", "--parameter", "alkalinity", "--value", "8.1", cwd=d)
+    r = run("log", "--journal", "j.db", "add", "test", "--parameter", "alkalinity", "--value", "8.1", cwd=d)
     check("add test", r.returncode == 0, r.stderr)
-    before = open(os.path.join(d, "j.json"), "rb").read()
-    refused("alkalinity 40 dKH", ["log", "--journal", "j.json", "add", "test", "--parameter", "alkalinity",
+    def exported():
+        return run("log", "--journal", "j.db", "export", "--format", "json", cwd=d).stdout
+    before = exported()
+    check("export of the journal", b'"tidewright-journal"' in before and b'"alkalinity"' in before)
+    refused("alkalinity 40 dKH", ["log", "--journal", "j.db", "add", "test", "--parameter", "alkalinity",
                                   "--value", "40", "--unit", "dKH"], "alkalinity", "0 to 25", cwd=d)
-    refused("water change larger than the tank", ["log", "--journal", "j.json", "add", "water-change",
+    refused("water change larger than the tank", ["log", "--journal", "j.db", "add", "water-change",
                                                   "--volume", "500"], "volume", cwd=d)
-    refused("time that is not a time", ["log", "--journal", "j.json", "add", "test", "--parameter", "ph",
+    refused("time that is not a time", ["log", "--journal", "j.db", "add", "test", "--parameter", "ph",
                                         "--value", "8.1", "--time", "yesterday"], "time", cwd=d)
-    refused("time in the future", ["log", "--journal", "j.json", "add", "test", "--parameter", "ph",
+    refused("time in the future", ["log", "--journal", "j.db", "add", "test", "--parameter", "ph",
                                    "--value", "8.1", "--time", "2199-01-01T00:00Z"], "time", "future", cwd=d)
-    check("journal unchanged after refusals", open(os.path.join(d, "j.json"), "rb").read() == before)
+    check("journal unchanged after refusals", exported() == before)
 
 print(f"{passed} passed, {failed} failed")
 sys.exit(1 if failed else 0)

@@ -1,0 +1,176 @@
+// Imports into the store: a whole journal (the JSON format, already parsed and validated by
+// the core) and CSV streamed in chunks of rows. Each import is one write transaction: all of
+// it or nothing.
+#include <algorithm>
+#include <cctype>
+#include <map>
+#include <unordered_map>
+
+#include <fmt/format.h>
+
+#include "store_internal.hpp"
+#include "store_rows.hpp"
+
+namespace tw::store {
+
+using namespace tw::journal;
+using namespace tw::store::detail;
+
+namespace {
+
+std::string lower(std::string s) {
+  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return s;
+}
+
+bool database_empty(sqlite3* db) {
+  Statement st(db, "SELECT (SELECT count(*) FROM systems) + (SELECT count(*) FROM events)");
+  st.step();
+  return st.integer(0) == 0;
+}
+
+// Adds one validated event (id assigned here) unless an equal one is stored; the scratch
+// journal holds the stored systems for the core's validation.
+void add_checked(sqlite3* db, Statement& insert, const Journal& scratch, Event e, std::int64_t& next_id,
+                 JournalStore::ImportReport& report, const std::string& where) {
+  if (has_equal_event(db, e)) {
+    ++report.duplicates_skipped;
+    return;
+  }
+  e.id = next_id;
+  Status ok = validate_event(scratch, e);
+  if (!ok) throw StoreFailure(where + ": " + ok.error().message);
+  insert_event(insert, e);
+  ++next_id;
+  ++report.events_added;
+}
+
+// Splits CSV text read line by line into records (a quoted cell may hold line breaks).
+class CsvRecordReader {
+ public:
+  explicit CsvRecordReader(std::istream& in) : in_(in) {}
+  // The next record (without its final line break) and the file line it starts on.
+  bool next(std::string& record, int& first_line) {
+    record.clear();
+    std::string line;
+    bool open_quote = false;
+    bool any = false;
+    while (std::getline(in_, line)) {
+      ++line_;
+      if (!any) first_line = line_;
+      if (any) record += '\n';
+      record += line;
+      any = true;
+      for (char c : line) {
+        if (c == '"') open_quote = !open_quote;
+      }
+      if (!open_quote) return true;
+    }
+    return any;  // an unclosed quote at the end: the core reports it
+  }
+
+ private:
+  std::istream& in_;
+  int line_ = 0;
+};
+
+}  // namespace
+
+Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& journal) {
+  return guarded(path_, [&]() -> Result<ImportReport> {
+    WriteTransaction tx(db_);
+    ImportReport report;
+    if (database_empty(db_)) {
+      insert_journal_keeping_ids(db_, journal);
+      report.systems_added = static_cast<std::int64_t>(journal.systems.size());
+      report.events_added = static_cast<std::int64_t>(journal.events.size());
+      tx.commit();
+      return report;
+    }
+    // Merge: systems by name, new ids for everything added.
+    Journal scratch;
+    scratch.systems = all_systems(db_);
+    std::int64_t next_id = read_next_id(db_);
+    std::map<SystemId, SystemId> system_of;
+    for (const System& s : journal.systems) {
+      auto same = std::find_if(scratch.systems.begin(), scratch.systems.end(),
+                               [&](const System& t) { return lower(t.name) == lower(s.name); });
+      if (same != scratch.systems.end()) {
+        system_of[s.id] = same->id;
+        continue;
+      }
+      System copy = s;
+      copy.id = next_id++;
+      insert_system(db_, copy);
+      scratch.systems.push_back(copy);
+      system_of[s.id] = copy.id;
+      ++report.systems_added;
+    }
+    Statement insert(db_, event_insert_sql());
+    for (const Event& e : journal.events) {
+      Event copy = e;
+      copy.system_id = system_of.at(e.system_id);
+      add_checked(db_, insert, scratch, std::move(copy), next_id, report, fmt::format("event {}", e.id));
+    }
+    write_next_id(db_, next_id);
+    tx.commit();
+    return report;
+  });
+}
+
+Result<JournalStore::ImportReport> JournalStore::import_csv(std::istream& in, const CsvImportOptions& options) {
+  return guarded(path_, [&]() -> Result<ImportReport> {
+    constexpr int kRowsPerChunk = 2000;  // memory stays flat: one chunk of rows at a time
+    WriteTransaction tx(db_);
+    ImportReport report;
+    Journal scratch;
+    scratch.systems = all_systems(db_);
+    std::int64_t next_id = read_next_id(db_);
+    Statement insert(db_, event_insert_sql());
+
+    CsvRecordReader reader(in);
+    std::string header;
+    int header_line = 0;
+    if (!reader.next(header, header_line)) header.clear();
+    const int header_lines = 1 + static_cast<int>(std::count(header.begin(), header.end(), '\n'));
+
+    std::string record;
+    int line = 0;
+    bool first_chunk = true;
+    bool more = true;
+    while (more) {
+      std::string text = header + "\n";
+      int chunk_first_line = 0;
+      int rows = 0;
+      while (rows < kRowsPerChunk && (more = reader.next(record, line))) {
+        if (rows == 0) chunk_first_line = line;
+        text += record;
+        text += '\n';
+        ++rows;
+      }
+      if (rows == 0 && !first_chunk) break;
+      first_chunk = false;
+      scratch.events.clear();
+      scratch.next_id = 1;
+      for (const System& s : scratch.systems) scratch.next_id = std::max(scratch.next_id, s.id + 1);
+      auto chunk = journal::import_csv(scratch, text, options);
+      if (!chunk) return chunk.error();  // file-level: nothing of the file is added
+      for (RejectedRow r : chunk->rejected) {
+        if (r.line > header_lines) r.line = r.line - header_lines - 1 + chunk_first_line;
+        report.rejected.push_back(std::move(r));
+      }
+      report.duplicates_skipped += chunk->duplicates_skipped;
+      std::unordered_map<EventId, const Event*> by_id;
+      for (const Event& e : scratch.events) by_id[e.id] = &e;
+      for (EventId id : chunk->added) {
+        Event e = *by_id.at(id);
+        add_checked(db_, insert, scratch, std::move(e), next_id, report, "CSV row");
+      }
+    }
+    write_next_id(db_, next_id);
+    tx.commit();
+    return report;
+  });
+}
+
+}  // namespace tw::store

@@ -1,0 +1,39 @@
+#include "journal_access.hpp"
+
+#include <cstdio>
+
+#include <fmt/format.h>
+
+#include "commands.hpp"
+
+namespace tw::shell {
+
+std::unique_ptr<store::JournalStore> open_journal_or_fail(const std::string& given, store::Access access) {
+  auto opened = store::open_journal(given, access);
+  if (!opened) throw CommandError(opened.error().message);
+  if (!opened->notice.empty()) std::fprintf(stderr, "%s\n", opened->notice.c_str());
+  return std::move(opened->store);
+}
+
+journal::System system_or_fail(const store::JournalStore& store, const std::string& key, const std::string& option) {
+  if (key.empty()) {
+    auto all = store.systems();
+    if (all.size() == 1) return all[0];
+    throw CommandError(fmt::format("{} is needed: the journal has {} systems", option, all.size()));
+  }
+  if (auto s = store.system_by_name(key)) return *s;
+  try {
+    size_t used = 0;
+    const long long id = std::stoll(key, &used);
+    if (used == key.size()) {
+      if (auto s = store.system(id)) return *s;
+    }
+  } catch (const std::exception&) {
+  }
+  std::string names;
+  for (const auto& s : store.systems()) names += fmt::format("{}'{}' (id {})", names.empty() ? "" : ", ", s.name, s.id);
+  throw CommandError(fmt::format("{} '{}' is not a system of this journal; it has: {}", option, key,
+                                 names.empty() ? "no systems" : names));
+}
+
+}  // namespace tw::shell
