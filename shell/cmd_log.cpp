@@ -409,8 +409,18 @@ void run_restore(const LogOptions& o) {
   std::cout << "\n";
 }
 
+const char* kRestoreAdvice =
+    "restore a backup (tidewright log restore FILE) or export what can be read "
+    "(tidewright log export --format json)\n";
+
 void run_check(const LogOptions& o) {
-  auto st = open_for(o, Access::Read);
+  std::unique_ptr<Store> st;
+  try {
+    st = open_for(o, Access::Read);
+  } catch (const CommandError& e) {  // a file too damaged to open is a finding, not a usage error
+    std::cout << "problem: " << e.what() << "\n" << kRestoreAdvice << std::flush;
+    std::exit(4);
+  }
   const auto r = st->check_integrity();
   if (o.json) {
     std::cout << nlohmann::json{{"ok", r.ok}, {"schema_version", r.schema_version}, {"systems", r.systems},
@@ -423,8 +433,7 @@ void run_check(const LogOptions& o) {
                    "passes the same checks as a new entry\n";
     } else {
       for (const auto& p : r.problems) std::cout << "problem: " << p << "\n";
-      std::cout << "restore a backup (tidewright log restore FILE) or export what can be read "
-                   "(tidewright log export --format json)\n";
+      std::cout << kRestoreAdvice;
     }
   }
   if (!r.ok) {

@@ -4,7 +4,11 @@ namespace tw::store::detail {
 
 void check(sqlite3* db, int rc, const char* what) {
   if (rc == SQLITE_OK || rc == SQLITE_ROW || rc == SQLITE_DONE) return;
-  std::string msg = std::string(what) + ": " + (db ? sqlite3_errmsg(db) : sqlite3_errstr(rc));
+  const char* why = db ? sqlite3_errmsg(db) : sqlite3_errstr(rc);
+  if ((rc & 0xff) == SQLITE_CORRUPT || (rc & 0xff) == SQLITE_NOTADB) {
+    throw StoreFailure(std::string("the database file is damaged (SQLite: ") + why + ")");
+  }
+  std::string msg = std::string(what) + ": " + why;
   if (rc == SQLITE_BUSY) msg += " (another program kept the journal locked longer than the wait allows)";
   throw StoreFailure(msg);
 }
