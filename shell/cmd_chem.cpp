@@ -1,5 +1,7 @@
 // `tidewright chem`: one carbonate state from options, or a CSV batch (--batch FILE|-).
+#include <algorithm>
 #include <cmath>
+#include <thread>
 #include <cstdio>
 #include <iterator>
 #include <memory>
@@ -9,6 +11,7 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
+#include "batch_stream.hpp"
 #include "file_io.hpp"
 #include "tidewright/carbonate/carbonate.hpp"
 #include "tidewright/carbonate/carbonate_batch.hpp"
@@ -28,8 +31,10 @@ struct ChemOptions {
   std::string calcium_unit = "mg/L";
   double phosphate = 0, silicate = 0;
   std::string k1k2 = "lueker2000", boron = "uppstrom1974";
+  std::string fluoride = "perezfraga1987", conventions = "co2sys";
   bool json = false;
   std::string batch, out;
+  int threads = 1;
 };
 
 template <class T>
@@ -38,15 +43,18 @@ T or_fail(Result<T> r) {
   return std::move(r).value();
 }
 
-carbonate::K1K2Option parse_k1k2(const std::string& s) {
-  if (s == "lueker2000") return carbonate::K1K2Option::Lueker2000;
-  if (s == "millero2010") return carbonate::K1K2Option::Millero2010;
-  throw CommandError("--k1k2 '" + s + "' is not known; accepted: lueker2000, millero2010");
-}
-carbonate::BoronOption parse_boron(const std::string& s) {
-  if (s == "uppstrom1974") return carbonate::BoronOption::Uppstrom1974;
-  if (s == "lee2010") return carbonate::BoronOption::Lee2010;
-  throw CommandError("--boron '" + s + "' is not known; accepted: uppstrom1974, lee2010");
+// The choices of constants, named as the core names them (carbonate.hpp, one table each).
+struct ConstantChoices {
+  carbonate::K1K2Option k1k2;
+  carbonate::BoronOption boron;
+  carbonate::FluorideOption fluoride;
+  carbonate::ConstantsConvention convention;
+};
+ConstantChoices parse_choices(const ChemOptions& o) {
+  return {or_fail(carbonate::k1k2_from_string(o.k1k2, "--k1k2")),
+          or_fail(carbonate::boron_from_string(o.boron, "--boron")),
+          or_fail(carbonate::fluoride_from_string(o.fluoride, "--fluoride")),
+          or_fail(carbonate::convention_from_string(o.conventions, "--conventions"))};
 }
 
 double temperature_c(const ChemOptions& o) {
@@ -112,16 +120,20 @@ std::string state_text(const carbonate::CarbonateState& s, const carbonate::Cond
 
 
 void run_batch(const ChemOptions& o) {
+  const ConstantChoices choices = parse_choices(o);
   carbonate::BatchOptions options;
-  options.k1k2 = parse_k1k2(o.k1k2);
-  options.boron = parse_boron(o.boron);
-  auto summary = or_fail(carbonate::solve_csv_batch(read_text_file(o.batch, "--batch"), options));
-  write_output(o.out, summary.csv);
+  options.k1k2 = choices.k1k2;
+  options.boron = choices.boron;
+  options.fluoride = choices.fluoride;
+  options.convention = choices.convention;
+  if (o.threads < 0 || o.threads > 64) throw CommandError(fmt::format("--threads {} is outside the accepted range 0 to 64", o.threads));
+  const int threads = o.threads == 0 ? static_cast<int>(std::max(1u, std::thread::hardware_concurrency())) : o.threads;
+  const BatchCounts counts = run_chem_batch(o.batch, o.out, options, threads);
   // Every row is written; a row that failed still makes the exit status non-zero, as in
   // `tidewright salinity --batch`, so scripts notice.
-  if (summary.failed > 0) {
+  if (counts.failed > 0) {
     throw CommandError(fmt::format("{} of {} rows could not be computed (see the warnings column)",
-                                   summary.failed, summary.rows));
+                                   counts.failed, counts.rows));
   }
 }
 
@@ -129,8 +141,11 @@ void run_single(const ChemOptions& o) {
   carbonate::Conditions conditions;
   conditions.temperature_c = temperature_c(o);
   conditions.salinity = salinity(o, conditions.temperature_c);
-  conditions.k1k2 = parse_k1k2(o.k1k2);
-  conditions.boron = parse_boron(o.boron);
+  const ConstantChoices choices = parse_choices(o);
+  conditions.k1k2 = choices.k1k2;
+  conditions.boron = choices.boron;
+  conditions.fluoride = choices.fluoride;
+  conditions.convention = choices.convention;
   conditions.phosphate_umol_kg = o.phosphate;
   conditions.silicate_umol_kg = o.silicate;
   if (conditions.salinity <= 0 || conditions.salinity > 50) {
@@ -191,7 +206,10 @@ void register_chem(CLI::App& app) {
       "  tidewright chem --alkalinity 8.2 --ph 8.15 --ph-scale nbs --salinity 35 --temperature 25.5\n"
       "  tidewright chem --alkalinity 2300 --alkalinity-unit umol/kg --dic 2000 --json\n"
       "  tidewright chem --alkalinity 7.5 --air-co2 1200 --temperature 26\n"
-      "  tidewright chem --batch samples.csv --out states.csv");
+      "  tidewright chem --batch samples.csv --out states.csv --threads 2\n"
+      "Batch CSV columns: id, salinity, temperature_c, two of alkalinity_umol_kg, dic_umol_kg,\n"
+      "ph (with ph_scale), pco2_uatm, fco2_uatm; optional calcium_umol_kg, phosphate_umol_kg,\n"
+      "silicate_umol_kg, and per-row k1k2, boron, fluoride, conventions (empty: the options').");
   cmd->add_option("--alkalinity", o->alkalinity, "Total alkalinity, in --alkalinity-unit");
   cmd->add_option("--alkalinity-unit", o->alkalinity_unit, "dKH, meq/L, mg/L CaCO3 or umol/kg")->default_str("dKH");
   cmd->add_option("--dic", o->dic, "Dissolved inorganic carbon [umol/kg]");
@@ -211,6 +229,11 @@ void register_chem(CLI::App& app) {
   cmd->add_option("--silicate", o->silicate, "Total silicate [umol/kg]")->default_str("0");
   cmd->add_option("--k1k2", o->k1k2, "Carbonic acid constants: lueker2000 or millero2010")->default_str("lueker2000");
   cmd->add_option("--boron", o->boron, "Total boron: uppstrom1974 or lee2010")->default_str("uppstrom1974");
+  cmd->add_option("--fluoride", o->fluoride, "HF constant: perezfraga1987 or dicksonriley1979")->default_str("perezfraga1987");
+  cmd->add_option("--conventions", o->conventions,
+                  "How constants are put on the total scale: co2sys (as CO2SYS-MATLAB v3 and PyCO2SYS) "
+                  "or guide2007 (as printed in Dickson et al. 2007)")->default_str("co2sys");
+  cmd->add_option("--threads", o->threads, "With --batch: threads to solve rows on (0 = every core)")->default_str("1");
   cmd->add_flag("--json", o->json, "Print JSON instead of text");
   cmd->add_option("--batch", o->batch, "CSV file of samples (- for stdin); see the README for its columns");
   cmd->add_option("--out", o->out, "Write the result (text, JSON or the --batch CSV) here instead of stdout");

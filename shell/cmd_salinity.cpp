@@ -15,6 +15,7 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
+#include "batch_stream.hpp"
 #include "file_io.hpp"
 #include "tidewright/seawater/salinity_convert.hpp"
 #include "tidewright/seawater/seawater.hpp"
@@ -157,23 +158,10 @@ void run_batch(const SalinityOptions& o) {
     throw CommandError("--batch reads its samples from the CSV; drop --salinity, "
                        "--specific-gravity, --conductivity, --conductivity-ratio and --density");
   }
-  auto batch = sw::describe_salinity_csv(read_text_file(o.batch, "--batch"), conditions(o));
-  if (!batch) throw CommandError("--batch: " + batch.error().message);
-  if (o.json) {
-    nlohmann::json rows = nlohmann::json::array();
-    for (const auto& row : batch->rows) {
-      nlohmann::json j = row.report ? report_json(*row.report)
-                                    : nlohmann::json{{"error", row.report.error().message}};
-      j["line"] = row.line;
-      rows.push_back(std::move(j));
-    }
-    write_output(o.out, rows.dump(2) + "\n");
-  } else {
-    write_output(o.out, sw::format_salinity_batch_csv(*batch));
-  }
-  if (batch->failed > 0) {
+  const BatchCounts counts = run_salinity_batch(o.batch, o.out, conditions(o), o.json);
+  if (counts.failed > 0) {
     throw CommandError(fmt::format("{} of {} rows could not be converted (see their error)",
-                                   batch->failed, batch->rows.size()));
+                                   counts.failed, counts.rows));
   }
 }
 

@@ -1,144 +1,233 @@
+// Batch carbonate solving over CSV records (carbonate_batch.hpp).
+//
+// Map of this file
+//   1. Numbers and options from cells (from_chars; no allocation on the good path)
+//   2. CarbonateBatch: header, constants cache, one record -> one output row
+//   3. solve_csv_batch: a whole text through the same record path
 #include "tidewright/carbonate/carbonate_batch.hpp"
 
+#include <charconv>
 #include <cstdlib>
+#include <iterator>
 #include <optional>
-#include <vector>
 
 #include <fmt/format.h>
 
 #include "tidewright/common/csv.hpp"
+#include "tidewright/common/csv_stream.hpp"
 
 namespace tw::carbonate {
 namespace {
 
-struct ColumnMap {
-  int id, salinity, temperature, alkalinity, dic, ph, ph_scale, pco2, fco2, calcium, phosphate,
-      silicate;
-};
-
-ColumnMap map_columns(const std::vector<std::string>& header) {
-  auto f = [&](const char* name) { return csv::find_column(header, name); };
-  return {f("id"),          f("salinity"), f("temperature_c"),   f("alkalinity_umol_kg"),
-          f("dic_umol_kg"), f("ph"),       f("ph_scale"),        f("pco2_uatm"),
-          f("fco2_uatm"),   f("calcium_umol_kg"), f("phosphate_umol_kg"), f("silicate_umol_kg")};
-}
-
-std::string cell_at(const csv::Row& row, int column) {
-  if (column < 0 || column >= static_cast<int>(row.cells.size())) return {};
-  return csv::trim(row.cells[column]);
-}
-
-// Reads an optional number; an unreadable cell is an error naming the column.
-Result<std::optional<double>> number_at(const csv::Row& row, int column, const char* name) {
-  const std::string text = cell_at(row, column);
-  if (text.empty()) return std::optional<double>{};
+// ---------------------------------------------------------------- 1. Cells
+// Parses a whole cell as a double (a leading '+' allowed, as strtod did). std::from_chars for
+// double where the standard library has it (libstdc++ 11+); strtod on a copy elsewhere (the
+// libc++ of Emscripten 3.1.6 lacks it).
+bool parse_double(std::string_view text, double& value) {
+  if (!text.empty() && text.front() == '+') text.remove_prefix(1);
+  if (text.empty()) return false;
+#if defined(__cpp_lib_to_chars) && __cpp_lib_to_chars >= 201611L
+  const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+  return ec == std::errc{} && end == text.data() + text.size();
+#else
+  char buffer[64];
+  if (text.size() >= sizeof buffer) return false;
+  text.copy(buffer, text.size());
+  buffer[text.size()] = '\0';
   char* end = nullptr;
-  const double v = std::strtod(text.c_str(), &end);
-  if (end != text.c_str() + text.size()) {
-    return Error{name, fmt::format("{} '{}' is not a number", name, text)};
-  }
+  value = std::strtod(buffer, &end);
+  return end == buffer + text.size();
+#endif
+}
+
+std::string_view cell_at(const std::vector<std::string_view>& cells, int column) {
+  if (column < 0 || column >= static_cast<int>(cells.size())) return {};
+  return csv::trim_view(cells[static_cast<std::size_t>(column)]);
+}
+
+// An optional number; an unreadable cell is an error naming the column.
+Result<std::optional<double>> number_at(const std::vector<std::string_view>& cells, int column,
+                                        const char* name) {
+  const std::string_view text = cell_at(cells, column);
+  if (text.empty()) return std::optional<double>{};
+  double v = 0;
+  if (!parse_double(text, v)) return Error{name, fmt::format("{} '{}' is not a number", name, text)};
   return std::optional<double>{v};
 }
 
-std::string number_cell(double v) { return fmt::format("{}", v); }
-
-std::string join_warnings(const std::vector<std::string>& warnings) {
-  std::string out;
-  for (const auto& w : warnings) {
-    if (!out.empty()) out += "; ";
-    out += w;
-  }
-  return out;
+// A per-row option cell (empty: keep `value`).
+template <class Option, class Parse>
+Status option_at(const std::vector<std::string_view>& cells, int column, const char* name,
+                 Parse parse, Option& value) {
+  const std::string_view text = cell_at(cells, column);
+  if (text.empty()) return Ok{};
+  auto parsed = parse(std::string(text), name);
+  if (!parsed) return parsed.error();
+  value = *parsed;
+  return Ok{};
 }
 
-// Turns one row into a state, or an error naming the problem.
-Result<CarbonateState> solve_row(const csv::Row& row, const ColumnMap& c,
-                                 const BatchOptions& options) {
-  Conditions conditions;
-  conditions.k1k2 = options.k1k2;
-  conditions.boron = options.boron;
+bool same_conditions(const Conditions& a, const Conditions& b) {
+  return a.salinity == b.salinity && a.temperature_c == b.temperature_c && a.k1k2 == b.k1k2 &&
+         a.boron == b.boron && a.calcium_umol_kg == b.calcium_umol_kg &&
+         a.phosphate_umol_kg == b.phosphate_umol_kg && a.silicate_umol_kg == b.silicate_umol_kg &&
+         a.fluoride == b.fluoride && a.convention == b.convention;
+}
 
+void append_warnings(std::string& out, const std::vector<std::string>& warnings) {
+  if (warnings.empty()) return;
+  std::string joined;
+  for (const auto& w : warnings) {
+    if (!joined.empty()) joined += "; ";
+    joined += w;
+  }
+  csv::append_cell_for_spreadsheet(out, joined);
+}
+
+}  // namespace
+
+// ---------------------------------------------------------------- 2. CarbonateBatch
+CarbonateBatch::CarbonateBatch(const BatchOptions& options) : options_(options) {}
+
+void CarbonateBatch::start(std::string_view header_record, std::string& out) {
+  csv::split_record(header_record, cells_, scratch_);
+  const std::vector<std::string> header(cells_.begin(), cells_.end());
+  auto f = [&](const char* name) { return csv::find_column(header, name); };
+  columns_ = {f("id"),          f("salinity"),          f("temperature_c"),
+              f("alkalinity_umol_kg"), f("dic_umol_kg"), f("ph"),
+              f("ph_scale"),    f("pco2_uatm"),         f("fco2_uatm"),
+              f("calcium_umol_kg"), f("phosphate_umol_kg"), f("silicate_umol_kg"),
+              f("k1k2"),        f("boron"),             f("fluoride"),
+              f("conventions")};
+  out += csv::format_row({kBatchOutputColumns.begin(), kBatchOutputColumns.end()});
+}
+
+Result<const Constants*> CarbonateBatch::constants_for(const Conditions& conditions) {
+  if (!have_constants_ || !same_conditions(conditions, constants_.conditions)) {
+    auto k = compute_constants(conditions);
+    if (!k) return k.error();
+    constants_ = std::move(k).value();
+    have_constants_ = true;
+  }
+  return &constants_;
+}
+
+Result<CarbonateState> CarbonateBatch::solve_cells() {
+  const Columns& c = columns_;
   struct Numeric {
     int column;
     const char* name;
     std::optional<double> value;
   };
-  std::vector<Numeric> numbers = {
-      {c.salinity, "salinity", {}},         {c.temperature, "temperature_c", {}},
+  Numeric numbers[] = {
+      {c.salinity, "salinity", {}},           {c.temperature, "temperature_c", {}},
       {c.alkalinity, "alkalinity_umol_kg", {}}, {c.dic, "dic_umol_kg", {}},
-      {c.ph, "ph", {}},                     {c.pco2, "pco2_uatm", {}},
-      {c.fco2, "fco2_uatm", {}},            {c.calcium, "calcium_umol_kg", {}},
+      {c.ph, "ph", {}},                       {c.pco2, "pco2_uatm", {}},
+      {c.fco2, "fco2_uatm", {}},              {c.calcium, "calcium_umol_kg", {}},
       {c.phosphate, "phosphate_umol_kg", {}}, {c.silicate, "silicate_umol_kg", {}}};
   for (auto& n : numbers) {
-    auto parsed = number_at(row, n.column, n.name);
+    if (n.column < 0) continue;
+    auto parsed = number_at(cells_, n.column, n.name);
     if (!parsed) return parsed.error();
     n.value = *parsed;
   }
-  conditions.salinity = numbers[0].value.value_or(options.default_salinity);
-  conditions.temperature_c = numbers[1].value.value_or(options.default_temperature_c);
+  Conditions conditions;
+  conditions.k1k2 = options_.k1k2;
+  conditions.boron = options_.boron;
+  conditions.fluoride = options_.fluoride;
+  conditions.convention = options_.convention;
+  if (auto s = option_at(cells_, c.k1k2, "k1k2", k1k2_from_string, conditions.k1k2); !s)
+    return s.error();
+  if (auto s = option_at(cells_, c.boron, "boron", boron_from_string, conditions.boron); !s)
+    return s.error();
+  if (auto s = option_at(cells_, c.fluoride, "fluoride", fluoride_from_string, conditions.fluoride);
+      !s)
+    return s.error();
+  if (auto s = option_at(cells_, c.convention, "conventions", convention_from_string,
+                         conditions.convention);
+      !s)
+    return s.error();
+  conditions.salinity = numbers[0].value.value_or(options_.default_salinity);
+  conditions.temperature_c = numbers[1].value.value_or(options_.default_temperature_c);
   conditions.calcium_umol_kg = numbers[7].value;
   conditions.phosphate_umol_kg = numbers[8].value.value_or(0.0);
   conditions.silicate_umol_kg = numbers[9].value.value_or(0.0);
 
-  const std::pair<int, Quantity> carbonate_inputs[] = {{2, Quantity::Alkalinity},
-                                                       {3, Quantity::DIC},
-                                                       {4, Quantity::PH},
-                                                       {5, Quantity::PCO2},
-                                                       {6, Quantity::FCO2}};
-  std::vector<Measurement> given;
-  for (const auto& [index, quantity] : carbonate_inputs) {
-    if (numbers[index].value) given.push_back({quantity, *numbers[index].value});
+  static constexpr std::pair<int, Quantity> kCarbonateInputs[] = {{2, Quantity::Alkalinity},
+                                                                  {3, Quantity::DIC},
+                                                                  {4, Quantity::PH},
+                                                                  {5, Quantity::PCO2},
+                                                                  {6, Quantity::FCO2}};
+  Measurement given[2]{};
+  int count = 0;
+  for (const auto& [index, quantity] : kCarbonateInputs) {
+    if (!numbers[index].value) continue;
+    if (count < 2) given[count] = {quantity, *numbers[index].value};
+    ++count;
   }
-  if (given.size() != 2) {
+  if (count != 2) {
     return Error{"carbonate inputs",
                  fmt::format("row has {} carbonate inputs; exactly two of alkalinity_umol_kg, "
                              "dic_umol_kg, ph, pco2_uatm, fco2_uatm are needed",
-                             given.size())};
+                             count)};
   }
   InputPair pair{given[0], given[1], PhScale::Total};
-  const std::string scale_text = cell_at(row, c.ph_scale);
+  const std::string_view scale_text = cell_at(cells_, c.ph_scale);
   if (!scale_text.empty()) {
-    auto scale = ph_scale_from_string(scale_text);
+    auto scale = ph_scale_from_string(std::string(scale_text));
     if (!scale) return scale.error();
     pair.ph_scale = *scale;
   }
-  auto constants = compute_constants(conditions);
+  auto constants = constants_for(conditions);
   if (!constants) return constants.error();
-  return solve(*constants, pair);
+  return solve(**constants, pair);
 }
 
-}  // namespace
-
-Result<BatchSummary> solve_csv_batch(const std::string& csv_text, const BatchOptions& options) {
-  auto parsed = csv::parse(csv_text);
-  if (!parsed) return parsed.error();
-  const auto& rows = *parsed;
-  if (rows.empty()) return Error{"csv", "the batch has no header row"};
-  const ColumnMap columns = map_columns(rows[0].cells);
-
-  BatchSummary summary;
-  summary.csv = csv::format_row({kBatchOutputColumns.begin(), kBatchOutputColumns.end()});
-  for (size_t r = 1; r < rows.size(); ++r) {
-    const csv::Row& row = rows[r];
-    ++summary.rows;
-    std::vector<std::string> out(kBatchOutputColumns.size());
-    out[0] = cell_at(row, columns.id);
-    auto state = solve_row(row, columns, options);
-    if (!state) {
-      ++summary.failed;
-      out.back() = fmt::format("line {}: {}", row.line, state.error().message);
-    } else {
-      const CarbonateState& s = *state;
-      const double values[] = {s.ph_total,      s.ph_sws,          s.ph_free,       s.ph_nbs,
-                               s.pco2_uatm,     s.fco2_uatm,       s.alkalinity_umol_kg,
-                               s.dic_umol_kg,   s.hco3_umol_kg,    s.co3_umol_kg,
-                               s.co2_umol_kg,   s.omega_calcite,   s.omega_aragonite,
-                               s.revelle_factor};
-      for (size_t k = 0; k < std::size(values); ++k) out[k + 1] = number_cell(values[k]);
-      out.back() = join_warnings(s.warnings);
-    }
-    summary.csv += csv::format_row(out, /*defuse_formulas=*/true);
+bool CarbonateBatch::solve_record(std::string_view record, int line, std::string& out) {
+  csv::split_record(record, cells_, scratch_);
+  csv::append_cell_for_spreadsheet(out, cell_at(cells_, columns_.id));
+  const auto state = solve_cells();
+  if (!state) {
+    out.append(kBatchOutputColumns.size() - 2, ',');  // the 14 numbers stay empty
+    out += ',';
+    csv::append_cell_for_spreadsheet(out, fmt::format("line {}: {}", line, state.error().message));
+    out += "\r\n";
+    return false;
   }
+  const CarbonateState& s = *state;
+  const double values[] = {s.ph_total,     s.ph_sws,        s.ph_free,         s.ph_nbs,
+                           s.pco2_uatm,    s.fco2_uatm,     s.alkalinity_umol_kg,
+                           s.dic_umol_kg,  s.hco3_umol_kg,  s.co3_umol_kg,
+                           s.co2_umol_kg,  s.omega_calcite, s.omega_aragonite,
+                           s.revelle_factor};
+  auto it = std::back_inserter(out);
+  for (double v : values) fmt::format_to(it, ",{}", v);  // shortest text that reads back exactly
+  out += ',';
+  append_warnings(out, s.warnings);
+  out += "\r\n";
+  return true;
+}
+
+// ---------------------------------------------------------------- 3. Whole text
+Result<BatchSummary> solve_csv_batch(const std::string& csv_text, const BatchOptions& options) {
+  csv::RecordStream stream;
+  stream.append(csv_text);
+  stream.finish();
+  CarbonateBatch batch(options);
+  BatchSummary summary;
+  csv::RecordStream::Record record;
+  bool have_header = false;
+  while (stream.next(record)) {
+    if (!have_header) {
+      batch.start(record.text, summary.csv);
+      have_header = true;
+      continue;
+    }
+    ++summary.rows;
+    if (!batch.solve_record(record.text, record.line, summary.csv)) ++summary.failed;
+  }
+  if (!stream.error()) return stream.error().error();
+  if (!have_header) return Error{"csv", "the batch has no header row"};
   return summary;
 }
 

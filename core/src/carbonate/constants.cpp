@@ -2,6 +2,8 @@
 // warnings where a formula is used outside its calibration range. The formulas live in
 // constants_formulas.cpp; the tables below map each option to its formula.
 #include <cmath>
+#include <cstddef>
+#include <string>
 
 #include <fmt/format.h>
 
@@ -29,6 +31,56 @@ const char* to_string(FluorideOption option) {
     case FluorideOption::DicksonRiley1979: return "dicksonriley1979";
   }
   return "perezfraga1987";
+}
+
+const char* to_string(ConstantsConvention option) {
+  switch (option) {
+    case ConstantsConvention::ReferencePackages: return "co2sys";
+    case ConstantsConvention::Guide2007: return "guide2007";
+  }
+  return "co2sys";
+}
+
+namespace {
+
+// Finds text (case-insensitive, trimmed) among the to_string names of the options.
+template <class Option, std::size_t N>
+Result<Option> option_from_string(const std::string& text, const std::string& field,
+                                  const Option (&options)[N]) {
+  std::string t;
+  for (char c : text) {
+    if (c == ' ' || c == '\t') continue;
+    t += static_cast<char>((c >= 'A' && c <= 'Z') ? c - 'A' + 'a' : c);
+  }
+  std::string names;
+  for (Option o : options) {
+    if (t == to_string(o)) return o;
+    names += names.empty() ? "" : ", ";
+    names += to_string(o);
+  }
+  return Error{field, fmt::format("{} '{}' is not known; accepted: {}", field, text, names)};
+}
+
+}  // namespace
+
+Result<K1K2Option> k1k2_from_string(const std::string& text, const std::string& field) {
+  static constexpr K1K2Option all[] = {K1K2Option::Lueker2000, K1K2Option::Millero2010};
+  return option_from_string(text, field, all);
+}
+Result<BoronOption> boron_from_string(const std::string& text, const std::string& field) {
+  static constexpr BoronOption all[] = {BoronOption::Uppstrom1974, BoronOption::Lee2010};
+  return option_from_string(text, field, all);
+}
+Result<FluorideOption> fluoride_from_string(const std::string& text, const std::string& field) {
+  static constexpr FluorideOption all[] = {FluorideOption::PerezFraga1987,
+                                           FluorideOption::DicksonRiley1979};
+  return option_from_string(text, field, all);
+}
+Result<ConstantsConvention> convention_from_string(const std::string& text,
+                                                   const std::string& field) {
+  static constexpr ConstantsConvention all[] = {ConstantsConvention::ReferencePackages,
+                                                ConstantsConvention::Guide2007};
+  return option_from_string(text, field, all);
 }
 
 namespace {
@@ -77,10 +129,16 @@ Result<Constants> compute_constants(const Conditions& conditions) {
   k.ks_free = std::exp(ln_ks_free_dickson1990(s, tk));
   warn_if_outside(kRangeDickson1990S, s, tc, w);
   k.free_to_total = 1.0 + k.totals.sulfate / k.ks_free;
+  const bool guide = conditions.convention == ConstantsConvention::Guide2007;
   switch (conditions.fluoride) {
     case FluorideOption::PerezFraga1987:
-      k.kf = std::exp(ln_kf_total_perez_fraga1987(s, tk));
-      k.kf_free = k.kf / k.free_to_total;
+      if (guide) {  // the Guide reads the fit as total scale
+        k.kf = std::exp(ln_kf_total_perez_fraga1987(s, tk));
+        k.kf_free = k.kf / k.free_to_total;
+      } else {      // CO2SYS-MATLAB v3 and PyCO2SYS read it as free scale
+        k.kf_free = std::exp(ln_kf_free_perez_fraga1987(s, tk));
+        k.kf = k.kf_free * k.free_to_total;
+      }
       warn_if_outside(kRangePerezFraga1987, s, tc, w);
       break;
     case FluorideOption::DicksonRiley1979:
@@ -113,12 +171,20 @@ Result<Constants> compute_constants(const Conditions& conditions) {
 
   k.kb = std::exp(ln_kb_total_dickson1990(s, tk));
   warn_if_outside(kRangeDickson1990B, s, tc, w);
-  k.kw = std::exp(ln_kw_total_millero1995(s, tk));
+  if (guide) {  // the Guide's total-scale forms
+    k.kw = std::exp(ln_kw_total_millero1995(s, tk));
+    k.k1p = std::exp(ln_k1p_total_millero1995(s, tk));
+    k.k2p = std::exp(ln_k2p_total_millero1995(s, tk));
+    k.k3p = std::exp(ln_k3p_total_millero1995(s, tk));
+    k.ksi = std::exp(ln_ksi_total_millero1995(s, tk));
+  } else {      // seawater-scale fits times the actual factor, as CO2SYS.m and PyCO2SYS do
+    k.kw = std::exp(ln_kw_sws_millero1995(s, tk)) * k.sws_to_total;
+    k.k1p = std::exp(ln_k1p_sws_yao_millero1995(s, tk)) * k.sws_to_total;
+    k.k2p = std::exp(ln_k2p_sws_yao_millero1995(s, tk)) * k.sws_to_total;
+    k.k3p = std::exp(ln_k3p_sws_yao_millero1995(s, tk)) * k.sws_to_total;
+    k.ksi = std::exp(ln_ksi_sws_yao_millero1995(s, tk)) * k.sws_to_total;
+  }
   warn_if_outside(kRangeMillero1995W, s, tc, w);
-  k.k1p = std::exp(ln_k1p_total_millero1995(s, tk));
-  k.k2p = std::exp(ln_k2p_total_millero1995(s, tk));
-  k.k3p = std::exp(ln_k3p_total_millero1995(s, tk));
-  k.ksi = std::exp(ln_ksi_total_millero1995(s, tk));
   if (k.totals.phosphate > 0 || k.totals.silicate > 0) warn_if_outside(kRangeMillero1995PSi, s, tc, w);
   k.ksp_calcite = std::pow(10.0, log10_ksp_calcite_mucci1983(s, tk));
   k.ksp_aragonite = std::pow(10.0, log10_ksp_aragonite_mucci1983(s, tk));

@@ -77,8 +77,40 @@ double ln_kf_total_perez_fraga1987(double salinity, double temperature_k) {
   return 874.0 / temperature_k - 9.68 + 0.111 * std::sqrt(salinity);
 }
 
+double ln_kf_free_perez_fraga1987(double salinity, double temperature_k) {
+  return 874.0 / temperature_k - 9.68 + 0.111 * std::sqrt(salinity);
+}
+
 double ln_kf_free_dickson_riley1979(double salinity, double temperature_k) {
   return 1590.2 / temperature_k - 12.641 + 1.525 * std::sqrt(ionic_strength(salinity)) +
+         std::log(1.0 - 0.001005 * salinity);
+}
+
+double ln_kw_sws_millero1995(double salinity, double temperature_k) {
+  const double t = temperature_k, ln_t = std::log(t);
+  return 148.9802 - 13847.26 / t - 23.6521 * ln_t +
+         (-5.977 + 118.67 / t + 1.0495 * ln_t) * std::sqrt(salinity) - 0.01615 * salinity;
+}
+
+double ln_k1p_sws_yao_millero1995(double salinity, double temperature_k) {
+  const double t = temperature_k;
+  return -4576.752 / t + 115.54 - 18.453 * std::log(t) +
+         (-106.736 / t + 0.69171) * std::sqrt(salinity) + (-0.65643 / t - 0.01844) * salinity;
+}
+double ln_k2p_sws_yao_millero1995(double salinity, double temperature_k) {
+  const double t = temperature_k;
+  return -8814.715 / t + 172.1033 - 27.927 * std::log(t) +
+         (-160.34 / t + 1.3566) * std::sqrt(salinity) + (0.37335 / t - 0.05778) * salinity;
+}
+double ln_k3p_sws_yao_millero1995(double salinity, double temperature_k) {
+  const double t = temperature_k;
+  return -3070.75 / t - 18.126 + (17.27039 / t + 2.81197) * std::sqrt(salinity) +
+         (-44.99486 / t - 0.09984) * salinity;
+}
+double ln_ksi_sws_yao_millero1995(double salinity, double temperature_k) {
+  const double t = temperature_k, i = ionic_strength(salinity);
+  return -8904.2 / t + 117.4 - 19.334 * std::log(t) + (-458.79 / t + 3.5913) * std::sqrt(i) +
+         (188.74 / t - 1.5998) * i + (-12.1652 / t + 0.07871) * i * i +
          std::log(1.0 - 0.001005 * salinity);
 }
 

@@ -112,10 +112,7 @@ constexpr SalinityInput kInputs[] = {SalinityInput::Salinity, SalinityInput::Spe
                                      SalinityInput::ConductivityMsCm,
                                      SalinityInput::ConductivityRatio, SalinityInput::DensityKgM3};
 
-struct Columns {
-  int input[5];
-  int sample_c, sample_f, reference_c, reference_f, pressure;
-};
+using Columns = SalinityBatchColumns;
 
 Columns map_columns(const std::vector<std::string>& header) {
   auto f = [&](const char* name) { return csv::find_column(header, name); };
@@ -195,13 +192,9 @@ Result<SalinityReport> describe_row(const csv::Row& row, const Columns& c,
 
 }  // namespace
 
-Result<SalinityBatch> describe_salinity_csv(const std::string& csv_text,
-                                            const SalinitySample& defaults) {
-  auto parsed = csv::parse(csv_text);
-  if (!parsed) return parsed.error();
-  const std::vector<csv::Row>& rows = *parsed;
-  if (rows.empty()) return Error{"csv", "the CSV text is empty; it needs a header row"};
-  const Columns c = map_columns(rows[0].cells);
+Result<SalinityBatchReader> SalinityBatchReader::from_header(
+    const std::vector<std::string>& header, const SalinitySample& defaults) {
+  const Columns c = map_columns(header);
   bool any_input = false;
   for (int col : c.input) any_input = any_input || col >= 0;
   if (!any_input) {
@@ -209,11 +202,34 @@ Result<SalinityBatch> describe_salinity_csv(const std::string& csv_text,
                         "salinity, specific_gravity, conductivity_ms_cm, conductivity_ratio, "
                         "density_kg_m3"};
   }
+  SalinityBatchReader reader;
+  reader.columns_ = c;
+  reader.defaults_ = defaults;
+  return reader;
+}
+
+SalinityBatchRow SalinityBatchReader::describe(const std::vector<std::string>& cells,
+                                               int line) const {
+  SalinityBatchRow out;
+  out.line = line;
+  csv::Row row;
+  row.line = line;
+  row.cells = cells;
+  out.report = describe_row(row, columns_, defaults_);
+  return out;
+}
+
+Result<SalinityBatch> describe_salinity_csv(const std::string& csv_text,
+                                            const SalinitySample& defaults) {
+  auto parsed = csv::parse(csv_text);
+  if (!parsed) return parsed.error();
+  const std::vector<csv::Row>& rows = *parsed;
+  if (rows.empty()) return Error{"csv", "the CSV text is empty; it needs a header row"};
+  auto reader = SalinityBatchReader::from_header(rows[0].cells, defaults);
+  if (!reader) return reader.error();
   SalinityBatch batch;
   for (std::size_t i = 1; i < rows.size(); ++i) {
-    SalinityBatchRow out;
-    out.line = rows[i].line;
-    out.report = describe_row(rows[i], c, defaults);
+    SalinityBatchRow out = reader->describe(rows[i].cells, rows[i].line);
     if (!out.report) ++batch.failed;
     batch.rows.push_back(std::move(out));
   }
@@ -221,32 +237,37 @@ Result<SalinityBatch> describe_salinity_csv(const std::string& csv_text,
 }
 
 // ---------------------------------------------------------------- 4. CSV batch out
-std::string format_salinity_batch_csv(const SalinityBatch& batch) {
+std::string format_salinity_batch_header() {
+  return csv::format_row({kSalinityBatchColumns.begin(), kSalinityBatchColumns.end()});
+}
+
+std::string format_salinity_batch_row(const SalinityBatchRow& row) {
   auto num = [](double v) { return fmt::format("{:.10g}", v); };
-  std::vector<std::string> header(kSalinityBatchColumns.begin(), kSalinityBatchColumns.end());
-  std::string out = csv::format_row(header);
-  for (const SalinityBatchRow& row : batch.rows) {
-    std::vector<std::string> cells(kSalinityBatchColumns.size());
-    cells[0] = std::to_string(row.line);
-    if (row.report) {
-      const SalinityReport& r = *row.report;
-      cells[1] = to_string(r.sample.input);
-      cells[2] = num(r.salinity);
-      cells[3] = num(r.specific_gravity);
-      if (r.conductivity_ms_cm) cells[4] = num(*r.conductivity_ms_cm);
-      cells[5] = num(r.density_kg_m3);
-      cells[6] = num(r.sample.sample_temperature_c);
-      cells[7] = num(r.sample.reference_temperature_c);
-      cells[8] = num(r.sample.pressure_dbar);
-      if (r.conductivity_ratio) cells[9] = num(*r.conductivity_ratio);
-      std::string notes;
-      for (const auto& n : r.notes) notes += (notes.empty() ? "" : "; ") + n;
-      cells[10] = notes;
-    } else {
-      cells[11] = row.report.error().message;
-    }
-    out += csv::format_row(cells, /*defuse_formulas=*/true);
+  std::vector<std::string> cells(kSalinityBatchColumns.size());
+  cells[0] = std::to_string(row.line);
+  if (row.report) {
+    const SalinityReport& r = *row.report;
+    cells[1] = to_string(r.sample.input);
+    cells[2] = num(r.salinity);
+    cells[3] = num(r.specific_gravity);
+    if (r.conductivity_ms_cm) cells[4] = num(*r.conductivity_ms_cm);
+    cells[5] = num(r.density_kg_m3);
+    cells[6] = num(r.sample.sample_temperature_c);
+    cells[7] = num(r.sample.reference_temperature_c);
+    cells[8] = num(r.sample.pressure_dbar);
+    if (r.conductivity_ratio) cells[9] = num(*r.conductivity_ratio);
+    std::string notes;
+    for (const auto& n : r.notes) notes += (notes.empty() ? "" : "; ") + n;
+    cells[10] = notes;
+  } else {
+    cells[11] = row.report.error().message;
   }
+  return csv::format_row(cells, /*defuse_formulas=*/true);
+}
+
+std::string format_salinity_batch_csv(const SalinityBatch& batch) {
+  std::string out = format_salinity_batch_header();
+  for (const SalinityBatchRow& row : batch.rows) out += format_salinity_batch_row(row);
   return out;
 }
 

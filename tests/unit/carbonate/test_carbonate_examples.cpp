@@ -1,5 +1,7 @@
 // Worked examples (facts.md 3, 8, 9): full-system states against published software output
-// and against values computed here with the Guide's constants. Tolerances follow Orr et al.
+// and against values computed here with the Guide's constants -- so these run with
+// ConstantsConvention::Guide2007 (the reference packages' default conventions are checked in
+// test_reference_conventions.cpp and tests/reference/check_co2sys.py). Tolerances follow Orr et al.
 // (2015): 0.0002 pH, 0.2 uatm pCO2, 0.1 umol/kg CO3 (plus the rounding of the quoted value).
 #include <cmath>
 #include <string>
@@ -21,6 +23,7 @@ tc::Constants constants_at(double salinity, double temperature_c,
   c.boron = boron;
   c.phosphate_umol_kg = phosphate;
   c.silicate_umol_kg = silicate;
+  c.convention = tc::ConstantsConvention::Guide2007;  // the values below were computed so
   auto k = tc::compute_constants(c);
   REQUIRE(k.ok());
   return *k;

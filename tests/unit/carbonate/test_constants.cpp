@@ -212,3 +212,67 @@ TEST_CASE("constants: accepted ranges and calibration warnings") {
   REQUIRE(k.ok());
   for (const auto& w : k->warnings) CHECK(w.find("K1 and K2") == std::string::npos);
 }
+
+TEST_CASE("constants: the reference packages' conventions (CO2SYS-MATLAB v3.1.1, PyCO2SYS)") {
+  const double S = 35.0, T = kT25;
+  const char* co2sys = "CO2SYS.m v3.1.1 sub Constants / PyCO2SYS equilibria/p1atm.py";
+  // The seawater-scale fits as the packages code them sit 0.015 above the Guide's total-scale
+  // forms, term for term (148.9802 vs 148.9652, 115.54 vs 115.525, 172.1033 vs 172.0883,
+  // -18.126 vs -18.141, 117.4 vs 117.385): the Guide's flat offset, facts.md 1.
+  run_checks({
+      {"ln KW SWS - Guide total", tc::ln_kw_sws_millero1995(S, T) - tc::ln_kw_total_millero1995(S, T), 0.015, 1e-9, co2sys},
+      {"ln K1P SWS - Guide total", tc::ln_k1p_sws_yao_millero1995(S, T) - tc::ln_k1p_total_millero1995(S, T), 0.015, 1e-9, co2sys},
+      {"ln K2P SWS - Guide total", tc::ln_k2p_sws_yao_millero1995(S, T) - tc::ln_k2p_total_millero1995(S, T), 0.015, 1e-9, co2sys},
+      {"ln K3P SWS - Guide total", tc::ln_k3p_sws_yao_millero1995(S, T) - tc::ln_k3p_total_millero1995(S, T), 0.015, 1e-9, co2sys},
+      {"ln KSi SWS - Guide total", tc::ln_ksi_sws_yao_millero1995(S, T) - tc::ln_ksi_total_millero1995(S, T), 0.015, 1e-9, co2sys},
+      {"ln KW SWS (computed here)", tc::ln_kw_sws_millero1995(S, T), -30.4188, 1e-4, "computed here"},
+      {"ln KF PF87 free = total form", tc::ln_kf_free_perez_fraga1987(S, T), -6.0919, 1e-4, "facts.md 1"},
+  });
+
+  tc::Conditions c;  // the default: ReferencePackages, Perez & Fraga KF
+  REQUIRE(c.convention == tc::ConstantsConvention::ReferencePackages);
+  const auto k = tc::compute_constants(c);
+  REQUIRE(k.ok());
+  c.convention = tc::ConstantsConvention::Guide2007;
+  const auto g = tc::compute_constants(c);
+  REQUIRE(g.ok());
+  // facts.md 1: read as free, Perez & Fraga gives pKF 2.646 (Dickson & Riley 2.626); read as
+  // total (the Guide) it implies a free-scale pKF of 2.753. pH_T - pH_SWS is 0.0129 with the
+  // total reading (computed there) and 0.0101 with the free one (computed here:
+  // log10(1 + ST/KS + FT/KF) - log10(1 + ST/KS) = log10(1.3117/1.2815); facts.md's "0.0097
+  // too" holds for Dickson & Riley's KF, checked in "pH scales" above, not for this one).
+  run_checks({
+      {"pKF free, reference reading", -std::log10(k->kf_free), 2.646, 5e-4, "facts.md 1"},
+      {"pKF free, Guide reading", -std::log10(g->kf_free), 2.753, 5e-4, "facts.md 1, computed here"},
+      {"pH_T - pH_SWS, reference", -k->ph_sws_minus_total, 0.0101, 1e-4, "computed here"},
+      {"pH_T - pH_SWS, Guide", -g->ph_sws_minus_total, 0.0129, 1e-4, "facts.md 1, computed here"},
+      // The packages multiply the SWS constants by the actual factor: ln KW_T = ln KW_SWS +
+      // ln(SWStoTOT), which lands within 0.01 of the Guide's -30.434 (a flat -0.015 instead
+      // of ln(SWStoTOT) = -0.022 here).
+      {"ln KW total, reference", std::log(k->kw), tc::ln_kw_sws_millero1995(S, T) + std::log(k->sws_to_total), 1e-12, co2sys},
+      {"ln KW total vs Guide check", std::log(k->kw), -30.434, 1e-2, kGuide},
+      {"ln K1P total vs Guide check", std::log(k->k1p), -3.71, 1e-2, kGuide},
+      {"ln K2P total vs Guide check", std::log(k->k2p), -13.727, 1e-2, kGuide},
+      {"ln K3P total vs Guide check", std::log(k->k3p), -20.24, 1e-2, kGuide},
+      {"ln KSi total vs Guide check", std::log(k->ksi), -21.61, 1e-2, kGuide},
+      // The Guide option keeps the Guide's own forms exactly.
+      {"ln KW total, Guide option", std::log(g->kw), tc::ln_kw_total_millero1995(S, T), 1e-12, kGuide},
+      {"ln KF total, Guide option", std::log(g->kf), tc::ln_kf_total_perez_fraga1987(S, T), 1e-12, kGuide},
+  });
+}
+
+TEST_CASE("constants: option names both ways, and unknown names refused naming the field") {
+  for (auto o : {tc::K1K2Option::Lueker2000, tc::K1K2Option::Millero2010})
+    CHECK(*tc::k1k2_from_string(tc::to_string(o)) == o);
+  for (auto o : {tc::BoronOption::Uppstrom1974, tc::BoronOption::Lee2010})
+    CHECK(*tc::boron_from_string(tc::to_string(o)) == o);
+  for (auto o : {tc::FluorideOption::PerezFraga1987, tc::FluorideOption::DicksonRiley1979})
+    CHECK(*tc::fluoride_from_string(tc::to_string(o)) == o);
+  for (auto o : {tc::ConstantsConvention::ReferencePackages, tc::ConstantsConvention::Guide2007})
+    CHECK(*tc::convention_from_string(tc::to_string(o)) == o);
+  CHECK(*tc::convention_from_string(" Guide2007 ") == tc::ConstantsConvention::Guide2007);
+  const auto bad = tc::convention_from_string("dickson", "--conventions");
+  REQUIRE_FALSE(bad.ok());
+  CHECK(bad.error().field == "--conventions");
+  CHECK(bad.error().message.find("co2sys, guide2007") != std::string::npos);
+}

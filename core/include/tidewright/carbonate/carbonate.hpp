@@ -28,13 +28,34 @@ namespace tw::carbonate {
 enum class PhScale { Total, Seawater, Free, NBS };
 enum class K1K2Option { Lueker2000, Millero2010 };
 enum class BoronOption { Uppstrom1974, Lee2010 };
-// KF of hydrogen fluoride: Perez & Fraga (1987, the Guide's choice) or Dickson & Riley (1979,
-// the CO2SYS/PyCO2SYS default). It matters only for the seawater pH scale (0.003 pH).
+// KF of hydrogen fluoride: Perez & Fraga (1987, the Guide's choice and CO2SYS-MATLAB v3's
+// preferred one) or Dickson & Riley (1979, PyCO2SYS's default). How Perez & Fraga is read
+// (free or total scale) is part of the ConstantsConvention below.
 enum class FluorideOption { PerezFraga1987, DicksonRiley1979 };
+// How constants fitted on one pH scale are put on the total scale (README, "Science and
+// sources"; constants.cpp holds the one table):
+//  ReferencePackages -- as CO2SYS-MATLAB v3.1 (CO2SYS.m, sub Constants) and PyCO2SYS
+//    (equilibria/p1atm.py) do: KF of Perez & Fraga (1987) read on the FREE scale; KW, the
+//    phosphate and the silicate constants from the seawater-scale fits of Millero (1995) /
+//    Yao & Millero (1995), multiplied by the actual seawater-to-total factor at the sample's
+//    conditions. The default: it agrees with the packages oceanographers check against.
+//  Guide2007 -- as printed in Dickson, Sabine & Christian (2007) ch. 5: KF of Perez & Fraga
+//    read on the TOTAL scale, and the total-scale forms of KW, KP1-3 and KSi (a flat -0.015
+//    in ln K from the seawater-scale originals). For work that must reproduce the Guide.
+enum class ConstantsConvention { ReferencePackages, Guide2007 };
 
 const char* to_string(K1K2Option option);      // "lueker2000", "millero2010"
 const char* to_string(BoronOption option);     // "uppstrom1974", "lee2010"
 const char* to_string(FluorideOption option);  // "perezfraga1987", "dicksonriley1979"
+const char* to_string(ConstantsConvention option);  // "co2sys", "guide2007"
+// The names above back to options (case-insensitive, spaces trimmed). The Error's field is
+// `field` and its message lists the accepted names.
+Result<K1K2Option> k1k2_from_string(const std::string& text, const std::string& field = "k1k2");
+Result<BoronOption> boron_from_string(const std::string& text, const std::string& field = "boron");
+Result<FluorideOption> fluoride_from_string(const std::string& text,
+                                            const std::string& field = "fluoride");
+Result<ConstantsConvention> convention_from_string(const std::string& text,
+                                                   const std::string& field = "conventions");
 
 const char* to_string(PhScale scale);          // "total", "sws", "free", "nbs"
 Result<PhScale> ph_scale_from_string(const std::string& text);
@@ -57,6 +78,7 @@ struct Conditions {
   double phosphate_umol_kg = 0.0;         // 0..1000
   double silicate_umol_kg = 0.0;          // 0..1000
   FluorideOption fluoride = FluorideOption::PerezFraga1987;
+  ConstantsConvention convention = ConstantsConvention::ReferencePackages;
 };
 
 // Total concentrations used by the equilibria, mol/kg-soln.
@@ -80,6 +102,8 @@ struct Constants {
   double ks_free = 0;               // bisulfate, free scale
   double kf = 0;                    // hydrogen fluoride, total scale
   double kf_free = 0;               // hydrogen fluoride, free scale (used for the SWS scale)
+  // kw, k1p..k3p and ksi come from seawater-scale fits converted with sws_to_total
+  // (ReferencePackages) or from the Guide's total-scale forms (Guide2007).
   double k1p = 0, k2p = 0, k3p = 0; // phosphoric acid, total scale
   double ksi = 0;                   // silicic acid, total scale
   double ksp_calcite = 0, ksp_aragonite = 0;  // (mol/kg)^2, Mucci 1983

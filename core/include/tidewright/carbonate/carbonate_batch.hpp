@@ -2,14 +2,22 @@
 // Input columns (header-driven, case-insensitive, other columns ignored, empty cell = absent):
 //   id, salinity, temperature_c, alkalinity_umol_kg, dic_umol_kg, ph, ph_scale
 //   (total|sws|free|nbs, default total), pco2_uatm, fco2_uatm, calcium_umol_kg,
-//   phosphate_umol_kg, silicate_umol_kg
+//   phosphate_umol_kg, silicate_umol_kg, and per-row choices of constants that override the
+//   BatchOptions: k1k2 (lueker2000|millero2010), boron (uppstrom1974|lee2010), fluoride
+//   (perezfraga1987|dicksonriley1979), conventions (co2sys|guide2007)
 // Each row must hold exactly two carbonate inputs (alkalinity, DIC, pH, pCO2, fCO2).
-// Output columns: see kBatchOutputColumns. A bad row gets its error in `warnings` and
-// empty numbers; the other rows still run.
+// Output columns: see kBatchOutputColumns. A bad row gets its error ("line N: ...") in
+// `warnings` and empty numbers; the other rows still run.
+//
+// Two ways in: CarbonateBatch takes one record at a time (with csv::RecordStream the caller
+// streams any size in constant memory, and may run one CarbonateBatch per thread over
+// separate blocks of rows); solve_csv_batch does a whole text at once.
 #pragma once
 
 #include <array>
 #include <string>
+#include <string_view>
+#include <vector>
 
 #include "tidewright/carbonate/carbonate.hpp"
 
@@ -24,8 +32,39 @@ inline constexpr std::array<const char*, 16> kBatchOutputColumns = {
 struct BatchOptions {
   K1K2Option k1k2 = K1K2Option::Lueker2000;
   BoronOption boron = BoronOption::Uppstrom1974;
+  FluorideOption fluoride = FluorideOption::PerezFraga1987;
+  ConstantsConvention convention = ConstantsConvention::ReferencePackages;
   double default_salinity = 35.0;      // used when a row has no salinity cell
   double default_temperature_c = 25.0; // used when a row has no temperature_c cell
+};
+
+// A batch solved record by record. Keeps the column map and the constants of the last row
+// (rows often share their conditions), so it is not thread-safe: use one per thread.
+class CarbonateBatch {
+ public:
+  explicit CarbonateBatch(const BatchOptions& options = {});
+  // Reads the columns from the header record and appends the output header (CRLF) to out.
+  void start(std::string_view header_record, std::string& out);
+  // Solves one data record (its text without the line end; `line` is where it starts) and
+  // appends its output row, CRLF-ended, to out. False when the row failed.
+  bool solve_record(std::string_view record, int line, std::string& out);
+
+  struct Columns {
+    int id = -1, salinity = -1, temperature = -1, alkalinity = -1, dic = -1, ph = -1,
+        ph_scale = -1, pco2 = -1, fco2 = -1, calcium = -1, phosphate = -1, silicate = -1,
+        k1k2 = -1, boron = -1, fluoride = -1, convention = -1;
+  };
+
+ private:
+  Result<CarbonateState> solve_cells();
+  Result<const Constants*> constants_for(const Conditions& conditions);
+
+  BatchOptions options_;
+  Columns columns_;
+  std::vector<std::string_view> cells_;  // reused for every record
+  std::string scratch_;                  // unescaped quoted cells
+  bool have_constants_ = false;
+  Constants constants_;                  // of the last row's conditions
 };
 
 struct BatchSummary {

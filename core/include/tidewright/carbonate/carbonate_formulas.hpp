@@ -96,6 +96,7 @@ double ln_kb_total_dickson1990(double salinity, double temperature_k);
 
 // ln KW of water, total scale: Millero (1995) GCA 59:661 as given in the Guide (148.9652
 // set; the seawater-scale original has 148.9802). Check ln KW = -30.434.
+// (ConstantsConvention::Guide2007 only.)
 double ln_kw_total_millero1995(double salinity, double temperature_k);
 
 // ln KS of bisulfate, FREE scale, mol/kg-soln, Dickson (1990) J. Chem. Thermodyn. 22:113,
@@ -104,16 +105,45 @@ double ln_ks_free_dickson1990(double salinity, double temperature_k);
 
 // ln KF of hydrogen fluoride, TOTAL scale, Perez & Fraga (1987) Mar. Chem. 21:161, as in the
 // Guide: ln KF = 874/T - 9.68 + 0.111 sqrt(S). Check ln KF = -6.09 (-6.0919).
+// (ConstantsConvention::Guide2007 only.)
 double ln_kf_total_perez_fraga1987(double salinity, double temperature_k);
+
+// ln KF, FREE scale, mol/kg-soln: the same Perez & Fraga (1987) fit as the reference packages
+// read it -- CO2SYS-MATLAB v3.1.1 (CO2SYS.m, sub Constants, "CalculateKF", KFCONSTANT 2:
+// "this is on the free pH scale in mol/kg-SW") and PyCO2SYS (equilibria/p1atm.py,
+// k_HF_free_PF87). Read so, pKF = 2.646 at S 35, 25 C, next to Dickson & Riley's free-scale
+// 2.626; read as total it would imply a free pKF of 2.753 (facts.md 1). Same check value as
+// above (ln KF = -6.0919). Fit range S 10-40, 9-33 C (CO2SYS.m comment).
+double ln_kf_free_perez_fraga1987(double salinity, double temperature_k);
 
 // ln KF, FREE scale, mol/kg-soln, Dickson & Riley (1979) Mar. Chem. 7:89 (the CO2SYS and
 // PyCO2SYS default): ln KF = 1590.2/T - 12.641 + 1.525 sqrt(I) + ln(1 - 0.001005 S).
 // Check (computed here): -6.0468 at S = 35, 25 C.
 double ln_kf_free_dickson_riley1979(double salinity, double temperature_k);
 
+// ln KW of water, SEAWATER scale, (mol/kg-soln)^2, Millero (1995) GCA 59:661 as coded in
+// CO2SYS-MATLAB v3.1.1 (CO2SYS.m, sub Constants, "CalculateKW": 148.9802 - 13847.26/T -
+// 23.6521 ln T + (-5.977 + 118.67/T + 1.0495 ln T) sqrt(S) - 0.01615 S) and PyCO2SYS
+// (equilibria/p1atm.py, k_H2O_sws_M95). Equals ln_kw_total_millero1995 + 0.015 (the Guide's
+// flat offset). Check (computed here): ln KW_SWS = -30.4188 at S 35, 25 C; times the actual
+// seawater-to-total factor it is within 0.01 of the Guide's -30.434.
+double ln_kw_sws_millero1995(double salinity, double temperature_k);
+
+// ln K1P, K2P, K3P of phosphoric acid and ln KSi of silicic acid, SEAWATER scale,
+// mol/kg-soln, Yao & Millero (1995) Aquat. Geochem. 1:53 (compiled in Millero 1995), as coded
+// in CO2SYS-MATLAB v3.1.1 (CO2SYS.m, sub Constants, "CalculateKP1KP2KP3KSi": constants
+// 115.54, 172.1033, -18.126, 117.4; KSi times (1 - 0.001005 S) from mol/kg-H2O) and
+// PyCO2SYS (equilibria/p1atm.py, k_H3PO4_sws_YM95, k_H2PO4_sws_YM95, k_HPO4_sws_YM95,
+// k_Si_sws_YM95). Each equals its Guide total-scale form below + 0.015. Checks (computed
+// here, S 35, 25 C): -3.6964, -13.7125, -20.2232, -21.592.
+double ln_k1p_sws_yao_millero1995(double salinity, double temperature_k);
+double ln_k2p_sws_yao_millero1995(double salinity, double temperature_k);
+double ln_k3p_sws_yao_millero1995(double salinity, double temperature_k);
+double ln_ksi_sws_yao_millero1995(double salinity, double temperature_k);
+
 // ln K1P, K2P, K3P of phosphoric acid and ln KSi of silicic acid, total scale, Millero (1995)
-// as given in the Guide. Checks: ln K1P = -3.71, ln K2P = -13.727, ln K3P = -20.24,
-// ln KSi = -21.61.
+// as given in the Guide (ConstantsConvention::Guide2007). Checks: ln K1P = -3.71,
+// ln K2P = -13.727, ln K3P = -20.24, ln KSi = -21.61.
 double ln_k1p_total_millero1995(double salinity, double temperature_k);
 double ln_k2p_total_millero1995(double salinity, double temperature_k);
 double ln_k3p_total_millero1995(double salinity, double temperature_k);

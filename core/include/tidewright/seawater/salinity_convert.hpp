@@ -68,6 +68,26 @@ struct SalinityBatch {
   int failed = 0;
 };
 
+// Where each column is in the input (-1: absent), read from the header.
+struct SalinityBatchColumns {
+  int input[5] = {-1, -1, -1, -1, -1};  // in SalinityInput order
+  int sample_c = -1, sample_f = -1, reference_c = -1, reference_f = -1, pressure = -1;
+};
+
+// The batch one row at a time (the command line streams files of any size through it).
+class SalinityBatchReader {
+ public:
+  // Reads the columns from the header cells; fails when they name no salinity input.
+  static Result<SalinityBatchReader> from_header(const std::vector<std::string>& header,
+                                                 const SalinitySample& defaults = {});
+  // One data row (cells and the line where it starts).
+  SalinityBatchRow describe(const std::vector<std::string>& cells, int line) const;
+
+ private:
+  SalinityBatchColumns columns_;
+  SalinitySample defaults_;
+};
+
 // Fails only when the text is not CSV or its header names none of the input columns.
 // `defaults` supplies the conditions for rows without them (its input and value are unused).
 Result<SalinityBatch> describe_salinity_csv(const std::string& csv_text,
@@ -76,5 +96,8 @@ Result<SalinityBatch> describe_salinity_csv(const std::string& csv_text,
 // The batch as CSV text (header kSalinityBatchColumns, CRLF line ends, numbers with up to 10
 // significant digits, spreadsheet formulas defused).
 std::string format_salinity_batch_csv(const SalinityBatch& batch);
+// The same CSV in pieces: the header record, and one row's record (each CRLF-ended).
+std::string format_salinity_batch_header();
+std::string format_salinity_batch_row(const SalinityBatchRow& row);
 
 }  // namespace tw::seawater
