@@ -1,5 +1,8 @@
-// `tidewright plan`: a dose plan from a JSON plan input (format in core/src/plan_json.cpp),
+// `tidewright plan`: a dose plan from a JSON plan input (format in core/src/plan/plan_json.cpp),
 // printed as a table (default), JSON, CSV, iCalendar or plain text, to stdout or --out.
+// Every plan is replayed by the independent checker before it is printed; a plan the checker
+// refuses is not printed (exit 1). A plan that cannot hold the water inside its floors is
+// written in full with its verdict first and ends with exit status 3; one that holds, 0.
 #include <cstdio>
 #include <ctime>
 #include <memory>
@@ -57,6 +60,20 @@ void run(const PlanOptions& o) {
   if (!o.journal.empty() || !o.system.empty()) basis_lines = apply_journal(o, in.value());
   auto plan = plan::make_plan(*in);
   if (!plan) throw CommandError(plan.error().message);
+  // The independent checker: a plan it refuses is never printed. Floors and falls crossed are
+  // what the verdict explains, so they pass only when the verdict says the plan cannot hold.
+  const plan::CheckReport check = plan::check_plan(*in, *plan);
+  if (!check.ok()) {
+    const bool explained = !plan->verdict.holds && check.only_floors_and_falls();
+    if (!explained) {
+      const std::string why = !check.other.empty() ? check.other.front() : check.violations.front().message;
+      throw CommandError("the independent checker refused this plan: " + why);
+    }
+  }
+  const bool holds = plan->verdict.holds;
+  // The verdict comes first: on stderr for the machine formats (CSV, iCalendar, JSON carry the
+  // schedule on stdout), at the top of the text.
+  if (!holds && (o.json || o.csv || o.ics)) std::fprintf(stderr, "%s", plan::verdict_to_text(*plan).c_str());
   std::string text;
   if (o.json) {
     text = plan::plan_to_json(*in, *plan);
@@ -79,7 +96,7 @@ void run(const PlanOptions& o) {
       text = head + "\n" + text;
     }
     if (!o.text) {
-      text += "\nIf a dose is missed or a pump runs twice (largest dose of each additive):\n";
+      text += "\nIf a dose is missed or a pump runs twice (every dose of the plan tried; the worst shown):\n";
       for (const auto& w : plan::mishap_summary(*in, *plan)) text += "  " + w.summary + "\n";
     }
   }
@@ -92,13 +109,18 @@ void run(const PlanOptions& o) {
   if ((o.json || o.csv || o.ics) && !plan->cautions.empty()) {
     for (const auto& c : plan->cautions) std::fprintf(stderr, "caution: %s\n", c.c_str());
   }
+  if (!holds) throw ExitStatus{3};
 }
 
 }  // namespace
 
 void register_plan(CLI::App& app) {
   auto opts = std::make_shared<PlanOptions>();
-  CLI::App* sub = app.add_subcommand("plan", "Day-by-day dose plan within safety limits, from a JSON plan input");
+  CLI::App* sub = app.add_subcommand(
+      "plan",
+      "Day-by-day dose plan within safety limits, from a JSON plan input. Exit status: 0 the plan holds the "
+      "water inside every limit; 3 it cannot hold it inside its floors (the plan is still written, its verdict "
+      "first: what is short and what would fix it); 1 refused input or a plan the checker refuses");
   sub->add_option("input", opts->input, "plan input file (JSON; - for stdin); see assets/demo/demo_plan.json")
       ->required();
   sub->add_option("--horizon-days", opts->horizon_days, "override the plan's horizon (1..365 days)");

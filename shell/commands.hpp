@@ -14,6 +14,12 @@ struct CommandError : std::runtime_error {
   using std::runtime_error::runtime_error;
 };
 
+// Thrown after a command has written its output, to end with a status other than 0 (e.g. 3 for
+// a dose plan that cannot hold the water inside its floors).
+struct ExitStatus {
+  int code;
+};
+
 void register_chem(CLI::App& app);      // carbonate state, one or a CSV batch
 void register_salinity(CLI::App& app);  // specific gravity <-> conductivity <-> salinity
 void register_buffer(CLI::App& app);    // hatchery buffering: flow, batch, pump table

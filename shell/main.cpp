@@ -26,6 +26,8 @@ int main(int argc, char** argv) {
   } catch (const CLI::ParseError& e) {
     std::fprintf(stderr, "tidewright: %s (see --help)\n", e.what());
     return 2;
+  } catch (const tw::shell::ExitStatus& e) {
+    return e.code;
   } catch (const tw::shell::CommandError& e) {
     std::fprintf(stderr, "tidewright: %s\n", e.what());
     return 1;

@@ -68,8 +68,18 @@ std::string plan_to_csv(const PlanInput& in, const Plan& plan) {
   return out;
 }
 
+std::string verdict_to_text(const Plan& plan) {
+  const Verdict& v = plan.verdict;
+  std::string o = v.headline + "\n";
+  if (v.holds) return o;
+  for (const auto& r : v.reasons) o += "  short: " + r + "\n";
+  for (const auto& f : v.fixes) o += "  would hold it: " + f + "\n";
+  return o;
+}
+
 std::string plan_to_text(const PlanInput& in, const Plan& plan) {
-  std::string o = fmt::format("Dose plan for {} ({:g} L, salinity {:g}, {:g} C, room air {:g} ppm CO2)\n",
+  std::string o = verdict_to_text(plan) + "\n";
+  o += fmt::format("Dose plan for {} ({:g} L, salinity {:g}, {:g} C, room air {:g} ppm CO2)\n",
                               in.system.name, in.system.volume_l, in.system.salinity, in.system.temperature_c,
                               in.system.air_co2_ppm);
   o += "pH values are on the TOTAL scale. After-dose values: fully mixed, before gas exchange.\n\nLimits:\n";

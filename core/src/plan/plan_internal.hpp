@@ -13,3 +13,14 @@ Status validate_input(const PlanInput& input);
 int slot_minute(const Delivery& d, int j);
 
 }  // namespace tw::plan::detail
+
+namespace tw::plan::detail {
+// The known key nearest to `word` (edit distance), for "did you mean" in messages.
+std::string nearest(const std::string& word, const std::vector<std::string>& known);
+}  // namespace tw::plan::detail
+
+namespace tw::plan::detail {
+// Reads the plan's time line: each day's largest rise and fall over any 24 hours, and the
+// verdict (floors and falls; what is short and what would fix it). plan_verdict.cpp.
+void judge(const PlanInput& input, Plan& plan);
+}  // namespace tw::plan::detail

@@ -195,6 +195,7 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
   json limits = json::object();
   for (const auto& s : limit_specs()) {
     limits[s.key] = {{"value", plan.limits.get(s.id)}, {"default", s.default_value}, {"unit", s.unit},
+                     {"side", s.side == LimitSide::Floor ? "floor" : "upper"}, {"hard_bound", s.hard_bound},
                      {"source", s.source}};
   }
   j["limits"] = limits;
@@ -203,17 +204,39 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
   for (const auto& d : plan.doses) {
     j["doses"].push_back({{"day", d.day}, {"minute", d.minute}, {"additive", in.deliveries[d.delivery].additive.name},
                           {"amount", d.amount}, {"unit", additives::to_string(in.deliveries[d.delivery].additive.unit)},
-                          {"capped_by", d.cap}, {"after", ws(d.after)}, {"before_next", ws(d.before_next)}});
+                          {"capped_by", d.cap}, {"before", ws(d.before)}, {"after", ws(d.after)},
+                          {"before_next", ws(d.before_next)}});
   }
   j["days"] = json::array();
-  for (const auto& d : plan.days) j["days"].push_back({{"day", d.day}, {"start", ws(d.start)}, {"end", ws(d.end)},
-                                                         {"amount_per_additive", d.amount_per_delivery}});
+  for (const auto& d : plan.days) {
+    j["days"].push_back({{"day", d.day}, {"start", ws(d.start)}, {"end", ws(d.end)},
+                         {"amount_per_additive", d.amount_per_delivery},
+                         {"largest_24h_rise", {{"alkalinity_dkh", d.rise_alkalinity_dkh},
+                                               {"calcium_mg_l", d.rise_calcium_mg_l},
+                                               {"magnesium_mg_l", d.rise_magnesium_mg_l}}},
+                         {"largest_24h_fall", {{"alkalinity_dkh", d.fall_alkalinity_dkh},
+                                               {"calcium_mg_l", d.fall_calcium_mg_l},
+                                               {"magnesium_mg_l", d.fall_magnesium_mg_l}}}});
+  }
   const char* names[] = {"alkalinity", "calcium", "magnesium"};
   for (std::size_t p = 0; p < 3; ++p) {
     j["target_day"][names[p]] = plan.target_day[p] ? json(*plan.target_day[p]) : json(nullptr);
   }
   j["salinity_drift"] = {{"per_day", plan.salinity.per_day}, {"over_horizon", plan.salinity.over_horizon},
                          {"water_change_percent_per_week", plan.salinity.water_change_percent_per_week}};
+  const Verdict& v = plan.verdict;
+  json verdict = {{"holds", v.holds}, {"headline", v.headline}, {"reasons", v.reasons}, {"fixes", v.fixes}};
+  verdict["first_crossing"] =
+      v.first_limit ? json{{"limit", limit_spec(*v.first_limit).key}, {"day", v.first_day}, {"minute", v.first_minute},
+                           {"value", v.first_value}, {"allowed", v.first_allowed}}
+                    : json(nullptr);
+  verdict["shortfalls"] = json::array();
+  for (const auto& s : v.shortfalls) {
+    verdict["shortfalls"].push_back({{"parameter", s.parameter}, {"unit", s.unit},
+                                     {"deliverable_per_day", s.deliverable_per_day},
+                                     {"consumed_per_day", s.consumed_per_day}});
+  }
+  j["verdict"] = verdict;
   j["findings"] = plan.findings;
   j["cautions"] = plan.cautions;
   return j.dump(2) + "\n";

@@ -1,34 +1,65 @@
-// Safety limits of the planner: one table of defaults with their sources and hard ceilings,
-// and the rules for tightening, loosening and overriding (design.md safety model).
+// Safety limits of the planner: one table of defaults with their sources and hard bounds, on
+// both sides (ceilings and largest changes; floors), and the rules for tightening, loosening and
+// overriding (design.md safety model).
+#include <algorithm>
+
 #include <fmt/format.h>
 
-#include "tidewright/plan/plan.hpp"
+#include "plan_internal.hpp"
 #include "tidewright/common/units.hpp"
 
 namespace tw::plan {
 
 namespace {
-// Defaults: common practice of reef keeping unless a source is named. Hard ceilings are chosen
-// here as the point past which the plan refuses to go without an explicit override; for Omega
-// it is Moras et al. (2022): aragonite precipitated above Omega 7 on CaO/Ca(OH)2 particles.
+constexpr auto kUp = LimitSide::Upper;
+constexpr auto kFloor = LimitSide::Floor;
+// Defaults: common practice of reef keeping unless a source is named. Hard bounds are chosen
+// here as the point past which the plan refuses to go without an explicit override; for the
+// Omega ceiling it is Moras et al. (2022): aragonite precipitated above Omega 7 on CaO/Ca(OH)2
+// particles. `lowest`/`highest` keep a setting meaningful (a pH limit above 7, the rest above 0).
 const std::array<LimitSpec, kLimitCount> kSpecs = {{
-    {LimitId::AlkalinityRisePerDay, "alkalinity_rise_dkh_per_day", "largest rise of alkalinity in one day", "dKH/day",
-     1.0, 1.5, "common practice; hard ceiling chosen here"},
-    {LimitId::CalciumRisePerDay, "calcium_rise_mg_l_per_day", "largest rise of calcium in one day", "mg/L/day", 20.0,
-     30.0, "common practice; hard ceiling chosen here"},
-    {LimitId::MagnesiumRisePerDay, "magnesium_rise_mg_l_per_day", "largest rise of magnesium in one day", "mg/L/day",
-     50.0, 100.0, "common practice; hard ceiling chosen here"},
+    {LimitId::AlkalinityRisePerDay, "alkalinity_rise_dkh_per_day", "largest rise of alkalinity in any 24 hours",
+     "dKH", 1.0, 1.5, "common practice; hard bound chosen here", kUp, 0, 1e9},
+    {LimitId::CalciumRisePerDay, "calcium_rise_mg_l_per_day", "largest rise of calcium in any 24 hours", "mg/L",
+     20.0, 30.0, "common practice; hard bound chosen here", kUp, 0, 1e9},
+    {LimitId::MagnesiumRisePerDay, "magnesium_rise_mg_l_per_day", "largest rise of magnesium in any 24 hours",
+     "mg/L", 50.0, 100.0, "common practice; hard bound chosen here", kUp, 0, 1e9},
     {LimitId::PhAfterDose, "ph_after_dose_total", "highest pH (total scale) right after a dose, fully mixed", "pH",
-     8.45, 8.6, "common practice; hard ceiling chosen here"},
+     8.45, 8.6, "common practice; hard bound chosen here", kUp, 7.5, 1e9},
     {LimitId::OmegaAragoniteAfterDose, "omega_aragonite_after_dose",
      "highest aragonite saturation right after a dose, fully mixed", "", 5.0, 7.0,
-     "Moras et al. 2022, Biogeosciences 19:3537: no precipitation at Omega 5, aragonite above 7"},
+     "Moras et al. 2022, Biogeosciences 19:3537: no precipitation at Omega 5, aragonite above 7", kUp, 0, 1e9},
     {LimitId::AlkalinityCeiling, "alkalinity_max_dkh", "highest alkalinity at any time", "dKH", 12.0, 14.0,
-     "common practice; hard ceiling chosen here"},
+     "common practice; hard bound chosen here", kUp, 0, 1e9},
     {LimitId::CalciumCeiling, "calcium_max_mg_l", "highest calcium at any time", "mg/L", 500.0, 550.0,
-     "common practice; hard ceiling chosen here"},
+     "common practice; hard bound chosen here", kUp, 0, 1e9},
     {LimitId::MagnesiumCeiling, "magnesium_max_mg_l", "highest magnesium at any time", "mg/L", 1500.0, 1600.0,
-     "common practice; hard ceiling chosen here"},
+     "common practice; hard bound chosen here", kUp, 0, 1e9},
+    {LimitId::AlkalinityFallPerDay, "alkalinity_fall_dkh_per_day", "largest fall of alkalinity in any 24 hours",
+     "dKH", 1.0, 1.5, "common practice (swings either way stress corals); hard bound chosen here", kUp, 0, 1e9},
+    {LimitId::CalciumFallPerDay, "calcium_fall_mg_l_per_day", "largest fall of calcium in any 24 hours", "mg/L",
+     20.0, 30.0, "common practice; hard bound chosen here", kUp, 0, 1e9},
+    {LimitId::MagnesiumFallPerDay, "magnesium_fall_mg_l_per_day", "largest fall of magnesium in any 24 hours",
+     "mg/L", 50.0, 100.0, "common practice; hard bound chosen here", kUp, 0, 1e9},
+    {LimitId::AlkalinityStepPerDose, "alkalinity_step_dkh_per_dose", "largest change of alkalinity from one dose",
+     "dKH", 0.5, 1.0, "common practice (split the day's amount into several doses); hard bound chosen here", kUp, 0,
+     1e9},
+    {LimitId::CalciumStepPerDose, "calcium_step_mg_l_per_dose", "largest change of calcium from one dose", "mg/L",
+     10.0, 20.0, "common practice; hard bound chosen here", kUp, 0, 1e9},
+    {LimitId::MagnesiumStepPerDose, "magnesium_step_mg_l_per_dose", "largest change of magnesium from one dose",
+     "mg/L", 25.0, 50.0, "common practice; hard bound chosen here", kUp, 0, 1e9},
+    {LimitId::AlkalinityFloor, "alkalinity_min_dkh", "lowest alkalinity at any time", "dKH", 6.0, 5.0,
+     "common practice for calcifying corals; hard bound chosen here", kFloor, 0, 20},
+    {LimitId::CalciumFloor, "calcium_min_mg_l", "lowest calcium at any time", "mg/L", 350.0, 300.0,
+     "common practice; hard bound chosen here", kFloor, 0, 700},
+    {LimitId::MagnesiumFloor, "magnesium_min_mg_l", "lowest magnesium at any time", "mg/L", 1150.0, 1000.0,
+     "common practice; hard bound chosen here", kFloor, 0, 2000},
+    {LimitId::PhFloor, "ph_min_total", "lowest pH (total scale) at any time", "pH", 7.7, 7.5,
+     "common practice; hard bound chosen here", kFloor, 7.0, 8.6},
+    {LimitId::OmegaAragoniteFloor, "omega_aragonite_min", "lowest aragonite saturation at any time", "", 2.0, 1.5,
+     "common practice for reef systems; hard bound after bivalve larvae, which suffer below about 1.5 "
+     "(Waldbusser et al. 2015, Nature Climate Change 5:273; from memory)",
+     kFloor, 0, 10},
 }};
 }  // namespace
 
@@ -37,12 +68,12 @@ const std::array<LimitSpec, kLimitCount>& limit_specs() { return kSpecs; }
 const LimitSpec& limit_spec(LimitId id) { return kSpecs[static_cast<std::size_t>(id)]; }
 
 Result<LimitId> limit_from_key(const std::string& key) {
-  std::string keys;
+  std::vector<std::string> keys;
   for (const auto& s : kSpecs) {
     if (key == s.key) return s.id;
-    keys += (keys.empty() ? "" : ", ") + std::string(s.key);
+    keys.emplace_back(s.key);
   }
-  return Error{"limits", fmt::format("limit \"{}\" is unknown; accepted: {}", key, keys)};
+  return Error{"limits", fmt::format("limit \"{}\" is unknown; did you mean \"{}\"?", key, detail::nearest(key, keys))};
 }
 
 Limits default_limits() {
@@ -56,23 +87,26 @@ Result<Limits> make_limits(const std::vector<LimitSetting>& settings) {
   for (const auto& set : settings) {
     const LimitSpec& spec = limit_spec(set.id);
     const std::string field = std::string("limits.") + spec.key;
-    // A lower bound keeps every limit meaningful (pH above 7.5, the rest above zero).
-    const double floor = set.id == LimitId::PhAfterDose ? 7.5 : 0.0;
-    if (!(set.value > floor)) {
-      return Error{field, fmt::format("{} {:g} must be above {:g} (default {:g} {}, {})", field, set.value, floor,
+    if (!(set.value > spec.lowest) || set.value > spec.highest) {
+      return Error{field, fmt::format("{} {:g} is outside the accepted range: above {:g}{} (default {:g} {}, {})",
+                                      field, set.value, spec.lowest,
+                                      spec.highest < 1e9 ? fmt::format(" and at most {:g}", spec.highest) : "",
                                       spec.default_value, spec.unit, spec.source)};
     }
-    if (set.value > spec.hard_ceiling) {
-      if (!set.override_hard_ceiling || set.reason.empty()) {
-        return Error{field, fmt::format("{} {:g} {} is past the hard ceiling {:g} (accepted: {:g} to {:g}; going "
-                                        "further needs an explicit override with a reason)",
-                                        field, set.value, spec.unit, spec.hard_ceiling, floor, spec.hard_ceiling)};
+    const bool floor = spec.side == LimitSide::Floor;
+    if (spec.past_hard_bound(set.value)) {
+      if (!set.override_hard_bound || set.reason.empty()) {
+        return Error{field, fmt::format("{} {:g} {} is past the hard {} {:g} (accepted: {}; going further needs an "
+                                        "explicit override with a reason)",
+                                        field, set.value, spec.unit, floor ? "floor" : "ceiling", spec.hard_bound,
+                                        floor ? fmt::format("{:g} or higher", spec.hard_bound)
+                                              : fmt::format("above {:g} up to {:g}", spec.lowest, spec.hard_bound))};
       }
-      l.record.push_back(fmt::format("OVERRIDE: {} set to {:g} {}, past the hard ceiling {:g} (default {:g}, {}); "
+      l.record.push_back(fmt::format("OVERRIDE: {} set to {:g} {}, past the hard {} {:g} (default {:g}, {}); "
                                      "reason given: {}",
-                                     spec.key, set.value, spec.unit, spec.hard_ceiling, spec.default_value,
-                                     spec.source, set.reason));
-    } else if (set.value > spec.default_value) {
+                                     spec.key, set.value, spec.unit, floor ? "floor" : "ceiling", spec.hard_bound,
+                                     spec.default_value, spec.source, set.reason));
+    } else if (spec.loosens(set.value)) {
       l.record.push_back(fmt::format("loosened: {} set to {:g} {} (default {:g}, {})", spec.key, set.value, spec.unit,
                                      spec.default_value, spec.source));
     }
@@ -89,5 +123,31 @@ DailyDemand demand_from_per_litre(double alkalinity_dkh_per_day, double calcium_
   d.magnesium_mg_per_day = magnesium_mg_l_per_day * volume_l;
   return d;
 }
+
+namespace detail {
+// Levenshtein distance, for "did you mean" in messages about unknown keys.
+std::string nearest(const std::string& word, const std::vector<std::string>& known) {
+  std::string best;
+  std::size_t best_d = SIZE_MAX;
+  for (const auto& k : known) {
+    std::vector<std::size_t> row(k.size() + 1);
+    for (std::size_t j = 0; j <= k.size(); ++j) row[j] = j;
+    for (std::size_t i = 1; i <= word.size(); ++i) {
+      std::size_t diag = row[0];
+      row[0] = i;
+      for (std::size_t j = 1; j <= k.size(); ++j) {
+        const std::size_t up = row[j];
+        row[j] = std::min({row[j] + 1, row[j - 1] + 1, diag + (word[i - 1] == k[j - 1] ? 0 : 1)});
+        diag = up;
+      }
+    }
+    if (row[k.size()] < best_d) {
+      best_d = row[k.size()];
+      best = k;
+    }
+  }
+  return best;
+}
+}  // namespace detail
 
 }  // namespace tw::plan

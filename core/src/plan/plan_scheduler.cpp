@@ -1,7 +1,9 @@
 // The dose scheduler: each day it decides how much of each additive the day needs (demand plus
-// a ramp toward target no faster than the daily-rise limit), spreads it over each delivery's
-// allowed hours, and gives dose by dose through a running water model, making any dose that
-// would cross a limit smaller (or skipping it) and saying which limit held it back.
+// a ramp toward target no faster than the rise limit, and no faster down than the fall limit),
+// spreads it over each delivery's allowed hours, and gives dose by dose through a running water
+// model, making any dose that would cross a limit smaller (or skipping it) and saying which limit
+// or pump setting held it back. Every state goes on the plan's time line; the verdict
+// (plan_verdict.cpp) reads it for floors and falls.
 //
 // Sections: 1. water model  2. daily allocation  3. one dose with its safety cap
 //           4. the day loop  5. findings, salinity drift, cautions
@@ -99,8 +101,12 @@ std::size_t primary(const additives::Additive& a) {
 }
 
 // Daily amount per delivery: need (per litre units) = demand + ramp toward target.
-std::vector<double> allocate(const Model& m, const std::array<double, 3>& level, const std::vector<double>& cap,
-                             double evaporation_ml) {
+struct Allocation {
+  std::vector<double> amount;
+  std::vector<std::string> bound;  // per delivery: the pump setting that kept the day's amount down, or empty
+};
+Allocation allocate(const Model& m, const std::array<double, 3>& level, const std::vector<double>& cap,
+                    const std::vector<std::string>& cap_name, double evaporation_ml) {
   const PlanInput& in = m.in;
   const double v = in.system.volume_l;
   const std::array<double, 3> demand = {in.demand.alkalinity_meq_per_day / v / units::kMeqPerLPerDKH,
@@ -109,13 +115,18 @@ std::vector<double> allocate(const Model& m, const std::array<double, 3>& level,
                                            &in.targets.magnesium_mg_l};
   const std::array<LimitId, 3> rise_id = {LimitId::AlkalinityRisePerDay, LimitId::CalciumRisePerDay,
                                           LimitId::MagnesiumRisePerDay};
+  const std::array<LimitId, 3> fall_id = {LimitId::AlkalinityFallPerDay, LimitId::CalciumFallPerDay,
+                                          LimitId::MagnesiumFallPerDay};
   std::array<double, 3> need{};
   for (std::size_t p = 0; p < 3; ++p) {
-    const double ramp = std::min(band[p]->target - level[p], 0.9 * in.limits.get(rise_id[p]));
+    // Toward target, no faster than 90 % of the rise limit up or of the fall limit down.
+    const double ramp = std::clamp(band[p]->target - level[p], -0.9 * in.limits.get(fall_id[p]),
+                                   0.9 * in.limits.get(rise_id[p]));
     need[p] = std::max(0.0, demand[p] + ramp);
   }
   const std::size_t n = in.deliveries.size();
   std::vector<double> amount(n, 0.0);
+  std::vector<std::string> bound(n);
   auto take = [&](std::size_t i, double a) {
     amount[i] += a;
     for (std::size_t p = 0; p < 3; ++p) {
@@ -133,6 +144,7 @@ std::vector<double> allocate(const Model& m, const std::array<double, 3>& level,
       if (r > 0) want = std::min(want, need[p] / r);
     }
     const double got = std::min({want, cap[i], evap_left});
+    if (want > got * (1 + 1e-9)) bound[i] = evap_left < cap[i] ? "evaporation_l_per_day" : cap_name[i];
     evap_left -= got;
     take(i, got);
   }
@@ -149,11 +161,12 @@ std::vector<double> allocate(const Model& m, const std::array<double, 3>& level,
       const double share = need[p] / static_cast<double>(open.size());
       for (std::size_t i : open) {
         const double r = per_litre_rise(m, in.deliveries[i].additive.per_unit, p);
+        if (share / r > cap[i] - amount[i]) bound[i] = cap_name[i];
         take(i, std::min(share / r, cap[i] - amount[i]));
       }
     }
   }
-  return amount;
+  return {amount, bound};
 }
 
 // ================================================================ 3. One dose, capped
@@ -181,21 +194,48 @@ bool passes(const Model& m, const Water& w, const additives::Additive& a, double
   return true;
 }
 
-DoseOutcome cap_dose(const Model& m, const Water& w, const std::array<double, 3>& day_start,
+// Lowest level of each parameter over the 24 hours that end now, from the time line (levels
+// move linearly between its moments, so the window's edge is interpolated).
+std::array<double, 3> lowest_in_day(const std::vector<Moment>& line, double now_min, const std::array<double, 3>& now) {
+  std::array<double, 3> lo = now;
+  const double from = now_min - 1440.0;
+  for (std::size_t i = line.size(); i-- > 0;) {
+    const WaterState& w = line[i].water;
+    const std::array<double, 3> v = {w.alkalinity_dkh, w.calcium_mg_l, w.magnesium_mg_l};
+    if (line[i].minute >= from) {
+      for (std::size_t p = 0; p < 3; ++p) lo[p] = std::min(lo[p], v[p]);
+      continue;
+    }
+    if (i + 1 < line.size() && line[i + 1].minute > line[i].minute) {
+      const WaterState& x = line[i + 1].water;
+      const std::array<double, 3> nv = {x.alkalinity_dkh, x.calcium_mg_l, x.magnesium_mg_l};
+      const double f = (from - line[i].minute) / (line[i + 1].minute - line[i].minute);
+      for (std::size_t p = 0; p < 3; ++p) lo[p] = std::min(lo[p], v[p] + f * (nv[p] - v[p]));
+    }
+    break;
+  }
+  return lo;
+}
+
+DoseOutcome cap_dose(const Model& m, const Water& w, const std::array<double, 3>& day_low,
                      const additives::Additive& a, double want) {
   const Limits& l = m.in.limits;
   const std::array<LimitId, 3> ceiling = {LimitId::AlkalinityCeiling, LimitId::CalciumCeiling, LimitId::MagnesiumCeiling};
   const std::array<LimitId, 3> rise = {LimitId::AlkalinityRisePerDay, LimitId::CalciumRisePerDay,
                                        LimitId::MagnesiumRisePerDay};
+  const std::array<LimitId, 3> step = {LimitId::AlkalinityStepPerDose, LimitId::CalciumStepPerDose,
+                                       LimitId::MagnesiumStepPerDose};
   const auto now = levels(m, w);
   DoseOutcome out{want, ""};
   for (std::size_t p = 0; p < 3; ++p) {
     const double r = per_litre_rise(m, a.per_unit, p);
     if (r <= 0) continue;
     const double by_ceiling = (l.get(ceiling[p]) - now[p]) / r;
-    const double by_rise = (day_start[p] + l.get(rise[p]) - now[p]) / r;
+    const double by_rise = (day_low[p] + l.get(rise[p]) - now[p]) / r;
+    const double by_step = l.get(step[p]) / r;
     if (by_ceiling < out.amount) out = {std::max(0.0, by_ceiling), limit_spec(ceiling[p]).key};
     if (by_rise < out.amount) out = {std::max(0.0, by_rise), limit_spec(rise[p]).key};
+    if (by_step < out.amount) out = {std::max(0.0, by_step), limit_spec(step[p]).key};
   }
   out.amount = std::floor(out.amount * 0.999999 * 1000.0) / 1000.0;  // emit to 0.001 mL or g, rounded down
   if (out.amount <= 0) return {0.0, out.cap};
@@ -247,6 +287,7 @@ Result<Plan> make_plan(const PlanInput& in) {
   auto start = describe(m, w);
   if (!start) return start.error();
   plan.start = *start;
+  plan.timeline.push_back({0.0, *start, false});
 
   const std::size_t n = in.deliveries.size();
   std::vector<double> reservoir_left(n);
@@ -264,13 +305,17 @@ Result<Plan> make_plan(const PlanInput& in) {
     if (!st0) return st0.error();
     ds.start = *st0;
     const auto day_start = levels(m, w);
-    auto peak = day_start;
     std::vector<double> cap(n);
+    std::vector<std::string> cap_name(n);
     for (std::size_t i = 0; i < n; ++i) {
       const Delivery& d = in.deliveries[i];
       cap[i] = std::min({d.max_dose * d.doses_per_day, d.max_per_day, reservoir_left[i]});
+      cap_name[i] = cap[i] == reservoir_left[i] && d.reservoir > 0 ? "reservoir"
+                    : cap[i] == d.max_per_day                       ? "max_per_day"
+                                                                    : "max_dose x doses_per_day";
     }
-    const std::vector<double> daily = allocate(m, day_start, cap, in.evaporation_l_per_day * 1000.0);
+    const Allocation alloc = allocate(m, day_start, cap, cap_name, in.evaporation_l_per_day * 1000.0);
+    const std::vector<double>& daily = alloc.amount;
     ds.amount_per_delivery.assign(n, 0.0);
     double evap_left_ml = in.evaporation_l_per_day * 1000.0;
 
@@ -279,6 +324,7 @@ Result<Plan> make_plan(const PlanInput& in) {
       int minute;
       std::size_t delivery;
       double want;
+      bool by_max_dose;  // the pump's largest dose made it smaller than the day's share
     };
     std::vector<Event> events;
     // Every slot of every delivery is a step of the water model, dosed or not, so the model's
@@ -294,7 +340,7 @@ Result<Plan> make_plan(const PlanInput& in) {
       for (int j = 0; j < d.doses_per_day; ++j) {
         const bool give = (static_cast<long long>(j + 1) * count) / d.doses_per_day >
                           (static_cast<long long>(j) * count) / d.doses_per_day;
-        events.push_back({detail::slot_minute(d, j), i, give ? std::min(per, d.max_dose) : 0.0});
+        events.push_back({detail::slot_minute(d, j), i, give ? std::min(per, d.max_dose) : 0.0, per > d.max_dose});
       }
     }
     std::stable_sort(events.begin(), events.end(), [](const Event& a, const Event& b) { return a.minute < b.minute; });
@@ -303,16 +349,18 @@ Result<Plan> make_plan(const PlanInput& in) {
       const double t = (day - 1) * 1440.0 + e.minute;
       if (auto s = advance(m, w, (t - now_min) / 60.0); !s) return s.error();
       now_min = t;
+      auto before = describe(m, w);
+      if (!before) return before.error();
+      if (plan.timeline.back().minute != t || plan.timeline.back().after_dose) plan.timeline.push_back({t, *before, false});
       const Delivery& d = in.deliveries[e.delivery];
       double want = std::min({e.want, reservoir_left[e.delivery], d.max_per_day - ds.amount_per_delivery[e.delivery]});
       if (d.additive.limewater) want = std::min(want, evap_left_ml);
       if (want <= 0) continue;
-      if (last_dose) {
-        auto bn = describe(m, w);
-        if (!bn) return bn.error();
-        plan.doses[*last_dose].before_next = *bn;
-      }
-      DoseOutcome o = cap_dose(m, w, day_start, d.additive, want);
+      if (last_dose) plan.doses[*last_dose].before_next = *before;
+      const auto day_low = lowest_in_day(plan.timeline, t, levels(m, w));
+      DoseOutcome o = cap_dose(m, w, day_low, d.additive, want);
+      if (o.cap.empty() && e.by_max_dose) o.cap = "max_dose";
+      if (o.cap.empty() && !alloc.bound[e.delivery].empty()) o.cap = alloc.bound[e.delivery];
       if (!o.cap.empty()) cap_count[o.cap + "|" + d.additive.name]++;
       if (o.amount < std::max(d.min_dose, 1e-3)) continue;
       add(m, w, d.additive.per_unit.scaled(o.amount));
@@ -332,10 +380,10 @@ Result<Plan> make_plan(const PlanInput& in) {
       r.cap = o.cap;
       auto after = describe(m, w);
       if (!after) return after.error();
+      r.before = *before;
       r.after = *after;
       r.before_next = *after;
-      const auto lv = levels(m, w);
-      for (std::size_t p = 0; p < 3; ++p) peak[p] = std::max(peak[p], lv[p]);
+      plan.timeline.push_back({t, *after, true});
       plan.doses.push_back(r);
       last_dose = plan.doses.size() - 1;
     }
@@ -345,9 +393,7 @@ Result<Plan> make_plan(const PlanInput& in) {
     auto st1 = describe(m, w);
     if (!st1) return st1.error();
     ds.end = *st1;
-    ds.rise_alkalinity_dkh = peak[kAlk] - day_start[kAlk];
-    ds.rise_calcium_mg_l = peak[kCa] - day_start[kCa];
-    ds.rise_magnesium_mg_l = peak[kMg] - day_start[kMg];
+    plan.timeline.push_back({end_t, *st1, false});
     const std::array<double, 3> end_level = {ds.end.alkalinity_dkh, ds.end.calcium_mg_l, ds.end.magnesium_mg_l};
     const std::array<const Band*, 3> band = {&in.targets.alkalinity_dkh, &in.targets.calcium_mg_l,
                                              &in.targets.magnesium_mg_l};
@@ -404,8 +450,10 @@ Result<Plan> make_plan(const PlanInput& in) {
     }
   }
   for (const auto& [key, count] : cap_count) {
-    plan.findings.push_back(fmt::format("{} doses of {} were made smaller by the limit {}", count,
-                                        key.substr(key.find('|') + 1), key.substr(0, key.find('|'))));
+    const std::string what = fmt::format("{} doses of {} were made smaller by {}", count,
+                                         key.substr(key.find('|') + 1), key.substr(0, key.find('|')));
+    plan.findings.push_back(what);
+    plan.limits.record.push_back("capped: " + what);
   }
   for (const auto& e : plan.reservoirs_empty) {
     plan.findings.push_back(fmt::format("the reservoir of {} runs dry on day {} at {:02d}:{:02d}",
@@ -430,6 +478,7 @@ Result<Plan> make_plan(const PlanInput& in) {
       "{} days); a water change of {:.1f} % a week keeps the excess at or below {:g} salinity units (top off with fresh water only)",
       plan.salinity.per_day, plan.salinity.over_horizon, in.horizon_days, plan.salinity.water_change_percent_per_week,
       in.salinity_tolerance));
+  detail::judge(in, plan);
   for (const auto& d : in.deliveries) {
     for (const auto& c : additives::cautions_for(d.additive)) {
       if (std::find(plan.cautions.begin(), plan.cautions.end(), c) == plan.cautions.end()) plan.cautions.push_back(c);

@@ -52,7 +52,11 @@ TEST_CASE("plan: limit table shows defaults with sources; overrides are recorded
   CHECK(limit_spec(LimitId::OmegaAragoniteAfterDose).default_value == 5.0);  // Moras et al. 2022
   CHECK(std::string(limit_spec(LimitId::OmegaAragoniteAfterDose).source).find("Moras") != std::string::npos);
   CHECK(limit_spec(LimitId::PhAfterDose).default_value == 8.45);
-  for (const auto& s : specs) CHECK(s.hard_ceiling >= s.default_value);
+  for (const auto& s : specs) {
+    // Loosening past the hard bound is further than the default, on the limit's own side.
+    if (s.side == LimitSide::Upper) CHECK(s.hard_bound >= s.default_value);
+    else CHECK(s.hard_bound <= s.default_value);
+  }
   // Tighten: accepted, nothing recorded.
   auto tight = make_limits({{LimitId::AlkalinityRisePerDay, 0.5, false, ""}});
   REQUIRE(tight.ok());
@@ -94,6 +98,7 @@ TEST_CASE("plan: a two-part plan ramps to target, holds it, and the checker agre
   for (const auto& v : rep.violations) MESSAGE(v.message);
   for (const auto& o : rep.other) MESSAGE(o);
   CHECK(rep.ok());
+  CHECK(plan->verdict.holds);
   // The checker recomputes the same states the planner reports.
   double worst = 0;
   for (std::size_t i = 0; i < plan->doses.size(); ++i) {
@@ -115,7 +120,8 @@ TEST_CASE("plan: a strong hydroxide dose is capped by the pH-after-dose limit") 
   REQUIRE(naoh.ok());
   in.deliveries.push_back(pump(*naoh, 1, 500));  // one big dose a day
   in.demand = {};
-  auto limits = make_limits({{LimitId::PhAfterDose, 8.2, false, ""}});  // tightened by the user
+  auto limits = make_limits({{LimitId::PhAfterDose, 8.2, false, ""},  // tightened by the user
+                             {LimitId::AlkalinityStepPerDose, 1.0, false, ""}});  // loosened to its hard bound
   REQUIRE(limits.ok());
   in.limits = *limits;
   auto plan = make_plan(in);
@@ -143,7 +149,14 @@ TEST_CASE("plan: limewater is bounded by evaporation and a far target is reporte
   auto plan = make_plan(in);
   REQUIRE(plan.ok());
   for (const auto& day : plan->days) CHECK(day.amount_per_delivery[0] <= 2000.0 + 1e-9);
-  CHECK(check_plan(in, *plan).ok());
+  const CheckReport rep = check_plan(in, *plan);
+  for (const auto& v : rep.violations) MESSAGE(v.message);
+  for (const auto& o : rep.other) MESSAGE(o);
+  MESSAGE(plan->verdict.headline);
+  // Falling below the alkalinity floor is what the verdict explains, and the checker agrees.
+  CHECK_FALSE(plan->verdict.holds);
+  CHECK(rep.only_floors_and_falls());
+  CHECK(rep.crossings[static_cast<std::size_t>(LimitId::AlkalinityFloor)] > 0);
   // 2 L/day limewater (~81 meq) cannot cover 136 meq/day of demand: the plan says why.
   bool said = false;
   for (const auto& f : plan->findings) said = said || f.find("below the band") != std::string::npos;
@@ -157,7 +170,13 @@ TEST_CASE("plan: reservoirs run dry and the plan says when") {
   REQUIRE(plan.ok());
   REQUIRE(!plan->reservoirs_empty.empty());
   CHECK(plan->reservoirs_empty.front().delivery == 0);
-  CHECK(check_plan(in, *plan).ok());
+  const CheckReport rep = check_plan(in, *plan);
+  for (const auto& v : rep.violations) MESSAGE(v.message);
+  for (const auto& o : rep.other) MESSAGE(o);
+  MESSAGE(plan->verdict.headline);
+  CHECK_FALSE(plan->verdict.holds);
+  CHECK(rep.only_floors_and_falls());
+  CHECK(plan->verdict.headline.find("runs dry") != std::string::npos);
 }
 
 TEST_CASE("plan: bad input is refused naming the field and the range") {
@@ -179,16 +198,23 @@ TEST_CASE("plan: bad input is refused naming the field and the range") {
   CHECK(c.error().field == "deliveries[3].additive");
 }
 
-TEST_CASE("plan: a missed or doubled dose is measured and judged against the limits") {
+TEST_CASE("plan: the worst missed and doubled dose over every dose of the plan") {
   PlanInput in = reef();
   auto plan = make_plan(in);
   REQUIRE(plan.ok());
   const auto list = mishap_summary(in, *plan);
-  REQUIRE(list.size() == 6);  // three deliveries x (missed, twice)
+  REQUIRE(list.size() == 2);  // worst missed, worst doubled
   for (const auto& w : list) {
     MESSAGE(w.summary);
-    if (w.mishap == Mishap::Missed) CHECK(w.alkalinity_dkh_change <= 1e-9);
-    if (w.mishap == Mishap::RanTwice) CHECK(w.ph_total_after > 7.5);
+    CHECK(w.doses_tried == plan->doses.size());  // every dose, not the first largest one
+    if (w.mishap == Mishap::Missed) CHECK(w.worst.alkalinity_dkh_change <= 1e-9);
+    if (w.mishap == Mishap::RanTwice) CHECK(w.worst.ph_total_after > 7.5);
+    // No single dose is worse than the one reported.
+    for (std::size_t i = 0; i < plan->doses.size(); i += 37) {
+      auto one = what_if(in, *plan, i, w.mishap);
+      REQUIRE(one.ok());
+      CHECK(one->closest_margin >= w.worst.closest_margin - 1e-12);
+    }
   }
   CHECK_FALSE(what_if(in, *plan, plan->doses.size(), Mishap::Missed).ok());
 }

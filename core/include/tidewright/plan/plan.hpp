@@ -36,38 +36,64 @@
 namespace tw::plan {
 
 // ---------------------------------------------------------------- 1. Limits
+// Limits on both sides (design.md safety model). Ceilings and largest changes bound how far a
+// dose may push the water; floors bound how low the water may be let go. "Any 24 hours" means
+// every window of 24 hours, not calendar days. Every predicted state is checked: right after each
+// dose and just before the next (the trough). A floor applies from the moment the water is at or
+// above it; water that starts below a floor must reach it within the plan's horizon.
 enum class LimitId {
-  AlkalinityRisePerDay,  // dKH per day
-  CalciumRisePerDay,     // mg/L per day
-  MagnesiumRisePerDay,   // mg/L per day
+  AlkalinityRisePerDay,  // dKH over any 24 hours
+  CalciumRisePerDay,     // mg/L over any 24 hours
+  MagnesiumRisePerDay,   // mg/L over any 24 hours
   PhAfterDose,           // pH, total scale, right after a single dose
   OmegaAragoniteAfterDose,
   AlkalinityCeiling,     // dKH
   CalciumCeiling,        // mg/L
   MagnesiumCeiling,      // mg/L
+  AlkalinityFallPerDay,  // dKH over any 24 hours
+  CalciumFallPerDay,     // mg/L over any 24 hours
+  MagnesiumFallPerDay,   // mg/L over any 24 hours
+  AlkalinityStepPerDose, // dKH from one single dose
+  CalciumStepPerDose,    // mg/L from one single dose
+  MagnesiumStepPerDose,  // mg/L from one single dose
+  AlkalinityFloor,       // dKH
+  CalciumFloor,          // mg/L
+  MagnesiumFloor,        // mg/L
+  PhFloor,               // pH, total scale, at any time
+  OmegaAragoniteFloor,   // at any time
 };
-inline constexpr std::size_t kLimitCount = 8;
+inline constexpr std::size_t kLimitCount = 19;
+
+// Which way a limit is loosened: an upper bound (ceiling, largest change) by raising it, a
+// floor by lowering it.
+enum class LimitSide { Upper, Floor };
 
 struct LimitSpec {
   LimitId id;
   const char* key;          // "alkalinity_rise_dkh_per_day", ... (file and command-line name)
-  const char* description;  // "largest rise of alkalinity in one day"
+  const char* description;  // "largest rise of alkalinity in any 24 hours"
   const char* unit;
   double default_value;
-  double hard_ceiling;      // loosening past this needs an explicit override
+  double hard_bound;        // loosening past this (above an upper bound, below a floor) needs an override
   const char* source;       // "common practice", "Moras et al. 2022 (facts.md 9)", ...
+  LimitSide side = LimitSide::Upper;
+  double lowest = 0;        // an upper bound must be above this; a floor must be above it too
+  double highest = 1e9;     // an upper bound or a floor may not be set above this
+  bool loosens(double value) const { return side == LimitSide::Upper ? value > default_value : value < default_value; }
+  bool past_hard_bound(double value) const { return side == LimitSide::Upper ? value > hard_bound : value < hard_bound; }
 };
 const std::array<LimitSpec, kLimitCount>& limit_specs();
 const LimitSpec& limit_spec(LimitId id);
+// Unknown keys are refused naming the nearest known key.
 Result<LimitId> limit_from_key(const std::string& key);
 
-// A user's setting for one limit. Tightening (below the default) is always accepted; a value
-// between the default and the hard ceiling is accepted and noted; past the hard ceiling it
-// needs override = true and a reason, and the plan records it.
+// A user's setting for one limit. Tightening (a lower ceiling, a higher floor) is always
+// accepted; loosening up to the hard bound is accepted and noted; past the hard bound it needs
+// override = true and a reason, and the plan records it.
 struct LimitSetting {
   LimitId id;
   double value;
-  bool override_hard_ceiling = false;
+  bool override_hard_bound = false;
   std::string reason;
 };
 
@@ -153,16 +179,26 @@ struct DoseRecord {
   int minute = 0;           // minute of the day, 0..1439
   std::size_t delivery = 0; // index into PlanInput::deliveries
   double amount = 0;        // mL or g
-  std::string cap;          // empty, or the limit that made this dose smaller than wanted
+  std::string cap;          // empty, or the limit (or pump setting) that made this dose smaller than wanted
+  WaterState before;        // just before the dose (the trough since the previous one)
   WaterState after;         // right after the dose (closed system, before gas exchange)
   WaterState before_next;   // just before the next dose event (after gas exchange and demand)
+};
+
+// One predicted state of the water on the plan's time line (minutes since the start of day 1).
+struct Moment {
+  double minute = 0;
+  WaterState water;
+  bool after_dose = false;
 };
 
 struct DaySummary {
   int day = 1;
   WaterState start, end;
   std::vector<double> amount_per_delivery;  // total mL or g per delivery that day
-  double rise_alkalinity_dkh = 0, rise_calcium_mg_l = 0, rise_magnesium_mg_l = 0;  // peak - start
+  // Largest rise and fall over any 24-hour window that ends during this day.
+  double rise_alkalinity_dkh = 0, rise_calcium_mg_l = 0, rise_magnesium_mg_l = 0;
+  double fall_alkalinity_dkh = 0, fall_calcium_mg_l = 0, fall_magnesium_mg_l = 0;
 };
 
 struct ReservoirEmpty {
@@ -177,12 +213,35 @@ struct SalinityDrift {
   double water_change_percent_per_week = 0;  // that holds the steady excess at salinity_tolerance
 };
 
+// What one parameter's additives can deliver at most per day against what the system consumes.
+struct Shortfall {
+  std::string parameter;          // "alkalinity", "calcium", "magnesium"
+  std::string unit;               // "meq/day", "mg/day"
+  double deliverable_per_day = 0; // every pump at its largest setting (limewater: evaporation)
+  double consumed_per_day = 0;    // the demand
+};
+
+// The plan's verdict: whether the water stays inside every floor and largest fall. A plan that
+// cannot hold says so first, in plain words and numbers (cmd_plan exits 3).
+struct Verdict {
+  bool holds = true;
+  std::string headline;            // one sentence, "CANNOT HOLD: ..." or "Holds: ..."
+  std::optional<LimitId> first_limit;  // the first floor or fall crossed, and when
+  int first_day = 0, first_minute = 0;
+  double first_value = 0, first_allowed = 0;
+  std::vector<Shortfall> shortfalls;   // parameters whose additives deliver less than the demand
+  std::vector<std::string> reasons;    // what is short, in plain words
+  std::vector<std::string> fixes;      // which setting would hold it (pump mL/day, stock, doses/day)
+};
+
 struct Plan {
   std::vector<DoseRecord> doses;
   std::vector<DaySummary> days;
+  std::vector<Moment> timeline;  // every predicted state: each slot, each dose, each day end
   std::array<std::optional<int>, 3> target_day;  // alkalinity, calcium, magnesium: first day ending in band
   std::vector<ReservoirEmpty> reservoirs_empty;
   SalinityDrift salinity;
+  Verdict verdict;
   std::vector<std::string> findings;  // why a target is not reached safely, what was capped
   std::vector<std::string> cautions;  // for caustic and other hazardous additives
   Limits limits;                      // limits used, with their record of overrides
@@ -193,24 +252,34 @@ struct Plan {
 // ---------------------------------------------------------------- 4. Planning and checking
 // Validates the input (errors name the field and the accepted range) and plans. A target that
 // cannot be reached safely is not forced: the plan is the safe one that gets closest, and
-// `findings` say which limit held it back.
+// `findings` say which limit held it back. Floors and falls are not forced either: when the
+// additives cannot hold the water inside them, `verdict` says so (what is short, from when, and
+// what would fix it).
 Result<Plan> make_plan(const PlanInput& input);
 
 struct Violation {
-  std::size_t dose;   // index into the dose list (or SIZE_MAX for day-level findings)
+  std::size_t dose;   // index into the dose list (or SIZE_MAX for a state between doses)
   int day;
   LimitId limit;
-  double value;       // what the water reached
+  double value;       // what the water reached (for a rise, fall or step: the change)
   double allowed;
   std::string message;
+  int minute = 0;     // minute of the day
 };
 struct CheckReport {
-  std::vector<Violation> violations;
+  std::vector<Violation> violations;  // the first crossing of each limit
+  std::array<int, kLimitCount> crossings{};  // how many checked states crossed each limit
+  // Closest approach to each limit over every checked state, in the limit's unit (negative =
+  // crossed; floors count once they apply); 1e9 when never tested.
+  std::array<double, kLimitCount> closest{};
   std::vector<WaterState> after;  // recomputed state right after each dose
   std::vector<WaterState> day_end;  // recomputed state at the end of each day
   double max_ph_total = 0, max_omega_aragonite = 0;
+  double min_ph_total = 1e9, min_omega_aragonite = 1e9;
   std::vector<std::string> other;  // pump, reservoir or evaporation limits broken
   bool ok() const { return violations.empty() && other.empty(); }
+  // True when every violation is of a floor or a largest fall (what a verdict explains).
+  bool only_floors_and_falls() const;
 };
 struct PlannedDose {
   int day;
@@ -219,23 +288,41 @@ struct PlannedDose {
   double amount;
 };
 // Independent checker: replays a dose list from the input's starting state with its own code
-// (calling the carbonate engine directly), and reports every limit exceeded.
+// (calling the carbonate engine directly, never the scheduler), checks every state (each slot,
+// each dose, each day end) against every limit and reports the first crossing of each.
 CheckReport check_doses(const PlanInput& input, const std::vector<PlannedDose>& doses);
 CheckReport check_plan(const PlanInput& input, const Plan& plan);
+// True when a limit is a floor or a largest fall.
+bool is_floor_or_fall(LimitId id);
 
 enum class Mishap { Missed, RanTwice };
 struct WhatIf {
   std::size_t dose;
   Mishap mishap;
+  int day = 1, minute = 0;
   double alkalinity_dkh_change = 0, calcium_mg_l_change = 0, magnesium_mg_l_change = 0;  // vs plan, end of day
   double ph_total_after = 0, omega_aragonite_after = 0;  // right after the (doubled) dose
   bool within_limits = true;
+  // The limit the water comes closest to (or crosses) after the mishap, and how close: the
+  // margin as a share of the limit (negative = crossed).
+  std::optional<LimitId> closest_limit;
+  double closest_value = 0, closest_allowed = 0, closest_margin = 1e9;
   std::string summary;
 };
-// How far one dose missed or given twice moves the water, and whether limits hold.
+// How far one dose missed or given twice moves the water, and whether limits hold. The mishap
+// is followed to the end of the next day (a keeper's next test); after that the plan goes on
+// unchanged, so alkalinity, calcium and magnesium stay shifted by the dose: the rest of the plan
+// is checked against floors and ceilings with that shift.
 Result<WhatIf> what_if(const PlanInput& input, const Plan& plan, std::size_t dose, Mishap mishap);
-// The largest dose of each delivery, missed and doubled.
-std::vector<WhatIf> mishap_summary(const PlanInput& input, const Plan& plan);
+// The worst missed dose and the worst doubled dose over EVERY dose of the plan (the one that
+// comes closest to, or furthest past, a limit), with how many of them would cross a limit.
+struct WorstMishap {
+  Mishap mishap;
+  std::size_t doses_tried = 0, doses_crossing = 0;
+  WhatIf worst;
+  std::string summary;
+};
+std::vector<WorstMishap> mishap_summary(const PlanInput& input, const Plan& plan);
 
 // ---------------------------------------------------------------- 5. Text in and out
 // JSON plan input (format documented in plan_json.cpp and README): fields as in PlanInput.
@@ -246,7 +333,9 @@ std::string plan_to_csv(const PlanInput& input, const Plan& plan);
 // RFC 5545 iCalendar: one VEVENT per dose (manual doses get a VALARM reminder), CRLF, lines
 // folded at 75 octets. dtstamp_utc: "YYYYMMDDTHHMMSSZ" (the caller's clock; the core has none).
 Result<std::string> plan_to_icalendar(const PlanInput& input, const Plan& plan, const std::string& dtstamp_utc);
-// Plain text for print: limits with sources, day table, findings, cautions.
+// Plain text for print: the verdict first, then limits with sources, day table, findings, cautions.
 std::string plan_to_text(const PlanInput& input, const Plan& plan);
+// The verdict alone: its headline, then (when it cannot hold) what is short and what would fix it.
+std::string verdict_to_text(const Plan& plan);
 
 }  // namespace tw::plan

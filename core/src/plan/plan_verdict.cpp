@@ -1,0 +1,254 @@
+// The plan's verdict: does the water stay inside every floor and largest fall? Read from the
+// scheduler's time line (every predicted state), with the rules of plan.hpp: a floor applies
+// once the water is at or above it (water that starts below must reach it within the horizon);
+// rises and falls over every 24-hour window, the window's edge interpolated (levels move
+// linearly between states). When it cannot hold: what is short (what the additives deliver at
+// most against what the system consumes), from when, and which setting would hold it.
+//
+// Sections: 1. scan of the time line  2. shortfalls  3. fixes  4. judge
+#include <algorithm>
+#include <cmath>
+#include <map>
+
+#include <fmt/format.h>
+
+#include "plan_internal.hpp"
+#include "tidewright/common/units.hpp"
+
+namespace tw::plan::detail {
+
+namespace {
+
+constexpr double kDay = 1440.0;
+constexpr double kTol = 1e-9;  // the scheduler's own states; stricter than the checker's slack
+const char* const kName[3] = {"alkalinity", "calcium", "magnesium"};
+const char* const kLevelUnit[3] = {"dKH", "mg/L", "mg/L"};
+
+std::string when(double t) {
+  const int day = static_cast<int>(std::floor(t / kDay)) + 1;
+  const int minute = static_cast<int>(std::lround(t - (day - 1) * kDay));
+  return fmt::format("day {} at {:02d}:{:02d}", day, minute / 60, minute % 60);
+}
+
+struct Crossing {
+  LimitId limit;
+  double t = 0, value = 0, allowed = 0;
+  bool never_reached = false;
+};
+
+// ================================================================ 1. Scan of the time line
+std::optional<Crossing> scan(const PlanInput& in, Plan& plan) {
+  const auto& line = plan.timeline;
+  const Limits& lim = in.limits;
+  const LimitId floor[5] = {LimitId::AlkalinityFloor, LimitId::CalciumFloor, LimitId::MagnesiumFloor,
+                            LimitId::PhFloor, LimitId::OmegaAragoniteFloor};
+  const LimitId fall[3] = {LimitId::AlkalinityFallPerDay, LimitId::CalciumFallPerDay, LimitId::MagnesiumFallPerDay};
+  bool armed[5] = {false, false, false, false, false};
+  std::optional<Crossing> first;
+  auto levels = [](const WaterState& w) { return std::array<double, 3>{w.alkalinity_dkh, w.calcium_mg_l, w.magnesium_mg_l}; };
+  std::size_t lo_i = 0;  // first moment inside the current window
+  for (std::size_t i = 0; i < line.size(); ++i) {
+    const WaterState& w = line[i].water;
+    const double t = line[i].minute;
+    const double v[5] = {w.alkalinity_dkh, w.calcium_mg_l, w.magnesium_mg_l, w.ph_total, w.omega_aragonite};
+    for (int f = 0; f < 5; ++f) {
+      const double allowed = lim.get(floor[f]);
+      if (!armed[f]) armed[f] = v[f] >= allowed;
+      if (armed[f] && v[f] < allowed - kTol && !first) first = Crossing{floor[f], t, v[f], allowed};
+    }
+    while (lo_i < i && line[lo_i].minute < t - kDay) ++lo_i;
+    const auto now = levels(w);
+    auto lo = now, hi = now;
+    for (std::size_t j = lo_i; j < i; ++j) {
+      const auto x = levels(line[j].water);
+      for (int p = 0; p < 3; ++p) {
+        lo[p] = std::min(lo[p], x[p]);
+        hi[p] = std::max(hi[p], x[p]);
+      }
+    }
+    if (lo_i > 0 && line[lo_i].minute > t - kDay && line[lo_i].minute > line[lo_i - 1].minute) {
+      const auto a = levels(line[lo_i - 1].water), b = levels(line[lo_i].water);
+      const double f = (t - kDay - line[lo_i - 1].minute) / (line[lo_i].minute - line[lo_i - 1].minute);
+      for (int p = 0; p < 3; ++p) {
+        lo[p] = std::min(lo[p], a[p] + f * (b[p] - a[p]));
+        hi[p] = std::max(hi[p], a[p] + f * (b[p] - a[p]));
+      }
+    }
+    const int day = std::clamp(static_cast<int>(std::ceil(t / kDay)), 1, static_cast<int>(plan.days.size()));
+    DaySummary& ds = plan.days[static_cast<std::size_t>(day - 1)];
+    double* rise[3] = {&ds.rise_alkalinity_dkh, &ds.rise_calcium_mg_l, &ds.rise_magnesium_mg_l};
+    double* drop[3] = {&ds.fall_alkalinity_dkh, &ds.fall_calcium_mg_l, &ds.fall_magnesium_mg_l};
+    for (int p = 0; p < 3; ++p) {
+      *rise[p] = std::max(*rise[p], now[p] - lo[p]);
+      *drop[p] = std::max(*drop[p], hi[p] - now[p]);
+      if (hi[p] - now[p] > lim.get(fall[p]) + kTol && !first) first = Crossing{fall[p], t, hi[p] - now[p], lim.get(fall[p])};
+    }
+  }
+  if (!first && !line.empty()) {
+    const WaterState& w = line.back().water;
+    const double v[5] = {w.alkalinity_dkh, w.calcium_mg_l, w.magnesium_mg_l, w.ph_total, w.omega_aragonite};
+    for (int f = 0; f < 5 && !first; ++f) {
+      if (!armed[f]) first = Crossing{floor[f], line.back().minute, v[f], lim.get(floor[f]), true};
+    }
+  }
+  return first;
+}
+
+// ================================================================ 2. Shortfalls
+// What one unit (mL or g) of an additive adds of a parameter: meq, mg Ca, mg Mg.
+double per_unit_amount(const additives::Additive& a, int p) {
+  if (p == 0) return a.per_unit.alkalinity_eq * 1000.0;
+  if (p == 1) return a.per_unit.calcium_mol * 40.078e3;
+  return a.per_unit.magnesium_mol * 24.305e3;
+}
+double demand_of(const DailyDemand& d, int p) {
+  return p == 0 ? d.alkalinity_meq_per_day : p == 1 ? d.calcium_mg_per_day : d.magnesium_mg_per_day;
+}
+// The most a delivery can give per day (mL or g): every slot at its largest dose, its volume per
+// day, and for limewater the evaporation it replaces.
+double most_per_day(const PlanInput& in, const Delivery& d) {
+  double most = std::min(d.max_dose * d.doses_per_day, d.max_per_day);
+  if (d.additive.limewater) most = std::min(most, in.evaporation_l_per_day * 1000.0);
+  return most;
+}
+
+Shortfall shortfall_of(const PlanInput& in, int p) {
+  Shortfall s;
+  s.parameter = kName[p];
+  s.unit = p == 0 ? "meq/day" : "mg/day";
+  for (const Delivery& d : in.deliveries) s.deliverable_per_day += most_per_day(in, d) * per_unit_amount(d.additive, p);
+  s.consumed_per_day = demand_of(in.demand, p);
+  return s;
+}
+
+// ================================================================ 3. Fixes
+// The setting of one delivery that would cover the demand on its own share: mL (or g) per day,
+// then the doses per day that gives within its largest dose and the single-dose limit, or a
+// stronger stock.
+std::string fix_for(const PlanInput& in, const Shortfall& s, int p) {
+  const LimitId step[3] = {LimitId::AlkalinityStepPerDose, LimitId::CalciumStepPerDose, LimitId::MagnesiumStepPerDose};
+  std::optional<std::size_t> best;
+  for (std::size_t i = 0; i < in.deliveries.size(); ++i) {
+    const auto& a = in.deliveries[i].additive;
+    if (per_unit_amount(a, p) <= 0 || a.limewater) continue;
+    if (!best || per_unit_amount(a, p) > per_unit_amount(in.deliveries[*best].additive, p)) best = i;
+  }
+  if (!best) {
+    return fmt::format("add a {} additive on a pump (limewater is bounded by the {:g} L/day of evaporation it replaces)",
+                       kName[p], in.evaporation_l_per_day);
+  }
+  const Delivery& d = in.deliveries[*best];
+  const double r = per_unit_amount(d.additive, p);
+  const double now = most_per_day(in, d);
+  const double need = now + (s.consumed_per_day - s.deliverable_per_day) / r;
+  const char* unit = additives::to_string(d.additive.unit);
+  // Each dose may move the level at most by the single-dose limit: that bounds the dose size.
+  const double level_per_unit = p == 0 ? r / units::kMeqPerLPerDKH / in.system.volume_l : r / in.system.volume_l;
+  const double dose_cap = std::min(d.max_dose, in.limits.get(step[p]) / level_per_unit);
+  const int doses = static_cast<int>(std::ceil(need / dose_cap * 1.0000001));
+  std::string out = fmt::format("{} ({}): at least {:.4g} {}/day instead of at most {:.4g} {}/day", d.additive.name,
+                                d.device, need, unit, now, unit);
+  if (need > d.max_per_day) out += fmt::format(" (raise max_per_day from {:g})", d.max_per_day);
+  if (doses > d.doses_per_day) {
+    out += doses <= 288 ? fmt::format(", in at least {} doses/day (now {}) of at most {:.4g} {}", doses,
+                                      d.doses_per_day, dose_cap, unit)
+                        : fmt::format(", which needs more than 288 doses/day");
+  }
+  if (!d.additive.compounds.empty() && d.additive.unit == additives::DoseUnit::Millilitre) {
+    out += fmt::format("; or a stock {:.3g} times as strong at the same pump setting (if its solubility allows)",
+                       need / now);
+  }
+  return out;
+}
+
+}  // namespace
+
+// ================================================================ 4. Judge
+void judge(const PlanInput& in, Plan& plan) {
+  Verdict& v = plan.verdict;
+  v = Verdict{};
+  const auto crossing = scan(in, plan);
+  std::vector<int> short_params;
+  for (int p = 0; p < 3; ++p) {
+    Shortfall s = shortfall_of(in, p);
+    if (s.consumed_per_day > s.deliverable_per_day * (1 + 1e-9) + 1e-12) {
+      v.shortfalls.push_back(s);
+      short_params.push_back(p);
+    }
+  }
+  if (!crossing) {
+    v.holds = true;
+    v.headline = "Holds: every predicted state stays inside the floors and the largest falls.";
+    return;
+  }
+  v.holds = false;
+  const LimitSpec& spec = limit_spec(crossing->limit);
+  v.first_limit = crossing->limit;
+  const int day = static_cast<int>(std::floor(crossing->t / kDay)) + 1;
+  v.first_day = std::min(day, in.horizon_days);
+  v.first_minute = day > in.horizon_days ? 1439 : static_cast<int>(std::lround(crossing->t - (day - 1) * kDay));
+  v.first_value = crossing->value;
+  v.first_allowed = crossing->allowed;
+  std::string what;
+  if (crossing->never_reached) {
+    what = fmt::format("{} stays below its floor ({} {:g} {}) for the whole plan of {} days, ending at {:.3g}",
+                       spec.description, spec.key, crossing->allowed, spec.unit, in.horizon_days, crossing->value);
+  } else if (spec.side == LimitSide::Floor) {
+    what = fmt::format("the water falls below the floor {} {:g} {} on {} ({:.3g})", spec.key, crossing->allowed,
+                       spec.unit, when(crossing->t), crossing->value);
+  } else {
+    what = fmt::format("{} is crossed on {}: {:.3g} {} against {:g}", spec.description, when(crossing->t),
+                       crossing->value, spec.unit, crossing->allowed);
+  }
+  for (std::size_t k = 0; k < v.shortfalls.size(); ++k) {
+    const Shortfall& s = v.shortfalls[k];
+    v.reasons.push_back(fmt::format("{}: the additives deliver at most {:.4g} {}; the system consumes {:.4g} {}",
+                                    s.parameter, s.deliverable_per_day, s.unit, s.consumed_per_day, s.unit));
+    v.fixes.push_back(fix_for(in, s, short_params[k]));
+  }
+  for (const auto& e : plan.reservoirs_empty) {
+    const Delivery& d = in.deliveries[e.delivery];
+    v.reasons.push_back(fmt::format("the reservoir of {} ({:g} {}) runs dry on day {}", d.additive.name, d.reservoir,
+                                    additives::to_string(d.additive.unit), e.day));
+    v.fixes.push_back(fmt::format("refill {} before day {} (or start with a larger reservoir)", d.additive.name, e.day));
+  }
+  if (v.shortfalls.empty() && plan.reservoirs_empty.empty()) {
+    // Enough capacity: the limits or the pump's timing held doses back.
+    std::map<std::string, int> caps;
+    for (const auto& d : plan.doses) {
+      if (!d.cap.empty()) caps[d.cap]++;
+    }
+    std::string held;
+    for (const auto& [key, n] : caps) held += fmt::format("{}{} doses by {}", held.empty() ? "" : ", ", n, key);
+    v.reasons.push_back(held.empty() ? "the additives could deliver the demand, but not at the times it is needed"
+                                     : "the additives could deliver the demand, but doses were held back: " + held);
+    if (crossing->never_reached) {
+      const int p = crossing->limit == LimitId::AlkalinityFloor ? 0 : crossing->limit == LimitId::CalciumFloor ? 1 : 2;
+      if (crossing->limit == LimitId::PhFloor || crossing->limit == LimitId::OmegaAragoniteFloor) {
+        v.fixes.push_back(fmt::format("at {:g} ppm room CO2 the water settles too low: more fresh air (less CO2 in "
+                                      "the room) or a higher alkalinity target",
+                                      in.system.air_co2_ppm));
+      } else {
+        const LimitId rise[3] = {LimitId::AlkalinityRisePerDay, LimitId::CalciumRisePerDay, LimitId::MagnesiumRisePerDay};
+        v.fixes.push_back(fmt::format("a longer plan: at the rise limit of {:g} {} a day {} needs at least {:.0f} "
+                                      "days to reach its floor",
+                                      in.limits.get(rise[p]), kLevelUnit[p], kName[p],
+                                      std::ceil((crossing->allowed - crossing->value) / in.limits.get(rise[p])) +
+                                          in.horizon_days));
+      }
+    } else if (crossing->limit == LimitId::PhFloor || crossing->limit == LimitId::OmegaAragoniteFloor) {
+      v.fixes.push_back(fmt::format("at {:g} ppm room CO2 pH and saturation settle low between doses: more fresh air, "
+                                    "or a higher alkalinity target",
+                                    in.system.air_co2_ppm));
+    } else {
+      int most = 1;
+      for (const auto& d : in.deliveries) most = std::max(most, d.doses_per_day);
+      v.fixes.push_back(fmt::format("more, smaller doses per day (now at most {}; try {}): each moves the water less, "
+                                    "so the limits hold fewer of them back",
+                                    most, std::min(288, most * 2)));
+    }
+  }
+  v.headline = "CANNOT HOLD: " + what + (v.reasons.empty() ? "" : "; " + v.reasons.front()) + ".";
+}
+
+}  // namespace tw::plan::detail
