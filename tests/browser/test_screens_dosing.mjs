@@ -171,6 +171,36 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
   });
 
+  test(`settings: the chemistry-constants choice moves the Water screen's pH as issue 16 measured, and is kept (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.water');
+    let s = await state(page);
+    check(s.settings.constants_convention === 'co2sys', `default convention ${s.settings.constants_convention}`);
+    check(s.water.ok, `water not solved: ${s.water.error}`);
+    const before = s.water;
+    await tap(page, 'tab.settings');
+    await reveal(page, 'settings.conventions.1');
+    await tap(page, 'settings.conventions.1');
+    s = await state(page);
+    check(s.settings.constants_convention === 'guide2007', `after the tap: ${s.settings.constants_convention}`);
+    await shot(page, `${label}-settings-conventions`);
+    await tap(page, 'tab.water');
+    s = await state(page);
+    // The Guide's reading of the Perez & Fraga KF moves pH on the seawater and NBS scales by
+    // 0.0008-0.004 against the total scale (README, Science and sources).
+    const moved = Math.abs((s.water.ph_sws - s.water.ph_total) - (before.ph_sws - before.ph_total));
+    check(moved > 0.0007 && moved < 0.0045, `pH_SWS - pH_T moved by ${moved}`);
+    await flushed(page);
+    await page.reload();
+    await waitReady(page);
+    await frames(page, 3);
+    s = await state(page);
+    check(s.settings.constants_convention === 'guide2007', `after reload: ${s.settings.constants_convention}`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
   test(`plan: a limit tightened in Settings is planned to, one past its hard ceiling is refused, reload keeps it (${label})`, async () => {
     const { context, page, errors } = await open(opts);
     const key = 'alkalinity_rise_dkh_per_day';

@@ -264,6 +264,11 @@ bool set_room_co2(AppState& app, double ppm) {
   return true;
 }
 
+void set_constants_convention(AppState& app, tw::carbonate::ConstantsConvention convention) {
+  app.settings.constants_convention = convention;
+  changed(app);
+}
+
 std::vector<tw::plan::LimitSetting> safety_limit_settings(const Settings& settings) {
   std::vector<tw::plan::LimitSetting> out;
   for (const auto& spec : tw::plan::limit_specs()) {

@@ -38,6 +38,7 @@ bool remove_event(AppState& app, tw::journal::EventId id);
 void set_units(AppState& app, const tw::journal::UnitPreferences& units);
 void set_text_size(AppState& app, float text_size);
 bool set_room_co2(AppState& app, double ppm);
+void set_constants_convention(AppState& app, tw::carbonate::ConstantsConvention convention);
 // A safety limit of the planner: refused (message names the limit and its accepted range)
 // below its floor or past its hard ceiling; loosening up to the ceiling is kept and noted.
 bool set_safety_limit(AppState& app, tw::plan::LimitId id, double value);

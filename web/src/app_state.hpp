@@ -32,6 +32,9 @@ struct Settings {
   tw::journal::UnitPreferences units;  // shown when no system exists; copied to new systems
   float text_size = 1.0f;              // multiplier of the base text size, 0.8 .. 1.6
   double room_co2_ppm = 800;           // CO2 of the room's air, for the air-equilibrium figures
+  // How the Water screen's constants are put on the total scale: as CO2SYS/PyCO2SYS do
+  // (default) or as the 2007 Guide prints them (carbonate.hpp, ConstantsConvention).
+  tw::carbonate::ConstantsConvention constants_convention = tw::carbonate::ConstantsConvention::ReferencePackages;
   // The planner's safety limits, indexed by tw::plan::LimitId. Each is between its floor and
   // its hard ceiling (tw::plan::make_limits); the app never overrides a hard ceiling.
   std::array<double, tw::plan::kLimitCount> safety_limits = tw::plan::default_limits().value;

@@ -26,6 +26,7 @@ const char* const kVolumeUnits[] = {"Litres", "US gallons"};
 const char* const kTempUnits[] = {"\u00b0C", "\u00b0F"};
 const char* const kScales[] = {"NBS", "Total", "Seawater", "Free"};
 const cb::PhScale kScaleValues[] = {cb::PhScale::NBS, cb::PhScale::Total, cb::PhScale::Seawater, cb::PhScale::Free};
+const char* const kConventions[] = {"CO2SYS / PyCO2SYS", "2007 Guide"};
 const char* const kTextSizes[] = {"Small", "Normal", "Large", "Huge"};
 const float kTextSizeValues[] = {0.85f, 1.0f, 1.2f, 1.45f};
 
@@ -124,6 +125,13 @@ void draw_settings(AppState& app) {
     set_room_co2(app, co2);
   }
   ui::dim_text("Outdoor air is about 420 ppm; closed rooms with people in them often reach 800 to 2000 ppm, which lowers the pH that tank water settles at.");
+
+  ui::heading(app, "Chemistry constants");
+  int conv = app.settings.constants_convention == cb::ConstantsConvention::Guide2007 ? 1 : 0;
+  if (ui::choice(app, "settings.conventions", nullptr, &conv, kConventions, 2)) {
+    set_constants_convention(app, conv ? cb::ConstantsConvention::Guide2007 : cb::ConstantsConvention::ReferencePackages);
+  }
+  ui::dim_text("How the Water screen puts its constants on the total pH scale. CO2SYS / PyCO2SYS: as the reference software of oceanography does (the default). 2007 Guide: as printed in Dickson, Sabine & Christian (2007). They differ by at most 0.004 in pH on the seawater and NBS scales.");
 
   draw_safety_limits(app);
 

@@ -60,6 +60,7 @@ std::string store_to_text(const AppState& app) {
   a["settings"] = {{"units", units_to_json(app.settings.units)},
                    {"text_size", app.settings.text_size},
                    {"room_co2_ppm", app.settings.room_co2_ppm},
+                   {"constants_convention", tw::carbonate::to_string(app.settings.constants_convention)},
                    {"safety_limits", limits_to_json(app.settings.safety_limits)}};
   a["current_system"] = app.current_system;
   a["demo_system_ids"] = app.demo_system_ids;
@@ -98,6 +99,10 @@ tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
     if (size >= 0.8 && size <= 1.6) out.settings.text_size = static_cast<float>(size);
     const double co2 = s.value("room_co2_ppm", out.settings.room_co2_ppm);
     if (co2 >= 100 && co2 <= 10000) out.settings.room_co2_ppm = co2;
+    if (s.contains("constants_convention") && s["constants_convention"].is_string()) {
+      auto conv = tw::carbonate::convention_from_string(s["constants_convention"].get<std::string>());
+      if (conv) out.settings.constants_convention = *conv;  // an unknown name keeps the default
+    }
     if (s.contains("safety_limits")) limits_from_json(s["safety_limits"], out.settings.safety_limits);
   }
   const jn::SystemId current = app_part.value("current_system", jn::SystemId{0});

@@ -59,6 +59,7 @@ std::string state_json() {
   if (w.ok) {
     water["ph_total"] = w.state.ph_total;
     water["ph_nbs"] = w.state.ph_nbs;
+    water["ph_sws"] = w.state.ph_sws;
     water["alkalinity_umol_kg"] = w.state.alkalinity_umol_kg;
     water["dic_umol_kg"] = w.state.dic_umol_kg;
     water["pco2_uatm"] = w.state.pco2_uatm;
@@ -71,7 +72,8 @@ std::string state_json() {
                    {"volume_unit", tw::units::to_string(a.settings.units.volume)},
                    {"temperature_unit", jn::to_string(a.settings.units.temperature)},
                    {"ph_scale", jn::ph_scale_name(a.settings.units.ph_scale)},
-                   {"text_size", a.settings.text_size}, {"room_co2_ppm", a.settings.room_co2_ppm}};
+                   {"text_size", a.settings.text_size}, {"room_co2_ppm", a.settings.room_co2_ppm},
+                   {"constants_convention", tw::carbonate::to_string(a.settings.constants_convention)}};
   json limits = json::object();
   for (const auto& spec : tw::plan::limit_specs()) limits[spec.key] = a.settings.safety_limits[static_cast<size_t>(spec.id)];
   j["settings"]["safety_limits"] = limits;

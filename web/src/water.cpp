@@ -104,6 +104,7 @@ void refresh_water(AppState& app) {
   cb::Conditions cond;
   cond.salinity = w.salinity;
   cond.temperature_c = w.temperature_c;
+  cond.convention = app.settings.constants_convention;
   auto constants = cb::compute_constants(cond);
   if (!constants) {
     out.error = constants.error().message;
