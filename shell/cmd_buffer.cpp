@@ -25,6 +25,7 @@ using nlohmann::json;
 struct BufferOptions {
   // water
   double salinity = 35.0, temperature_c = 20.0;
+  std::string k1k2 = "lueker2000";
   std::optional<double> alkalinity, dic, ph, pco2;
   std::string alkalinity_unit = "umol/kg", ph_scale;
   // target and limits
@@ -102,6 +103,9 @@ hy::Water water_of(const BufferOptions& o, bool table) {
   hy::Water w;
   w.salinity = o.salinity;
   w.temperature_c = o.temperature_c;
+  auto k1k2 = cb::k1k2_from_string(o.k1k2, "--k1k2");
+  if (!k1k2) throw CommandError(k1k2.error().message);
+  w.k1k2 = *k1k2;
   if (auto r = check_range("salinity", o.salinity, 2.0, 45.0, ""); !r) fail(r.error());
   if (auto r = check_range("temperature_c", o.temperature_c, -2.0, 40.0, "C"); !r) fail(r.error());
   const double density = seawater::density_kg_per_l(o.salinity, o.temperature_c);
@@ -228,7 +232,11 @@ std::string chemistry_text(const hy::Treatment& t) {
 std::string notes_text(const std::vector<std::string>& warnings, const std::vector<std::string>& cautions) {
   std::string out;
   if (!warnings.empty()) out += "\nWarnings\n";
-  for (const auto& w : warnings) out += "  - " + w + "\n";
+  for (const auto& w : warnings) {
+    out += "  - " + w + "\n";
+    // The core's suggestion of a K1 K2 set names no option: say which one chooses it here.
+    if (w.find("is the set suggested for this water") != std::string::npos) out += "    (choose it with --k1k2 millero2010)\n";
+  }
   out += "\nCautions\n";
   for (const auto& c : cautions) out += "  - " + c + "\n";
   return out;
@@ -342,6 +350,7 @@ void run_table(const BufferOptions& o) {
 void add_common(CLI::App* c, BufferOptions& o) {
   c->add_option("--salinity", o.salinity, "Practical salinity of the water")->default_str("35");
   c->add_option("--temperature", o.temperature_c, "Water temperature [C]")->default_str("20");
+  c->add_option("--k1k2", o.k1k2, "Carbonic acid constants: lueker2000, or millero2010 for brackish water (suggested below S 19)")->default_str("lueker2000");
   c->add_option("--alkalinity", o.alkalinity, "Total alkalinity, in --alkalinity-unit");
   c->add_option("--alkalinity-unit", o.alkalinity_unit, "umol/kg, meq/L, dKH or mg/L CaCO3")->default_str("umol/kg");
   c->add_option("--ph", o.ph, "pH on the scale given by --ph-scale");

@@ -114,6 +114,23 @@ Status check_conditions(const Conditions& c) {
 
 }  // namespace
 
+std::optional<K1K2Suggestion> suggest_k1k2(const Conditions& c) {
+  if (c.k1k2 != K1K2Option::Lueker2000) return std::nullopt;
+  if (!outside(kRangeLueker2000, c.salinity, c.temperature_c)) return std::nullopt;
+  if (outside(kRangeMillero2010, c.salinity, c.temperature_c)) return std::nullopt;
+  return K1K2Suggestion{
+      K1K2Option::Millero2010,
+      fmt::format("salinity {:g} at {:g} C is outside the range of the default K1 K2 set, Lueker et "
+                  "al. (2000), S {:g} to {:g} and {:g} to {:g} C; Millero (2010), fitted to real "
+                  "seawater and estuarine water over S {:g} to {:g} and {:g} to {:g} C, is the set "
+                  "suggested for this water",
+                  c.salinity, c.temperature_c, kRangeLueker2000.salinity_min,
+                  kRangeLueker2000.salinity_max, kRangeLueker2000.temperature_min_c,
+                  kRangeLueker2000.temperature_max_c, kRangeMillero2010.salinity_min,
+                  kRangeMillero2010.salinity_max, kRangeMillero2010.temperature_min_c,
+                  kRangeMillero2010.temperature_max_c)};
+}
+
 Result<Constants> compute_constants(const Conditions& conditions) {
   if (auto ok = check_conditions(conditions); !ok) return ok.error();
   const double s = conditions.salinity, tc = conditions.temperature_c, tk = tc + 273.15;
@@ -159,6 +176,8 @@ Result<Constants> compute_constants(const Conditions& conditions) {
       k.k1 = std::pow(10.0, -pk1_total_lueker2000(s, tk));
       k.k2 = std::pow(10.0, -pk2_total_lueker2000(s, tk));
       warn_if_outside(kRangeLueker2000, s, tc, w);
+      k.k1k2_suggestion = suggest_k1k2(conditions);
+      if (k.k1k2_suggestion) w.push_back(k.k1k2_suggestion->reason);
       break;
     case K1K2Option::Millero2010: {
       const PkPair pk = k1_k2_sws_millero2010(s, tk);  // seawater scale -> total scale

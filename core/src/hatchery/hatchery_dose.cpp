@@ -140,6 +140,7 @@ Result<Line> solve_intake(const Water& water) {
   cb::Conditions c;
   c.salinity = water.salinity;
   c.temperature_c = water.temperature_c;
+  c.k1k2 = water.k1k2;
   auto k = cb::compute_constants(c);
   if (!k) return k.error();
   auto s = cb::solve(*k, water.measurements);

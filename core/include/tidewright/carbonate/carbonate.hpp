@@ -81,6 +81,17 @@ struct Conditions {
   ConstantsConvention convention = ConstantsConvention::ReferencePackages;
 };
 
+// A K1 K2 set that fits the water better than the chosen one: offered when the chosen set
+// is used outside its calibration range and another set's range covers the water (today:
+// Millero 2010, S 1 to 50 and 0 to 50 C, for brackish and estuarine water below the S 19 of
+// Lueker et al. 2000). `reason` is a sentence for the user (no option names: front ends add
+// how to choose it).
+struct K1K2Suggestion {
+  K1K2Option option;
+  std::string reason;
+};
+std::optional<K1K2Suggestion> suggest_k1k2(const Conditions& conditions);
+
 // Total concentrations used by the equilibria, mol/kg-soln.
 struct Totals {
   double boron = 0, sulfate = 0, fluoride = 0, calcium = 0, phosphate = 0, silicate = 0;
@@ -115,6 +126,7 @@ struct Constants {
   double ph_free_minus_total = 0;   // log10(free_to_total), about +0.108 at S 35, 25 C
   double ph_sws_minus_total = 0;    // log10(sws_to_total), about -0.01 at S 35, 25 C
   double ph_nbs_minus_total = 0;    // ph_sws_minus_total - log10(fH)
+  std::optional<K1K2Suggestion> k1k2_suggestion;  // suggest_k1k2(conditions); its reason is also a warning
   std::vector<std::string> warnings;    // e.g. "temperature 38 C is outside the calibration range of Lueker et al. (2000), 2 to 35 C"
 };
 

@@ -63,6 +63,9 @@ const char* formula_of(Compound compound);    // "Na2CO3", "NaHCO3", "NaOH"
 struct Water {
   double salinity = 35.0;       // practical salinity
   double temperature_c = 20.0;  // degrees C
+  // Carbonic acid constants for this water: Lueker et al. (2000) by default; Millero (2010)
+  // for brackish and estuarine intakes (carbonate::suggest_k1k2 says when, and why).
+  carbonate::K1K2Option k1k2 = carbonate::K1K2Option::Lueker2000;
   carbonate::InputPair measurements{{carbonate::Quantity::Alkalinity, 2300.0},
                                     {carbonate::Quantity::PH, 8.0},
                                     carbonate::PhScale::Total};
