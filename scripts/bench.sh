@@ -1,6 +1,8 @@
 #!/usr/bin/env bash
 # Prints Tidewright's speed and size figures (benchmarks are not part of the test suite).
-#   native benchmarks (g++ -O2 Release), the solver benchmark again in WebAssembly under
+#   native benchmarks (g++ -O2 Release; bench_store builds a farm-sized journal database in
+#   a temporary directory and needs about 1.3 GB of memory for its JSON-file comparison), the
+#   solver benchmark again in WebAssembly under
 #   Node.js with the WebAssembly/native ratio, and the app's transfer size and frame times.
 set -euo pipefail
 cd "$(dirname "$0")/.."

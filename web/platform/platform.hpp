@@ -8,8 +8,11 @@
 #pragma once
 
 #include <cstdint>
+#include <functional>
 #include <optional>
 #include <string>
+
+#include "tidewright/journal/journal.hpp"
 
 namespace twapp::platform {
 
@@ -55,6 +58,23 @@ bool touch_input();
 std::optional<std::string> storage_read(const std::string& name);
 bool storage_write(const std::string& name, const std::string& text, std::string* error);
 std::string storage_location();  // for messages: "this browser" or the directory
+
+// The app's saved state: the journal and the app's own part (settings). Native: the journal
+// database <data dir>/tidewright-journal.db (core/store, the same store as the command line),
+// written record by record: only what changed since the last save, in one transaction; the
+// app part is a setting in it. Browser: the whole store text `name` in IndexedDB (IDBFS).
+struct StoreLoad {
+  std::string text;                // the store text: journal JSON with an "app" member (store.hpp)
+  bool first_save_needed = false;  // read from an older store: save everything once
+  std::string notice;              // what happened, for the user (empty: nothing to say)
+};
+std::optional<StoreLoad> store_load(const std::string& name);  // nullopt: nothing saved yet
+// saved: the journal as last saved; now: as it is. full_text() gives the whole store text (the
+// browser writes it); app_part is the app member's JSON text. *reload is set when another copy
+// of the app wrote at the same moment and some new entries got other ids: read the store again.
+bool store_save(const std::string& name, const tw::journal::Journal& saved, const tw::journal::Journal& now,
+                const std::function<std::string()>& full_text, const std::string& app_part, bool* reload,
+                std::string* error);
 
 // ---------------------------------------------------------------- 3. Files
 // Offers text to the user as a file (a download in the browser; a file in the data

@@ -16,6 +16,9 @@
 #include "imgui_impl_glfw.h"
 #include "imgui_impl_opengl3.h"
 #include "platform.hpp"
+#include "tidewright/journal/journal_diff.hpp"
+#include "tidewright/store/journal_store.hpp"
+#include <nlohmann/json.hpp>
 
 namespace twapp::platform {
 namespace {
@@ -163,6 +166,64 @@ bool storage_write(const std::string& name, const std::string& text, std::string
 }
 
 std::string storage_location() { return g_data_dir.string(); }
+
+namespace {
+std::unique_ptr<tw::store::JournalStore> g_store;
+fs::path database_path() { return g_data_dir / "tidewright-journal.db"; }
+
+tw::store::JournalStore* journal_store(std::string* error) {
+  if (g_store) return g_store.get();
+  auto opened = tw::store::JournalStore::open(database_path().string());
+  if (!opened) {
+    if (error) *error = opened.error().message;
+    return nullptr;
+  }
+  g_store = std::move(opened).value();
+  return g_store.get();
+}
+}  // namespace
+
+std::optional<StoreLoad> store_load(const std::string& name) {
+  std::error_code ec;
+  if (!fs::exists(database_path(), ec)) {
+    // An older app kept everything in one JSON text: read it; the first save copies it into
+    // the database, and the old file is left as it was.
+    auto text = storage_read(name);
+    if (!text) return std::nullopt;
+    return StoreLoad{std::move(*text), true,
+                     "Your data now lives in " + database_path().string() + "; the older " +
+                         (g_data_dir / name).string() + " is kept unchanged"};
+  }
+  std::string error;
+  tw::store::JournalStore* st = journal_store(&error);
+  if (!st) return StoreLoad{"", false, error};  // an empty text: the app reports it as damaged
+  std::ostringstream journal;
+  if (!st->export_json(journal)) return StoreLoad{"", false, "the journal database could not be read"};
+  auto doc = nlohmann::json::parse(journal.str(), nullptr, false);
+  if (auto app = st->setting("app")) {
+    auto part = nlohmann::json::parse(*app, nullptr, false);
+    if (!part.is_discarded()) doc["app"] = std::move(part);
+  }
+  return StoreLoad{doc.dump(), false, ""};
+}
+
+bool store_save(const std::string&, const tw::journal::Journal& saved, const tw::journal::Journal& now,
+                const std::function<std::string()>&, const std::string& app_part, bool* reload, std::string* error) {
+  if (reload) *reload = false;
+  tw::store::JournalStore* st = journal_store(error);
+  if (!st) return false;
+  auto applied = st->apply(tw::journal::diff_journals(saved, now));
+  if (!applied) {
+    if (error) *error = applied.error().message;
+    return false;
+  }
+  if (reload) *reload = !applied->moved_ids.empty();
+  if (auto s = st->set_setting("app", app_part); !s) {
+    if (error) *error = s.error().message;
+    return false;
+  }
+  return true;
+}
 
 // ---------------------------------------------------------------- files
 bool export_file(const std::string& file_name, const std::string&, const std::string& text,

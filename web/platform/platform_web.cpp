@@ -193,6 +193,18 @@ bool storage_write(const std::string& name, const std::string& text, std::string
 
 std::string storage_location() { return "this browser's storage (IndexedDB)"; }
 
+std::optional<StoreLoad> store_load(const std::string& name) {
+  auto text = storage_read(name);
+  if (!text) return std::nullopt;
+  return StoreLoad{std::move(*text), false, ""};
+}
+
+bool store_save(const std::string& name, const tw::journal::Journal&, const tw::journal::Journal&,
+                const std::function<std::string()>& full_text, const std::string&, bool* reload, std::string* error) {
+  if (reload) *reload = false;
+  return storage_write(name, full_text(), error);
+}
+
 // ---------------------------------------------------------------- files
 bool export_file(const std::string& file_name, const std::string& mime, const std::string& text,
                  std::string* where) {

@@ -63,9 +63,20 @@ void adopt(AppState& app, StoredApp stored) {
 
 void save(AppState& app) {
   std::string error;
-  if (platform::storage_write(kStoreName, store_to_text(app), &error)) {
+  bool reload = false;
+  if (platform::store_save(kStoreName, app.store.saved_journal, app.journal, [&app] { return store_to_text(app); },
+                           app_part_to_text(app), &reload, &error)) {
     app.store.save_error.clear();
+    app.store.saved_journal = app.journal;
     ++app.store.saves;
+    if (reload) {  // another copy of the app wrote at the same moment: show what is stored
+      if (auto loaded = platform::store_load(kStoreName)) {
+        if (auto stored = store_from_text(loaded->text)) {
+          adopt(app, std::move(stored).value());
+          app.store.saved_journal = app.journal;
+        }
+      }
+    }
   } else {
     app.store.save_error = error;
     notify(app, "Not saved: " + error, true);
@@ -74,19 +85,20 @@ void save(AppState& app) {
 
 void start_app(AppState& app) {
   app.store.loaded = true;
-  const auto text = platform::storage_read(kStoreName);
-  if (!text) {  // first start: the demo
+  const auto loaded = platform::store_load(kStoreName);
+  if (!loaded) {  // first start: the demo
     load_demo(app);
     return;
   }
-  auto stored = store_from_text(*text);
+  const std::string& text = loaded->text;
+  auto stored = store_from_text(text);
   if (!stored) {
     // Keep the damaged text beside the store, start empty, and say so plainly.
     const std::string copy = std::string("tidewright-damaged-") + std::to_string(platform::now_unix_seconds()) + ".json";
     std::string error;
-    const bool kept = platform::storage_write(copy, *text, &error);
+    const bool kept = platform::storage_write(copy, text, &error);
     app.store.problem = "Your saved data could not be read (" + stored.error().field + ": " +
-                        stored.error().message + "). " +
+                        stored.error().message + (loaded->notice.empty() ? "" : "; " + loaded->notice) + "). " +
                         (kept ? "A copy was kept as " + copy + " in " + platform::storage_location() +
                                     "; the app started empty. Import a backup in Settings."
                               : "Keeping a copy failed too (" + error + ").");
@@ -94,6 +106,13 @@ void start_app(AppState& app) {
     return;
   }
   adopt(app, std::move(stored).value());
+  if (loaded->first_save_needed) {
+    app.store.saved_journal = tw::journal::Journal{};  // write everything once
+    save(app);
+    if (!loaded->notice.empty()) notify(app, loaded->notice);
+  } else {
+    app.store.saved_journal = app.journal;
+  }
 }
 
 void go_to(AppState& app, Screen screen) {

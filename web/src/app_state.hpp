@@ -165,6 +165,7 @@ struct StoreStatus {
   std::string problem;     // e.g. damaged store: what happened and where the copy is
   std::string save_error;  // last failed save
   int saves = 0;
+  tw::journal::Journal saved_journal;  // the journal as last saved: a save writes only the difference
 };
 
 struct AppState {

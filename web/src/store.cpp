@@ -53,8 +53,8 @@ void limits_from_json(const json& j, std::array<double, tw::plan::kLimitCount>& 
 
 }  // namespace
 
-std::string store_to_text(const AppState& app) {
-  json doc = json::parse(jn::serialize_journal(app.journal));
+namespace {
+json app_part_json(const AppState& app) {
   json a;
   a["schema_version"] = kAppSchemaVersion;
   a["settings"] = {{"units", units_to_json(app.settings.units)},
@@ -64,7 +64,15 @@ std::string store_to_text(const AppState& app) {
                    {"safety_limits", limits_to_json(app.settings.safety_limits)}};
   a["current_system"] = app.current_system;
   a["demo_system_ids"] = app.demo_system_ids;
-  doc["app"] = std::move(a);
+  return a;
+}
+}  // namespace
+
+std::string app_part_to_text(const AppState& app) { return app_part_json(app).dump(); }
+
+std::string store_to_text(const AppState& app) {
+  json doc = json::parse(jn::serialize_journal(app.journal));
+  doc["app"] = app_part_json(app);
   return doc.dump(2) + "\n";
 }
 

@@ -25,6 +25,7 @@ struct StoredApp {
 };
 
 std::string store_to_text(const AppState& app);
+std::string app_part_to_text(const AppState& app);  // the "app" member alone, JSON
 tw::Result<StoredApp> store_from_text(const std::string& text);
 
 }  // namespace twapp

@@ -346,3 +346,34 @@ TEST_CASE("store: --journal names: a JSON journal is read in memory, and copied 
   REQUIRE_FALSE(missing.ok());
   CHECK(missing.error().message.find("new.db") != std::string::npos);
 }
+
+TEST_CASE("store: an app's changes are applied in one transaction, and a clash of new ids moves the later one") {
+  TempDir dir;
+  auto st = open_store(dir.file("j.db"));
+  const Journal j = sample_journal(10);
+  REQUIRE(st->import_journal(j).ok());
+  // Two copies of the app start from the same journal and each add an entry.
+  Journal a = j, b = j;
+  auto ida = add_event(a, Event{0, 1, 1750000000, "", Note{"from window A"}});
+  auto idb = add_event(b, Event{0, 1, 1750000001, "", Note{"from window B"}});
+  REQUIRE(ida.ok());
+  REQUIRE(idb.ok());
+  CHECK(*ida == *idb);  // the same id handed out twice
+  auto ra = st->apply(diff_journals(j, a));
+  REQUIRE(ra.ok());
+  CHECK(ra->moved_ids.empty());
+  auto rb = st->apply(diff_journals(j, b));
+  REQUIRE(rb.ok());
+  REQUIRE(rb->moved_ids.size() == 1);
+  CHECK(st->event(*ida)->data == EventData{Note{"from window A"}});
+  CHECK(st->event(rb->moved_ids[0].second)->data == EventData{Note{"from window B"}});
+  // An edit and a removal go through; a refused record writes nothing at all.
+  Journal c = j;
+  REQUIRE(remove_event(c, c.events.front().id).ok());
+  Event bad = c.events.back();
+  bad.data = Note{""};
+  c.events.back() = bad;
+  const auto before = st->event_count();
+  CHECK_FALSE(st->apply(diff_journals(j, c)).ok());
+  CHECK(st->event_count() == before);
+}

@@ -27,6 +27,7 @@
 #include "tidewright/common/result.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/journal/journal_csv.hpp"
+#include "tidewright/journal/journal_diff.hpp"
 
 struct sqlite3;
 
@@ -83,6 +84,16 @@ class JournalStore {
   Status remove_system(journal::SystemId id, bool with_events = false);
   Status remove_event(journal::EventId id);
   Status set_description(const std::string& text);
+
+  // Several changes at once (journal_diff.hpp: what an app changed since it last saved), in one
+  // transaction, each record validated by the core. A record the change created whose id
+  // another program took in the meantime gets the next free id instead: moved_ids says so,
+  // and the caller should read the journal again. Removing a system that still has events in
+  // the store (someone else's) is refused and nothing is written.
+  struct ApplyReport {
+    std::vector<std::pair<std::int64_t, std::int64_t>> moved_ids;  // (id in the change, id stored)
+  };
+  Result<ApplyReport> apply(const journal::JournalChanges& changes);
 
   // ---------------------------------------------------------------- 4. Imports
   struct ImportReport {
