@@ -39,7 +39,8 @@ std::string now_dtstamp() {
 }
 
 // --journal/--system: the system's state and demand from the journal (plan_from_journal.hpp).
-std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in) {
+std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in,
+                                       const std::vector<std::string>& not_in_file) {
   if (o.journal.empty()) throw CommandError("--system: needs --journal FILE");
   if (o.system.empty()) throw CommandError("--journal: needs --system NAME or ID");
   // Only this system's events are read from the journal database (core/store).
@@ -53,11 +54,13 @@ std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in
 }
 
 void run(const PlanOptions& o) {
-  auto in = plan::plan_input_from_json(read_text_file(o.input));
+  const bool from_journal = !o.journal.empty() || !o.system.empty();
+  std::vector<std::string> not_in_file;
+  auto in = plan::plan_input_from_json(read_text_file(o.input), from_journal ? &not_in_file : nullptr);
   if (!in) throw CommandError(in.error().message);
   if (o.horizon_days > 0) in->horizon_days = o.horizon_days;
   std::vector<std::string> basis_lines;
-  if (!o.journal.empty() || !o.system.empty()) basis_lines = apply_journal(o, in.value());
+  if (from_journal) basis_lines = apply_journal(o, in.value(), not_in_file);
   auto plan = plan::make_plan(*in);
   if (!plan) throw CommandError(plan.error().message);
   // The independent checker: a plan it refuses is never printed. Floors and falls crossed are

@@ -201,6 +201,38 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
   });
 
+  test(`plan: a plan that cannot hold says so first, the same verdict in its text download (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.plan');
+    // Pumps far short of the consumption: 5 dKH/day typed in, at most 1 mL per dose.
+    await tap(page, 'plan.demand_source.1');
+    await tap(page, 'plan.alk_demand');
+    await enter(page, '5');
+    await tap(page, 'plan.max_dose');
+    await enter(page, '1');
+    await frames(page, 3);
+    const s = await state(page);
+    check(s.plan && s.plan.verdict && s.plan.verdict.holds === false, `verdict: ${JSON.stringify(s.plan && s.plan.verdict)}`);
+    check(/^CANNOT HOLD/.test(s.plan.verdict.headline), `headline: ${s.plan.verdict.headline}`);
+    check(s.plan.verdict.reasons.some((r) => /deliver at most/.test(r)), `reasons: ${s.plan.verdict.reasons}`);
+    check(s.plan.verdict.fixes.length > 0, 'no fix offered');
+    check(s.plan.check_explained, 'the independent check does not confirm the floors the verdict names');
+    // At the top: drawn above the form and the summary, visible without scrolling.
+    const v = await reveal(page, 'plan.verdict');
+    const form = await widget(page, 'plan.max_dose');
+    check(v.found && v.visible, 'verdict not visible at the top of the Plan screen');
+    check(v.y < form.y, `verdict at y=${v.y} is not above the form at y=${form.y}`);
+    await shot(page, `${label}-plan-cannot-hold`);
+    // The text download (the command line's text format) opens with the same verdict.
+    await tap(page, 'plan.export_format.2');
+    const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }), tap(page, 'plan.export')]);
+    const text = readFileSync(await download.path(), 'utf8');
+    check(text.startsWith(s.plan.verdict.headline), `the download opens with: ${text.slice(0, 160)}`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
   test(`plan: a limit tightened in Settings is planned to, one past its hard ceiling is refused, reload keeps it (${label})`, async () => {
     const { context, page, errors } = await open(opts);
     const key = 'alkalinity_rise_dkh_per_day';

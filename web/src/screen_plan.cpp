@@ -1,7 +1,8 @@
 // Plan: the day-by-day dose schedule for the current system from the core's planner
 // (tw::plan::make_plan), with the water predicted after each dose, every safety limit's status
-// beside its default and source, the independent checker's replay and cautions. Map: 1. form  2. chart  3. days and doses
-// 4. limits  5. draw_plan.
+// beside its default and source, the independent checker's replay and cautions; the verdict (can the
+// plan hold the water inside its floors?) first. Map: 1. form  2. chart  3. days and doses
+// 4. limits, verdict  5. draw_plan.
 #include <algorithm>
 #include <cmath>
 #include <string>
@@ -173,29 +174,17 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
 // ---------------------------------------------------------------- 4. Limits
 void draw_limits(AppState& app, const PlanCache& c) {
   const pl::Plan& plan = *c.plan;
-  // What the plan reaches for each limit.
-  double reached[pl::kLimitCount] = {};
-  for (const auto& d : plan.days) {
-    reached[0] = std::max(reached[0], d.rise_alkalinity_dkh);
-    reached[1] = std::max(reached[1], d.rise_calcium_mg_l);
-    reached[2] = std::max(reached[2], d.rise_magnesium_mg_l);
-  }
-  auto take = [&](const pl::WaterState& w) {
-    reached[3] = std::max(reached[3], w.ph_total);
-    reached[4] = std::max(reached[4], w.omega_aragonite);
-    reached[5] = std::max(reached[5], w.alkalinity_dkh);
-    reached[6] = std::max(reached[6], w.calcium_mg_l);
-    reached[7] = std::max(reached[7], w.magnesium_mg_l);
-  };
-  take(plan.start);
-  for (const auto& d : plan.doses) take(d.after);
-  for (const auto& d : plan.days) take(d.end);
   ui::card_begin(app);
   for (const pl::LimitSpec& s : pl::limit_specs()) {
     const size_t i = static_cast<size_t>(s.id);
     const double limit = plan.limits.get(s.id);
-    const bool over = reached[i] > limit * (1 + 1e-6);
-    const bool near = !over && reached[i] >= 0.97 * limit;
+    const bool floor = s.side == pl::LimitSide::Floor;
+    // The closest the independent checker saw the water come to this limit, over every state.
+    const double closest = c.check ? c.check->closest[i] : 1e9;
+    const bool tested = closest < 1e8;
+    const double reached = floor ? limit + closest : limit - closest;
+    const bool over = tested && closest < -1e-7;
+    const bool near = tested && !over && closest <= 0.03 * std::fabs(limit);
     const ImU32 col = over ? theme::kError : near ? theme::kWarning : theme::kAccent;
     const int dec = std::fabs(limit) < 20 ? 2 : 0;
     ImGui::PushFont(app.ui.fonts.bold);
@@ -204,17 +193,22 @@ void draw_limits(AppState& app, const PlanCache& c) {
     ui::wrapped(desc.c_str());
     ImGui::PopFont();
     const std::string unit = *s.unit ? std::string(" ") + s.unit : std::string();  // Omega has none
-    ui::label_value(app, ("limit " + fmtx::fixed(limit, dec) + unit).c_str(),
-                    (over ? "over: " : near ? "at the limit: " : "within: ") + fmtx::fixed(reached[i], dec), col);
+    const std::string word = floor ? (over ? "below: " : near ? "at the floor: " : "lowest: ")
+                                   : (over ? "over: " : near ? "at the limit: " : "within: ");
+    ui::label_value(app, ((floor ? "floor " : "limit ") + fmtx::fixed(limit, dec) + unit).c_str(),
+                    tested ? word + fmtx::fixed(reached, dec) : std::string("not reached by this plan"), col);
     ui::record(app, std::string("plan.limit.") + s.key);
-    ui::dim_text(("Default " + fmtx::fixed(s.default_value, dec) + unit + " (" + s.source + "); hard ceiling " +
-                  fmtx::fixed(s.hard_ceiling, dec) + ".").c_str());
+    ui::dim_text(("Default " + fmtx::fixed(s.default_value, dec) + unit + " (" + s.source + "); hard " +
+                  (floor ? "floor " : "ceiling ") + fmtx::fixed(s.hard_bound, dec) + ".").c_str());
   }
   for (const std::string& r : plan.limits.record) ui::colored_wrapped(theme::kWarning, r.c_str());
   if (ui::button(app, "plan.limits_settings", "Change the limits (Settings)", 0, ui::Tone::Quiet)) go_to(app, Screen::Settings);
   if (c.check) {
     if (c.check->ok()) {
-      ui::colored_wrapped(theme::kAccent, "Independent check: every dose replayed, no limit exceeded.");
+      ui::colored_wrapped(theme::kAccent, "Independent check: every state replayed (after each dose and before the next), no limit crossed.");
+    } else if (!plan.verdict.holds && c.check->only_floors_and_falls()) {
+      ui::colored_wrapped(theme::kError, "Independent check: every state replayed; it confirms the floors or falls the verdict at the top names, and nothing else is crossed:");
+      for (size_t i = 0; i < std::min<size_t>(c.check->violations.size(), 5); ++i) ui::dim_text(c.check->violations[i].message.c_str());
     } else {
       ui::colored_wrapped(theme::kError, ("Independent check found " + std::to_string(c.check->violations.size()) +
                                           " limit breaks and " + std::to_string(c.check->other.size()) + " other problems:").c_str());
@@ -226,6 +220,26 @@ void draw_limits(AppState& app, const PlanCache& c) {
   ui::card_end(app);
 }
 
+// The verdict of the core's planner, first on the screen: a plan that cannot hold the water
+// inside its floors says so in the error colour before anything else, with what is short and
+// which setting would hold it (the same text the command line prints first).
+void draw_verdict(AppState& app, const pl::Plan& plan) {
+  const pl::Verdict& v = plan.verdict;
+  ui::card_begin(app);
+  if (v.holds) {
+    ui::colored_wrapped(theme::kAccent, v.headline.c_str());
+  } else {
+    ImGui::PushFont(app.ui.fonts.bold);
+    ui::colored_wrapped(theme::kError, "This plan cannot hold the water safe.");
+    ImGui::PopFont();
+    ui::colored_wrapped(theme::kError, v.headline.c_str());
+    for (const std::string& r : v.reasons) ui::wrapped(("Short: " + r).c_str());
+    for (const std::string& f : v.fixes) ui::wrapped(("Would hold it: " + f).c_str());
+  }
+  ui::record(app, "plan.verdict");
+  ui::card_end(app);
+}
+
 }  // namespace
 
 // ---------------------------------------------------------------- 5. The screen
@@ -233,9 +247,11 @@ void draw_plan(AppState& app) {
   PlanForm& f = app.ui.dosing.plan;
   const auto* sys = current_system(app);
   ui::heading(app, sys ? ("Dose plan for " + sys->name).c_str() : "Dose plan");
-  draw_form(app, f);
   refresh_plan(app);
   const PlanCache& c = app.ui.dosing.plan_cache;
+  if (c.plan) draw_verdict(app, *c.plan);
+  draw_form(app, f);
+  refresh_plan(app);  // a change in the form shows from the next frame on, the verdict included
   for (const std::string& a : c.assumptions) ui::dim_text(("\u2022 " + a).c_str());
   if (!c.error.empty()) {
     ui::card_begin(app);

@@ -30,12 +30,14 @@ const char* const kConventions[] = {"CO2SYS / PyCO2SYS", "2007 Guide"};
 const char* const kTextSizes[] = {"Small", "Normal", "Large", "Huge"};
 const float kTextSizeValues[] = {0.85f, 1.0f, 1.2f, 1.45f};
 
-// How each safety limit is entered: step, decimals and the lowest value offered. The lowest
-// values are this screen's choice (a limit below them leaves no useful plan); the core only
-// asks for a value above its floor. The highest is always the core's hard ceiling.
+// How each safety limit is entered: step, decimals and the least strict value offered on the
+// screen's own side (the lowest ceiling or largest change, the highest floor). Those are this
+// screen's choice (a limit past them leaves no useful plan); the core asks only for a value in
+// its accepted range. The other end is always the core's hard bound: this screen has no
+// override, so it never goes past it.
 struct LimitEntry {
   int decimals;
-  double step, lowest;
+  double step, strictest;
 };
 LimitEntry limit_entry(tw::plan::LimitId id) {
   using L = tw::plan::LimitId;
@@ -48,13 +50,24 @@ LimitEntry limit_entry(tw::plan::LimitId id) {
     case L::AlkalinityCeiling: return {1, 0.5, 5};
     case L::CalciumCeiling: return {0, 10, 350};
     case L::MagnesiumCeiling: return {0, 10, 1000};
+    case L::AlkalinityFallPerDay: return {2, 0.1, 0.1};
+    case L::CalciumFallPerDay: return {0, 1, 1};
+    case L::MagnesiumFallPerDay: return {0, 5, 5};
+    case L::AlkalinityStepPerDose: return {2, 0.05, 0.05};
+    case L::CalciumStepPerDose: return {0, 1, 1};
+    case L::MagnesiumStepPerDose: return {0, 5, 5};
+    case L::AlkalinityFloor: return {1, 0.5, 11};
+    case L::CalciumFloor: return {0, 10, 480};
+    case L::MagnesiumFloor: return {0, 10, 1450};
+    case L::PhFloor: return {2, 0.05, 8.2};
+    case L::OmegaAragoniteFloor: return {1, 0.1, 4.0};
   }
   return {2, 0.1, 0.1};
 }
 
 void draw_safety_limits(AppState& app) {
   ui::heading(app, "Safety limits of the dose plan");
-  ui::dim_text("Tighten any limit for sensitive livestock. Raising one above its default is allowed up to its hard ceiling and is shown with every plan; past the ceiling the app refuses.");
+  ui::dim_text("Limits on both sides: ceilings and largest changes bound how hard a dose may push the water; floors bound how low it may be let go. Tighten any limit for sensitive livestock. Loosening one past its default (a higher ceiling, a lower floor) is allowed up to its hard bound and is shown with every plan; past the hard bound the app refuses.");
   ui::card_begin(app);
   for (const tw::plan::LimitSpec& spec : tw::plan::limit_specs()) {
     const LimitEntry e = limit_entry(spec.id);
@@ -62,13 +75,16 @@ void draw_safety_limits(AppState& app) {
     std::string label = spec.description;
     if (!label.empty()) label[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(label[0])));
     const std::string name = std::string("settings.limit.") + spec.key;
-    if (ui::number_field(app, name, {label.c_str(), spec.unit, e.decimals, e.step, e.lowest, spec.hard_ceiling}, &v)) {
+    const bool floor = spec.side == tw::plan::LimitSide::Floor;
+    const double lo = floor ? spec.hard_bound : e.strictest, hi = floor ? e.strictest : spec.hard_bound;
+    if (ui::number_field(app, name, {label.c_str(), spec.unit, e.decimals, e.step, lo, hi}, &v)) {
       set_safety_limit(app, spec.id, v);
     }
-    const bool loosened = v > spec.default_value * (1 + 1e-9);
-    const std::string note = "Default " + fmtx::fixed(spec.default_value, e.decimals) + ", hard ceiling " +
-                             fmtx::fixed(spec.hard_ceiling, e.decimals) + " (" + spec.source + ")";
-    if (loosened) ui::colored_wrapped(theme::kWarning, ("Above the default. " + note).c_str());
+    const bool loosened = spec.loosens(v) && std::fabs(v - spec.default_value) > 1e-9 * std::fabs(spec.default_value);
+    const std::string note = std::string(floor ? "Floor. " : "") + "Default " +
+                             fmtx::fixed(spec.default_value, e.decimals) + ", hard " + (floor ? "floor " : "ceiling ") +
+                             fmtx::fixed(spec.hard_bound, e.decimals) + " (" + spec.source + ")";
+    if (loosened) ui::colored_wrapped(theme::kWarning, ((floor ? "Below the default. " : "Above the default. ") + note).c_str());
     else ui::dim_text(note.c_str());
   }
   ui::card_end(app);

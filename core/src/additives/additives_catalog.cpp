@@ -189,16 +189,19 @@ std::vector<Compound> build_catalog() {
     c.per_mole.calcium_mol = 1;
     c.caustic = true;
     c.crystal_density_g_ml = 2.21;
-    // Secondary table (facts.md 6, unverified) scaled by 0.9457 so that 25 C matches Bates, Bower
-    // & Smith (1956): 0.0203 mol/kg water x 74.092 g/mol = 0.1504 g/100 g. The secondary table
-    // gives 0.159 at 25 C (midpoint of 0.165 and 0.153); scaling keeps its retrograde shape and
-    // takes the lower, published level, so limewater is never planned above saturation.
-    const double scale = 0.0203 * 74.092 / 10.0 / 0.159;
-    c.solubility = {{0, 0.185 * scale}, {10, 0.176 * scale}, {20, 0.165 * scale},
-                    {30, 0.153 * scale}, {40, 0.141 * scale}};
+    // The UPPER bound of published solubilities at each temperature, so that every check of a
+    // limewater dose (pH, Omega, rise, single-dose step) assumes the strongest limewater a
+    // keeper can have: real saturated limewater is 1.65-1.73 g/L at 20 C. Sources, g per 100 g
+    // water: the handbook set 0.189 (0 C), 0.182 (10), 0.173 (20), 0.160 (30), 0.141 (40)
+    // (CRC Handbook of Chemistry and Physics, "Aqueous solubility of inorganic compounds at
+    // various temperatures"; from memory: unverified); the secondary set of facts.md 6, 0.185,
+    // 0.176, 0.165, 0.153, 0.141 (unverified); Bates, Bower & Smith 1956 (J. Res. NBS 56:305),
+    // 0.0203 mol/kg = 0.1504 at 25 C (published, the lowest). The handbook set is the highest
+    // at every temperature, so it is the bound.
+    c.solubility = {{0, 0.189}, {10, 0.182}, {20, 0.173}, {30, 0.160}, {40, 0.141}};
     c.solubility_source =
-        "Bates, Bower & Smith 1956, J. Res. NBS 56:305 (25 C level); temperature shape from an "
-        "unsourced secondary table";
+        "upper bound of published values: CRC Handbook table (from memory, unverified); above the facts.md 6 "
+        "secondary set and Bates, Bower & Smith 1956 (0.1504 g/100 g at 25 C)";
     c.solubility_note = "retrograde (weaker when warmer); the temperature curve is approximate";
     c.signal_word = "Danger";
     c.hazard_statements = {kH315, kH318, kH335};
@@ -382,11 +385,12 @@ Result<Solubility> solubility_at(const Compound& c, double temperature_c) {
 }
 
 // ================================================================ 6. Limewater
-// Saturated Ca(OH)2 per litre of solution. Molality from the calcium hydroxide row's solubility
-// (Bates et al. 1956 at 25 C, approximate temperature shape), converted per litre assuming a
-// litre of this dilute solution holds 1 kg of water: that over-states strength by at most 0.8 %
-// (water density 0.992 at 40 C), erring toward more alkalinity per mL, the safe side for pH and
-// Omega checks. Check value: 25 C -> 0.0203 mol/L, 40.6 meq/L, 814 mg Ca/L (facts.md 6).
+// THE limewater strength of the project (plan safety checks, the consumption estimate, stocks):
+// saturated Ca(OH)2 per litre of solution at the upper bound of published solubility (the
+// calcium hydroxide row above), converted per litre assuming a litre of this dilute solution
+// holds 1 kg of water: that over-states strength by at most 0.8 % (water density 0.992 at 40 C),
+// erring toward more alkalinity per mL, the safe side for pH and Omega checks.
+// Check value: 20 C -> 0.173 g/100 g -> 1.73 g/L, 0.02335 mol/L (M(Ca(OH)2) 74.092 g/mol).
 Result<LimewaterStrength> saturated_limewater(double temperature_c) {
   const Compound& lime = compound(CompoundId::CalciumHydroxide);
   auto sol = solubility_at(lime, temperature_c);
@@ -396,6 +400,7 @@ Result<LimewaterStrength> saturated_limewater(double temperature_c) {
   out.calcium_hydroxide_mol_per_l = sol->g_anhydrous_per_100g_water * 10.0 / lime.molar_mass_g_mol();
   out.alkalinity_meq_per_ml = 2.0 * out.calcium_hydroxide_mol_per_l;  // mol/L x 2 eq = meq/mL
   out.calcium_mg_per_ml = out.calcium_hydroxide_mol_per_l * atomic_weight_iupac(Element::Ca);
+  out.g_per_l = sol->g_anhydrous_per_100g_water * 10.0;
   out.source = lime.solubility_source;
   return out;
 }

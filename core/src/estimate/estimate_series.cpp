@@ -68,7 +68,9 @@ Result<additives::ChemicalChange> dose_change(const journal::Dose& d, const jour
   } else if (d.stock_g_per_l) {
     grams = d.amount / 1000.0 * *d.stock_g_per_l;
   } else if (c.id == additives::CompoundId::CalciumHydroxide) {
-    grams = d.amount / 1000.0 * journal::kLimewaterSaturatedGPerL;  // saturated limewater
+    auto lw = additives::saturated_limewater(sys.default_temperature_c);  // the one limewater strength
+    if (!lw) return lw.error();
+    grams = d.amount / 1000.0 * lw->g_per_l;
   } else {
     return Error{"stock_g_per_l", "a dose in mL needs the stock's strength (stock_g_per_l)"};
   }
@@ -141,7 +143,17 @@ Result<SystemSeries> series_from_journal(const journal::Journal& journal, journa
     } else if (const auto* top = std::get_if<journal::TopOff>(&ev->data)) {
       if (top->kind != journal::TopOffKind::Limewater) continue;  // plain: no change
       const additives::Compound& lime = additives::compound(additives::CompoundId::CalciumHydroxide);
-      const double g_per_l = top->limewater_g_per_l.value_or(journal::kLimewaterSaturatedGPerL);
+      double g_per_l = 0;
+      if (top->limewater_g_per_l) {
+        g_per_l = *top->limewater_g_per_l;
+      } else {  // saturated: the one limewater strength, at the system's temperature
+        auto lw = additives::saturated_limewater(sys->default_temperature_c);
+        if (!lw) {
+          out.notes.push_back(fmt::format("{} limewater top-off not counted: {}", when, lw.error().message));
+          continue;
+        }
+        g_per_l = lw->g_per_l;
+      }
       add_change(out, t, lime.per_mole.scaled(top->volume_l * g_per_l / lime.molar_mass_g_mol()));
     } else if (const auto* wc = std::get_if<journal::WaterChange>(&ev->data)) {
       const double f = std::min(1.0, wc->volume_l / sys->volume_l);

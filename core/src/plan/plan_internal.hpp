@@ -24,3 +24,8 @@ namespace tw::plan::detail {
 // verdict (floors and falls; what is short and what would fix it). plan_verdict.cpp.
 void judge(const PlanInput& input, Plan& plan);
 }  // namespace tw::plan::detail
+
+namespace tw::plan::detail {
+// start_date: a real calendar date YYYY-MM-DD (2026-02-30 is refused), field "start_date".
+Status check_start_date(const std::string& date);
+}  // namespace tw::plan::detail

@@ -1,8 +1,10 @@
 // Plan input as JSON (our own format) and the plan as JSON.
 //
-// Input format (every field optional unless marked; defaults as in plan.hpp):
-// { "system": {"name", "volume_l", "salinity", "temperature_c", "alkalinity_dkh", "calcium_mg_l",
-//              "magnesium_mg_l", "ph_total" (total scale; absent = air equilibrium), "air_co2_ppm"},
+// Input format (strict: an unknown key is refused naming the key and the nearest known one;
+// fields optional unless marked, defaults as in plan.hpp):
+// { "system": {"name", "volume_l"*, "salinity"*, "temperature_c"*, "alkalinity_dkh"*, "calcium_mg_l"*,
+//              "magnesium_mg_l"* (* required, or taken from a journal: see PlanInputSource),
+//              "ph_total" (total scale; absent = air equilibrium), "air_co2_ppm"},
 //   "targets": {"alkalinity_dkh": {"target","low","high"}, "calcium_mg_l": {...}, "magnesium_mg_l": {...}},
 //   "demand": {"alkalinity_meq_per_day", "calcium_mg_per_day", "magnesium_mg_per_day"},
 //   "additives": [  (required, 1..16) each ONE of
@@ -13,16 +15,36 @@
 //     plus delivery fields: "device", "manual", "doses_per_day", "min_dose", "max_dose",
 //     "max_per_day", "first_hour", "last_hour", "reservoir" ],
 //   "limits": {"<limit key>": value, ...}, "overrides": [{"limit", "value", "reason"}],
-//   "evaporation_l_per_day", "horizon_days", "gas_exchange_hours", "salinity_tolerance", "start_date" }
+//   "evaporation_l_per_day", "horizon_days", "gas_exchange_hours", "salinity_tolerance",
+//   "start_date" (a real calendar date YYYY-MM-DD) }
+#include <algorithm>
+
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
+#include "plan_internal.hpp"
+#include "tidewright/common/datetime.hpp"
 #include "tidewright/plan/plan.hpp"
 
 namespace tw::plan {
 
 namespace {
 using nlohmann::json;
+
+// Refuses a key the format does not know, naming it and the nearest known key.
+Status known_keys(const json& j, const std::string& where, std::initializer_list<const char*> keys) {
+  if (!j.is_object()) {
+    const std::string name = where.empty() ? "plan" : where.substr(0, where.size() - 1);
+    return Error{name, name + " must be a JSON object"};
+  }
+  std::vector<std::string> known(keys.begin(), keys.end());
+  for (auto it = j.begin(); it != j.end(); ++it) {
+    if (std::find(known.begin(), known.end(), it.key()) != known.end()) continue;
+    return Error{where + it.key(), fmt::format("{}{} is not a known key; did you mean \"{}\"?", where, it.key(),
+                                               detail::nearest(it.key(), known))};
+  }
+  return Ok{};
+}
 
 Status read_number(const json& j, const char* key, const std::string& where, double& out) {
   if (!j.contains(key)) return Ok{};
@@ -44,6 +66,8 @@ Status read_int(const json& j, const char* key, const std::string& where, int& o
 
 Result<additives::Additive> read_additive(const json& a, const std::string& f) {
   namespace ad = additives;
+  TW_TRY(known_keys(a, f, {"compound", "stock", "limewater", "label", "device", "manual", "doses_per_day", "min_dose",
+                           "max_dose", "max_per_day", "first_hour", "last_hour", "reservoir"}));
   if (a.contains("compound") && a["compound"].is_string()) {
     auto c = ad::find_compound(a["compound"].get<std::string>());
     if (!c) return Error{f + "compound", c.error().message};
@@ -51,6 +75,7 @@ Result<additives::Additive> read_additive(const json& a, const std::string& f) {
   }
   if (a.contains("stock") && a["stock"].is_object()) {
     const json& s = a["stock"];
+    TW_TRY(known_keys(s, f + "stock.", {"name", "temperature_c", "ingredients"}));
     ad::StockRecipe r;
     r.name = s.value("name", std::string("stock"));
     TW_TRY(read_number(s, "temperature_c", f + "stock.", r.temperature_c));
@@ -58,6 +83,7 @@ Result<additives::Additive> read_additive(const json& a, const std::string& f) {
       return Error{f + "stock.ingredients", f + "stock.ingredients must be a list of {compound, grams_per_l}"};
     }
     for (const auto& g : s["ingredients"]) {
+      TW_TRY(known_keys(g, f + "stock.ingredients.", {"compound", "grams_per_l"}));
       auto c = ad::find_compound(g.value("compound", std::string()));
       if (!c) return Error{f + "stock.ingredients", c.error().message};
       ad::Ingredient ing{(*c)->id, 0};
@@ -70,6 +96,7 @@ Result<additives::Additive> read_additive(const json& a, const std::string& f) {
   }
   if (a.contains("limewater") && a["limewater"].is_object()) {
     double t = 25, frac = 1;
+    TW_TRY(known_keys(a["limewater"], f + "limewater.", {"temperature_c", "fraction_of_saturation"}));
     TW_TRY(read_number(a["limewater"], "temperature_c", f + "limewater.", t));
     TW_TRY(read_number(a["limewater"], "fraction_of_saturation", f + "limewater.", frac));
     auto out = ad::limewater_additive(t, frac);
@@ -78,6 +105,8 @@ Result<additives::Additive> read_additive(const json& a, const std::string& f) {
   }
   if (a.contains("label") && a["label"].is_object()) {
     const json& l = a["label"];
+    TW_TRY(known_keys(l, f + "label.", {"name", "parameter", "dose_ml", "tank_volume_l", "rise",
+                                         "dic_per_alkalinity_eq", "caustic"}));
     ad::LabelClaim c;
     c.name = l.value("name", std::string("product"));
     auto p = ad::parameter_from_string(l.value("parameter", std::string("alkalinity")));
@@ -98,6 +127,7 @@ Result<additives::Additive> read_additive(const json& a, const std::string& f) {
 Status read_band(const json& t, const char* key, Band& b) {
   if (!t.contains(key)) return Ok{};
   const std::string w = std::string("targets.") + key + ".";
+  TW_TRY(known_keys(t[key], w, {"target", "low", "high"}));
   TW_TRY(read_number(t[key], "target", w, b.target));
   TW_TRY(read_number(t[key], "low", w, b.low));
   TW_TRY(read_number(t[key], "high", w, b.high));
@@ -105,32 +135,52 @@ Status read_band(const json& t, const char* key, Band& b) {
 }
 }  // namespace
 
-Result<PlanInput> plan_input_from_json(const std::string& text) {
+Result<PlanInput> plan_input_from_json(const std::string& text, std::vector<std::string>* left_to_journal) {
   json j = json::parse(text, nullptr, false);
   if (j.is_discarded() || !j.is_object()) return Error{"plan", "the plan input is not a JSON object"};
+  TW_TRY(known_keys(j, "", {"system", "targets", "demand", "additives", "limits", "overrides", "evaporation_l_per_day",
+                            "horizon_days", "gas_exchange_hours", "salinity_tolerance", "start_date"}));
   PlanInput in;
-  if (j.contains("system")) {
-    const json& s = j["system"];
-    in.system.name = s.value("name", in.system.name);
-    TW_TRY(read_number(s, "volume_l", "system.", in.system.volume_l));
-    TW_TRY(read_number(s, "salinity", "system.", in.system.salinity));
-    TW_TRY(read_number(s, "temperature_c", "system.", in.system.temperature_c));
-    TW_TRY(read_number(s, "alkalinity_dkh", "system.", in.system.alkalinity_dkh));
-    TW_TRY(read_number(s, "calcium_mg_l", "system.", in.system.calcium_mg_l));
-    TW_TRY(read_number(s, "magnesium_mg_l", "system.", in.system.magnesium_mg_l));
-    TW_TRY(read_number(s, "air_co2_ppm", "system.", in.system.air_co2_ppm));
-    if (s.contains("ph_total")) {
-      double ph = 0;
-      TW_TRY(read_number(s, "ph_total", "system.", ph));
-      in.system.ph_total = ph;
+  const json empty = json::object();
+  const json& s = j.contains("system") ? j["system"] : empty;
+  TW_TRY(known_keys(s, "system.", {"name", "volume_l", "salinity", "temperature_c", "alkalinity_dkh", "calcium_mg_l",
+                                   "magnesium_mg_l", "ph_total", "air_co2_ppm"}));
+  // No silent defaults for the water itself: each is in the file or comes from a journal.
+  for (const char* key : {"volume_l", "salinity", "temperature_c", "alkalinity_dkh", "calcium_mg_l", "magnesium_mg_l"}) {
+    if (s.contains(key)) continue;
+    if (left_to_journal != nullptr) {
+      left_to_journal->push_back(key);
+      continue;
     }
+    return Error{std::string("system.") + key,
+                 fmt::format("system.{} is required (the plan would otherwise be made for a tank that is not "
+                             "yours); give it in the file or take it from a journal (--journal)",
+                             key)};
+  }
+  if (s.contains("name")) {
+    if (!s["name"].is_string()) return Error{"system.name", "system.name must be text"};
+    in.system.name = s["name"].get<std::string>();
+  }
+  TW_TRY(read_number(s, "volume_l", "system.", in.system.volume_l));
+  TW_TRY(read_number(s, "salinity", "system.", in.system.salinity));
+  TW_TRY(read_number(s, "temperature_c", "system.", in.system.temperature_c));
+  TW_TRY(read_number(s, "alkalinity_dkh", "system.", in.system.alkalinity_dkh));
+  TW_TRY(read_number(s, "calcium_mg_l", "system.", in.system.calcium_mg_l));
+  TW_TRY(read_number(s, "magnesium_mg_l", "system.", in.system.magnesium_mg_l));
+  TW_TRY(read_number(s, "air_co2_ppm", "system.", in.system.air_co2_ppm));
+  if (s.contains("ph_total")) {
+    double ph = 0;
+    TW_TRY(read_number(s, "ph_total", "system.", ph));
+    in.system.ph_total = ph;
   }
   if (j.contains("targets")) {
+    TW_TRY(known_keys(j["targets"], "targets.", {"alkalinity_dkh", "calcium_mg_l", "magnesium_mg_l"}));
     TW_TRY(read_band(j["targets"], "alkalinity_dkh", in.targets.alkalinity_dkh));
     TW_TRY(read_band(j["targets"], "calcium_mg_l", in.targets.calcium_mg_l));
     TW_TRY(read_band(j["targets"], "magnesium_mg_l", in.targets.magnesium_mg_l));
   }
   if (j.contains("demand")) {
+    TW_TRY(known_keys(j["demand"], "demand.", {"alkalinity_meq_per_day", "calcium_mg_per_day", "magnesium_mg_per_day"}));
     TW_TRY(read_number(j["demand"], "alkalinity_meq_per_day", "demand.", in.demand.alkalinity_meq_per_day));
     TW_TRY(read_number(j["demand"], "calcium_mg_per_day", "demand.", in.demand.calcium_mg_per_day));
     TW_TRY(read_number(j["demand"], "magnesium_mg_per_day", "demand.", in.demand.magnesium_mg_per_day));
@@ -145,6 +195,8 @@ Result<PlanInput> plan_input_from_json(const std::string& text) {
     if (!add) return add.error();
     Delivery d;
     d.additive = *add;
+    if (a.contains("device") && !a["device"].is_string()) return Error{f + "device", f + "device must be text"};
+    if (a.contains("manual") && !a["manual"].is_boolean()) return Error{f + "manual", f + "manual must be true or false"};
     d.device = a.value("device", std::string(d.additive.unit == additives::DoseUnit::Gram ? "hand" : "pump"));
     d.manual = a.value("manual", d.device == "hand");
     TW_TRY(read_int(a, "doses_per_day", f, d.doses_per_day));
@@ -157,19 +209,31 @@ Result<PlanInput> plan_input_from_json(const std::string& text) {
     in.deliveries.push_back(d);
   }
   std::vector<LimitSetting> settings;
-  if (j.contains("limits") && j["limits"].is_object()) {
+  if (j.contains("limits")) {
+    if (!j["limits"].is_object()) return Error{"limits", "limits must be an object of {\"<limit key>\": value}"};
     for (auto it = j["limits"].begin(); it != j["limits"].end(); ++it) {
       auto id = limit_from_key(it.key());
-      if (!id) return id.error();
+      if (!id) return Error{"limits." + it.key(), "limits." + it.key() + ": " + id.error().message};
       if (!it.value().is_number()) return Error{"limits." + it.key(), "limits." + it.key() + " must be a number"};
       settings.push_back({*id, it.value().get<double>(), false, ""});
     }
   }
-  if (j.contains("overrides") && j["overrides"].is_array()) {
-    for (const auto& o : j["overrides"]) {
-      auto id = limit_from_key(o.value("limit", std::string()));
-      if (!id) return id.error();
-      settings.push_back({*id, o.value("value", 0.0), true, o.value("reason", std::string())});
+  if (j.contains("overrides")) {
+    if (!j["overrides"].is_array()) return Error{"overrides", "overrides must be a list of {limit, value, reason}"};
+    for (std::size_t i = 0; i < j["overrides"].size(); ++i) {
+      const json& o = j["overrides"][i];
+      const std::string f = fmt::format("overrides[{}].", i);
+      TW_TRY(known_keys(o, f, {"limit", "value", "reason"}));
+      if (!o.contains("limit") || !o["limit"].is_string()) return Error{f + "limit", f + "limit must name a limit"};
+      auto id = limit_from_key(o["limit"].get<std::string>());
+      if (!id) return Error{f + "limit", f + "limit: " + id.error().message};
+      double value = 0;
+      if (!o.contains("value")) return Error{f + "value", f + "value is required"};
+      TW_TRY(read_number(o, "value", f, value));
+      if (!o.contains("reason") || !o["reason"].is_string()) {
+        return Error{f + "reason", f + "reason is required: an override is recorded with its reason"};
+      }
+      settings.push_back({*id, value, true, o["reason"].get<std::string>()});
     }
   }
   auto limits = make_limits(settings);
@@ -179,7 +243,11 @@ Result<PlanInput> plan_input_from_json(const std::string& text) {
   TW_TRY(read_int(j, "horizon_days", "", in.horizon_days));
   TW_TRY(read_number(j, "gas_exchange_hours", "", in.gas_exchange_hours));
   TW_TRY(read_number(j, "salinity_tolerance", "", in.salinity_tolerance));
-  in.start_date = j.value("start_date", in.start_date);
+  if (j.contains("start_date")) {
+    if (!j["start_date"].is_string()) return Error{"start_date", "start_date must be a date YYYY-MM-DD"};
+    in.start_date = j["start_date"].get<std::string>();
+  }
+  TW_TRY(detail::check_start_date(in.start_date));
   return in;
 }
 

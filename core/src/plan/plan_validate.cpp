@@ -4,6 +4,7 @@
 #include <fmt/format.h>
 
 #include "plan_internal.hpp"
+#include "tidewright/common/datetime.hpp"
 
 namespace tw::plan::detail {
 
@@ -61,11 +62,12 @@ Status validate_input(const PlanInput& in) {
   }
   if (auto r = check_range("gas_exchange_hours", in.gas_exchange_hours, 0.0, 72.0, "h"); !r) return r;
   if (auto r = check_range("salinity_tolerance", in.salinity_tolerance, 0.01, 5.0, ""); !r) return r;
-  if (in.deliveries.empty()) return Error{"deliveries", "a plan needs at least one additive (accepted: 1 to 16)"};
-  if (in.deliveries.size() > 16) return Error{"deliveries", "a plan takes at most 16 additives (accepted: 1 to 16)"};
+  if (in.deliveries.empty()) return Error{"additives", "a plan needs at least one additive (accepted: 1 to 16)"};
+  if (in.deliveries.size() > 16) return Error{"additives", "a plan takes at most 16 additives (accepted: 1 to 16)"};
+  if (auto r = check_start_date(in.start_date); !r) return r;
   for (std::size_t i = 0; i < in.deliveries.size(); ++i) {
     const Delivery& d = in.deliveries[i];
-    const std::string f = fmt::format("deliveries[{}]", i);
+    const std::string f = fmt::format("additives[{}]", i);  // the plan file's own name for the list
     const auto& p = d.additive.per_unit;
     if (!(p.alkalinity_eq > 0 || p.calcium_mol > 0 || p.magnesium_mol > 0)) {
       return Error{f + ".additive", fmt::format("{}.additive \"{}\" raises none of alkalinity, calcium or magnesium "
@@ -90,6 +92,23 @@ Status validate_input(const PlanInput& in) {
     if (auto r = check_range(f + ".max_per_day", d.max_per_day, 1e-3, 1e9, u); !r) return r;
     if (auto r = check_range(f + ".reservoir", d.reservoir, 0.0, 1e9, u); !r) return r;
   }
+  return Ok{};
+}
+
+Status check_start_date(const std::string& date) {
+  const auto bad = [&] {
+    return Error{"start_date", fmt::format("start_date \"{}\" is not a calendar date (accepted: YYYY-MM-DD, e.g. "
+                                           "2026-12-02)",
+                                           date)};
+  };
+  if (date.size() != 10 || date[4] != '-' || date[7] != '-') return bad();
+  for (std::size_t i : {0u, 1u, 2u, 3u, 5u, 6u, 8u, 9u}) {
+    if (date[i] < '0' || date[i] > '9') return bad();
+  }
+  const int year = std::stoi(date.substr(0, 4));
+  const unsigned month = static_cast<unsigned>(std::stoi(date.substr(5, 2)));
+  const unsigned day = static_cast<unsigned>(std::stoi(date.substr(8, 2)));
+  if (year < 1970 || month < 1 || month > 12 || day < 1 || day > datetime::days_in_month(year, month)) return bad();
   return Ok{};
 }
 

@@ -99,18 +99,20 @@ TEST_CASE("estimate: calcium chloride dihydrate, by the gram and as a stock in m
 }
 
 TEST_CASE("estimate: limewater top-off adds Ca(OH)2; plain top-off adds nothing (hand-worked)") {
-  // 5 L of saturated limewater, 1.50 g/L Ca(OH)2 (Bates, Bower & Smith 1956; facts.md 6):
-  // 7.5 g / 74.092 g/mol = 0.101225 mol -> 0.202451 eq alkalinity and 0.101225 mol Ca.
-  // In 380 L: 0.532765 meq/L = 1.49379 dKH; 4.05690 g Ca / 380 L = 10.6760 mg/L.
-  // Cross-check: facts.md 5 says 1.32 g Ca(OH)2 per 100 L per dKH: 1.974 g/100 L -> 1.495 dKH.
+  // 5 L of saturated limewater at the system's 25 C: additives::saturated_limewater, the upper
+  // bound of published solubility, 0.1665 g/100 g (midway between the handbook's 0.173 at 20 C
+  // and 0.160 at 30 C) = 1.665 g/L: 8.325 g / 74.092 g/mol = 0.112360 mol -> 0.224721 eq
+  // alkalinity and 0.112360 mol Ca. In 380 L: 0.591370 meq/L = 1.65811 dKH; 4.50317 g Ca /
+  // 380 L = 11.8505 mg/L. Cross-check: facts.md 5 says 1.32 g Ca(OH)2 per 100 L per dKH:
+  // 2.191 g/100 L -> 1.660 dKH.
   journal::SystemId id = 0;
   auto j = make_journal(id);
   add(j, id, kT0, journal::TopOff{5.0, journal::TopOffKind::Limewater, {}});
   add(j, id, kT0 + kDay, journal::TopOff{5.0, journal::TopOffKind::Plain, {}});
   auto s = series_from_journal(j, id);
   REQUIRE(s.ok());
-  CHECK(only_addition(s->alkalinity) == doctest::Approx(1.49379).epsilon(1e-4));
-  CHECK(only_addition(s->calcium) == doctest::Approx(10.6760).epsilon(1e-4));
+  CHECK(only_addition(s->alkalinity) == doctest::Approx(1.65811).epsilon(1e-4));
+  CHECK(only_addition(s->calcium) == doctest::Approx(11.8505).epsilon(1e-4));
   CHECK(s->magnesium.events.empty());
 }
 
@@ -153,9 +155,9 @@ TEST_CASE("estimate: a synthetic journal gives back its demand; unknown system r
   std::normal_distribution<double> n01(0, 1);
   const double alk_demand = 1.2, ca_demand = 1.2 * 7.147;  // calcification ratio
   double alk = 8.0, ca = 420.0;
-  // Per day, 4 L saturated limewater (1.50 g/L) into 400 L: 6 g Ca(OH)2 = 0.0809805 mol ->
-  // 0.404903 meq/L = 1.135287 dKH and 8.1139 mg/L Ca (= 1.135287 x 7.147: limewater adds Ca and
-  // alkalinity in the calcification ratio). Tests fall at the start of a day.
+  // Per day, 4 L saturated limewater (1.665 g/L at 25 C, see above) into 400 L: 6.66 g Ca(OH)2
+  // = 0.0898882 mol -> 0.449441 meq/L = 1.260166 dKH and 9.0064 mg/L Ca (= 1.260166 x 7.147:
+  // limewater adds Ca and alkalinity in the calcification ratio). Tests fall at the start of a day.
   std::int64_t next_test = kT0;
   for (int d = 0; d < 120; ++d) {
     const std::int64_t day0 = kT0 + d * kDay;
@@ -170,8 +172,8 @@ TEST_CASE("estimate: a synthetic journal gives back its demand; unknown system r
     alk -= alk_demand;
     ca -= ca_demand;
     add(j, id, day0 + kDay - 600, journal::TopOff{4.0, journal::TopOffKind::Limewater, {}});
-    alk += 1.135287;  // 4 L x 1.50 g/L into 400 L (see above)
-    ca += 1.135287 * 7.147;
+    alk += 1.260166;  // 4 L x 1.665 g/L into 400 L (see above)
+    ca += 1.260166 * 7.147;
     if (d % 7 == 6) {
       journal::WaterChange wc;
       wc.volume_l = 40.0;
@@ -195,7 +197,7 @@ TEST_CASE("estimate: a synthetic journal gives back its demand; unknown system r
   auto ratio = read_calcium_alkalinity(*ea, *ec);
   CHECK(ratio.verdict == RatioVerdict::Consistent);
   // Recent dosing: 1.135 dKH/day from limewater.
-  CHECK(recent_daily_addition(s->alkalinity, 7.0) == doctest::Approx(1.135287).epsilon(1e-3));
+  CHECK(recent_daily_addition(s->alkalinity, 7.0) == doctest::Approx(1.260166).epsilon(1e-3));
 
   auto bad = series_from_journal(j, 9999);
   REQUIRE_FALSE(bad.ok());

@@ -195,7 +195,7 @@ TEST_CASE("plan: bad input is refused naming the field and the range") {
   in.deliveries.push_back(pump(ad::additive_from_compound(ad::CompoundId::CarbonDioxide), 1, 1));
   auto c = make_plan(in);
   REQUIRE(!c.ok());
-  CHECK(c.error().field == "deliveries[3].additive");
+  CHECK(c.error().field == "additives[3].additive");  // the plan file's own name
 }
 
 TEST_CASE("plan: the worst missed and doubled dose over every dose of the plan") {

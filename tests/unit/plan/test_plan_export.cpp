@@ -11,7 +11,8 @@ using namespace tw::plan;
 
 namespace {
 const char* kInput = R"({
-  "system": {"name": "Test, tank", "volume_l": 200, "alkalinity_dkh": 7.5, "calcium_mg_l": 410},
+  "system": {"name": "Test, tank", "volume_l": 200, "salinity": 35, "temperature_c": 25, "alkalinity_dkh": 7.5,
+             "calcium_mg_l": 410, "magnesium_mg_l": 1300},
   "demand": {"alkalinity_meq_per_day": 40, "calcium_mg_per_day": 800},
   "additives": [
     {"stock": {"name": "alk", "ingredients": [{"compound": "sodium_carbonate", "grams_per_l": 100}]},
@@ -30,10 +31,11 @@ TEST_CASE("plan: JSON input reads fields, limits and additives; errors name the 
   CHECK(in->deliveries.size() == 2);
   CHECK(in->deliveries[1].manual);  // hand doses get reminders
   CHECK(in->limits.get(LimitId::AlkalinityRisePerDay) == 0.5);
-  auto bad = plan_input_from_json(R"({"additives": [{"compound": "unobtainium"}]})");
+  const std::string sys = R"("system": {"volume_l": 100, "salinity": 35, "temperature_c": 25, "alkalinity_dkh": 8, "calcium_mg_l": 420, "magnesium_mg_l": 1300})";
+  auto bad = plan_input_from_json("{" + sys + R"(, "additives": [{"compound": "unobtainium"}]})");
   REQUIRE(!bad.ok());
   CHECK(bad.error().field == "additives[0].compound");
-  auto over = plan_input_from_json(R"({"additives": [{"compound": "sodium_carbonate"}], "limits": {"omega_aragonite_after_dose": 9}})");
+  auto over = plan_input_from_json("{" + sys + R"(, "additives": [{"compound": "sodium_carbonate"}], "limits": {"omega_aragonite_after_dose": 9}})");
   REQUIRE(!over.ok());
   CHECK(over.error().field == "limits.omega_aragonite_after_dose");
   CHECK_FALSE(plan_input_from_json("not json").ok());

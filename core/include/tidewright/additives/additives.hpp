@@ -123,15 +123,17 @@ struct Solubility {
 };
 Result<Solubility> solubility_at(const Compound& compound, double temperature_c);
 
-// Saturated limewater (Ca(OH)2 in fresh water) at a temperature 0..40 C. Strength per litre of
-// solution: the temperature curve of the secondary table in facts.md 6 scaled to pass through
-// Bates, Bower & Smith (1956) at 25 C (0.0203 mol/kg water), the lower of the two sources,
-// so limewater is never planned above saturation. Retrograde: weaker when warmer.
+// Saturated limewater (Ca(OH)2 in fresh water) at a temperature 0..40 C: the one strength used
+// everywhere (plan safety checks, consumption estimate, stocks). Strength per litre of solution
+// at the UPPER bound of published solubility (handbook table; Bates, Bower & Smith 1956 at
+// 25 C is lower), so every safety check assumes the strongest limewater a keeper can have.
+// Retrograde: weaker when warmer. 20 C -> 1.73 g/L.
 struct LimewaterStrength {
   double temperature_c = 25;
   double calcium_hydroxide_mol_per_l = 0;
   double alkalinity_meq_per_ml = 0;  // 2 eq per mol Ca(OH)2
   double calcium_mg_per_ml = 0;
+  double g_per_l = 0;                // Ca(OH)2 per litre
   std::string source;
 };
 Result<LimewaterStrength> saturated_limewater(double temperature_c);

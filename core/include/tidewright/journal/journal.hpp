@@ -188,10 +188,6 @@ inline constexpr std::int64_t kLatestTimeS = 7258118400;
 // no better density.
 inline constexpr double kNominalDensityKgPerL = 1.02334;
 
-// Saturated limewater, grams Ca(OH)2 per litre, about 1.50 g/kg water at 25 C (Bates, Bower
-// & Smith 1956, facts.md 6); per litre of solution this is within 0.3 % of per kg.
-inline constexpr double kLimewaterSaturatedGPerL = 1.50;
-
 // The unit a journal uses for each parameter's canonical value: "dKH", "mg/L", "mg/L", "pH",
 // "psu", "sg", "C", "mg/L", "mg/L", and for Other the unit as entered.
 const char* canonical_unit(Parameter p);

@@ -325,8 +325,13 @@ struct WorstMishap {
 std::vector<WorstMishap> mishap_summary(const PlanInput& input, const Plan& plan);
 
 // ---------------------------------------------------------------- 5. Text in and out
-// JSON plan input (format documented in plan_json.cpp and README): fields as in PlanInput.
-Result<PlanInput> plan_input_from_json(const std::string& json_text);
+// JSON plan input (format documented in plan_json.cpp and README): fields as in PlanInput,
+// strict: unknown keys are refused (naming the key and the nearest known one), start_date must
+// be a real date, and the water (system.volume_l, salinity, temperature_c, alkalinity_dkh,
+// calcium_mg_l, magnesium_mg_l) is required. With `left_to_journal`, a missing one of those is
+// not an error but listed there, for the caller to fill from a journal and say so.
+Result<PlanInput> plan_input_from_json(const std::string& json_text,
+                                       std::vector<std::string>* left_to_journal = nullptr);
 std::string plan_to_json(const PlanInput& input, const Plan& plan);
 // RFC 4180 CSV, one row per dose, CRLF line ends, formula-safe cells.
 std::string plan_to_csv(const PlanInput& input, const Plan& plan);
