@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <ctime>
 #include <memory>
 #include <optional>
 #include <string>
@@ -32,6 +33,8 @@ struct DemandOptions {
   double dose_window_days = 7.0;
   bool json = false;
   bool history = false;
+  bool outliers = false;   // list every flagged test (default: a summary line)
+  std::string at;          // the time the state is read at (default: now)
 };
 
 // The systems to estimate: the one named by --system, or every system.
@@ -62,25 +65,25 @@ struct SystemResult {
   est::CalciumAlkalinityReading ratio;
 };
 
-SystemResult compute(const journal::Journal& j, const journal::System& sys, const DemandOptions& o) {
-  auto series = est::series_from_journal(j, sys.id);
+SystemResult compute(const journal::Journal& j, const journal::System& sys, const DemandOptions& o,
+                     std::int64_t now_s) {
+  // Standing schedules give their doses up to now, and the state is read at now.
+  est::JournalSeriesOptions so;
+  so.until_s = now_s;
+  auto series = est::series_from_journal(j, sys.id, so);
   if (!series) throw CommandError(series.error().message);
-  SystemResult r{std::make_shared<const journal::System>(sys), std::move(series).value(), 0.0, {}, {}};
-  bool any = false;
+  SystemResult r{std::make_shared<const journal::System>(sys), std::move(series).value(),
+                 static_cast<double>(now_s) / 86400.0, {}, {}};
   for (est::Parameter p : est::kAllParameters) {
-    const auto& ev = r.series.of(p).events;
-    if (!ev.empty()) {
-      r.now_days = any ? std::max(r.now_days, est::time_of(ev.back())) : est::time_of(ev.back());
-      any = true;
-    }
-  }
-  for (est::Parameter p : est::kAllParameters) {
+    const auto i = static_cast<std::size_t>(p);
     const est::FilterOptions fo = est::default_filter_options(p);
     auto e = est::estimate_series(r.series.of(p), fo, r.now_days);
     if (!e) throw CommandError(fmt::format("{} of '{}': {}", est::to_string(p), sys.name, e.error().message));
     ParamResult pr{p, std::move(e).value(), 0.0, {}};
-    pr.dose_per_day = est::recent_daily_addition(r.series.of(p), o.dose_window_days, r.now_days);
-    if (pr.e.demand_known) {
+    // Current dosing: the running schedules, else the logged doses of the window.
+    pr.dose_per_day = r.series.scheduled[i] ? r.series.scheduled_per_day[i]
+                                            : est::recent_daily_addition(r.series.of(p), o.dose_window_days, r.now_days);
+    if (pr.e.demand_known && !est::is_stale(pr.e, r.now_days)) {
       auto f = est::forecast_levels(pr.e, pr.dose_per_day, o.days, fo);
       if (!f) throw CommandError(f.error().message);
       pr.forecast = std::move(f).value();
@@ -111,6 +114,19 @@ nlohmann::json param_json(const ParamResult& pr) {
     j["demand_per_day"] = nullptr;
   }
   j["daily_dose_effect"] = pr.dose_per_day;
+  if (e.last_test_days) j["last_test"] = when(*e.last_test_days);
+  j["stale"] = false;
+  if (e.last_test_days && e.time_days - *e.last_test_days > est::useful_horizon_days(pr.p)) {
+    j["stale"] = true;
+    j.erase("level");
+    j.erase("level_sd");
+  }
+  if (e.disagreement) {
+    const auto& d = *e.disagreement;
+    j["disagreement"] = {{"time", when(d.time_days)}, {"reading", d.reading}, {"expected", d.expected},
+                         {"expected_sd", d.expected_sd}, {"difference", d.difference}, {"z", d.z},
+                         {"reasons", d.reasons}, {"question", d.question}};
+  }
   nlohmann::json hist = nlohmann::json::array();
   for (const auto& h : e.history) {
     hist.push_back({{"time", when(h.time_days)}, {"reading", h.reading}, {"status", est::to_string(h.status)},
@@ -170,6 +186,12 @@ void print_system(const SystemResult& r, const DemandOptions& o) {
     const auto& e = pr.e;
     const char* u = est::unit_of(pr.p);
     const int d = decimals(pr.p);
+    if (est::is_stale(e, r.now_days)) {
+      std::printf("  %-10s  stale: the last test is %s, %.0f days ago, beyond the %.0f-day horizon; not estimated (test it)\n",
+                  est::to_string(pr.p), date_of(*e.last_test_days).c_str(), r.now_days - *e.last_test_days,
+                  est::useful_horizon_days(pr.p));
+      continue;
+    }
     if (!e.demand_known) {
       std::printf("  %-10s  not enough tests for a demand (%zu test%s; needs two usable on different days)\n",
                   est::to_string(pr.p), e.tests, e.tests == 1 ? "" : "s");
@@ -182,8 +204,18 @@ void print_system(const SystemResult& r, const DemandOptions& o) {
                 fmt::format("{:.{}f}", e.demand_high95, d + 1).c_str(),
                 fmt::format("{:.{}f}", e.level, d).c_str(), fmt::format("{:.{}f}", e.level_sd, d).c_str(), u,
                 e.tests, e.tests_used);
-    for (const auto& f : e.outliers)
-      std::printf("              outlier %s: %s\n", when(f.time_days).c_str(), f.reason.c_str());
+    if (o.outliers) {
+      for (const auto& f : e.outliers)
+        std::printf("              outlier %s: %s\n", when(f.time_days).c_str(), f.reason.c_str());
+    } else if (!e.outliers.empty()) {
+      std::printf("              %zu test%s flagged as outliers and left out (the latest %s reads %.4g); --outliers lists them\n",
+                  e.outliers.size(), e.outliers.size() == 1 ? "" : "s", when(e.outliers.back().time_days).c_str(),
+                  e.outliers.back().reading);
+    }
+    if (e.disagreement) {
+      std::printf("              log and test disagree: %s\n              %s\n", e.disagreement->reasons.c_str(),
+                  e.disagreement->question.c_str());
+    }
     if (o.history) {
       std::printf("              %-20s %9s %-13s %10s %10s %10s\n", "time", "reading", "status", "demand", "sd",
                   "smoothed");
@@ -198,7 +230,8 @@ void print_system(const SystemResult& r, const DemandOptions& o) {
   for (const auto& pr : r.params)
     if (!pr.forecast.empty()) fc.push_back(&pr);
   if (!fc.empty()) {
-    std::printf("  Forecast with the logged dosing of the last %g days continuing (", o.dose_window_days);
+    std::printf("  Forecast with the current dosing continuing (schedules, else the doses logged in the last %g days: ",
+                o.dose_window_days);
     for (std::size_t i = 0; i < fc.size(); ++i)
       std::printf("%s%s %+.*f %s/day", i ? ", " : "", est::to_string(fc[i]->p), decimals(fc[i]->p) + 1,
                   fc[i]->dose_per_day, est::unit_of(fc[i]->p));
@@ -216,6 +249,10 @@ void print_system(const SystemResult& r, const DemandOptions& o) {
       print_trimmed(line);
     }
   }
+  if (r.series.uncounted_after_last_test > 0) {
+    std::printf("  The forecast leaves out %d dose%s logged after the last test whose strength or additive is unknown "
+                "(see the notes).\n", r.series.uncounted_after_last_test, r.series.uncounted_after_last_test == 1 ? "" : "s");
+  }
   for (const auto& n : r.series.notes) std::printf("  note: %s\n", n.c_str());
 }
 
@@ -227,11 +264,17 @@ void run(const DemandOptions& o) {
   // One system's events at a time from the journal database (core/store): memory follows
   // the largest system, not the whole journal.
   auto st = open_journal_or_fail(o.journal_path, store::Access::Read);
+  std::int64_t now_s = static_cast<std::int64_t>(std::time(nullptr));
+  if (!o.at.empty()) {
+    auto at = datetime::parse_datetime(o.at);
+    if (!at) throw CommandError("--at: " + at.error().message);
+    now_s = *at;
+  }
   std::vector<SystemResult> results;
   for (const journal::System& s : pick_systems(*st, o.system)) {
     auto j = st->system_journal(s.id);
     if (!j) throw CommandError(j.error().message);
-    results.push_back(compute(*j, j->systems.front(), o));
+    results.push_back(compute(*j, j->systems.front(), o, now_s));
   }
   if (o.json) {
     nlohmann::json out{{"systems", nlohmann::json::array()}};
@@ -258,6 +301,8 @@ void register_demand(CLI::App& app) {
   cmd->add_option("--dose-window", o->dose_window_days,
                   "Days of logged doses averaged as the current dosing, 1 to 90 (default 7)");
   cmd->add_flag("--history", o->history, "Also print the demand at every test (text output)");
+  cmd->add_flag("--outliers", o->outliers, "List every test flagged as an outlier (text output; default: a summary)");
+  cmd->add_option("--at", o->at, "Read the state at this time, e.g. 2026-12-03T08:00Z (default: now)");
   cmd->add_flag("--json", o->json, "JSON output (always includes the history)");
   cmd->callback([o] { run(*o); });
 }

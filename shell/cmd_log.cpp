@@ -2,6 +2,7 @@
 //   log add system|test|dose|water-change|top-off|note ...   log import FILE (CSV or JSON)
 //   log export [--format csv|json]   log list [filters] [--last N]   log systems
 //   log remove --id N   log backup FILE   log restore FILE   log check
+//   log schedule start|change|stop|missed|extra|list   (cmd_log_schedule.cpp)
 // The journal is a database (core/store, SQLite; --journal rules in journal_location.hpp).
 // Every change is one transaction validated by the core: a refused change prints one line
 // naming the field and the accepted range, exits non-zero and changes nothing. Reads stream
@@ -20,6 +21,7 @@
 #include "commands.hpp"
 #include "file_io.hpp"
 #include "journal_access.hpp"
+#include "log_common.hpp"
 #include "log_format.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/common/datetime.hpp"
@@ -566,6 +568,17 @@ void register_log(CLI::App& app) {
 
   CLI::App* chk = log->add_subcommand("check", "Check the journal's integrity: the database file, links between records, and every record against the entry rules; exit 4 on a problem");
   chk->callback([o] { run_check(*o); });
+
+  register_log_schedule(*log, &o->journal, &o->json);
+}
+
+// ---------------------------------------------------------------- shared with cmd_log_schedule
+std::int64_t when_or_now(const std::string& text, const std::string& date_order, int utc_offset_min) {
+  LogOptions o;
+  o.time = text;
+  o.date_order = date_order;
+  o.utc_offset_min = utc_offset_min;
+  return event_time(o).first;
 }
 
 }  // namespace tw::shell

@@ -4,6 +4,7 @@
 // refuses is not printed (exit 1). A plan that cannot hold the water inside its floors is
 // written in full with its verdict first and ends with exit status 3; one that holds, 0.
 #include <cstdio>
+#include <cstdlib>
 #include <ctime>
 #include <memory>
 
@@ -13,7 +14,11 @@
 #include "file_io.hpp"
 #include "journal_access.hpp"
 #include "tidewright/journal/journal_file.hpp"
+#include "tidewright/journal/journal.hpp"
 #include "tidewright/plan/plan.hpp"
+#include "log_format.hpp"
+#include "tidewright/common/datetime.hpp"
+#include "tidewright/plan/plan_adopt.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
 
 namespace tw::shell {
@@ -26,6 +31,8 @@ struct PlanOptions {
   int horizon_days = 0;
   std::string dtstamp;
   std::string journal, system;  // --journal FILE --system NAME|ID
+  bool adopt = false;            // --adopt: the plan becomes the system's standing schedules
+  int utc_offset_min = 0;        // for --adopt: the keeper's time zone, minutes east of UTC
 };
 
 
@@ -53,6 +60,37 @@ std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in
   return plan::apply_journal_basis(*basis, in);
 }
 
+// --adopt: the plan's doses become the system's standing schedules in the journal (the pumps'
+// earlier schedules stop where the plan starts), saved atomically like `tidewright log`.
+void adopt(const PlanOptions& o, const plan::PlanInput& in, const plan::Plan& p) {
+  if (o.journal.empty() || o.system.empty()) throw CommandError("--adopt: needs --journal FILE and --system NAME or ID");
+  if (o.utc_offset_min < -14 * 60 || o.utc_offset_min > 14 * 60)
+    throw CommandError(fmt::format("--utc-offset {} is outside the accepted range -840 to 840 minutes", o.utc_offset_min));
+  auto st = open_journal_or_fail(o.journal, store::Access::Write);
+  const journal::System sys = system_or_fail(*st, o.system);
+  auto before = st->system_journal(sys.id);
+  if (!before) throw CommandError(fmt::format("--journal: {}", before.error().message));
+  auto day1 = datetime::parse_datetime(in.start_date + "T00:00:00Z");
+  if (!day1) throw CommandError("start_date: " + day1.error().message);
+  journal::Journal after = *before;
+  auto ids = plan::adopt_plan(after, sys.id, in, p, *day1 - 60LL * o.utc_offset_min);
+  if (!ids) throw CommandError(fmt::format("--adopt: {}", ids.error().message));
+  // Checked whole by the core above; now the stopped schedules, then the new ones.
+  for (const auto& e : before->events) {
+    const journal::Event* now = journal::find_event(after, e.id);
+    if (now && !(*now == e)) {
+      if (auto s = st->update_event(*now); !s) throw CommandError("--adopt: " + s.error().message);
+    }
+  }
+  for (journal::EventId id : *ids) {
+    journal::Event e = *journal::find_event(after, id);
+    e.id = 0;
+    auto added = st->add_event(e);
+    if (!added) throw CommandError("--adopt: " + added.error().message);
+    std::fprintf(stderr, "adopted: %s\n", describe_event_line(after, *st->event(*added)).c_str());
+  }
+}
+
 void run(const PlanOptions& o) {
   const bool from_journal = !o.journal.empty() || !o.system.empty();
   std::vector<std::string> not_in_file;
@@ -77,6 +115,10 @@ void run(const PlanOptions& o) {
   // The verdict comes first: on stderr for the machine formats (CSV, iCalendar, JSON carry the
   // schedule on stdout), at the top of the text.
   if (!holds && (o.json || o.csv || o.ics)) std::fprintf(stderr, "%s", plan::verdict_to_text(*plan).c_str());
+  if (o.adopt) {
+    if (!holds) throw CommandError("--adopt: this plan cannot hold the water within its floors (see the verdict); not adopted");
+    adopt(o, *in, *plan);
+  }
   std::string text;
   if (o.json) {
     text = plan::plan_to_json(*in, *plan);
@@ -137,6 +179,9 @@ void register_plan(CLI::App& app) {
   sub->add_option("--journal", opts->journal, "take the system's state and demand from this journal (database, or JSON journal)");
   sub->add_option("--system", opts->system, "the journal's system, by name or id (with --journal)");
   sub->add_option("--out", opts->out, "write to this file instead of stdout");
+  sub->add_flag("--adopt", opts->adopt,
+                "make the plan the system's standing dose schedules in --journal (its pumps' earlier schedules stop)");
+  sub->add_option("--utc-offset", opts->utc_offset_min, "with --adopt: minutes east of UTC of the plan's days (default 0)");
   sub->callback([opts] { run(*opts); });
 }
 

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/journal/schedule.hpp"
 
 namespace tw::shell {
 
@@ -42,6 +43,14 @@ std::string what(const EventData& data) {
   if (const auto* d = std::get_if<Dose>(&data)) {
     std::string s = fmt::format("dose {} {:g} {}", d->additive_id, d->amount, to_string(d->unit));
     if (d->stock_g_per_l) s += fmt::format(" (stock {:g} g/L)", *d->stock_g_per_l);
+    if (d->mark != ScheduleMark::None && d->schedule_id) {
+      s += fmt::format(" [{} dose of schedule {}]", to_string(d->mark), *d->schedule_id);
+    }
+    return s;
+  }
+  if (const auto* p = std::get_if<DoseSchedule>(&data)) {
+    std::string s = "schedule " + schedule_summary(*p);
+    if (p->stop_time_s) s += ", stopped " + datetime::format_iso8601_utc(*p->stop_time_s);
     return s;
   }
   if (const auto* w = std::get_if<WaterChange>(&data)) {

@@ -11,6 +11,9 @@ estimator can recover the demand that was put in:
 Test results are the true level plus Gaussian kit noise (alkalinity sd 0.2 dKH, calcium
 10 mg/L, magnesium 25 mg/L; common practice for hobby kits), rounded to the kit's step.
 Two deliberate outliers (misread kits) are included, each with a note and a retest.
+The dosing pumps of the reef and the grow-out rack (and the rack's limewater auto top-off)
+run on standing dose schedules, changed when the keeper adjusts them; their doses change the
+simulated water but are not logged one by one, as a keeper with pumps would not log them.
 
 Chemistry (same constants as the core): IUPAC molar masses Na2CO3 105.988, CaCl2.2H2O
 147.008, MgCl2.6H2O 203.295, Ca(OH)2 74.092 g/mol, Ca 40.078, Mg 24.305; 1 dKH =
@@ -64,7 +67,7 @@ class Sim:
         """Changes the true levels for one event (called in time order)."""
         v = self.sys["volume_l"]
         kind = payload["type"]
-        if kind == "dose":
+        if kind == "dose" and payload["additive"] != "limewater":
             grams = payload["amount"] if payload["amount_unit"] == "g" else \
                 payload["amount"] / 1000.0 * payload["stock_g_per_l"]
             eff = per_gram(payload["additive"], v)
@@ -75,6 +78,11 @@ class Sim:
             nw = payload["new_water"]
             for i, key in enumerate(("alkalinity_dkh", "calcium_mg_l", "magnesium_mg_l")):
                 self.level[i] = self.level[i] * (1 - f) + f * nw[key]
+        elif kind == "dose" and payload["additive"] == "limewater":  # saturated, by the mL
+            eff = per_gram("calcium_hydroxide", v)
+            grams = payload["amount"] / 1000.0 * LIMEWATER_G_PER_L
+            for i in range(3):
+                self.level[i] += eff[i] * grams
         elif kind == "top_off" and payload["kind"] == "limewater":
             eff = per_gram("calcium_hydroxide", v)
             grams = payload["volume_l"] * LIMEWATER_G_PER_L
@@ -97,13 +105,65 @@ def hhmm(day, h, m=0):
 
 def run(j, sim, items):
     """Logs items (time, payload) in time order; a callable payload is called with the time
-    and returns the payload (so a test reads the level at its own time)."""
+    and returns the payload (so a test reads the level at its own time). A payload with
+    "_unlogged" changes the water without being logged (a pump dosing on its schedule); one
+    with "_missed" is logged but changes nothing (a scheduled dose that was not given)."""
     for t, p in sorted(items, key=lambda e: e[0]):
         sim.advance(t)
         if callable(p):
             p = p(t)
-        sim.apply(t, p)
-        j.event(sim.sys, t, p)
+        if p is None:
+            continue
+        after = p.pop("_after", None)
+        if not p.pop("_missed", False):
+            sim.apply(t, p)
+        if not p.pop("_unlogged", False):
+            e = j.event(sim.sys, t, p)
+            if after:
+                after(e)
+
+
+class Schedules:
+    """The standing schedules of one system's pumps: started, changed (the old one stopped and
+    a new one started at the same time) and the doses they give, which change the water but
+    are not logged one by one."""
+
+    def __init__(self, j, sim):
+        self.j, self.sim, self.current = j, sim, {}
+
+    def set(self, items, t, key, **schedule):
+        """From time t the pump `key` runs `schedule` (stops the previous one at t)."""
+        def make(_t):
+            old = self.current.get(key)
+            if old is not None:
+                old["stop"] = iso(t - 1)
+
+            def remember(e):
+                self.current[key] = e
+            return {"type": "schedule", "calibration": 1.0, **schedule, "_after": remember}
+        items.append((t - 1, make))  # a second before its first dose, so it runs first
+
+    def doses(self, items, day, key, hours, minute=0, missed_hour=None):
+        """The pump's doses of this day as unlogged water changes (a missed one is logged
+        as missed against the schedule, and gives nothing)."""
+        def make(missed):
+            def build(_t):
+                e = self.current[key]
+                payload = {"type": "dose", "additive": e["additive"], "amount": e["amount"],
+                           "amount_unit": e["amount_unit"]}
+                if "stock_g_per_l" in e:
+                    payload["stock_g_per_l"] = e["stock_g_per_l"]
+                if missed:
+                    payload.update({"mark": "missed", "schedule_id": e["id"], "_missed": True})
+                else:
+                    payload["_unlogged"] = True
+                return payload
+            return build
+        for h in hours:
+            if h == missed_hour:
+                items.append((hhmm(day, h, minute + 40), make(True)))
+            else:
+                items.append((hhmm(day, h, minute), make(False)))
 
 
 def reef(j, rng):
@@ -124,6 +184,16 @@ def reef(j, rng):
             return r
         return make
 
+    sched = Schedules(j, sim)
+
+    def set_pumps(items, day):
+        sched.set(items, hhmm(day, 6) + 1, "alk", device="pump 1", additive="sodium_carbonate",
+                  amount=round(pump["alk_ml"] / 2, 1), amount_unit="mL", stock_g_per_l=80.0,
+                  stock_name="soda ash 80 g/L", doses_per_day=2)
+        sched.set(items, hhmm(day, 6, 5) + 1, "ca", device="pump 2", additive="calcium_chloride_dihydrate",
+                  amount=round(pump["ca_ml"] / 2, 1), amount_unit="mL", stock_g_per_l=250.0,
+                  stock_name="calcium chloride 250 g/L", doses_per_day=2)
+
     for day in range(DAYS):
         items = []
         # The keeper adjusts the pumps every 14 days from the last tests.
@@ -142,14 +212,13 @@ def reef(j, rng):
                 pump["ca_ml"] -= 3
             items.append((hhmm(day, 5, 30), {"type": "note", "text":
                           f"pumps set to {pump['alk_ml']:g} mL/day carbonate and {pump['ca_ml']:g} mL/day calcium"}))
-        # Two pumps, each dosing half its daily volume at 06:00 and 18:00.
-        for h in (6, 18):
-            items.append((hhmm(day, h), {"type": "dose", "additive": "sodium_carbonate",
-                                         "amount": round(pump["alk_ml"] / 2, 1), "amount_unit": "mL",
-                                         "stock_g_per_l": 80.0}))
-            items.append((hhmm(day, h, 5), {"type": "dose", "additive": "calcium_chloride_dihydrate",
-                                            "amount": round(pump["ca_ml"] / 2, 1), "amount_unit": "mL",
-                                            "stock_g_per_l": 250.0}))
+        # Two pumps on standing schedules, each dosing half its daily volume at 06:00 and 18:00;
+        # the schedules change when the keeper adjusts the pumps. The pump doses are not logged
+        # one by one (the schedule says what they do); one evening dose was missed.
+        if day % 14 == 0:
+            set_pumps(items, day)
+        sched.doses(items, day, "alk", (6, 18), 0, missed_hour=18 if day == 60 else None)
+        sched.doses(items, day, "ca", (6, 18), 5)
         items.append((hhmm(day, 8, 30), {"type": "top_off", "volume_l": round(rng.uniform(3.0, 4.2), 1),
                                          "kind": "plain"}))
         if day % 7 == 6:  # weekly 10 % water change and a magnesium dose
@@ -205,8 +274,25 @@ def grow_out(j, rng):
             return r
         return make
 
+    sched = Schedules(j, sim)
+
+    def set_alk(items, day):
+        sched.set(items, hhmm(day, 0) + 1, "alk", device="alkalinity pump", additive="sodium_carbonate",
+                  amount=round(pump["alk_ml"] / 4, 1), amount_unit="mL", stock_g_per_l=120.0,
+                  stock_name="soda ash 120 g/L", doses_per_day=4)
+
     for day in range(DAYS):
         items = []
+        if day == 0:
+            # Calcium pump and the limewater top-off (an auto top-off: 250 mL an hour, 6 L a
+            # day) run on standing schedules for the whole time.
+            set_alk(items, 0)
+            sched.set(items, hhmm(0, 0, 10) + 1, "ca", device="calcium pump",
+                      additive="calcium_chloride_dihydrate", amount=round(pump["ca_ml"] / 4, 1),
+                      amount_unit="mL", stock_g_per_l=300.0, stock_name="calcium chloride 300 g/L",
+                      doses_per_day=4)
+            sched.set(items, hhmm(0, 0, 20) + 1, "lime", device="auto top-off", additive="limewater",
+                      amount=250.0, amount_unit="mL", stock_name="saturated limewater", doses_per_day=24)
         if day % 10 == 0 and len(recent) >= 3:  # farm staff adjust the alkalinity pump
             mean = sum(recent[-4:]) / len(recent[-4:])
             step = 10.0 if abs(mean - 8.5) > 0.2 else 0.0
@@ -214,14 +300,10 @@ def grow_out(j, rng):
                 pump["alk_ml"] += step if mean < 8.5 else -step
                 items.append((hhmm(day, 0, 0) - 60, {"type": "note", "text":
                               f"alkalinity pump set to {pump['alk_ml']:g} mL/day"}))
-        alk_ml, ca_ml = pump["alk_ml"], pump["ca_ml"]
-        for h in (0, 6, 12, 18):
-            items.append((hhmm(day, h), {"type": "dose", "additive": "sodium_carbonate",
-                                         "amount": round(alk_ml / 4, 1), "amount_unit": "mL", "stock_g_per_l": 120.0}))
-            items.append((hhmm(day, h, 10), {"type": "dose", "additive": "calcium_chloride_dihydrate",
-                                             "amount": round(ca_ml / 4, 1), "amount_unit": "mL", "stock_g_per_l": 300.0}))
-        items.append((hhmm(day, 9), {"type": "top_off", "volume_l": round(rng.uniform(5.5, 6.5), 1),
-                                     "kind": "limewater"}))
+                set_alk(items, day)
+        sched.doses(items, day, "alk", (0, 6, 12, 18), 0)
+        sched.doses(items, day, "ca", (0, 6, 12, 18), 10)
+        sched.doses(items, day, "lime", range(24), 20)
         if day % 7 == 3:
             items.append((hhmm(day, 9, 30), {"type": "dose", "additive": "magnesium_chloride_hexahydrate",
                                              "amount": 160.0, "amount_unit": "g"}))
@@ -310,6 +392,7 @@ class Journal:
         e.update(payload)
         self.next_id += 1
         self.events.append((t, e))
+        return e
 
 
 def iso(t):
@@ -340,12 +423,13 @@ def main():
     events = [e for _, e in sorted(j.events, key=lambda te: (te[0], te[1]["id"]))]
     doc = {
         "format": "tidewright-journal",
-        "schema_version": 2,
+        "schema_version": 3,
         "description": ("INVENTED DEMO DATA: three made-up systems over 120 days, generated by "
                         "assets/demo/make_demo_journal.py from a simple mass balance (reef demand "
                         "1.1 dKH, 7.5 mg/L Ca, 1.5 mg/L Mg per day; grow-out rack 1.8, 12.5, 2.5; "
                         "larval culture 0.25 dKH and 1.8 mg/L Ca) with kit noise and two misread "
-                        "tests. Nothing here was measured. Hatchery work produces food: follow "
+                        "tests. The reef's and the rack's pumps run on standing dose schedules (their "
+                        "doses are not logged one by one; one missed dose is). Nothing here was measured. Hatchery work produces food: follow "
                         "local codes and licensed practice."),
         "next_id": j.next_id,
         "systems": j.systems,

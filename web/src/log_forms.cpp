@@ -12,6 +12,7 @@
 #include "actions_dosing.hpp"
 #include "format.hpp"
 #include "tidewright/additives/additives.hpp"
+#include "tidewright/journal/schedule.hpp"
 #include "tidewright/seawater/seawater.hpp"
 #include "ui.hpp"
 
@@ -344,6 +345,8 @@ std::string event_text(const jn::Event& e, const jn::UnitPreferences& units) {
     std::string s = "Dose " + fmtx::fixed(d->amount, 1) + " " + jn::to_string(d->unit) + " " +
                     (i >= 0 ? kDoseChoices[i].shown : d->additive_id.c_str());
     if (d->stock_g_per_l) s += " (" + fmtx::fixed(*d->stock_g_per_l, 0) + " g/L stock)";
+    if (d->mark == jn::ScheduleMark::Missed) s += ", missed by its schedule";
+    if (d->mark == jn::ScheduleMark::Extra) s += ", extra run of its schedule";
     return s;
   }
   if (const auto* w = std::get_if<jn::WaterChange>(&e.data)) {
@@ -360,6 +363,9 @@ std::string event_text(const jn::Event& e, const jn::UnitPreferences& units) {
            (o->kind == jn::TopOffKind::Limewater ? " limewater" : " fresh water");
   }
   if (const auto* n = std::get_if<jn::Note>(&e.data)) return "Note: " + n->text;
+  if (const auto* p = std::get_if<jn::DoseSchedule>(&e.data)) {
+    return "Schedule " + jn::schedule_summary(*p) + (p->stop_time_s ? " (stopped)" : "");
+  }
   return "?";
 }
 

@@ -2,6 +2,7 @@
 // The filter is the standard linear-Gaussian one (Kalman 1960); the smoother is the fixed-
 // interval smoother of Rauch, Tung & Striebel (1965, AIAA J. 3:1445). State [level, demand],
 // covariance kept as its three distinct entries.
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
@@ -109,6 +110,61 @@ Status check_event(std::size_t i, const SeriesEvent& e, double previous_time) {
   return Ok{};
 }
 
+// Sum over the series' unknown-dosing spans of rate_sd x (days of the span within [t0, t1]):
+// the sd, in the parameter's unit, of what unlogged dosing may have added over that time.
+double unknown_growth(const Series& series, double t0, double t1) {
+  double sum = 0.0;
+  for (const UnknownDosing& u : series.unknown_dosing) {
+    const double overlap = std::min(t1, u.to_days) - std::max(t0, u.from_days);
+    if (overlap > 0.0) sum += u.rate_sd_per_day * overlap;
+  }
+  return sum;
+}
+double unknown_days(const Series& series, double t0, double t1) {
+  double sum = 0.0;
+  for (const UnknownDosing& u : series.unknown_dosing) {
+    const double overlap = std::min(t1, u.to_days) - std::max(t0, u.from_days);
+    if (overlap > 0.0) sum += overlap;
+  }
+  return sum;
+}
+
+Disagreement describe_disagreement(Parameter p, double t, double reading, double expected,
+                                   double expected_sd, double silent_days, bool beyond) {
+  Disagreement d;
+  d.time_days = t;
+  d.reading = reading;
+  d.expected = expected;
+  d.expected_sd = expected_sd;
+  d.difference = reading - expected;
+  d.z = expected_sd > 0.0 ? d.difference / expected_sd : 0.0;
+  d.days_without_logged_dosing = silent_days;
+  d.beyond_unlogged_allowance = beyond;
+  const char* unit = unit_of(p);
+  const bool high = d.difference > 0.0;
+  std::string reasons = fmt::format(
+      "The newest {} test reads {:.4g} {}, {:.3g} {} {} than the {:.4g} +/- {:.2g} the log alone "
+      "predicts ({:.1f} sd). Likely reasons: ",
+      to_string(p), reading, unit, std::fabs(d.difference), unit, high ? "higher" : "lower", expected,
+      expected_sd, std::fabs(d.z));
+  if (silent_days > 0.0) {
+    reasons += fmt::format(
+        "no dose is logged for the {:.1f} days before it and no schedule covers them, so pumps "
+        "dosing on their own or doses not logged {}; ",
+        silent_days, high ? "would explain a higher reading" : "cannot explain a lower reading, but stopped dosing would");
+  }
+  reasons += high ? "doses not in the log, a pump set higher or a stronger stock than logged; "
+                  : "dosing stopped or changed (a pump reset, a reservoir run dry, a weaker stock than logged), "
+                    "consumption grown, or precipitation on heaters and pumps; ";
+  reasons += "or a kit error (old reagent, a misread colour change, a mislabelled unit).";
+  d.reasons = std::move(reasons);
+  d.question =
+      "Which to trust? The estimate now follows the test (the newest test is never discarded). "
+      "If pumps dose on their own, add their schedule so the log counts them; if the test may "
+      "be wrong, retest with fresh reagent: a retest that agrees settles it.";
+  return d;
+}
+
 std::string flag_reason(Parameter p, double z_reading, double expected, double expected_sd,
                         double z, double limit) {
   return fmt::format(
@@ -152,12 +208,37 @@ Result<SeriesEstimate> estimate_series(const Series& series, const FilterOptions
   double t = -std::numeric_limits<double>::infinity();
   double first_used_time = 0.0;
   int last_flag_side = 0;  // +1/-1 if the previous test was flagged high/low, else 0
+  std::size_t newest = series.events.size();  // index of the newest test
+  for (std::size_t i = series.events.size(); i-- > 0;) {
+    if (std::holds_alternative<Measurement>(series.events[i])) {
+      newest = i;
+      break;
+    }
+  }
+  for (std::size_t i = 0; i < series.unknown_dosing.size(); ++i) {
+    const UnknownDosing& u = series.unknown_dosing[i];
+    if (!std::isfinite(u.from_days) || !std::isfinite(u.to_days) || u.to_days < u.from_days ||
+        !std::isfinite(u.rate_sd_per_day) || u.rate_sd_per_day < 0.0 || u.rate_sd_per_day > 1e5)
+      return Error{fmt::format("unknown_dosing[{}]", i),
+                   fmt::format("unknown_dosing[{}] needs from_days <= to_days and a rate sd of 0 to 1e5", i)};
+  }
+  // Unlogged dosing since the last test: its sd (summed over spans) enters the level variance
+  // as (growth)^2, so one unknown rate over a long gap widens the band linearly in time.
+  double unknown_sd = 0.0;
+  double last_test_time = 0.0;
+  auto carry = [&](double to) {
+    if (!started || !(to > t)) return;
+    predict(s, to - t, qd, ql, row);
+    const double grown = unknown_sd + unknown_growth(series, t, to);
+    s.pll += grown * grown - unknown_sd * unknown_sd;
+    unknown_sd = grown;
+  };
 
   for (std::size_t i = 0; i < series.events.size(); ++i) {
     const SeriesEvent& e = series.events[i];
     if (auto st = check_event(i, e, t); !st) return st.error();
     const double te = time_of(e);
-    if (started) predict(s, te - t, qd, ql, row);
+    carry(te);
     t = te;
 
     if (const auto* m = std::get_if<Measurement>(&e)) {
@@ -179,8 +260,18 @@ Result<SeriesEstimate> estimate_series(const Series& series, const FilterOptions
         const double var = s.pll + m->sigma * m->sigma;
         const double z = (m->value - s.l) / std::sqrt(var);
         const int side = z > 0 ? 1 : -1;
+        const bool is_newest = i == newest;
+        // The same test judged by the log alone (no allowance for unlogged dosing).
+        const double var_log = std::max(var - unknown_sd * unknown_sd, m->sigma * m->sigma);
+        const double z_log = (m->value - s.l) / std::sqrt(var_log);
+        if (is_newest && std::fabs(z_log) > options.outlier_z) {
+          out.disagreement = describe_disagreement(series.parameter, te, m->value, s.l, std::sqrt(var_log),
+                                                   unknown_days(series, last_test_time, te),
+                                                   std::fabs(z) > options.outlier_z);
+        }
         if (std::fabs(z) > options.outlier_z) {
-          if (options.restart_on_two_outliers && last_flag_side == side) {
+          if ((options.restart_on_two_outliers && last_flag_side == side) ||
+              (is_newest && options.keep_newest_test)) {
             // Read as a real level change: widen the level to cover the jump, then update.
             const double jump = m->value - s.l;
             s.pll += jump * jump;
@@ -209,7 +300,10 @@ Result<SeriesEstimate> estimate_series(const Series& series, const FilterOptions
       st.row = row;
       row = LevelRow{};
       steps.push_back(st);
-      h.level = s.l;
+      unknown_sd = 0.0;
+      last_test_time = te;
+      out.last_test_days = te;
+      h.level = std::max(0.0, s.l);
       h.level_sd = sd(s.pll);
       h.demand_per_day = s.d;
       h.demand_sd = sd(s.pdd);
@@ -262,11 +356,17 @@ Result<SeriesEstimate> estimate_series(const Series& series, const FilterOptions
   }
 
   if (started && now_days && *now_days > t) {
-    predict(s, *now_days - t, qd, ql, row);
+    carry(*now_days);
     t = *now_days;
   }
   out.time_days = started ? t : (now_days ? *now_days : 0.0);
-  out.level = s.l;
+  out.unknown_dosing_level_sd = started ? unknown_sd : 0.0;
+  for (const UnknownDosing& u : series.unknown_dosing) {
+    if (u.from_days <= out.time_days && u.to_days >= out.time_days) out.unknown_dosing_rate_sd = u.rate_sd_per_day;
+  }
+  // A concentration is never negative: the linear model can run below zero far from its
+  // tests, the water cannot.
+  out.level = std::max(0.0, s.l);
   out.level_sd = sd(s.pll);
   out.level_demand_cov = s.pld;
   out.demand_per_day = s.d;
@@ -291,6 +391,19 @@ const char* to_string(Parameter p) {
 }
 
 const char* unit_of(Parameter p) { return p == Parameter::Alkalinity ? "dKH" : "mg/L"; }
+
+double useful_horizon_days(Parameter p) {
+  switch (p) {
+    case Parameter::Alkalinity: return 14.0;
+    case Parameter::Calcium: return 30.0;
+    case Parameter::Magnesium: return 60.0;
+  }
+  return 14.0;
+}
+
+bool is_stale(const SeriesEstimate& e, double now_days) {
+  return e.last_test_days && now_days - *e.last_test_days > useful_horizon_days(e.parameter);
+}
 
 FilterOptions default_filter_options(Parameter p) {
   FilterOptions o;  // reasons for each figure: estimate.hpp, section 3 (common practice judgement)

@@ -1,5 +1,6 @@
 // Reading an estimate (estimate.hpp 5): the calcium : alkalinity ratio of what the water lost,
 // against calcification's 1 mmol Ca per 2 meq alkalinity, and a forecast under steady dosing.
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -25,6 +26,7 @@ double calcium_mg_l_per_dkh_calcification_gazeau2015() {
 const char* to_string(RatioVerdict v) {
   switch (v) {
     case RatioVerdict::NotEnoughData: return "not enough data";
+    case RatioVerdict::Inconclusive: return "inconclusive";
     case RatioVerdict::Consistent: return "consistent with calcification";
     case RatioVerdict::CalciumFasterThanAlkalinity: return "calcium falling faster";
     case RatioVerdict::AlkalinityFasterThanCalcium: return "alkalinity falling faster";
@@ -62,7 +64,22 @@ CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alk,
       fmt::format("the calcium demand is {:+.2f} +/- {:.2f} mg/L/day off the {:.3f} mg/L per dKH "
                   "of calcification (1 Ca : 2 alkalinity, Gazeau et al. 2015)",
                   r.excess_calcium_mg_l_per_day, r.excess_sd, k);
-  if (std::fabs(r.excess_calcium_mg_l_per_day) <= kZ95 * r.excess_sd) {
+  // The ratio says nothing when there is none, or when its 95 % interval reaches zero or is
+  // wider than the ratio itself (it would then span every reading, calcification's included).
+  const bool no_ratio = !r.ratio_valid;
+  const bool covers_zero = r.ratio_valid && r.ratio_mg_l_per_dkh - kZ95 * r.ratio_sd <= 0.0;
+  const bool spans_ratio = r.ratio_valid && kZ95 * r.ratio_sd >= std::fabs(r.ratio_mg_l_per_dkh);
+  if (no_ratio || covers_zero || spans_ratio) {
+    r.verdict = RatioVerdict::Inconclusive;
+    r.reading = fmt::format(
+        "Inconclusive: {}{}; {}. More tests of both, a few days apart, will narrow it.", ratio_text,
+        r.ratio_valid ? fmt::format(" (95 % interval {:.2f} to {:.2f}, which {})",
+                                    r.ratio_mg_l_per_dkh - kZ95 * r.ratio_sd,
+                                    r.ratio_mg_l_per_dkh + kZ95 * r.ratio_sd,
+                                    covers_zero ? "reaches zero" : "is wider than the ratio itself")
+                      : std::string(),
+        excess_text);
+  } else if (std::fabs(r.excess_calcium_mg_l_per_day) <= kZ95 * r.excess_sd) {
     r.verdict = RatioVerdict::Consistent;
     r.reading = fmt::format(
         "Calcium and alkalinity fall together as calcification predicts: {}; {}, within the "
@@ -113,15 +130,18 @@ Result<std::vector<ForecastPoint>> forecast_levels(const SeriesEstimate& e,
     // The same transition as the filter, dt days ahead in one step (exact for the model).
     const double level = e.level + (daily_dose_effect_per_day - e.demand_per_day) * dt;
     const double pdd = e.demand_sd * e.demand_sd;
+    // Unknown dosing goes on at its rate sd: the level's share of it grows linearly in time.
+    const double u0 = e.unknown_dosing_level_sd, u1 = u0 + e.unknown_dosing_rate_sd * dt;
     const double var = e.level_sd * e.level_sd - 2.0 * dt * e.level_demand_cov + dt * dt * pdd +
-                       qd * dt * dt * dt / 3.0 + ql * dt;
+                       qd * dt * dt * dt / 3.0 + ql * dt + (u1 * u1 - u0 * u0);
     ForecastPoint p;
     p.day = k;
     p.time_days = e.time_days + dt;
-    p.level = level;
     p.level_sd = var > 0.0 ? std::sqrt(var) : 0.0;
-    p.low95 = level - kZ95 * p.level_sd;
-    p.high95 = level + kZ95 * p.level_sd;
+    // Truncated at the physical bound: no water holds a negative concentration.
+    p.level = std::max(0.0, level);
+    p.low95 = std::max(0.0, level - kZ95 * p.level_sd);
+    p.high95 = std::max(0.0, level + kZ95 * p.level_sd);
     out.push_back(p);
   }
   return out;

@@ -33,9 +33,16 @@ std::string num(const std::optional<double>& v) { return v ? num(*v) : ""; }
 
 }  // namespace
 
+bool csv_exportable(const Event& e) {
+  if (std::holds_alternative<DoseSchedule>(e.data)) return false;
+  const auto* d = std::get_if<Dose>(&e.data);
+  return d == nullptr || d->mark == ScheduleMark::None;
+}
+
 std::string export_csv(const Journal& journal, const EventFilter& filter) {
   std::string out = csv::format_row(csv_long_columns(), true);
   for (const Event* e : select_events(journal, filter)) {
+    if (!csv_exportable(*e)) continue;
     std::vector<std::string> c(kCount);
     const System* sys = find_system(journal, e->system_id);
     c[kTime] = datetime::format_iso8601_utc(e->time_s);

@@ -1,7 +1,7 @@
-// Journal file format: JSON writer, reader with validation, and the v1 -> v2 migration.
+// Journal file format: JSON writer, reader with validation, and the migrations v1 -> v2 -> v3.
 //
 // Map: 1. writer   2. field readers (typed, with JSON paths in errors)   3. record readers
-//      4. migration v1 -> v2   5. parse_journal
+//      4. migration v1 -> v2   4b. migration v2 -> v3   5. parse_journal
 #include <algorithm>
 #include <set>
 
@@ -67,6 +67,18 @@ json event_to_json(const Event& e) {
     j["amount"] = d->amount;
     j["amount_unit"] = to_string(d->unit);
     put_optional(j, "stock_g_per_l", d->stock_g_per_l);
+    if (d->mark != ScheduleMark::None) j["mark"] = to_string(d->mark);
+    if (d->schedule_id) j["schedule_id"] = *d->schedule_id;
+  } else if (const auto* p = std::get_if<DoseSchedule>(&e.data)) {
+    j["device"] = p->device;
+    j["additive"] = p->additive_id;
+    j["amount"] = p->amount;
+    j["amount_unit"] = to_string(p->unit);
+    put_optional(j, "stock_g_per_l", p->stock_g_per_l);
+    if (!p->stock_name.empty()) j["stock_name"] = p->stock_name;
+    j["doses_per_day"] = p->doses_per_day;
+    j["calibration"] = p->calibration;
+    if (p->stop_time_s) j["stop"] = datetime::format_iso8601_utc(*p->stop_time_s);
   } else if (const auto* w = std::get_if<WaterChange>(&e.data)) {
     j["volume_l"] = w->volume_l;
     json n = json::object();
@@ -243,10 +255,47 @@ Result<EventData> read_payload(const json& j, const std::string& path, const std
     TW_TRY(unit_text, get_string(j, path, "amount_unit"));
     TW_TRY_NAME(unit, dose_unit_from_string(unit_text), path);
     TW_TRY(stock, get_optional_number(j, path, "stock_g_per_l"));
+    TW_TRY(mark_text, get_string(j, path, "mark", false));
+    TW_TRY_NAME(mark, schedule_mark_from_string(mark_text), path);
     d.additive_id = additive;
     d.amount = amount;
     d.unit = unit;
     d.stock_g_per_l = stock;
+    d.mark = mark;
+    if (const json* sid = member(j, "schedule_id"); sid && !sid->is_null()) {
+      TW_TRY(id, get_integer(j, path, "schedule_id"));
+      d.schedule_id = id;
+    }
+    return EventData{d};
+  }
+  if (type == "schedule") {
+    DoseSchedule d;
+    TW_TRY(device, get_string(j, path, "device"));
+    TW_TRY(additive, get_string(j, path, "additive"));
+    TW_TRY(amount, get_number(j, path, "amount"));
+    TW_TRY(unit_text, get_string(j, path, "amount_unit"));
+    TW_TRY_NAME(unit, dose_unit_from_string(unit_text), path);
+    TW_TRY(stock, get_optional_number(j, path, "stock_g_per_l"));
+    TW_TRY(stock_name, get_string(j, path, "stock_name", false));
+    TW_TRY(per_day, get_integer(j, path, "doses_per_day"));
+    TW_TRY(calibration, get_optional_number(j, path, "calibration"));
+    TW_TRY(stop_text, get_string(j, path, "stop", false));
+    d.device = device;
+    d.additive_id = additive;
+    d.amount = amount;
+    d.unit = unit;
+    d.stock_g_per_l = stock;
+    d.stock_name = stock_name;
+    if (per_day < 1 || per_day > kMaxDosesPerDay) {
+      return at(path + ".doses_per_day", fmt::format("{} is outside the accepted range 1 to {}", per_day, kMaxDosesPerDay));
+    }
+    d.doses_per_day = static_cast<int>(per_day);
+    d.calibration = calibration.value_or(1.0);
+    if (!stop_text.empty()) {
+      auto stop = datetime::parse_datetime(stop_text);
+      if (!stop) return with_path(path + ".stop", stop.error());
+      d.stop_time_s = *stop;
+    }
     return EventData{d};
   }
   if (type == "water_change") {
@@ -283,7 +332,7 @@ Result<EventData> read_payload(const json& j, const std::string& path, const std
     return EventData{Note{text}};
   }
   return at(path + ".type",
-            "'" + type + "' is not known; accepted: test, dose, water_change, top_off, note");
+            "'" + type + "' is not known; accepted: test, dose, water_change, top_off, note, schedule");
 }
 
 Result<Event> read_event(const json& j, const std::string& path) {
@@ -357,6 +406,15 @@ Result<json> migrate_v1_to_v2(const json& v1) {
   return v2;
 }
 
+// ---------------------------------------------------------------- 4b. migration v2 -> v3
+// v3 added dose schedules (events of type "schedule") and the "mark"/"schedule_id" of a dose;
+// a v2 file has neither, so only the version changes.
+Result<json> migrate_v2_to_v3(const json& v2) {
+  json v3 = v2;
+  v3["schema_version"] = 3;
+  return v3;
+}
+
 // ---------------------------------------------------------------- 5. parse_journal
 namespace {
 std::string line_column(const std::string& text, size_t byte) {
@@ -409,6 +467,11 @@ Result<Journal> parse_journal(const std::string& text, int* source_version) {
   if (source_version) *source_version = static_cast<int>(version);
   if (version == 1) {
     auto migrated = migrate_v1_to_v2(doc);
+    if (!migrated) return migrated.error();
+    doc = std::move(migrated).value();
+  }
+  if (doc["schema_version"].get<std::int64_t>() == 2) {
+    auto migrated = migrate_v2_to_v3(doc);
     if (!migrated) return migrated.error();
     doc = std::move(migrated).value();
   }

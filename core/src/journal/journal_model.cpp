@@ -164,6 +164,57 @@ Status volume_within_system(double volume_l, const System& sys) {
   return s;
 }
 
+// A dose marked missed or extra: its schedule is a DoseSchedule of the same system, giving the
+// same additive in the same unit, running at the dose's time.
+Status validate_mark(const Journal& journal, const Event& e, const Dose& d) {
+  if (d.mark == ScheduleMark::None) {
+    if (d.schedule_id) return Error{"schedule_id", "schedule_id is only for a dose marked missed or extra"};
+    return Ok{};
+  }
+  if (!d.schedule_id) {
+    return Error{"schedule_id", fmt::format("a dose marked {} needs the schedule it belongs to (schedule_id)",
+                                            to_string(d.mark))};
+  }
+  const Event* se = find_event(journal, *d.schedule_id);
+  const auto* sched = se ? std::get_if<DoseSchedule>(&se->data) : nullptr;
+  if (!sched || se->system_id != e.system_id) {
+    return Error{"schedule_id", fmt::format("schedule_id {} is not a dose schedule of this system", *d.schedule_id)};
+  }
+  if (sched->additive_id != d.additive_id || sched->unit != d.unit) {
+    return Error{"additive_id", fmt::format("a dose marked {} must be of the schedule's additive ({} in {})",
+                                            to_string(d.mark), sched->additive_id, to_string(sched->unit))};
+  }
+  if (e.time_s < se->time_s || (sched->stop_time_s && e.time_s > *sched->stop_time_s)) {
+    return Error{"time", fmt::format("a dose marked {} must fall while its schedule runs ({} to {})",
+                                     to_string(d.mark), datetime::format_iso8601_utc(se->time_s),
+                                     sched->stop_time_s ? datetime::format_iso8601_utc(*sched->stop_time_s)
+                                                        : std::string("now"))};
+  }
+  return Ok{};
+}
+
+Status validate_schedule(const Event& e, const DoseSchedule& d) {
+  if (d.device.empty() || d.device.size() > 60) {
+    return Error{"device", "device must name the pump or routine in 1 to 60 characters"};
+  }
+  if (Status t = check_text("device", d.device); !t) return t;
+  if (d.stock_name.size() > 60) return Error{"stock_name", "stock_name must have at most 60 characters"};
+  if (Status t = check_text("stock_name", d.stock_name); !t) return t;
+  Dose as_dose{d.additive_id, d.amount, d.unit, d.stock_g_per_l, ScheduleMark::None, std::nullopt};
+  if (Status s = validate_dose(as_dose); !s) return s;
+  if (d.doses_per_day < 1 || d.doses_per_day > kMaxDosesPerDay) {
+    return Error{"doses_per_day", fmt::format("doses_per_day {} is outside the accepted range 1 to {}",
+                                              d.doses_per_day, kMaxDosesPerDay)};
+  }
+  if (Status s = in_range("calibration", d.calibration, kCalibrationRange); !s) return s;
+  if (d.stop_time_s && (*d.stop_time_s <= e.time_s || *d.stop_time_s > kLatestTimeS)) {
+    return Error{"stop", fmt::format("stop {} must come after the schedule's start {}",
+                                     datetime::format_iso8601_utc(*d.stop_time_s),
+                                     datetime::format_iso8601_utc(e.time_s))};
+  }
+  return Ok{};
+}
+
 Status validate_water_change(const WaterChange& w, const System& sys) {
   Status s = volume_within_system(w.volume_l, sys);
   if (!s) return s;
@@ -192,6 +243,17 @@ auto find_by_id(Vec& v, Id id) {
 
 bool id_in_use(const Journal& j, std::int64_t id) {
   return find_system(j, id) != nullptr || find_event(j, id) != nullptr;
+}
+
+Status check_no_marks_refer(const Journal& j, EventId schedule) {
+  for (const auto& e : j.events) {
+    const auto* d = std::get_if<Dose>(&e.data);
+    if (d && d->schedule_id == schedule) {
+      return Error{"id", fmt::format("schedule {} has doses marked against it (event {}); remove those first",
+                                     schedule, e.id)};
+    }
+  }
+  return Ok{};
 }
 
 void insert_sorted(std::vector<Event>& events, Event e) {
@@ -260,7 +322,11 @@ Status validate_event(const Journal& journal, const Event& e) {
   if (e.time_text.size() > 100) return Error{"time_text", "time_text is longer than 100 characters"};
   if (Status t = check_text("time_text", e.time_text); !t) return t;
   if (const auto* t = std::get_if<TestResult>(&e.data)) return validate_test(*t);
-  if (const auto* d = std::get_if<Dose>(&e.data)) return validate_dose(*d);
+  if (const auto* d = std::get_if<Dose>(&e.data)) {
+    if (Status s = validate_dose(*d); !s) return s;
+    return validate_mark(journal, e, *d);
+  }
+  if (const auto* d = std::get_if<DoseSchedule>(&e.data)) return validate_schedule(e, *d);
   if (const auto* w = std::get_if<WaterChange>(&e.data)) return validate_water_change(*w, *sys);
   if (const auto* o = std::get_if<TopOff>(&e.data)) return validate_top_off(*o, *sys);
   const auto& n = std::get<Note>(e.data);
@@ -323,6 +389,18 @@ Status update_event(Journal& journal, const Event& event) {
   if (it == journal.events.end()) return Error{"id", fmt::format("no event with id {}", event.id)};
   Status s = validate_event(journal, event);
   if (!s) return s;
+  // A changed schedule must still hold the doses marked against it.
+  Journal trial = journal;
+  *find_by_id(trial.events, event.id) = event;
+  for (const auto& e : trial.events) {
+    const auto* d = std::get_if<Dose>(&e.data);
+    if (!d || d->schedule_id != event.id) continue;
+    Status es = validate_event(trial, e);
+    if (!es) {
+      return Error{es.error().field, fmt::format("marked dose {} would no longer be valid: {}", e.id,
+                                                 es.error().message)};
+    }
+  }
   journal.events.erase(it);
   insert_sorted(journal.events, event);
   return Ok{};
@@ -347,6 +425,7 @@ Status remove_system(Journal& journal, SystemId id, bool with_events) {
 Status remove_event(Journal& journal, EventId id) {
   auto it = find_by_id(journal.events, id);
   if (it == journal.events.end()) return Error{"id", fmt::format("no event with id {}", id)};
+  if (Status s = check_no_marks_refer(journal, id); !s) return s;
   journal.events.erase(it);
   return Ok{};
 }

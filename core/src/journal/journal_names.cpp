@@ -130,8 +130,26 @@ const char* event_type_name(const EventData& data) {
     case 1: return "dose";
     case 2: return "water_change";
     case 3: return "top_off";
+    case 5: return "schedule";
     default: return "note";
   }
+}
+
+const char* to_string(ScheduleMark mark) {
+  switch (mark) {
+    case ScheduleMark::Missed: return "missed";
+    case ScheduleMark::Extra: return "extra";
+    case ScheduleMark::None: break;
+  }
+  return "none";
+}
+
+Result<ScheduleMark> schedule_mark_from_string(const std::string& text) {
+  const std::string t = lower_trim(text);
+  if (t == "none" || t.empty()) return ScheduleMark::None;
+  if (t == "missed") return ScheduleMark::Missed;
+  if (t == "extra") return ScheduleMark::Extra;
+  return Error{"mark", "mark '" + text + "' is not known; accepted: none, missed, extra"};
 }
 
 double net_volume_l(const VolumeParts& parts) {

@@ -2,6 +2,7 @@
 // store_export.cpp; backup, restore and the integrity check: store_backup.cpp.
 //
 // Map: 1. meta helpers  2. opening  3. reads  4. changes  5. settings
+#include <algorithm>
 #include <sys/stat.h>
 #include <unistd.h>
 
@@ -313,11 +314,34 @@ Result<SystemId> JournalStore::add_system(const System& system) {
   });
 }
 
+// What the core needs besides the event to validate a schedule mark: the schedule a marked
+// dose names, and the doses marked against a schedule being changed.
+void JournalStore::add_schedule_context(Journal& scratch, const Event& event) const {
+  auto have = [&](EventId id) {
+    return std::any_of(scratch.events.begin(), scratch.events.end(), [id](const Event& e) { return e.id == id; });
+  };
+  if (const auto* d = std::get_if<journal::Dose>(&event.data); d && d->schedule_id && !have(*d->schedule_id)) {
+    if (auto s = this->event(*d->schedule_id)) scratch.events.push_back(std::move(*s));
+  }
+  if (std::holds_alternative<journal::DoseSchedule>(event.data)) {
+    Statement st(db_, (std::string("SELECT ") + kEventColumns + " FROM events WHERE schedule_id = ?").c_str());
+    st.bind(1, event.id);
+    while (st.step()) {
+      Event e = read_event(st);
+      if (!have(e.id)) scratch.events.push_back(std::move(e));
+    }
+  }
+  std::stable_sort(scratch.events.begin(), scratch.events.end(), [](const Event& a, const Event& b) {
+    return a.time_s != b.time_s ? a.time_s < b.time_s : a.id < b.id;
+  });
+}
+
 Result<EventId> JournalStore::add_event(const Event& event) {
   return guarded(path_, [&]() -> Result<EventId> {
     WriteTransaction tx(db_);
     Journal scratch;
     if (auto s = system(event.system_id)) scratch.systems.push_back(std::move(*s));
+    add_schedule_context(scratch, event);
     scratch.next_id = read_next_id(db_);
     if (event.id != 0 && id_stored(db_, event.id)) return id_taken(event.id);
     auto id = journal::add_event(scratch, event);
@@ -354,6 +378,7 @@ Status JournalStore::update_event(const Event& event) {
     auto old = this->event(event.id);
     if (!old) return Error{"id", fmt::format("no event with id {}", event.id)};
     scratch.events.push_back(std::move(*old));
+    add_schedule_context(scratch, event);
     Status s = journal::update_event(scratch, event);
     if (!s) return s;
     update_event_row(db_, event);
@@ -384,6 +409,12 @@ Status JournalStore::remove_system(SystemId id, bool with_events) {
 Status JournalStore::remove_event(EventId id) {
   return guarded(path_, [&]() -> Status {
     WriteTransaction tx(db_);
+    Statement refs(db_, "SELECT id FROM events WHERE schedule_id = ? LIMIT 1");
+    refs.bind(1, id);
+    if (refs.step()) {
+      return Error{"id", fmt::format("schedule {} has doses marked against it (event {}); remove those first", id,
+                                     refs.integer(0))};
+    }
     Statement st(db_, "DELETE FROM events WHERE id = ?");
     st.bind(1, id).run();
     if (sqlite3_changes(db_) == 0) return Error{"id", fmt::format("no event with id {}", id)};

@@ -115,13 +115,16 @@ JournalStore::IntegrityReport JournalStore::check_integrity() const {
       max_id = std::max(max_id, s.id);
       if (Status st = validate_system(all, s); !st) problem(fmt::format("system {}: {}", s.id, st.error().message));
     }
-    Statement ev(db_, (std::string("SELECT ") + kEventColumns + " FROM events").c_str());
+    // In id order: a schedule always has a lower id than the doses marked against it, and is
+    // kept in `all` so that their marks can be checked.
+    Statement ev(db_, (std::string("SELECT ") + kEventColumns + " FROM events ORDER BY id").c_str());
     while (ev.step()) {
       ++r.events;
       try {
         const Event e = read_event(ev);
         max_id = std::max(max_id, e.id);
         if (Status st = validate_event(all, e); !st) problem(fmt::format("event {}: {}", e.id, st.error().message));
+        if (std::holds_alternative<journal::DoseSchedule>(e.data)) all.events.push_back(e);
       } catch (const std::exception& e) {
         problem(e.what());
       }

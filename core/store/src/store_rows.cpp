@@ -16,7 +16,8 @@ const char* const kSystemColumns =
 const char* const kEventColumns =
     "id, system_id, time_s, time_text, type, parameter, other_name, value, unit, precision, "
     "ph_scale, kit, additive, amount, amount_unit, stock_g_per_l, volume_l, new_alkalinity_dkh, "
-    "new_calcium_mg_l, new_magnesium_mg_l, new_salinity, top_off_kind, limewater_g_per_l, note";
+    "new_calcium_mg_l, new_magnesium_mg_l, new_salinity, top_off_kind, limewater_g_per_l, note, mark, schedule_id, "
+    "device, stock_name, doses_per_day, calibration, stop_s";
 
 namespace {
 
@@ -46,7 +47,7 @@ void bind_system(Statement& st, const System& s) {
 
 // Parameters 2.. of an event row (1 is the id).
 void bind_event(Statement& st, const Event& e) {
-  for (int i = 2; i <= 24; ++i) st.bind_null(i);
+  for (int i = 2; i <= 31; ++i) st.bind_null(i);
   st.bind(1, e.id).bind(2, e.system_id).bind(3, e.time_s).bind_text_or_null(4, e.time_text);
   st.bind(5, std::string(event_type_name(e.data)));
   if (const auto* t = std::get_if<TestResult>(&e.data)) {
@@ -57,6 +58,14 @@ void bind_event(Statement& st, const Event& e) {
   } else if (const auto* d = std::get_if<Dose>(&e.data)) {
     st.bind(13, d->additive_id).bind(14, d->amount).bind(15, std::string(to_string(d->unit)));
     st.bind(16, d->stock_g_per_l);
+    if (d->mark != ScheduleMark::None) st.bind(25, std::string(to_string(d->mark)));
+    if (d->schedule_id) st.bind(26, *d->schedule_id);
+  } else if (const auto* p = std::get_if<DoseSchedule>(&e.data)) {
+    st.bind(13, p->additive_id).bind(14, p->amount).bind(15, std::string(to_string(p->unit)));
+    st.bind(16, p->stock_g_per_l);
+    st.bind(27, p->device).bind_text_or_null(28, p->stock_name);
+    st.bind(29, static_cast<std::int64_t>(p->doses_per_day)).bind(30, p->calibration);
+    if (p->stop_time_s) st.bind(31, *p->stop_time_s);
   } else if (const auto* w = std::get_if<WaterChange>(&e.data)) {
     st.bind(17, w->volume_l).bind(18, w->alkalinity_dkh).bind(19, w->calcium_mg_l);
     st.bind(20, w->magnesium_mg_l).bind(21, w->salinity);
@@ -92,7 +101,8 @@ const char* event_insert_sql() {
   return "INSERT INTO events (id, system_id, time_s, time_text, type, parameter, other_name, value, unit, "
          "precision, ph_scale, kit, additive, amount, amount_unit, stock_g_per_l, volume_l, "
          "new_alkalinity_dkh, new_calcium_mg_l, new_magnesium_mg_l, new_salinity, top_off_kind, "
-         "limewater_g_per_l, note) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)";
+         "limewater_g_per_l, note, mark, schedule_id, device, stock_name, doses_per_day, calibration, stop_s) "
+         "VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)";
 }
 
 void insert_event(Statement& insert, const Event& e) {
@@ -106,7 +116,9 @@ void update_event_row(sqlite3* db, const Event& e) {
                    "other_name = ?7, value = ?8, unit = ?9, precision = ?10, ph_scale = ?11, kit = ?12, "
                    "additive = ?13, amount = ?14, amount_unit = ?15, stock_g_per_l = ?16, volume_l = ?17, "
                    "new_alkalinity_dkh = ?18, new_calcium_mg_l = ?19, new_magnesium_mg_l = ?20, "
-                   "new_salinity = ?21, top_off_kind = ?22, limewater_g_per_l = ?23, note = ?24 WHERE id = ?1");
+                   "new_salinity = ?21, top_off_kind = ?22, limewater_g_per_l = ?23, note = ?24, mark = ?25, "
+                   "schedule_id = ?26, device = ?27, stock_name = ?28, doses_per_day = ?29, calibration = ?30, "
+                   "stop_s = ?31 WHERE id = ?1");
   bind_event(st, e);
   st.run();
 }
@@ -147,8 +159,25 @@ Event read_event(const Statement& r) {
     t.kit = r.text(11);
     e.data = std::move(t);
   } else if (type == "dose") {
-    e.data = Dose{r.text(12), r.real(13), known(dose_unit_from_string(r.text(14)), "amount unit", e.id),
-                  r.optional_real(15)};
+    Dose d{r.text(12), r.real(13), known(dose_unit_from_string(r.text(14)), "amount unit", e.id),
+           r.optional_real(15)};
+    if (!r.is_null(24)) {
+      d.mark = known(schedule_mark_from_string(r.text(24)), "mark", e.id);
+      d.schedule_id = r.integer(25);
+    }
+    e.data = std::move(d);
+  } else if (type == "schedule") {
+    DoseSchedule p;
+    p.additive_id = r.text(12);
+    p.amount = r.real(13);
+    p.unit = known(dose_unit_from_string(r.text(14)), "amount unit", e.id);
+    p.stock_g_per_l = r.optional_real(15);
+    p.device = r.text(26);
+    p.stock_name = r.text(27);
+    p.doses_per_day = static_cast<int>(r.integer(28));
+    p.calibration = r.real(29);
+    if (!r.is_null(30)) p.stop_time_s = r.integer(30);
+    e.data = std::move(p);
   } else if (type == "water_change") {
     e.data = WaterChange{r.real(16), r.optional_real(17), r.optional_real(18), r.optional_real(19),
                          r.optional_real(20)};

@@ -48,7 +48,7 @@ Journal random_journal(std::mt19937_64& rng) {
     e.system_id = sys.id;
     e.time_s = std::uniform_int_distribution<std::int64_t>(1600000000, 1900000000)(rng);
     if (pick(3) == 0) e.time_text = "time as typed " + std::to_string(i);
-    switch (pick(5)) {
+    switch (pick(6)) {
       case 0: {
         TestResult t;
         const Parameter ps[] = {Parameter::Alkalinity, Parameter::Calcium, Parameter::Magnesium,
@@ -80,6 +80,19 @@ Journal random_journal(std::mt19937_64& rng) {
         e.data = TopOff{uni(0.1, std::min(50.0, sys.volume_l)),
                         pick(2) ? TopOffKind::Plain : TopOffKind::Limewater, std::nullopt};
         break;
+      case 4: {
+        DoseSchedule d;
+        d.device = "pump " + std::to_string(pick(4));
+        d.additive_id = pick(2) ? "sodium_carbonate" : "calcium_chloride_dihydrate";
+        d.amount = uni(0.5, 20);
+        d.stock_g_per_l = maybe(10, 300);
+        if (pick(2)) d.stock_name = "stock " + std::to_string(pick(9));
+        d.doses_per_day = 1 + pick(24);
+        d.calibration = uni(0.8, 1.2);
+        if (pick(2)) d.stop_time_s = e.time_s + 1 + pick(1000000);
+        e.data = d;
+        break;
+      }
       default:
         e.data = Note{"note " + std::to_string(i) + " with \"quotes\", commas\nand lines"};
     }
@@ -136,11 +149,32 @@ TEST_CASE("journal: v1 files are migrated to v2") {
   CHECK(j.events[0].id == 3);  // sorted by time on load
   CHECK(j.events[1].time_s == 1780000000);
   CHECK(std::get<TestResult>(j.events[1].data).ph_scale == tw::carbonate::PhScale::NBS);
-  // Written back as version 2 and reread identically.
-  const std::string v2 = serialize_journal(j);
-  CHECK(v2.find("\"schema_version\": 2") != std::string::npos);
-  CHECK(v2.find("\"time\": \"2026-05-28T20:26:40Z\"") != std::string::npos);
-  CHECK(*parse_journal(v2) == j);
+  // Written back as the current version and reread identically.
+  const std::string v3 = serialize_journal(j);
+  CHECK(v3.find("\"schema_version\": 3") != std::string::npos);
+  CHECK(v3.find("\"time\": \"2026-05-28T20:26:40Z\"") != std::string::npos);
+  CHECK(*parse_journal(v3) == j);
+}
+
+TEST_CASE("journal: v2 files are migrated to v3 (schedules added, nothing else changes)") {
+  const std::string v2 = R"({
+    "format": "tidewright-journal", "schema_version": 2, "next_id": 3,
+    "systems": [{"id": 1, "name": "Reef", "kind": "reef_display", "volume_l": 200,
+                 "default_salinity": 35, "default_temperature_c": 25,
+                 "units": {"alkalinity": "dKH", "calcium_magnesium": "mg/L", "temperature": "C",
+                           "ph_scale": "nbs", "volume": "L"}}],
+    "events": [{"id": 2, "system_id": 1, "time": "2026-11-01T08:00:00Z", "type": "dose",
+                "additive": "sodium_carbonate", "amount": 10, "amount_unit": "mL",
+                "stock_g_per_l": 80}]})";
+  int version = 0;
+  auto r = parse_journal(v2, &version);
+  REQUIRE_MESSAGE(r.ok(), r.error().message);
+  CHECK(version == 2);
+  const auto& d = std::get<Dose>(r->events.at(0).data);
+  CHECK(d.mark == ScheduleMark::None);
+  CHECK_FALSE(d.schedule_id.has_value());
+  CHECK(serialize_journal(*r).find("\"schema_version\": 3") != std::string::npos);
+  CHECK(*parse_journal(serialize_journal(*r)) == *r);
 }
 
 TEST_CASE("journal: damaged and unknown files give clear errors") {

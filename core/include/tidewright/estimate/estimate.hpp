@@ -32,6 +32,7 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <variant>
@@ -74,10 +75,24 @@ struct Dilution {
 using SeriesEvent = std::variant<Measurement, Addition, Dilution>;
 double time_of(const SeriesEvent& e);
 
+// A span in which doses may have been given that the log does not hold (a keeper who logged
+// doses regularly, then stopped logging, with no schedule to say what the pumps do). Over
+// such a span the level may have risen by up to about rate_sd_per_day per day (1 sd) more
+// than the log says: the filter widens the prediction by rate_sd_per_day x (days of the span
+// since the last test), so a test after the gap is judged against that wider band.
+struct UnknownDosing {
+  double from_days = 0.0;
+  double to_days = 0.0;            // use kOpenEnd for "to the end and beyond"
+  double rate_sd_per_day = 0.0;    // unit/day, >= 0
+  double last_logged_days = 0.0;   // the last logged dose before the span (for messages)
+};
+inline constexpr double kOpenEnd = 1e9;
+
 // Events must be in time order (equal times are applied in the given order).
 struct Series {
   Parameter parameter = Parameter::Alkalinity;
   std::vector<SeriesEvent> events;
+  std::vector<UnknownDosing> unknown_dosing;  // in time order, not overlapping
 };
 
 // ============================================================ 3. Filter options
@@ -88,6 +103,9 @@ struct FilterOptions {
   double prior_demand_sd = 0.0;               // unit/day; wide = weak prior
   double outlier_z = 3.5;                     // |normalized innovation| above this is flagged
   bool restart_on_two_outliers = true;        // two same-side flags in a row restart the level
+  // The newest test is never discarded to protect the model: when it falls outside the band
+  // it restarts the level, and the estimate reports the disagreement (Disagreement below).
+  bool keep_newest_test = true;
   bool smooth = true;                         // also compute the RTS-smoothed history
 };
 
@@ -128,6 +146,22 @@ struct OutlierFlag {
   std::string reason;                        // plain words
 };
 
+// The newest test and the log disagree: what the log alone predicted, by how much the test
+// differs, the likely reasons and the question to put to the keeper. Reported (never a
+// reason to drop the test) when the test is more than outlier_z sd of the log-only
+// prediction (kit precision and the model's drift since the previous test) away.
+struct Disagreement {
+  double time_days = 0.0;
+  double reading = 0.0;
+  double expected = 0.0, expected_sd = 0.0;  // from the log alone (no allowance for unlogged dosing)
+  double difference = 0.0;                   // reading - expected
+  double z = 0.0;                            // difference / expected_sd
+  double days_without_logged_dosing = 0.0;   // of the span before the test, 0 if none
+  bool beyond_unlogged_allowance = false;    // also outside the band widened for unlogged dosing
+  std::string reasons;                       // plain words: likely reasons
+  std::string question;                      // plain words: which to trust, and how to tell
+};
+
 struct SeriesEstimate {
   Parameter parameter = Parameter::Alkalinity;
   std::size_t tests = 0;        // all tests in the series
@@ -140,7 +174,21 @@ struct SeriesEstimate {
   double demand_low95 = 0.0, demand_high95 = 0.0;  // demand +/- 1.959964 sd
   std::vector<HistoryPoint> history;
   std::vector<OutlierFlag> outliers;
+  std::optional<Disagreement> disagreement;  // of the newest test, when it disagrees with the log
+  std::optional<double> last_test_days;      // time of the newest test
+  // Dosing the log cannot vouch for at the estimate's time: the rate sd of the open unknown
+  // span (0 if none), and the part of level_sd it contributes since the newest test.
+  double unknown_dosing_rate_sd = 0.0;
+  double unknown_dosing_level_sd = 0.0;
 };
+
+// Useful horizon of a test: beyond it the last test says too little about today's level for
+// an estimate to be given (it is reported as stale, with its date, instead) [our choice from
+// common practice: keepers of calcifying systems test alkalinity about weekly, calcium every
+// two weeks, magnesium monthly; the horizon is twice that]: 14, 30 and 60 days.
+double useful_horizon_days(Parameter p);
+// True when the series has a test and its newest is older than useful_horizon_days at now_days.
+bool is_stale(const SeriesEstimate& e, double now_days);
 
 // Runs the filter (and the smoother if options.smooth) over the series. now_days, if given
 // and not before the last event, carries the state forward to that time. A series with no
@@ -156,6 +204,9 @@ double calcium_mg_l_per_dkh_calcification_gazeau2015();
 
 enum class RatioVerdict {
   NotEnoughData,            // either demand unknown (fewer than two usable tests)
+  Inconclusive,             // the measured ratio's 95 % interval covers zero, or is wider than
+                            // the ratio itself, or there is no ratio (alkalinity demand not
+                            // clearly above zero): the data cannot tell
   Consistent,               // Ca demand within the uncertainty of 7.147 x alkalinity demand
   CalciumFasterThanAlkalinity,
   AlkalinityFasterThanCalcium
@@ -182,7 +233,9 @@ struct ForecastPoint {
   double low95 = 0.0, high95 = 0.0;
 };
 // Level for days 1..days under a steady daily dose effect (unit/day added by the current
-// dosing), with the filter's process noise carried forward. days 1..3650.
+// dosing), with the filter's process noise and any unknown dosing (estimate's
+// unknown_dosing_rate_sd) carried forward. days 1..3650. Levels and bands are truncated at
+// zero (no water holds a negative concentration).
 Result<std::vector<ForecastPoint>> forecast_levels(const SeriesEstimate& estimate,
                                                    double daily_dose_effect_per_day, int days,
                                                    const FilterOptions& options);
@@ -208,9 +261,17 @@ struct SystemSeries {
   journal::SystemId system_id = 0;
   std::string system_name;
   double volume_l = 0.0;
-  Series alkalinity{Parameter::Alkalinity, {}};
-  Series calcium{Parameter::Calcium, {}};
-  Series magnesium{Parameter::Magnesium, {}};
+  double end_days = 0.0;  // the series run to here (options.until_s, else the last event)
+  // Per parameter (kAllParameters order): the daily effect of the schedules running at
+  // end_days (unit/day), and whether any schedule doses it then.
+  double scheduled_per_day[3] = {0.0, 0.0, 0.0};
+  bool scheduled[3] = {false, false, false};
+  // Doses after the newest test of each parameter that could not be counted (unknown
+  // strength, unknown additive): their number, reported with the forecast.
+  int uncounted_after_last_test = 0;
+  Series alkalinity{Parameter::Alkalinity, {}, {}};
+  Series calcium{Parameter::Calcium, {}, {}};
+  Series magnesium{Parameter::Magnesium, {}, {}};
   std::vector<std::string> notes;  // skipped or assumed events, plain words
   const Series& of(Parameter p) const;
 };
@@ -219,7 +280,17 @@ struct JournalSeriesOptions {
   // sd of the new water's value when the target stands in for it [common practice: salt mixes
   // vary by batch]: 0.5 dKH, 20 mg/L Ca, 50 mg/L Mg.
   double new_water_unknown_sd[3] = {0.5, 20.0, 50.0};
+  // "Now" (the caller's clock): standing schedules give their doses up to here, and a span
+  // without logged dosing runs up to here. Unset: the system's last event.
+  std::optional<std::int64_t> until_s;
 };
+// Standing schedules (journal/schedule.hpp) give Additions at each scheduled dose, with the
+// pump's calibration and the logged missed/extra marks, exactly as logged doses would.
+// Unknown dosing (Series::unknown_dosing): for each parameter with logged doses, a silence
+// longer than max(3 x the usual spacing of its logged doses, 1 day) that no schedule covers
+// is a span of unknown dosing from one usual spacing after the last logged dose, with
+// rate_sd = the logged rate of the 14 days before the silence [our choice: 1 sd = "the keeper
+// kept dosing as before without logging"].
 
 // Errors: field "system" when the id is not in the journal.
 Result<SystemSeries> series_from_journal(const journal::Journal& journal, journal::SystemId system,

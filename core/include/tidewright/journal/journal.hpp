@@ -3,7 +3,7 @@
 // Map of this header
 //   1. Ids, enums and their names (what goes into files and CSV cells)
 //   2. Systems: volume, kind, defaults, unit preferences, targets
-//   3. Events: test result, dose, water change, top-off, note
+//   3. Events: test result, dose, water change, top-off, note, standing dose schedule
 //   4. Plausible ranges (named, common practice) and canonical units
 //   5. The journal and its editing calls (every change is validated first; a refused change
 //      leaves the journal exactly as it was)
@@ -110,6 +110,15 @@ struct TestResult {
   bool operator==(const TestResult&) const = default;
 };
 
+// How a logged dose relates to a standing schedule (DoseSchedule below).
+//   None:   a dose of its own (by hand, or a pump that has no schedule), counted as logged.
+//   Missed: the schedule's dose nearest this time (within half its interval) was not given;
+//           the logged amount (as set on the pump) is taken off that scheduled dose.
+//   Extra:  the schedule's pump gave this amount (as set) on top of its schedule.
+enum class ScheduleMark { None, Missed, Extra };
+const char* to_string(ScheduleMark mark);  // "none", "missed", "extra"
+Result<ScheduleMark> schedule_mark_from_string(const std::string& text);
+
 struct Dose {
   std::string additive_id;  // catalog id (additives.hpp), e.g. "sodium_carbonate"
   double amount = 0;
@@ -117,6 +126,11 @@ struct Dose {
   // For mL doses of a stock solution: grams of the catalog compound as sold (with its water
   // of hydration, e.g. CaCl2.2H2O) per litre of stock.
   std::optional<double> stock_g_per_l;
+  // Missed or Extra: the schedule (the event id of a DoseSchedule of the same system, same
+  // additive and unit, running at this time). For these the schedule's recipe and pump
+  // calibration count; the dose's own additive, unit and strength must match the schedule's.
+  ScheduleMark mark = ScheduleMark::None;
+  std::optional<EventId> schedule_id;
   bool operator==(const Dose&) const = default;
 };
 
@@ -143,9 +157,30 @@ struct Note {
   bool operator==(const Note&) const = default;
 };
 
-using EventData = std::variant<TestResult, Dose, WaterChange, TopOff, Note>;
+// A standing dose schedule, logged as an event whose time is its start: a pump or a routine
+// gives `amount` (mL of a stock, or g of a compound) doses_per_day times a day, the first at
+// the start time and then every 24 h / doses_per_day, until stop_time_s (unset: still
+// running). The estimate, the forecast and the plan count each scheduled dose as if it had
+// been logged. Changing a schedule stops it and starts a new one at the same moment
+// (schedule.hpp), so what the water got in the past stays as it was.
+struct DoseSchedule {
+  std::string device;             // "pump 1", "evening scoop": 1..60 characters
+  std::string additive_id;        // catalog id, as for Dose
+  double amount = 0;              // per dose, as set on the pump (mL) or weighed (g)
+  DoseUnit unit = DoseUnit::Millilitres;
+  std::optional<double> stock_g_per_l;  // the stock's recipe for mL doses, as for Dose
+  std::string stock_name;         // the recipe's name, optional (0..60 characters)
+  int doses_per_day = 1;          // 1..288
+  // Pump calibration: what the pump delivers per amount set (measured into a cylinder), 0.5..1.5.
+  double calibration = 1.0;
+  std::optional<std::int64_t> stop_time_s;  // after the start; unset = until changed or stopped
+  bool operator==(const DoseSchedule&) const = default;
+};
+inline constexpr int kMaxDosesPerDay = 288;  // every 5 minutes: the finest pump programs
+
+using EventData = std::variant<TestResult, Dose, WaterChange, TopOff, Note, DoseSchedule>;
 const char* event_type_name(const EventData& data);  // "test", "dose", "water_change",
-                                                     // "top_off", "note"
+                                                     // "top_off", "note", "schedule"
 
 struct Event {
   EventId id = 0;  // 0 = "assign one" when adding
@@ -179,6 +214,9 @@ inline constexpr Range kEventVolumeLRange{0.0, 1e7, "L"};  // also at most the s
 inline constexpr Range kDoseAmountRange{0.0, 1e6, "g or mL"};  // > 0
 inline constexpr Range kStockGPerLRange{0.0, 1500.0, "g/L"};   // > 0
 inline constexpr Range kLimewaterGPerLRange{0.0, 1.9, "g/L"};  // > 0
+// A pump's calibration, delivered per set amount [our choice: a pump further off than 50 %
+// is broken or mis-set, not calibrated].
+inline constexpr Range kCalibrationRange{0.5, 1.5, "delivered per set amount"};
 // 1970-01-01 to 2200-01-01 UTC.
 inline constexpr std::int64_t kEarliestTimeS = 0;
 inline constexpr std::int64_t kLatestTimeS = 7258118400;
@@ -242,7 +280,7 @@ Result<EventId> add_event(Journal& journal, Event event);
 Status update_system(Journal& journal, const System& system);
 Status update_event(Journal& journal, const Event& event);
 // Removing by id. A system that still has events is refused unless with_events is true, in
-// which case its events go too.
+// which case its events go too. A schedule that marked doses refer to is refused.
 Status remove_system(Journal& journal, SystemId id, bool with_events = false);
 Status remove_event(Journal& journal, EventId id);
 

@@ -57,7 +57,11 @@ Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
 // = + - @ TAB or CR) get a leading apostrophe; numbers, negative ones included, stay plain
 // numbers. import_csv removes such an apostrophe again, so export -> import gives the same
 // events.
+// Standing schedules and the doses marked against them are not rows of the long form (a
+// schedule is not one event at one time): they stay in the JSON journal only, and
+// csv_exportable() says which events the CSV leaves out.
 std::string export_csv(const Journal& journal, const EventFilter& filter = {});
+bool csv_exportable(const Event& event);
 
 // The long-form header used by export_csv.
 const std::vector<std::string>& csv_long_columns();

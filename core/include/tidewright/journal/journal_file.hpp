@@ -2,8 +2,8 @@
 // text in, text out. The core never touches files; shell/file_io.hpp does the atomic writes
 // and the web app keeps the text in browser storage.
 //
-// Versions: schema_version 2 is current. Version 1 (the first draft format) is migrated on
-// reading: see migrate_v1_to_v2 below and the format doc. A newer version than this build
+// Versions: schema_version 3 is current (2 plus dose schedules and marked doses). Versions 1
+// and 2 are migrated on reading: see migrate_v1_to_v2 / migrate_v2_to_v3 below and the format doc. A newer version than this build
 // knows is refused with a clear error, never guessed at.
 #pragma once
 
@@ -17,7 +17,7 @@
 namespace tw::journal {
 
 inline constexpr const char* kFormatName = "tidewright-journal";
-inline constexpr int kSchemaVersion = 2;
+inline constexpr int kSchemaVersion = 3;
 
 // Pretty-printed JSON (2-space indent, trailing newline) of the current schema version.
 // parse_journal(serialize_journal(j)) == j exactly, for every journal that passes validation.
@@ -36,6 +36,9 @@ Result<Journal> parse_journal(const std::string& text, int* source_version = nul
 // times were integer "time_s" (v2: ISO 8601 UTC text "time"); v1 pH results had no scale
 // (taken as nbs, the scale of hobby meters); v1 had no "next_id" (set to the largest id + 1).
 Result<nlohmann::json> migrate_v1_to_v2(const nlohmann::json& v1);
+// v2 -> v3: v3 added events of type "schedule" and a dose's "mark" and "schedule_id"; a v2
+// document has none, so only schema_version changes.
+Result<nlohmann::json> migrate_v2_to_v3(const nlohmann::json& v2);
 
 // Single records as JSON objects of the current version (for `tidewright log ... --json`).
 nlohmann::json system_to_json(const System& system);

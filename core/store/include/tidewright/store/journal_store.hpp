@@ -147,6 +147,7 @@ class JournalStore {
 
  private:
   JournalStore(sqlite3* db, std::string path) : db_(db), path_(std::move(path)) {}
+  void add_schedule_context(journal::Journal& scratch, const journal::Event& event) const;
   sqlite3* db_ = nullptr;
   std::string path_;
 };

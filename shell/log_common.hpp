@@ -1,0 +1,18 @@
+// What `tidewright log` shares with its `schedule` subcommands (defined in cmd_log.cpp):
+// --time (or now), and the registration of `log schedule ...` (cmd_log_schedule.cpp).
+#pragma once
+
+#include <cstdint>
+#include <string>
+
+#include <CLI/CLI.hpp>
+
+namespace tw::shell {
+
+// --time parsed (refused in the future), or now when empty.
+std::int64_t when_or_now(const std::string& text, const std::string& date_order, int utc_offset_min);
+
+// `log schedule ...` under the log command; journal_path and json are the log command's options.
+void register_log_schedule(CLI::App& log, const std::string* journal_path, const bool* json);
+
+}  // namespace tw::shell
