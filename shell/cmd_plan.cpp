@@ -31,6 +31,7 @@ struct PlanOptions {
   int horizon_days = 0;
   std::string dtstamp;
   std::string journal, system;  // --journal FILE --system NAME|ID
+  bool accept_stale = false;     // --accept-stale: plan from levels the journal cannot vouch for today
   bool adopt = false;            // --adopt: the plan becomes the system's standing schedules
   int utc_offset_min = 0;        // for --adopt: the keeper's time zone, minutes east of UTC
 };
@@ -55,7 +56,13 @@ std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in
   const journal::System sys = system_or_fail(*st, o.system);
   auto j = st->system_journal(sys.id);
   if (!j) throw CommandError(fmt::format("--journal: {}", j.error().message));
-  auto basis = plan::plan_basis_from_journal(*j, sys.id);
+  plan::BasisOptions bo;
+  bo.series.until_s = static_cast<std::int64_t>(std::time(nullptr));  // levels carried to now
+  bo.accept_stale = o.accept_stale;
+  auto basis = plan::plan_basis_from_journal(*j, sys.id, bo);
+  if (!basis && basis.error().field == "stale") {
+    throw CommandError(fmt::format("--journal: {} (--accept-stale plans from it anyway)", basis.error().message));
+  }
   if (!basis) throw CommandError(fmt::format("--journal: {}", basis.error().message));
   return plan::apply_journal_basis(*basis, in);
 }
@@ -179,6 +186,8 @@ void register_plan(CLI::App& app) {
   sub->add_option("--journal", opts->journal, "take the system's state and demand from this journal (database, or JSON journal)");
   sub->add_option("--system", opts->system, "the journal's system, by name or id (with --journal)");
   sub->add_option("--out", opts->out, "write to this file instead of stdout");
+  sub->add_flag("--accept-stale", opts->accept_stale,
+                "with --journal: plan from a level whose last test is too old, or with unlogged dosing since (flagged)");
   sub->add_flag("--adopt", opts->adopt,
                 "make the plan the system's standing dose schedules in --journal (its pumps' earlier schedules stop)");
   sub->add_option("--utc-offset", opts->utc_offset_min, "with --adopt: minutes east of UTC of the plan's days (default 0)");

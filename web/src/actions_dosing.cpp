@@ -9,6 +9,7 @@
 #include "platform.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/plan/plan.hpp"
+#include "tidewright/plan/plan_from_journal.hpp"
 #include "tidewright/seawater/seawater.hpp"
 #include "tidewright/common/units.hpp"
 
@@ -317,8 +318,12 @@ void refresh_plan(AppState& app) {
   pl::PlanInput in;
   in.system.name = sys->name;
   in.system.volume_l = sys->volume_l;
-  in.system.salinity = sys->default_salinity;
-  in.system.temperature_c = sys->default_temperature_c;
+  // Conditions by the core's one rule (latest salinity or specific gravity, latest temperature),
+  // the same as `tidewright plan --journal` and the Water screen.
+  const pl::CurrentConditions cond = pl::current_conditions(app.journal, *sys, platform::now_unix_seconds());
+  in.system.salinity = cond.salinity.value;
+  in.system.temperature_c = cond.temperature_c.value;
+  out.assumptions.push_back("Conditions: " + cond.salinity.source + "; " + cond.temperature_c.source + ".");
   in.system.air_co2_ppm = app.settings.room_co2_ppm;
   // Targets: the system's own, with the band of the Demand screen (common practice).
   const pl::Targets defaults;

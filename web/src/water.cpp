@@ -3,6 +3,7 @@
 #include "actions.hpp"
 #include "format.hpp"
 #include "platform.hpp"
+#include "tidewright/plan/plan_from_journal.hpp"
 #include "tidewright/seawater/seawater.hpp"
 
 namespace twapp {
@@ -33,18 +34,11 @@ LatestReadings latest_readings(const AppState& app) {
     r.ph_scale = t.ph_scale.value_or(cb::PhScale::NBS);
     r.ph_time_s = e->time_s;
   }
-  const jn::Event* sal = last(jn::Parameter::Salinity);
-  const jn::Event* sg = last(jn::Parameter::SpecificGravity);
-  if (sal && (!sg || sal->time_s >= sg->time_s)) {
-    if (auto v = jn::canonical_value(std::get<jn::TestResult>(sal->data)); v) r.salinity = *v;
-  } else if (sg) {
-    if (auto v = jn::canonical_value(std::get<jn::TestResult>(sg->data)); v) {
-      if (auto s = tw::seawater::salinity_from_specific_gravity(*v); s) r.salinity = *s;
-    }
-  }
-  if (const jn::Event* e = last(jn::Parameter::Temperature)) {
-    if (auto v = jn::canonical_value(std::get<jn::TestResult>(e->data)); v) r.temperature_c = *v;
-  }
+  // Salinity (specific gravity counts) and temperature by the core's one rule, shared with the
+  // Plan screen and `tidewright plan --journal`.
+  const auto cond = tw::plan::current_conditions(app.journal, *sys, platform::now_unix_seconds());
+  if (cond.salinity.time_s) r.salinity = cond.salinity.value;
+  if (cond.temperature_c.time_s) r.temperature_c = cond.temperature_c.value;
   if (const jn::Event* e = last(jn::Parameter::Calcium)) {
     if (auto v = jn::canonical_value(std::get<jn::TestResult>(e->data)); v) r.calcium_mg_l = *v;
   }

@@ -2,12 +2,14 @@
 // consumption estimate; the numbers all come from estimate.hpp, journal.hpp and plan.hpp.
 #include "tidewright/plan/plan_from_journal.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdint>
 
 #include <fmt/format.h>
 
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/seawater/seawater.hpp"
 
 namespace tw::plan {
 namespace {
@@ -34,14 +36,57 @@ std::string date_of_days(double time_days) {
   return datetime::format_date_utc(static_cast<std::int64_t>(std::llround(time_days * 86400.0)));
 }
 
+std::string age_text(std::int64_t time_s, std::int64_t now_s) {
+  const double days = static_cast<double>(now_s - time_s) / 86400.0;
+  return fmt::format("latest test {} ({:.0f} days old)", datetime::format_date_utc(time_s), days < 0 ? 0.0 : days);
+}
+
 }  // namespace
+
+CurrentConditions current_conditions(const journal::Journal& j, const journal::System& sys, std::int64_t now_s) {
+  CurrentConditions c;
+  c.salinity = Condition{sys.default_salinity, std::nullopt,
+                         fmt::format("salinity {:.1f}: the system's default (no salinity or specific gravity test)",
+                                     sys.default_salinity)};
+  const auto sal = latest_test(j, sys.id, journal::Parameter::Salinity);
+  const auto sg = latest_test(j, sys.id, journal::Parameter::SpecificGravity);
+  if (sal && (!sg || sal->time_s >= sg->time_s)) {
+    c.salinity = Condition{sal->value, sal->time_s,
+                           fmt::format("salinity {:.1f}: {}", sal->value, age_text(sal->time_s, now_s))};
+  } else if (sg) {
+    if (auto s = seawater::salinity_from_specific_gravity(sg->value); s) {
+      c.salinity = Condition{*s, sg->time_s,
+                             fmt::format("salinity {:.1f}: from specific gravity {:.4f}, {}", *s, sg->value,
+                                         age_text(sg->time_s, now_s))};
+    }
+  }
+  c.temperature_c = Condition{sys.default_temperature_c, std::nullopt,
+                              fmt::format("temperature {:.1f} C: the system's default (no temperature test)",
+                                          sys.default_temperature_c)};
+  if (auto t = latest_test(j, sys.id, journal::Parameter::Temperature)) {
+    c.temperature_c = Condition{t->value, t->time_s,
+                                fmt::format("temperature {:.1f} C: {}", t->value, age_text(t->time_s, now_s))};
+  }
+  return c;
+}
 
 Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal, journal::SystemId system,
                                                  const estimate::JournalSeriesOptions& options) {
+  BasisOptions b;
+  b.series = options;
+  b.accept_stale = true;  // the old behaviour: levels at the last test, whatever its age
+  return plan_basis_from_journal(journal, system, b);
+}
+
+Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal, journal::SystemId system,
+                                                 const BasisOptions& bo) {
+  const estimate::JournalSeriesOptions& options = bo.series;
   const journal::System* sys = journal::find_system(journal, system);
   if (sys == nullptr) return Error{"system", fmt::format("system {} is not in the journal", system)};
   auto series = estimate::series_from_journal(journal, system, options);
   if (!series) return series.error();
+  const std::optional<double> now_days =
+      options.until_s ? std::optional<double>(static_cast<double>(*options.until_s) / 86400.0) : std::nullopt;
 
   JournalPlanBasis b;
   b.system_name = sys->name;
@@ -49,20 +94,15 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
   b.notes = series->notes;
   b.provenance.push_back(fmt::format("volume {:.0f} L: the system's net water volume in the journal", b.volume_l));
 
-  b.salinity = sys->default_salinity;
-  if (auto t = latest_test(journal, system, journal::Parameter::Salinity)) {
-    b.salinity = t->value;
-    b.provenance.push_back(fmt::format("salinity {:.1f}: latest test {}", b.salinity, datetime::format_date_utc(t->time_s)));
-  } else {
-    b.provenance.push_back(fmt::format("salinity {:.1f}: the system's default (no salinity test)", b.salinity));
+  std::int64_t now_s = options.until_s.value_or(0);
+  if (!options.until_s) {
+    for (const auto& e : journal.events) if (e.system_id == system) now_s = std::max(now_s, e.time_s);
   }
-  b.temperature_c = sys->default_temperature_c;
-  if (auto t = latest_test(journal, system, journal::Parameter::Temperature)) {
-    b.temperature_c = t->value;
-    b.provenance.push_back(fmt::format("temperature {:.1f} C: latest test {}", b.temperature_c, datetime::format_date_utc(t->time_s)));
-  } else {
-    b.provenance.push_back(fmt::format("temperature {:.1f} C: the system's default (no temperature test)", b.temperature_c));
-  }
+  const CurrentConditions cond = current_conditions(journal, *sys, now_s);
+  b.salinity = cond.salinity.value;
+  b.temperature_c = cond.temperature_c.value;
+  b.provenance.push_back(cond.salinity.source);
+  b.provenance.push_back(cond.temperature_c.source);
 
   double per_litre[3] = {0, 0, 0};
   std::optional<JournalLevel>* slot[3] = {&b.alkalinity_dkh, &b.calcium_mg_l, &b.magnesium_mg_l};
@@ -70,9 +110,37 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
     const int i = static_cast<int>(p);
     const char* name = estimate::to_string(p);
     const char* unit = estimate::unit_of(p);
-    auto e = estimate::estimate_series(series->of(p), estimate::default_filter_options(p));
+    auto e = estimate::estimate_series(series->of(p), estimate::default_filter_options(p), now_days);
     if (!e) return e.error();
     if (e->tests_used == 0 || e->history.empty()) continue;
+    const int dp0 = p == estimate::Parameter::Alkalinity ? 2 : 0;
+    if (now_days && e->last_test_days) {
+      const double age = *now_days - *e->last_test_days;
+      const std::string when = date_of_days(*e->last_test_days);
+      std::string why;
+      if (estimate::is_stale(*e, *now_days)) {
+        why = fmt::format("its last test ({}, {:.0f} days ago) is older than the {:.0f}-day horizon", when, age,
+                          estimate::useful_horizon_days(p));
+      } else if (e->unknown_dosing_level_sd > journal::typical_precision(
+                     p == estimate::Parameter::Alkalinity ? journal::Parameter::Alkalinity
+                     : p == estimate::Parameter::Calcium ? journal::Parameter::Calcium
+                                                         : journal::Parameter::Magnesium).value_or(0.2)) {
+        why = fmt::format("doses since its last test ({}) are not in the log and no schedule covers them, so today's "
+                          "level could be {:.{}f} {} off either way",
+                          when, e->unknown_dosing_level_sd, dp0, unit);
+      }
+      if (!why.empty()) {
+        if (!bo.accept_stale) {
+          return Error{"stale", fmt::format("{}: {}; test {} today (or add the pumps' schedule), or accept the "
+                                            "old level explicitly", name, why, name)};
+        }
+        b.flags.push_back(fmt::format("{}: {}; planned from it anyway, as asked", name, why));
+      }
+    }
+    if (e->disagreement) {
+      b.flags.push_back(fmt::format("{}: the newest test and the log disagree; the plan starts from the test. {} {}",
+                                    name, e->disagreement->reasons, e->disagreement->question));
+    }
     JournalLevel l;
     l.level = e->level;
     l.level_sd = e->level_sd;
@@ -83,8 +151,9 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
     l.demand_high95 = e->demand_high95;
     l.last_test_date = date_of_days(e->history.back().time_days);
     const int dp = p == estimate::Parameter::Alkalinity ? 2 : 0;
-    b.provenance.push_back(fmt::format("{} {:.{}f} {}: estimated level at last test {} (sd {:.{}f})", name, l.level,
-                                       dp, unit, l.last_test_date, l.level_sd, dp));
+    b.provenance.push_back(fmt::format("{} {:.{}f} {}: estimated level {} (sd {:.{}f}), last test {}", name, l.level,
+                                       dp, unit, now_days ? "now, with the known doses since" : "at the last test",
+                                       l.level_sd, dp, l.last_test_date));
     if (!l.demand_known) {
       b.provenance.push_back(fmt::format("{} demand: unknown (fewer than two usable tests)", name));
     } else if (l.demand_per_day < 0) {
@@ -140,6 +209,7 @@ std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, Plan
       lines.push_back(fmt::format("{}: demand unknown; {:g} per day kept from the plan input", r.name, r.demand));
     }
   }
+  for (const auto& f : basis.flags) lines.push_back("FLAG " + f);
   for (const auto& n : basis.notes) lines.push_back("journal note: " + n);
   return lines;
 }

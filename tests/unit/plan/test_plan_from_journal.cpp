@@ -8,6 +8,7 @@
 
 #include "tidewright/journal/journal_file.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
+#include "tidewright/seawater/seawater.hpp"
 
 using namespace tw;
 
@@ -69,4 +70,39 @@ TEST_CASE("plan from journal: a system with no tests keeps the plan input's valu
   for (const auto& l : lines) said = said || l.find("alkalinity: no test in the journal") != std::string::npos;
   CHECK(said);
   CHECK_FALSE(plan::plan_basis_from_journal(j, 9999).ok());
+}
+
+// Issue 12: one rule for a system's conditions. The app's Plan and Water screens and
+// `tidewright plan --journal` all take them from plan::current_conditions; on the demo reef
+// the plan basis must carry exactly those numbers (the CLI once planned at 25.6 C / S 34.9
+// while the app used the system's 25.5 C / S 35.0), and a newer specific-gravity test counts.
+TEST_CASE("plan: the demo reef's plan basis uses the one conditions rule (specific gravity counts)") {
+  auto parsed = tw::journal::parse_journal(read(demo_file("demo_journal.json")));
+  REQUIRE(parsed.ok());
+  tw::journal::Journal demo = *parsed;
+  tw::journal::Journal* j = &demo;
+  const tw::journal::System* reef = tw::journal::find_system_by_name(*j, "Living room reef");
+  REQUIRE(reef != nullptr);
+  const std::int64_t now = j->events.back().time_s + 86400;
+  tw::plan::BasisOptions bo;
+  bo.series.until_s = now;
+  bo.accept_stale = true;
+  auto basis = tw::plan::plan_basis_from_journal(*j, reef->id, bo);
+  REQUIRE(basis.ok());
+  const auto cond = tw::plan::current_conditions(*j, *reef, now);
+  CHECK(basis->salinity == cond.salinity.value);
+  CHECK(basis->temperature_c == cond.temperature_c.value);
+  CHECK(cond.salinity.time_s.has_value());  // the demo logs salinity: not the default
+  // A specific-gravity reading newer than the salinity test wins, converted by EOS-80.
+  tw::journal::Event sg;
+  sg.system_id = reef->id;
+  sg.time_s = now - 60;
+  sg.data = tw::journal::TestResult{tw::journal::Parameter::SpecificGravity, "", 1.0264, "sg", std::nullopt,
+                                    std::nullopt, ""};
+  REQUIRE(tw::journal::add_event(*j, sg).ok());
+  const auto after = tw::plan::current_conditions(*j, *reef, now);
+  const auto expected = tw::seawater::salinity_from_specific_gravity(1.0264);
+  REQUIRE(expected.ok());
+  CHECK(after.salinity.value == *expected);
+  CHECK(after.salinity.source.find("specific gravity") != std::string::npos);
 }

@@ -5,6 +5,7 @@
 // No chemistry here: the journal adapter, the filter and plan::demand_from_per_litre do it.
 #pragma once
 
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <vector>
@@ -34,11 +35,41 @@ struct JournalPlanBasis {
   DailyDemand demand;                // from the known demands (unknown or negative = 0)
   std::vector<std::string> provenance;  // one line per number, plain words
   std::vector<std::string> notes;       // events the adapter skipped or assumed
+  std::vector<std::string> flags;       // disagreements between log and test, and stale levels accepted
 };
 
+// A system's current conditions from its journal, one rule for every screen and command:
+// salinity from the latest salinity or specific-gravity test, whichever is newer (specific
+// gravity converted with seawater::salinity_from_specific_gravity), else the system's default;
+// temperature from the latest temperature test, else the default. Each with where it came
+// from and its age.
+struct Condition {
+  double value = 0;
+  std::optional<std::int64_t> time_s;  // of the test; unset = the system's default
+  std::string source;                  // plain words, with the date and age
+};
+struct CurrentConditions {
+  Condition salinity, temperature_c;
+};
+CurrentConditions current_conditions(const journal::Journal& journal, const journal::System& system,
+                                     std::int64_t now_s);
+
 // Errors: field "system" when the id is not in the journal; estimate errors pass through.
+// With options.until_s (now), the levels are carried to now with the known inputs (standing
+// schedules, logged doses); without it they are read at the last test, as before.
+// A level is refused (field "stale", naming the parameter, its last test's date and what to
+// test) when its last test is older than estimate::useful_horizon_days, or when dosing since
+// that test is not known (no schedule, logged dosing stopped) and could have moved the level
+// by more than its kit precision -- unless accept_stale. When the newest test disagreed with
+// the log, the level starts from that test and the basis says so (flag_lines).
+struct BasisOptions {
+  estimate::JournalSeriesOptions series;
+  bool accept_stale = false;
+};
 Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal, journal::SystemId system,
                                                  const estimate::JournalSeriesOptions& options = {});
+Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal, journal::SystemId system,
+                                                 const BasisOptions& options);
 
 // Overrides the input's system state and demand with the basis. A parameter without an
 // estimate keeps the input's value (its level, and its demand if the demand is unknown); the
