@@ -398,7 +398,10 @@ void run_restore(const LogOptions& o) {
     if (!j) throw CommandError(o.file + ": " + j.error().message + " (nothing was changed)");
     from_json = std::move(j).value();
   }
-  const std::string keep = fmt::format("{}.before-restore-{}.db", st->path(), std::time(nullptr));
+  // A second restore within the same second must not collide with the first one's copy.
+  std::string keep = fmt::format("{}.before-restore-{}.db", st->path(), std::time(nullptr));
+  for (int n = 2; file_exists(keep); ++n)
+    keep = fmt::format("{}.before-restore-{}-{}.db", st->path(), std::time(nullptr), n);
   if (st->systems().size() + static_cast<std::size_t>(st->event_count()) > 0) {
     Status kept = st->backup_to(keep);
     if (!kept) throw CommandError(kept.error().message + " (nothing was changed)");
