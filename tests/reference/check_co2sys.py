@@ -6,7 +6,7 @@ Run with Debian's interpreter:
     /usr/bin/python3 tests/reference/check_co2sys.py path/to/tidewright
 
 Neither package is in Debian (PyCO2SYS is on PyPI, which this machine cannot reach), so this
-file is an independent transcription, in plain Python floats, of the formulas as CO2SYS.m
+file is an independent re-implementation, in plain Python floats, of the formulas as CO2SYS.m
 v3.1.1 codes them (github.com/jonathansharp/CO2-System-Extd, CO2SYS.m, sub Constants and the
 alkalinity sums of CalculateAlkParts) at 1 atm, with the options oceanographers use by
 default: K1 K2 of Lueker et al. 2000 (K1K2CONSTANTS 10), KSO4 of Dickson 1990 (KSO4CONSTANT
@@ -261,7 +261,7 @@ def compare(binary, conventions, enforce):
             key = (col, pair)
             if key not in worst or diff > worst[key][0]:
                 worst[key] = (diff, cond, ref["ph_total"], ref["pco2_uatm"])
-    print(f"--conventions {conventions}: worst |difference| from the transcription, total boron as "
+    print(f"--conventions {conventions}: worst |difference| from the re-implementation, total boron as "
           f"{TB_FORM[0]} writes it ({len(rows)} rows)")
     for col, kind in COMPARED:
         d, cond, ph, pco2 = max((worst[(col, p)] for p, _ in PAIRS), key=lambda x: x[0])

@@ -1,6 +1,6 @@
 // The default conventions against values published with the reference packages, and the size
 // of the change from the 2007 Guide's forms (issue 16). The grid comparison with an
-// independent transcription of CO2SYS.m v3.1.1 is tests/reference/check_co2sys.py.
+// independent re-implementation of CO2SYS.m v3.1.1 is tests/reference/check_co2sys.py.
 #include <cmath>
 #include <string>
 
