@@ -13,22 +13,10 @@ namespace {
 constexpr std::size_t kChunkBytes = std::size_t{1} << 19;
 
 nlohmann::json row_json(const seawater::SalinityBatchRow& row) {
-  namespace sw = seawater;
   if (!row.report) return {{"error", row.report.error().message}, {"line", row.line}};
-  const sw::SalinityReport& r = *row.report;
-  auto opt = [](const std::optional<double>& v) { return v ? nlohmann::json(*v) : nlohmann::json(); };
-  return {{"input", sw::to_string(r.sample.input)},
-          {"input_value", r.sample.value},
-          {"salinity", r.salinity},
-          {"specific_gravity", r.specific_gravity},
-          {"conductivity_ms_cm", opt(r.conductivity_ms_cm)},
-          {"conductivity_ratio", opt(r.conductivity_ratio)},
-          {"density_kg_m3", r.density_kg_m3},
-          {"sample_temperature_c", r.sample.sample_temperature_c},
-          {"reference_temperature_c", r.sample.reference_temperature_c},
-          {"pressure_dbar", r.sample.pressure_dbar},
-          {"notes", r.notes},
-          {"line", row.line}};
+  nlohmann::json j = salinity_report_json(*row.report);
+  j["line"] = row.line;
+  return j;
 }
 
 // "  {...}" indented as nlohmann's dump(2) indents an element of a top-level array.

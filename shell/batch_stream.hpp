@@ -6,6 +6,8 @@
 #include <string>
 
 #include "tidewright/carbonate/carbonate_batch.hpp"
+#include <nlohmann/json.hpp>
+
 #include "tidewright/seawater/salinity_convert.hpp"
 
 namespace tw::shell {
@@ -20,6 +22,9 @@ struct BatchCounts {
 // that fail are counted and carry their reason in the warnings column.
 BatchCounts run_chem_batch(const std::string& input, const std::string& out,
                            const carbonate::BatchOptions& options, int threads);
+
+// One salinity report as JSON, the same object for `salinity --json` and each batch row.
+nlohmann::json salinity_report_json(const seawater::SalinityReport& report);
 
 // `tidewright salinity --batch INPUT [--out OUT] [--json]`.
 BatchCounts run_salinity_batch(const std::string& input, const std::string& out,

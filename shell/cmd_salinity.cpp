@@ -99,20 +99,6 @@ sw::SalinitySample single_sample(const SalinityOptions& o) {
   return s;
 }
 
-nlohmann::json report_json(const sw::SalinityReport& r) {
-  auto opt = [](const std::optional<double>& v) { return v ? nlohmann::json(*v) : nlohmann::json(); };
-  return {{"input", sw::to_string(r.sample.input)},
-          {"input_value", r.sample.value},
-          {"salinity", r.salinity},
-          {"specific_gravity", r.specific_gravity},
-          {"conductivity_ms_cm", opt(r.conductivity_ms_cm)},
-          {"conductivity_ratio", opt(r.conductivity_ratio)},
-          {"density_kg_m3", r.density_kg_m3},
-          {"sample_temperature_c", r.sample.sample_temperature_c},
-          {"reference_temperature_c", r.sample.reference_temperature_c},
-          {"pressure_dbar", r.sample.pressure_dbar},
-          {"notes", r.notes}};
-}
 
 std::string temp_text(double c, bool show_f) {
   if (show_f) return fmt::format("{:.2f} C ({:.1f} F)", c, units::celsius_to_fahrenheit(c));
@@ -170,13 +156,29 @@ void run_single(const SalinityOptions& o) {
   auto report = sw::describe_salinity(sample);
   if (!report) fail(report.error(), o);
   if (o.json) {
-    std::cout << report_json(*report).dump(2) << "\n";
+    std::cout << salinity_report_json(*report).dump(2) << "\n";
   } else {
     print_report(*report, o);
   }
 }
 
 }  // namespace
+
+nlohmann::json salinity_report_json(const seawater::SalinityReport& r) {
+  namespace sw = seawater;
+  auto opt = [](const std::optional<double>& v) { return v ? nlohmann::json(*v) : nlohmann::json(); };
+  return {{"input", sw::to_string(r.sample.input)},
+          {"input_value", r.sample.value},
+          {"salinity", r.salinity},
+          {"specific_gravity", r.specific_gravity},
+          {"conductivity_ms_cm", opt(r.conductivity_ms_cm)},
+          {"conductivity_ratio", opt(r.conductivity_ratio)},
+          {"density_kg_m3", r.density_kg_m3},
+          {"sample_temperature_c", r.sample.sample_temperature_c},
+          {"reference_temperature_c", r.sample.reference_temperature_c},
+          {"pressure_dbar", r.sample.pressure_dbar},
+          {"notes", r.notes}};
+}
 
 void register_salinity(CLI::App& app) {
   auto o = std::make_shared<SalinityOptions>();
