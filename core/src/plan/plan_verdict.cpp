@@ -194,8 +194,9 @@ void judge(const PlanInput& in, Plan& plan) {
     what = fmt::format("{} stays below its floor ({} {:g} {}) for the whole plan of {} days, ending at {:.3g}",
                        spec.description, spec.key, crossing->allowed, spec.unit, in.horizon_days, crossing->value);
   } else if (spec.side == LimitSide::Floor) {
-    what = fmt::format("the water falls below the floor {} {:g} {} on {} ({:.3g})", spec.key, crossing->allowed,
-                       spec.unit, when(crossing->t), crossing->value);
+    // The description first, in plain words; the key after it is the name to change it by.
+    what = fmt::format("the water falls below its floor on {}: {} {:.3g} {} against {:g} (limit {})",
+                       when(crossing->t), spec.description, crossing->value, spec.unit, crossing->allowed, spec.key);
   } else {
     what = fmt::format("{} is crossed on {}: {:.3g} {} against {:g}", spec.description, when(crossing->t),
                        crossing->value, spec.unit, crossing->allowed);
