@@ -10,6 +10,7 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
+#include "chem_uncertainty.hpp"
 #include "commands.hpp"
 #include "batch_stream.hpp"
 #include "file_io.hpp"
@@ -35,6 +36,7 @@ struct ChemOptions {
   bool json = false;
   std::string batch, out;
   int threads = 1;
+  ChemPrecisionOptions precision;
 };
 
 template <class T>
@@ -126,6 +128,11 @@ void run_batch(const ChemOptions& o) {
   options.boron = choices.boron;
   options.fluoride = choices.fluoride;
   options.convention = choices.convention;
+  if (o.precision.any_given())
+    throw CommandError("with --batch, give precisions per row in u_ columns (u_alkalinity_umol_kg, "
+                       "u_ph, u_salinity, ...; empty: the kit default), with --uncertainty");
+  options.with_uncertainty = o.precision.wanted();
+  options.constants_uncertainty = o.precision.constants;
   if (o.threads < 0 || o.threads > 64) throw CommandError(fmt::format("--threads {} is outside the accepted range 0 to 64", o.threads));
   const int threads = o.threads == 0 ? static_cast<int>(std::max(1u, std::thread::hardware_concurrency())) : o.threads;
   const BatchCounts counts = run_chem_batch(o.batch, o.out, options, threads);
@@ -174,6 +181,8 @@ void run_single(const ChemOptions& o) {
   if (o.carbonate) given.push_back({carbonate::Quantity::Carbonate, *o.carbonate});
 
   carbonate::CarbonateState state;
+  if (o.air_co2_ppm && o.precision.wanted())
+    throw CommandError("--uncertainty and the precision options are not available with --air-co2 yet");
   if (o.air_co2_ppm) {
     if (given.size() != 1 || given[0].quantity != carbonate::Quantity::Alkalinity) {
       throw CommandError("--air-co2 needs --alkalinity and no other carbonate input");
@@ -189,6 +198,23 @@ void run_single(const ChemOptions& o) {
     if (o.ph) {
       if (o.ph_scale.empty()) throw CommandError("--ph-scale is required with --ph (total, sws, free or nbs)");
       pair.ph_scale = or_fail(carbonate::ph_scale_from_string(o.ph_scale));
+    }
+    if (o.precision.wanted()) {
+      ChemUnits units_used;
+      units_used.alkalinity = or_fail(units::alkalinity_unit_from_string(o.alkalinity_unit));
+      units_used.calcium = or_fail(units::concentration_unit_from_string(o.calcium_unit));
+      units_used.fahrenheit = o.temperature_f.has_value();
+      units_used.density_kg_l = density;
+      const auto u = input_uncertainties(o.precision, conditions, pair, units_used);
+      const carbonate::UncertainState s = solve_uncertain(conditions, pair, u);
+      if (o.json) {
+        nlohmann::json j = state_json(s.state, conditions);
+        j["uncertainty"] = uncertainty_json(s);
+        write_output(o.out, j.dump(2) + "\n");
+      } else {
+        write_output(o.out, state_text(s.state, conditions, density) + uncertainty_text(s, units_used));
+      }
+      return;
     }
     state = or_fail(carbonate::solve(constants, pair));
   }
@@ -207,9 +233,13 @@ void register_chem(CLI::App& app) {
       "  tidewright chem --alkalinity 2300 --alkalinity-unit umol/kg --dic 2000 --json\n"
       "  tidewright chem --alkalinity 7.5 --air-co2 1200 --temperature 26\n"
       "  tidewright chem --batch samples.csv --out states.csv --threads 2\n"
+      "  tidewright chem --alkalinity 8.2 --ph 8.15 --ph-scale nbs --uncertainty --ph-precision 0.1\n"
       "Batch CSV columns: id, salinity, temperature_c, two of alkalinity_umol_kg, dic_umol_kg,\n"
       "ph (with ph_scale), pco2_uatm, fco2_uatm; optional calcium_umol_kg, phosphate_umol_kg,\n"
-      "silicate_umol_kg, and per-row k1k2, boron, fluoride, conventions (empty: the options').");
+      "silicate_umol_kg, and per-row k1k2, boron, fluoride, conventions (empty: the options').\n"
+      "With --uncertainty: per-row precisions u_alkalinity_umol_kg, u_dic_umol_kg, u_ph, u_pco2_uatm,\n"
+      "u_fco2_uatm, u_salinity, u_temperature_c, u_calcium_umol_kg, u_ph_scale_conversion (empty:\n"
+      "the kit default) and u_<column> for every output number.");
   cmd->add_option("--alkalinity", o->alkalinity, "Total alkalinity, in --alkalinity-unit");
   cmd->add_option("--alkalinity-unit", o->alkalinity_unit, "dKH, meq/L, mg/L CaCO3 or umol/kg")->default_str("dKH");
   cmd->add_option("--dic", o->dic, "Dissolved inorganic carbon [umol/kg]");
@@ -234,6 +264,7 @@ void register_chem(CLI::App& app) {
                   "How constants are put on the total scale: co2sys (as CO2SYS-MATLAB v3 and PyCO2SYS) "
                   "or guide2007 (as printed in Dickson et al. 2007)")->default_str("co2sys");
   cmd->add_option("--threads", o->threads, "With --batch: threads to solve rows on (0 = every core)")->default_str("1");
+  add_precision_options(*cmd, o->precision);
   cmd->add_flag("--json", o->json, "Print JSON instead of text");
   cmd->add_option("--batch", o->batch, "CSV file of samples (- for stdin); see the README for its columns");
   cmd->add_option("--out", o->out, "Write the result (text, JSON or the --batch CSV) here instead of stdout");

@@ -89,5 +89,53 @@ with tempfile.TemporaryDirectory() as d:
                                    "--value", "8.1", "--time", "2199-01-01T00:00Z"], "time", "future", cwd=d)
     check("journal unchanged after refusals", exported() == before)
 
+# ---- chem with uncertainty (issue 13) ----
+import csv
+import io
+import json
+
+# Orr et al. (2018, Mar. Chem. 207:84) Table 4, the worked example: TA 2300, DIC 2000 umol/kg,
+# S 35, 18 C, PO4 2, Si 60, u(TA) = u(DIC) = 2 umol/kg (PO4 and Si exact here, worth < 0.1 %);
+# their CO2SYS-MATLAB row gives u(pCO2) 3.8033 uatm, u(CO3) 1.8540 umol/kg, u(Omega_ar) 0.02862,
+# and with the constants' uncertainties 9.733, 3.261, 0.1558 (as transcribed by PyCO2SYS,
+# manuscript/data/orr2018-table4.csv). chem --json must carry the core's numbers.
+orr = ["chem", "--alkalinity", "2300", "--alkalinity-unit", "umol/kg", "--dic", "2000", "--temperature", "18",
+       "--phosphate", "2", "--silicate", "60", "--alkalinity-precision", "2", "--dic-precision", "2",
+       "--salinity-precision", "0", "--temperature-precision", "0", "--json"]
+for extra, want in [([], {"pco2_uatm": 3.8033, "co3_umol_kg": 1.8540, "omega_aragonite": 0.02862}),
+                    (["--constants-uncertainty"], {"pco2_uatm": 9.733, "co3_umol_kg": 3.261, "omega_aragonite": 0.1558})]:
+    r = run(*orr, *extra)
+    check("chem --json with precisions runs", r.returncode == 0, r.stderr)
+    if r.returncode == 0:
+        j = json.loads(r.stdout)
+        for key, value in want.items():
+            got = j["uncertainty"]["outputs"][key]["u"]
+            check(f"Orr 2018 Table 4 u({key}) {extra}", abs(got - value) <= 0.004 * value, f"{got} vs {value}")
+        pco2 = j["uncertainty"]["outputs"]["pco2_uatm"]
+        check("95 % range is +/-1.96 u", abs(pco2["high_95"] - j["pco2_uatm"] - 1.96 * pco2["u"]) < 1e-9)
+        check("state numbers unchanged by --uncertainty",
+              j["pco2_uatm"] == json.loads(run(*orr[:13], "--json").stdout)["pco2_uatm"])
+
+# Parity: chem --json (single) and chem --batch --uncertainty (the core's batch) give the same u.
+single = run("chem", "--alkalinity", "2900", "--alkalinity-unit", "umol/kg", "--ph", "8.15", "--ph-scale", "nbs",
+             "--uncertainty", "--json")
+batch = run("chem", "--batch", "-", "--uncertainty",
+            stdin=b"id,alkalinity_umol_kg,ph,ph_scale\r\nreef,2900,8.15,nbs\r\n")
+check("chem --batch --uncertainty runs", batch.returncode == 0, batch.stderr)
+if single.returncode == 0 and batch.returncode == 0:
+    j = json.loads(single.stdout)
+    row = next(csv.DictReader(io.StringIO(batch.stdout.decode())))
+    for key in ["ph_total", "pco2_uatm", "co3_umol_kg", "omega_aragonite", "alkalinity_umol_kg"]:
+        a, b = j["uncertainty"]["outputs"][key]["u"], float(row["u_" + key])
+        check(f"chem --json and --batch agree on u({key})", abs(a - b) <= 1e-5 * a, f"{a} vs {b}")
+refused("precision out of range", ["chem", "--alkalinity", "8.2", "--ph", "8.1", "--ph-scale", "nbs",
+                                   "--alkalinity-precision", "3"], "--alkalinity-precision", "0 to 2 dKH")
+refused("negative pH precision", ["chem", "--alkalinity", "8.2", "--ph", "8.1", "--ph-scale", "nbs",
+                                  "--ph-precision", "-0.1"], "--ph-precision", "0 to 0.5")
+refused("DIC precision too large", ["chem", "--alkalinity", "8.2", "--dic", "2000", "--dic-precision", "5000"],
+        "--dic-precision", "0 to 1000")
+refused("precision without its input", ["chem", "--alkalinity", "8.2", "--dic", "2000", "--ph-precision", "0.1"],
+        "--ph-precision", "--ph")
+
 print(f"{passed} passed, {failed} failed")
 sys.exit(1 if failed else 0)

@@ -14,6 +14,7 @@
 #include <fmt/format.h>
 
 #include "tidewright/common/csv.hpp"
+#include "tidewright/carbonate/measurement_precision.hpp"
 #include "tidewright/common/csv_stream.hpp"
 
 namespace tw::carbonate {
@@ -99,7 +100,20 @@ void CarbonateBatch::start(std::string_view header_record, std::string& out) {
               f("calcium_umol_kg"), f("phosphate_umol_kg"), f("silicate_umol_kg"),
               f("k1k2"),        f("boron"),             f("fluoride"),
               f("conventions")};
-  out += csv::format_row({kBatchOutputColumns.begin(), kBatchOutputColumns.end()});
+  std::vector<const char*> names(kBatchOutputColumns.begin(), kBatchOutputColumns.end());
+  if (options_.with_uncertainty) {
+    columns_.u_alkalinity = f("u_alkalinity_umol_kg");
+    columns_.u_dic = f("u_dic_umol_kg");
+    columns_.u_ph = f("u_ph");
+    columns_.u_pco2 = f("u_pco2_uatm");
+    columns_.u_fco2 = f("u_fco2_uatm");
+    columns_.u_salinity = f("u_salinity");
+    columns_.u_temperature = f("u_temperature_c");
+    columns_.u_calcium = f("u_calcium_umol_kg");
+    columns_.u_ph_conversion = f("u_ph_scale_conversion");
+    names.insert(names.end() - 1, kBatchUncertaintyColumns.begin(), kBatchUncertaintyColumns.end());
+  }
+  out += csv::format_row({names.begin(), names.end()});
 }
 
 Result<const Constants*> CarbonateBatch::constants_for(const Conditions& conditions) {
@@ -112,7 +126,7 @@ Result<const Constants*> CarbonateBatch::constants_for(const Conditions& conditi
   return &constants_;
 }
 
-Result<CarbonateState> CarbonateBatch::solve_cells() {
+Result<CarbonateBatch::Problem> CarbonateBatch::read_cells() {
   const Columns& c = columns_;
   struct Numeric {
     int column;
@@ -178,19 +192,63 @@ Result<CarbonateState> CarbonateBatch::solve_cells() {
     if (!scale) return scale.error();
     pair.ph_scale = *scale;
   }
-  auto constants = constants_for(conditions);
+  return Problem{conditions, pair};
+}
+
+Result<CarbonateState> CarbonateBatch::solve_cells() {
+  auto problem = read_cells();
+  if (!problem) return problem.error();
+  auto constants = constants_for(problem->conditions);
   if (!constants) return constants.error();
-  return solve(**constants, pair);
+  return solve(**constants, problem->pair);
+}
+
+Result<CarbonateOutputs> CarbonateBatch::uncertainty_of(const Problem& p) {
+  InputUncertainties u = default_input_uncertainties(p.conditions, p.pair);
+  const Columns& c = columns_;
+  const auto column_of = [&](Quantity q) {
+    switch (q) {
+      case Quantity::Alkalinity: return std::pair{c.u_alkalinity, "u_alkalinity_umol_kg"};
+      case Quantity::DIC: return std::pair{c.u_dic, "u_dic_umol_kg"};
+      case Quantity::PH: return std::pair{c.u_ph, "u_ph"};
+      case Quantity::PCO2: return std::pair{c.u_pco2, "u_pco2_uatm"};
+      case Quantity::FCO2: return std::pair{c.u_fco2, "u_fco2_uatm"};
+      case Quantity::Carbonate: break;
+    }
+    return std::pair{-1, "u_co3_umol_kg"};
+  };
+  const auto fa = column_of(p.pair.first.quantity), fb = column_of(p.pair.second.quantity);
+  struct Cell { int column; const char* name; double* target; };
+  const Cell cells[] = {{fa.first, fa.second, &u.first},
+                        {fb.first, fb.second, &u.second},
+                        {c.u_salinity, "u_salinity", &u.salinity},
+                        {c.u_temperature, "u_temperature_c", &u.temperature_c},
+                        {c.u_calcium, "u_calcium_umol_kg", &u.calcium_umol_kg},
+                        {c.u_ph_conversion, "u_ph_scale_conversion", &u.ph_scale_conversion}};
+  for (const Cell& cell : cells) {
+    auto v = number_at(cells_, cell.column, cell.name);
+    if (!v) return v.error();
+    if (*v) *cell.target = **v;
+  }
+  if (options_.constants_uncertainty) u.constants = ConstantUncertainties{};
+  auto r = solve_with_uncertainty(p.conditions, p.pair, u);
+  if (!r) return r.error();
+  return r->u;
 }
 
 bool CarbonateBatch::solve_record(std::string_view record, int line, std::string& out) {
   csv::split_record(record, cells_, scratch_);
   csv::append_cell_for_spreadsheet(out, cell_at(cells_, columns_.id));
   const auto state = solve_cells();
-  if (!state) {
-    out.append(kBatchOutputColumns.size() - 2, ',');  // the 14 numbers stay empty
+  Result<CarbonateOutputs> u = CarbonateOutputs{};
+  if (state && options_.with_uncertainty) u = uncertainty_of(*read_cells());
+  const std::size_t numbers =
+      kBatchOutputColumns.size() - 2 + (options_.with_uncertainty ? kBatchUncertaintyColumns.size() : 0);
+  if (!state || !u) {
+    const Error& e = !state ? state.error() : u.error();
+    out.append(numbers, ',');  // the numbers stay empty
     out += ',';
-    csv::append_cell_for_spreadsheet(out, fmt::format("line {}: {}", line, state.error().message));
+    csv::append_cell_for_spreadsheet(out, fmt::format("line {}: {}", line, e.message));
     out += "\r\n";
     return false;
   }
@@ -202,6 +260,13 @@ bool CarbonateBatch::solve_record(std::string_view record, int line, std::string
                            s.revelle_factor};
   auto it = std::back_inserter(out);
   for (double v : values) fmt::format_to(it, ",{}", v);  // shortest text that reads back exactly
+  if (options_.with_uncertainty) {
+    for (const char* column : kBatchUncertaintyColumns) {
+      const std::string_view name = std::string_view(column).substr(2);  // past "u_"
+      for (const auto& f : kOutputFields)
+        if (name == f.name) fmt::format_to(it, ",{:.6g}", (*u).*f.output);
+    }
+  }
   out += ',';
   append_warnings(out, s.warnings);
   out += "\r\n";

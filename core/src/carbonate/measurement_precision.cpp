@@ -3,7 +3,8 @@
 
 #include <fmt/format.h>
 
-#include "tidewright/carbonate/uncertainty.hpp"
+#include "tidewright/common/units.hpp"
+#include "tidewright/seawater/seawater.hpp"
 
 namespace tw::carbonate {
 
@@ -15,17 +16,17 @@ std::optional<PrecisionDefault> default_precision(journal::Parameter p) {
   // temperature are the propagation's own accepted ranges (uncertainty.hpp).
   switch (p) {
     case P::Alkalinity:
-      return PrecisionDefault{*typical, 0.5, 2.0, "dKH", "alkalinity test kit", "common practice"};
+      return PrecisionDefault{*typical, 0.5, 2.0, "dKH", "hobby alkalinity test kit", "common practice"};
     case P::Calcium:
-      return PrecisionDefault{*typical, 20.0, 100.0, "mg/L", "calcium test kit", "common practice"};
+      return PrecisionDefault{*typical, 20.0, 100.0, "mg/L", "hobby calcium test kit", "common practice"};
     case P::PH:
       return PrecisionDefault{*typical, 0.1, kMaxUncertaintyPh, "pH (NBS)",
-                              "pH meter calibrated with NBS buffers", "common practice"};
+                              "hobby pH meter calibrated with NBS buffers", "common practice"};
     case P::Salinity:
       return PrecisionDefault{*typical, 1.0, kMaxUncertaintySalinity, "",
-                              "refractometer or hydrometer", "common practice"};
+                              "hobby refractometer or hydrometer", "common practice"};
     case P::Temperature:
-      return PrecisionDefault{*typical, 0.5, kMaxUncertaintyTemperatureC, "C", "thermometer",
+      return PrecisionDefault{*typical, 0.5, kMaxUncertaintyTemperatureC, "C", "hobby thermometer",
                               "common practice"};
     default: return std::nullopt;
   }
@@ -37,9 +38,34 @@ Status check_precision(journal::Parameter parameter, double precision, const std
   const char* unit = d ? d->unit : "";
   if (precision >= 0.0 && precision <= max) return Ok{};  // false for NaN
   return Error{field, fmt::format("{} {:g} is outside the accepted range 0 to {:g}{}{} (one standard "
-                                  "deviation; typical for a {}: {:g})",
+                                  "deviation; typical of a {}: {:g})",
                                   field, precision, max, *unit ? " " : "", unit,
                                   d ? d->instrument : "measurement", d ? d->typical : 0.0)};
+}
+
+InputUncertainties default_input_uncertainties(const Conditions& conditions, const InputPair& inputs) {
+  using P = journal::Parameter;
+  const double density = seawater::density_kg_per_l(conditions.salinity, conditions.temperature_c);
+  const auto typical = [](P p) { return default_precision(p)->typical; };
+  const auto of = [&](const Measurement& m) {
+    switch (m.quantity) {
+      case Quantity::Alkalinity:
+        return units::alkalinity_to_umol_kg(typical(P::Alkalinity), units::AlkalinityUnit::DKH, density);
+      case Quantity::PH: return typical(P::PH);
+      default: return 0.0;  // laboratory quantities: no kit default
+    }
+  };
+  InputUncertainties u;
+  u.first = of(inputs.first);
+  u.second = of(inputs.second);
+  const bool has_ph = inputs.first.quantity == Quantity::PH || inputs.second.quantity == Quantity::PH;
+  if (has_ph && inputs.ph_scale == PhScale::NBS) u.ph_scale_conversion = kPhNbsToTotalUncertainty;
+  u.salinity = typical(P::Salinity);
+  u.temperature_c = typical(P::Temperature);
+  if (conditions.calcium_umol_kg)
+    u.calcium_umol_kg = units::ion_to_umol_kg(typical(P::Calcium), units::ConcentrationUnit::MgPerL,
+                                              units::Ion::Calcium, density);
+  return u;
 }
 
 }  // namespace tw::carbonate

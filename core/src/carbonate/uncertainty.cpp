@@ -6,6 +6,7 @@
 //      4. the propagation
 #include "tidewright/carbonate/uncertainty.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <functional>
 #include <limits>
@@ -33,6 +34,12 @@ CarbonateOutputs outputs_of(const CarbonateState& state) {
 
 Range range95(double value, double u, double floor) {
   return {std::max(floor, value - kCoverageFactor95 * u), value + kCoverageFactor95 * u};
+}
+
+int decimals_for_uncertainty(double u) {
+  if (!(u > 0.0) || !std::isfinite(u)) return 6;
+  const int d = 1 - static_cast<int>(std::floor(std::log10(u)));
+  return std::clamp(d, 0, 6);
 }
 
 double output_floor(const OutputField& field) {

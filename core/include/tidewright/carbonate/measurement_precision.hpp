@@ -13,6 +13,7 @@
 
 #include <optional>
 
+#include "tidewright/carbonate/uncertainty.hpp"
 #include "tidewright/journal/journal.hpp"
 
 namespace tw::carbonate {
@@ -22,7 +23,7 @@ struct PrecisionDefault {
   double coarse = 0;           // the worse end commonly met, in `unit`
   double maximum = 0;          // the largest a user may enter, in `unit`
   const char* unit = "";       // the journal's canonical unit: dKH, mg/L, pH, (salinity), C
-  const char* instrument = ""; // what measures it, for the user: "alkalinity test kit"
+  const char* instrument = ""; // what measures it, for the user: "hobby alkalinity test kit"
   const char* basis = "";      // "common practice"
 };
 
@@ -38,5 +39,12 @@ inline constexpr double kPhNbsToTotalUncertainty = 0.03;
 // Error's field is `field` (the front end's name, e.g. "--ph-precision") and its message
 // names the accepted range in the canonical unit.
 Status check_precision(journal::Parameter parameter, double precision, const std::string& field);
+
+// The default uncertainties of a keeper's measurements of this water, in the solver's units:
+// the typical value of the table for alkalinity (dKH -> umol/kg at the water's density),
+// pH (the meter's; plus kPhNbsToTotalUncertainty when the pH is on the NBS scale), calcium
+// (if measured), salinity and temperature. DIC, pCO2, fCO2 and carbonate ion have no kit
+// default (laboratory measurements): 0 unless the caller sets them. No constants' uncertainty.
+InputUncertainties default_input_uncertainties(const Conditions& conditions, const InputPair& inputs);
 
 }  // namespace tw::carbonate

@@ -111,6 +111,10 @@ Range range95(double value, double u, double floor = 0.0);
 // The floor that fits an output (a pH can be any number: -inf; everything else 0).
 double output_floor(const OutputField& field);
 
+// How many decimals to show a value with standard uncertainty u: enough for two significant
+// digits of u and no more (a pH known to 0.06 shows 8.04, not 8.0412). 0 to 6.
+int decimals_for_uncertainty(double u);
+
 // One source of uncertainty: its name ("alkalinity_umol_kg", "temperature_c", "pk1", ...),
 // its standard uncertainty, the derivative of every output by it, and what it adds to each
 // output's u (|derivative| x u).
