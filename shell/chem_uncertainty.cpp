@@ -124,7 +124,8 @@ tc::InputUncertainties input_uncertainties(const ChemPrecisionOptions& o, const 
     u.salinity = *o.salinity;
   }
   if (o.temperature) {
-    const double c_per_unit = un.fahrenheit ? 5.0 / 9.0 : 1.0;
+    // a difference of temperatures: the one C/F conversion, taken between two points
+    const double c_per_unit = un.fahrenheit ? units::fahrenheit_to_celsius(1.0) - units::fahrenheit_to_celsius(0.0) : 1.0;
     check_in_unit(P::Temperature, *o.temperature, c_per_unit, un.fahrenheit ? "F" : "C",
                   "--temperature-precision");
     u.temperature_c = *o.temperature * c_per_unit;
@@ -172,6 +173,10 @@ std::string uncertainty_text(const tc::UncertainState& s, const ChemUnits& un) {
     const tc::Range r = tc::range95(value, u, is_ph ? -1e300 : 0.0);
     const int d = tc::decimals_for_uncertainty(u);
     const std::string unit = *l.unit ? std::string(" ") + l.unit : "";
+    if (tc::taken_as_exact(value, u)) {
+      fmt::format_to(put, "  {:<16}{:.5g}{}   (fixed by an input taken as exact)\n", l.label, value, unit);
+      continue;
+    }
     fmt::format_to(put, "  {:<16}{} +/- {}{}   95 %: between {} and {}{}\n", l.label, fixed(value, d),
                    fixed(u, d), unit, fixed(r.low, d), fixed(r.high, d), unit);
   }
@@ -203,7 +208,7 @@ std::string uncertainty_text(const tc::UncertainState& s, const ChemUnits& un) {
     } else if (src.name == "ph_scale_conversion") {
       shown = fmt::format("pH scale to total {:g}", src.u);
     } else if (src.name == "temperature_c") {
-      shown = un.fahrenheit ? fmt::format("temperature {:.3g} F", src.u * 9.0 / 5.0)
+      shown = un.fahrenheit ? fmt::format("temperature {:.3g} F", units::celsius_to_fahrenheit(src.u) - units::celsius_to_fahrenheit(0.0))
                             : fmt::format("temperature {:g} C", src.u);
     } else if (src.name == "calcium_umol_kg") {
       shown = fmt::format("calcium {:.3g} {}", units::ion_from_umol_kg(src.u, un.calcium, units::Ion::Calcium,

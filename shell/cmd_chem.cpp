@@ -121,6 +121,26 @@ std::string state_text(const carbonate::CarbonateState& s, const carbonate::Cond
 
 
 
+ChemUnits chem_units(const ChemOptions& o, double density) {
+  ChemUnits units_used;
+  units_used.alkalinity = or_fail(units::alkalinity_unit_from_string(o.alkalinity_unit));
+  units_used.calcium = or_fail(units::concentration_unit_from_string(o.calcium_unit));
+  units_used.fahrenheit = o.temperature_f.has_value();
+  units_used.density_kg_l = density;
+  return units_used;
+}
+
+void write_uncertain(const ChemOptions& o, const carbonate::Conditions& conditions, double density,
+                     const carbonate::UncertainState& s, const ChemUnits& units_used) {
+  if (o.json) {
+    nlohmann::json j = state_json(s.state, conditions);
+    j["uncertainty"] = uncertainty_json(s);
+    write_output(o.out, j.dump(2) + "\n");
+  } else {
+    write_output(o.out, state_text(s.state, conditions, density) + uncertainty_text(s, units_used));
+  }
+}
+
 void run_batch(const ChemOptions& o) {
   const ConstantChoices choices = parse_choices(o);
   carbonate::BatchOptions options;
@@ -181,11 +201,19 @@ void run_single(const ChemOptions& o) {
   if (o.carbonate) given.push_back({carbonate::Quantity::Carbonate, *o.carbonate});
 
   carbonate::CarbonateState state;
-  if (o.air_co2_ppm && o.precision.wanted())
-    throw CommandError("--uncertainty and the precision options are not available with --air-co2 yet");
   if (o.air_co2_ppm) {
     if (given.size() != 1 || given[0].quantity != carbonate::Quantity::Alkalinity) {
       throw CommandError("--air-co2 needs --alkalinity and no other carbonate input");
+    }
+    if (o.precision.wanted()) {
+      // The pair alkalinity + the air's pCO2 (exact): the precisions of alkalinity, S, T apply.
+      const carbonate::InputPair as_pair{given[0], {carbonate::Quantity::PCO2, carbonate::air_pco2_uatm(constants, *o.air_co2_ppm)}};
+      ChemUnits units_used = chem_units(o, density);
+      const auto u = input_uncertainties(o.precision, conditions, as_pair, units_used);
+      auto s = carbonate::equilibrate_with_air_with_uncertainty(conditions, given[0].value, *o.air_co2_ppm, u);
+      if (!s) throw CommandError(s.error().message);
+      write_uncertain(o, conditions, density, *s, units_used);
+      return;
     }
     state = or_fail(carbonate::equilibrate_with_air(constants, given[0].value, *o.air_co2_ppm));
   } else {
@@ -200,20 +228,9 @@ void run_single(const ChemOptions& o) {
       pair.ph_scale = or_fail(carbonate::ph_scale_from_string(o.ph_scale));
     }
     if (o.precision.wanted()) {
-      ChemUnits units_used;
-      units_used.alkalinity = or_fail(units::alkalinity_unit_from_string(o.alkalinity_unit));
-      units_used.calcium = or_fail(units::concentration_unit_from_string(o.calcium_unit));
-      units_used.fahrenheit = o.temperature_f.has_value();
-      units_used.density_kg_l = density;
+      const ChemUnits units_used = chem_units(o, density);
       const auto u = input_uncertainties(o.precision, conditions, pair, units_used);
-      const carbonate::UncertainState s = solve_uncertain(conditions, pair, u);
-      if (o.json) {
-        nlohmann::json j = state_json(s.state, conditions);
-        j["uncertainty"] = uncertainty_json(s);
-        write_output(o.out, j.dump(2) + "\n");
-      } else {
-        write_output(o.out, state_text(s.state, conditions, density) + uncertainty_text(s, units_used));
-      }
+      write_uncertain(o, conditions, density, solve_uncertain(conditions, pair, u), units_used);
       return;
     }
     state = or_fail(carbonate::solve(constants, pair));

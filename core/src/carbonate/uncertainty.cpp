@@ -42,6 +42,10 @@ int decimals_for_uncertainty(double u) {
   return std::clamp(d, 0, 6);
 }
 
+bool taken_as_exact(double value, double u) {
+  return !(u > 1e-9 * std::max(std::fabs(value), 1.0));
+}
+
 double output_floor(const OutputField& field) {
   const std::string name = field.name;
   if (name.rfind("ph_", 0) == 0) return -std::numeric_limits<double>::infinity();
@@ -268,6 +272,21 @@ Result<UncertainState> solve_with_uncertainty(const Conditions& conditions, cons
   }
   for (const auto& f : kOutputFields) out.u.*f.output = std::sqrt(variance.*f.output);
   return out;
+}
+
+Result<UncertainState> equilibrate_with_air_with_uncertainty(const Conditions& conditions,
+                                                             double alkalinity_umol_kg,
+                                                             double air_co2_ppm,
+                                                             InputUncertainties uncertainties) {
+  auto k = compute_constants(conditions);
+  if (!k) return k.error();
+  auto state = equilibrate_with_air(*k, alkalinity_umol_kg, air_co2_ppm);  // checks the air's CO2
+  if (!state) return state.error();
+  uncertainties.second = 0.0;
+  return solve_with_uncertainty(conditions,
+                                {{Quantity::Alkalinity, alkalinity_umol_kg},
+                                 {Quantity::PCO2, air_pco2_uatm(*k, air_co2_ppm)}},
+                                uncertainties);
 }
 
 }  // namespace tw::carbonate

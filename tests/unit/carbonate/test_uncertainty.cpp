@@ -251,3 +251,22 @@ TEST_CASE("uncertainty: refused uncertainties name the input and the accepted ra
   REQUIRE_FALSE(t.ok());
   CHECK(t.error().field == "u(temperature_c)");
 }
+
+TEST_CASE("uncertainty: water settled with air carries the alkalinity test's uncertainty") {
+  tc::Conditions c;
+  auto k = tc::compute_constants(c);
+  REQUIRE(k.ok());
+  auto plain = tc::equilibrate_with_air(*k, 2800, 1000);
+  REQUIRE(plain.ok());
+  tc::InputUncertainties u;
+  u.first = 70;
+  u.second = 50;  // ignored: the air's CO2 is taken as exact
+  auto r = tc::equilibrate_with_air_with_uncertainty(c, 2800, 1000, u);
+  REQUIRE(r.ok());
+  CHECK(r->state.ph_total == doctest::Approx(plain->ph_total).epsilon(1e-12));
+  CHECK(tc::taken_as_exact(r->state.pco2_uatm, r->u.pco2_uatm));  // fixed by the air
+  // At fixed pCO2, pH_T moves by log10 of the alkalinity ratio to first order (carbonate
+  // alkalinity ~ K1 K0 pCO2 / h): u(pH) ~ u(TA)/(TA ln 10) = 70/(2800 x 2.303) = 0.0109 (computed here).
+  CHECK(r->u.ph_total == doctest::Approx(70.0 / (2800.0 * std::log(10.0))).epsilon(0.15));
+  CHECK_FALSE(tc::equilibrate_with_air_with_uncertainty(c, 2800, 0.5, u).ok());
+}

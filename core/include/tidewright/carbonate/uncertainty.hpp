@@ -115,6 +115,10 @@ double output_floor(const OutputField& field);
 // digits of u and no more (a pH known to 0.06 shows 8.04, not 8.0412). 0 to 6.
 int decimals_for_uncertainty(double u);
 
+// True when u is nothing but the rounding of the differences (below a billionth of the value):
+// the output is fixed by an input taken as exact (e.g. pCO2 of water settled with air).
+bool taken_as_exact(double value, double u);
+
 // One source of uncertainty: its name ("alkalinity_umol_kg", "temperature_c", "pk1", ...),
 // its standard uncertainty, the derivative of every output by it, and what it adds to each
 // output's u (|derivative| x u).
@@ -137,5 +141,15 @@ struct UncertainState {
 // their option or label).
 Result<UncertainState> solve_with_uncertainty(const Conditions& conditions, const InputPair& inputs,
                                               const InputUncertainties& uncertainties);
+
+// Water of the given alkalinity settled with air of air_co2_ppm (as equilibrate_with_air), with
+// the uncertainty from u.first (alkalinity, umol/kg), salinity, temperature and the constants;
+// the air's CO2 is taken as exact (u.second is ignored). Propagated as the pair alkalinity + the
+// air's pCO2, so salinity and temperature move the state at that pCO2 rather than at that CO2
+// mole fraction (their small effect on the water vapour pressure is left out).
+Result<UncertainState> equilibrate_with_air_with_uncertainty(const Conditions& conditions,
+                                                             double alkalinity_umol_kg,
+                                                             double air_co2_ppm,
+                                                             InputUncertainties uncertainties);
 
 }  // namespace tw::carbonate
