@@ -82,10 +82,13 @@ void adopt(const PlanOptions& o, const plan::PlanInput& in, const plan::Plan& p)
   journal::Journal after = *before;
   auto ids = plan::adopt_plan(after, sys.id, in, p, *day1 - 60LL * o.utc_offset_min);
   if (!ids) throw CommandError(fmt::format("--adopt: {}", ids.error().message));
-  // Checked whole by the core above; now the stopped schedules, then the new ones.
+  // Checked whole by the core above; now the stopped schedules, the removed ones (later runs of
+  // an earlier plan, not begun), then the new ones.
   for (const auto& e : before->events) {
     const journal::Event* now = journal::find_event(after, e.id);
-    if (now && !(*now == e)) {
+    if (!now) {
+      if (auto s = st->remove_event(e.id); !s) throw CommandError("--adopt: " + s.error().message);
+    } else if (!(*now == e)) {
       if (auto s = st->update_event(*now); !s) throw CommandError("--adopt: " + s.error().message);
     }
   }

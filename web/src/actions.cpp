@@ -3,6 +3,8 @@
 // store after a change and marks the Water results stale.
 #include "actions.hpp"
 
+#include "tidewright/journal/schedule.hpp"
+
 #include <algorithm>
 #include <variant>
 
@@ -252,6 +254,82 @@ bool remove_event(AppState& app, jn::EventId id) {
     return false;
   }
   notify(app, "Removed the entry");
+  changed(app);
+  return true;
+}
+
+// ---------------------------------------------------------------- schedules
+namespace {
+const jn::DoseSchedule* schedule_of(const AppState& app, jn::EventId id) {
+  const jn::Event* e = jn::find_event(app.journal, id);
+  return e ? std::get_if<jn::DoseSchedule>(&e->data) : nullptr;
+}
+}  // namespace
+
+bool change_schedule_now(AppState& app, jn::EventId schedule, double amount, int doses_per_day) {
+  const jn::DoseSchedule* s = schedule_of(app, schedule);
+  if (!s) {
+    notify(app, "That schedule is no longer in the log", true);
+    return false;
+  }
+  jn::DoseSchedule changed_schedule = *s;
+  changed_schedule.amount = amount;
+  changed_schedule.doses_per_day = doses_per_day;
+  changed_schedule.stop_time_s.reset();
+  jn::Journal next = app.journal;  // both changes or neither
+  auto id = jn::change_schedule(next, schedule, platform::now_unix_seconds(), changed_schedule);
+  if (!id) {
+    notify(app, id.error().message, true);
+    return false;
+  }
+  app.journal = std::move(next);
+  notify(app, "Changed from now: " + changed_schedule.device);
+  changed(app);
+  return true;
+}
+
+bool stop_schedule_now(AppState& app, jn::EventId schedule) {
+  const jn::DoseSchedule* s = schedule_of(app, schedule);
+  if (!s) {
+    notify(app, "That schedule is no longer in the log", true);
+    return false;
+  }
+  const std::string device = s->device;
+  auto st = jn::stop_schedule(app.journal, schedule, platform::now_unix_seconds());
+  if (!st) {
+    notify(app, st.error().message, true);
+    return false;
+  }
+  notify(app, "Stopped from now: " + device);
+  changed(app);
+  return true;
+}
+
+bool log_schedule_mark(AppState& app, jn::EventId schedule, jn::ScheduleMark mark) {
+  const jn::Event* e = jn::find_event(app.journal, schedule);
+  const jn::DoseSchedule* s = schedule_of(app, schedule);
+  if (!e || !s) {
+    notify(app, "That schedule is no longer in the log", true);
+    return false;
+  }
+  jn::Dose d;
+  d.additive_id = s->additive_id;
+  d.amount = s->amount;
+  d.unit = s->unit;
+  d.stock_g_per_l = s->stock_g_per_l;
+  d.mark = mark;
+  d.schedule_id = schedule;
+  jn::Event ev;
+  ev.system_id = e->system_id;
+  ev.time_s = platform::now_unix_seconds();
+  ev.data = d;
+  auto id = jn::add_event(app.journal, ev);
+  if (!id) {
+    notify(app, id.error().message, true);
+    return false;
+  }
+  notify(app, std::string(mark == jn::ScheduleMark::Missed ? "Logged a missed dose of " : "Logged an extra dose of ") +
+                  s->device);
   changed(app);
   return true;
 }

@@ -33,6 +33,12 @@ bool log_event(AppState& app, const tw::journal::EventData& data, std::optional<
 bool update_logged_event(AppState& app, tw::journal::EventId id, const tw::journal::EventData& data,
                          std::int64_t when_s);
 bool remove_event(AppState& app, tw::journal::EventId id);
+// Standing schedules (journal/schedule.hpp), from now: a change stops the schedule and starts
+// the changed one at the same moment; a stop ends it. A missed or extra dose is logged now as
+// a dose marked against the schedule (its amount as set on the pump).
+bool change_schedule_now(AppState& app, tw::journal::EventId schedule, double amount, int doses_per_day);
+bool stop_schedule_now(AppState& app, tw::journal::EventId schedule);
+bool log_schedule_mark(AppState& app, tw::journal::EventId schedule, tw::journal::ScheduleMark mark);
 
 // Settings (units go to the current system too, so the journal and the screen agree)
 void set_units(AppState& app, const tw::journal::UnitPreferences& units);

@@ -9,6 +9,7 @@
 #include "platform.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/plan/plan.hpp"
+#include "tidewright/plan/plan_adopt.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
 #include "tidewright/seawater/seawater.hpp"
 #include "tidewright/common/units.hpp"
@@ -50,7 +51,11 @@ void refresh_demand(AppState& app) {
     return;
   }
   out.volume_l = sys->volume_l;
-  auto series = est::series_from_journal(app.journal, sys->id);
+  // As `tidewright demand`: standing schedules give their doses up to now and the state is
+  // read at now; the forecast's dosing is the running schedules, else the last 7 days' doses.
+  est::JournalSeriesOptions so;
+  so.until_s = now_s;
+  auto series = est::series_from_journal(app.journal, sys->id, so);
   if (!series) {
     out.error = series.error().message;
     c = std::move(out);
@@ -61,11 +66,7 @@ void refresh_demand(AppState& app) {
     const est::Parameter p = est::kAllParameters[i];
     const est::Series& s = series->of(p);
     ParameterEstimate& pe = out.per_parameter[i];
-    // The estimate is read at the last logged event, not carried on to the clock: doses given
-    // since then but not logged yet would otherwise show as a falling level.
-    double last_t = -1e300;
     for (const est::SeriesEvent& ev : s.events) {
-      last_t = std::max(last_t, est::time_of(ev));
       if (const auto* a = std::get_if<est::Addition>(&ev)) {
         pe.addition_days.push_back(a->time_days);
         pe.addition_deltas.push_back(a->delta);
@@ -75,15 +76,18 @@ void refresh_demand(AppState& app) {
       }
     }
     const est::FilterOptions opts = est::default_filter_options(p);
-    auto r = s.events.empty() ? est::estimate_series(s, opts) : est::estimate_series(s, opts, last_t);
+    auto r = est::estimate_series(s, opts, out.now_days);
     if (!r) {
       pe.error = r.error().message;
       continue;
     }
     pe.ok = true;
     pe.estimate = std::move(r).value();
-    if (!pe.estimate.demand_known) continue;
-    pe.daily_dose_effect = est::recent_daily_addition(s, 7.0, last_t);
+    pe.stale = est::is_stale(pe.estimate, out.now_days);
+    pe.scheduled = series->scheduled[i];
+    if (!pe.estimate.demand_known || pe.stale) continue;
+    pe.daily_dose_effect = series->scheduled[i] ? series->scheduled_per_day[i]
+                                                : est::recent_daily_addition(s, 7.0, out.now_days);
     auto f = est::forecast_levels(pe.estimate, pe.daily_dose_effect, view.forecast_days, opts);
     if (f) {
       pe.forecast = std::move(f).value();
@@ -318,12 +322,6 @@ void refresh_plan(AppState& app) {
   pl::PlanInput in;
   in.system.name = sys->name;
   in.system.volume_l = sys->volume_l;
-  // Conditions by the core's one rule (latest salinity or specific gravity, latest temperature),
-  // the same as `tidewright plan --journal` and the Water screen.
-  const pl::CurrentConditions cond = pl::current_conditions(app.journal, *sys, platform::now_unix_seconds());
-  in.system.salinity = cond.salinity.value;
-  in.system.temperature_c = cond.temperature_c.value;
-  out.assumptions.push_back("Conditions: " + cond.salinity.source + "; " + cond.temperature_c.source + ".");
   in.system.air_co2_ppm = app.settings.room_co2_ppm;
   // Targets: the system's own, with the band of the Demand screen (common practice).
   const pl::Targets defaults;
@@ -336,34 +334,34 @@ void refresh_plan(AppState& app) {
   if (!sys->targets.alkalinity_dkh || !sys->targets.calcium_mg_l || !sys->targets.magnesium_mg_l) {
     out.assumptions.push_back("Targets the system does not set are taken as the planner's defaults.");
   }
-  // Start levels and demand: from the estimate when known, else the targets and the typed demand.
-  double level[3] = {alk_t, ca_t, mg_t};
-  double demand[3] = {f.alkalinity_demand_dkh_per_day, f.calcium_demand_mg_l_per_day, 0};
-  const char* names[3] = {"alkalinity", "calcium", "magnesium"};
-  for (int i = 0; i < 3; ++i) {
-    const ParameterEstimate& pe = dc.per_parameter[i];
-    const bool have_level = f.use_estimate && pe.ok && pe.estimate.tests_used > 0;
-    if (have_level) {
-      level[i] = pe.estimate.level;
-    } else {
-      out.assumptions.push_back(std::string("Start ") + names[i] + ": the target (no estimate).");
-    }
-    if (f.use_estimate) {
-      if (pe.ok && pe.estimate.demand_known) {
-        demand[i] = std::max(0.0, pe.estimate.demand_per_day);
-        if (pe.estimate.demand_per_day < 0) {
-          out.assumptions.push_back(std::string("The estimate shows ") + names[i] + " rising without doses: planned as no consumption.");
-        }
-      } else {
-        demand[i] = 0;
-        out.assumptions.push_back(std::string("No consumption estimate of ") + names[i] + ": planned as none.");
-      }
-    }
+  // Start levels and demand: the core's one rule, as `tidewright plan --journal` (levels carried
+  // to now with the schedules and logged doses; a stale level refused unless accepted; the
+  // newest test wins a disagreement, flagged). A parameter without a test starts at its target.
+  in.system.alkalinity_dkh = alk_t;
+  in.system.calcium_mg_l = ca_t;
+  in.system.magnesium_mg_l = mg_t;
+  in.demand = pl::demand_from_per_litre(f.alkalinity_demand_dkh_per_day, f.calcium_demand_mg_l_per_day, 0,
+                                        sys->volume_l);
+  pl::BasisOptions bo;
+  bo.series.until_s = platform::now_unix_seconds();
+  bo.accept_stale = f.accept_stale;
+  auto basis = pl::plan_basis_from_journal(app.journal, sys->id, bo);
+  if (!basis) {
+    out.stale = basis.error().field == "stale";
+    out.error = basis.error().message;
+    c = std::move(out);
+    return;
   }
-  in.system.alkalinity_dkh = level[0];
-  in.system.calcium_mg_l = level[1];
-  in.system.magnesium_mg_l = level[2];
-  in.demand = pl::demand_from_per_litre(demand[0], demand[1], demand[2], sys->volume_l);
+  out.flags = basis->flags;
+  const pl::DailyDemand typed = in.demand;
+  for (const std::string& line : pl::apply_journal_basis(*basis, in)) {
+    if (line.rfind("FLAG ", 0) == 0) continue;  // shown apart, in the warning colour
+    out.assumptions.push_back(line);
+  }
+  if (!f.use_estimate) {
+    in.demand = typed;
+    out.assumptions.push_back("Consumption: typed here, not the log's estimate.");
+  }
   // Deliveries.
   auto pump = [&](add::Additive a, const std::string& device) {
     pl::Delivery d;
@@ -434,6 +432,39 @@ void refresh_plan(AppState& app) {
   out.plan = std::move(plan).value();
   out.input = std::move(in);
   c = std::move(out);
+}
+
+// ---------------------------------------------------------------- Adopt the plan
+bool adopt_current_plan(AppState& app) {
+  const PlanCache& c = app.ui.dosing.plan_cache;
+  const tw::journal::System* sys = current_system(app);
+  if (!sys || !c.plan || !c.input) {
+    notify(app, "No plan to adopt: " + (c.error.empty() ? std::string("make one first") : c.error), true);
+    return false;
+  }
+  if (!c.plan->verdict.holds) {
+    notify(app, "This plan cannot hold the water within its floors (see the verdict); not adopted", true);
+    return false;
+  }
+  if (c.check && !c.check->ok() && !c.check->only_floors_and_falls()) {
+    notify(app, "The independent check found limit breaks in this plan; not adopted", true);
+    return false;
+  }
+  // The same core call as `tidewright plan --adopt`: the pumps' earlier schedules stop where
+  // the plan starts and the plan's doses become the new ones. Day 1 is tomorrow, local time.
+  tw::journal::Journal next = app.journal;
+  const std::int64_t day1_s = static_cast<std::int64_t>(std::llround(c.start_day * 86400.0));
+  auto ids = pl::adopt_plan(next, sys->id, *c.input, *c.plan, day1_s);
+  if (!ids) {
+    notify(app, "Not adopted: " + ids.error().message, true);
+    return false;
+  }
+  app.journal = std::move(next);
+  app.water_stale = true;
+  notify(app, "Adopted: " + std::to_string(ids->size()) + " schedule" + (ids->size() == 1 ? "" : "s") +
+                  " from tomorrow, shown on the Log screen");
+  save(app);
+  return true;
 }
 
 // ---------------------------------------------------------------- ion units

@@ -20,6 +20,10 @@ void refresh_mixes(AppState& app);
 // Plan: the form + the Demand estimate (levels, consumption) -> schedule, checked again by the
 // core's independent checker. Calls refresh_demand first.
 void refresh_plan(AppState& app);
+// Adopts the current plan: its doses become the system's standing schedules from day 1 (the
+// pumps' earlier schedules stop there), by the core's plan::adopt_plan as `plan --adopt`.
+// Refused when the plan cannot hold or its check fails.
+bool adopt_current_plan(AppState& app);
 // Downloads the current schedule: format 0 CSV, 1 iCalendar, 2 plain text.
 bool export_plan(AppState& app, int format);
 

@@ -124,6 +124,15 @@ struct LogForm {
   bool topoff_limewater = false;
 };
 
+// The Log screen's card of standing schedules: the one being changed (its new amount and
+// doses a day, as typed) and the one waiting for a second tap to stop.
+struct ScheduleEdit {
+  tw::journal::EventId changing = 0;
+  double amount = 0;
+  int doses_per_day = 1;
+  tw::journal::EventId confirm_stop = 0;
+};
+
 // The system editor of the Systems screen (a copy; saved through actions).
 struct SystemForm {
   bool open = false;
@@ -150,6 +159,7 @@ struct UiState {
   bool message_is_error = false;
   double message_until_ms = 0;
   LogForm log;
+  ScheduleEdit schedule_edit;
   DosingState dosing;  // Demand, Hatchery, Mixes, Plan (dosing_state.hpp)
   SystemForm system_form;
   bool confirm_remove_demo = false;

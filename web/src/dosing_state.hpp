@@ -46,7 +46,9 @@ struct ParameterEstimate {
   tw::estimate::SeriesEstimate estimate;
   std::vector<tw::estimate::ForecastPoint> forecast;
   std::string forecast_error;
-  double daily_dose_effect = 0;  // unit/day added by recent dosing (forecast assumption)
+  bool stale = false;      // the last test is past the estimate's useful horizon (no forecast)
+  bool scheduled = false;  // standing schedules give this parameter's dosing
+  double daily_dose_effect = 0;  // unit/day added by the schedules, else the last 7 days' doses
   std::vector<double> addition_days, addition_deltas;  // dose / limewater marks
   std::vector<double> dilution_days, dilution_fractions;  // water changes
 };
@@ -147,7 +149,8 @@ struct PlanForm {
   double max_dose_ml = 50.0;          // largest single dose of a pump
   double evaporation_l_per_day = 2.0; // bounds limewater
   int horizon_days = 14;              // 1..60
-  bool use_estimate = true;           // demand and levels from the Demand screen's estimate
+  bool use_estimate = true;           // consumption from the log's estimate (else typed below)
+  bool accept_stale = false;          // plan from a level the log cannot vouch for today (flagged)
   double alkalinity_demand_dkh_per_day = 1.0;  // when not from the estimate
   double calcium_demand_mg_l_per_day = 7.0;
   bool show_all_days = false;
@@ -164,6 +167,8 @@ struct PlanCache {
   std::array<double, tw::plan::kLimitCount> safety_limits{};
   std::string error;
   std::vector<std::string> assumptions;  // where the start levels and demand came from
+  std::vector<std::string> flags;        // the core's flags: log and test disagree, stale level accepted
+  bool stale = false;                    // refused: a level the log cannot vouch for (error says what to test)
   std::optional<tw::plan::PlanInput> input;
   std::optional<tw::plan::Plan> plan;
   std::optional<tw::plan::CheckReport> check;  // the independent checker's replay

@@ -235,14 +235,30 @@ void draw_summary(AppState& app, const ParameterEstimate& pe, const Shown& s) {
     ui::label_value(app, "Flagged tests", std::to_string(e.outliers.size()),
                     e.outliers.empty() ? 0 : theme::kWarning);
   }
+  // The newest test is never left out: when it and the log disagree, the estimate restarts
+  // from it and says so, with the likely reasons (the core's words).
+  if (e.disagreement) {
+    ui::colored_wrapped(theme::kWarning, ("The newest test and the log disagree: read " + val(s, e.disagreement->reading) +
+                                          " " + s.unit + ", the log expected " + val(s, e.disagreement->expected) +
+                                          " \u00b1 " + val(s, 1.96 * e.disagreement->expected_sd) + ". The level restarts from the test.")
+                                             .c_str());
+    ui::wrapped(e.disagreement->reasons.c_str());
+    ui::wrapped(e.disagreement->question.c_str());
+    ui::record(app, "demand.disagreement");
+  }
+  if (pe.stale) {
+    ui::colored_wrapped(theme::kWarning, "The last test is too old to say today's level: test again before dosing by it.");
+    ui::record(app, "demand.stale");
+  }
   ui::card_end(app);
 }
 
 void draw_forecast(AppState& app, const ParameterEstimate& pe, const Shown& s, std::optional<double> target) {
   if (!pe.estimate.demand_known) return;
   ui::heading(app, "Forecast");
-  const std::string assume = "If the dosing of the last 7 days goes on (" + fmtx::fixed(pe.daily_dose_effect * s.factor, s.decimals + 1) +
-                             " " + s.unit + " added per day) and the consumption stays as estimated:";
+  const std::string assume = std::string(pe.scheduled ? "If the pumps' schedules go on (" : "If the dosing of the last 7 days goes on (") +
+                             fmtx::fixed(pe.daily_dose_effect * s.factor, s.decimals + 1) + " " + s.unit +
+                             " added per day) and the consumption stays as estimated:";
   ui::dim_text(assume.c_str());
   if (!pe.forecast_error.empty()) ui::colored_wrapped(theme::kError, pe.forecast_error.c_str());
   int& days = app.ui.dosing.demand.forecast_days;

@@ -1,12 +1,14 @@
 // Log: a test result, dose, water change or top-off for the current system, now or at an
 // earlier time; the core checks each entry (tw::journal::add_event / update_event) and the
 // Water and Demand screens follow. Below, the system's recent entries, each editable and
-// removable. The per-kind fields are in log_forms.cpp.
+// removable; between them the pumps' standing schedules (log_schedules.cpp). The per-kind
+// fields are in log_forms.cpp.
 #include <string>
 
 #include "actions.hpp"
 #include "format.hpp"
 #include "log_forms.hpp"
+#include "log_schedules.hpp"
 #include "platform.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
@@ -107,7 +109,10 @@ void draw_history(AppState& app, const jn::System& sys) {
         app.ui.confirm_remove_event = 0;
       }
     } else {
-      const bool editable = !std::holds_alternative<jn::Note>(ev.data);
+      // Schedules change on their own card above; a dose marked against one is removed, not edited.
+      const auto* dose = std::get_if<jn::Dose>(&ev.data);
+      const bool editable = !std::holds_alternative<jn::Note>(ev.data) && !std::holds_alternative<jn::DoseSchedule>(ev.data) &&
+                            !(dose && dose->mark != jn::ScheduleMark::None);
       if (editable && ui::button(app, "log.edit." + id, "Edit\u2026", half, ui::Tone::Quiet)) {
         app.ui.log = log_forms::from_event(ev);
         app.ui.reveal = "log.when";  // back up to the form
@@ -134,6 +139,7 @@ void draw_log(AppState& app) {
     if (!e || e->system_id != sys->id) f = LogForm{};
   }
   draw_entry_form(app, *sys, f);
+  draw_schedules(app, *sys);
   draw_history(app, *sys);
 }
 

@@ -2,7 +2,7 @@
 // (tw::plan::make_plan), with the water predicted after each dose, every safety limit's status
 // beside its default and source, the independent checker's replay and cautions; the verdict (can the
 // plan hold the water inside its floors?) first. Map: 1. form  2. chart  3. days and doses
-// 4. limits, verdict  5. draw_plan.
+// 4. limits, verdict, adopt  5. draw_plan.
 #include <algorithm>
 #include <cmath>
 #include <string>
@@ -47,7 +47,11 @@ void draw_form(AppState& app, PlanForm& f) {
   if (ui::number_field(app, "plan.horizon", {"Days to plan", "days", 0, 1, 1, 60}, &h)) f.horizon_days = static_cast<int>(h);
   int src = f.use_estimate ? 0 : 1;
   const char* const srcs[] = {"From the log", "Typed here"};
-  if (ui::choice(app, "plan.demand_source", "Levels and consumption", &src, srcs, 2)) f.use_estimate = src == 0;
+  if (ui::choice(app, "plan.demand_source", "Consumption", &src, srcs, 2)) f.use_estimate = src == 0;
+  if (f.accept_stale) {
+    ui::colored_wrapped(theme::kWarning, "Planning from a level the log cannot vouch for today.");
+    if (ui::button(app, "plan.refuse_stale", "Plan only from recent tests", 0, ui::Tone::Quiet)) f.accept_stale = false;
+  }
   if (!f.use_estimate) {
     ui::number_field(app, "plan.alk_demand", {"Alkalinity consumption", "dKH/day", 2, 0.1, 0, 5}, &f.alkalinity_demand_dkh_per_day);
     ui::number_field(app, "plan.ca_demand", {"Calcium consumption", "mg/L/day", 1, 1, 0, 50}, &f.calcium_demand_mg_l_per_day);
@@ -240,6 +244,21 @@ void draw_verdict(AppState& app, const pl::Plan& plan) {
   ui::card_end(app);
 }
 
+// "Adopt this plan": the plan becomes the pumps' standing schedules in the log (the same core
+// call as `tidewright plan --adopt`), so what the app told the keeper to dose and what the
+// estimate assumes are the same. Only a plan that holds and passes its check can be adopted.
+void draw_adopt(AppState& app, const PlanCache& c) {
+  const bool can = c.plan->verdict.holds && (!c.check || c.check->ok() || c.check->only_floors_and_falls());
+  ui::card_begin(app);
+  ui::wrapped("Set the pumps to this plan? Adopting it makes it the schedules in the log from tomorrow; "
+              "the pumps' earlier schedules stop there.");
+  if (ui::button(app, "plan.adopt", "Adopt this plan", 0, can ? ui::Tone::Primary : ui::Tone::Quiet)) {
+    adopt_current_plan(app);
+  }
+  if (!can) ui::dim_text("Not while the plan cannot hold the water safe.");
+  ui::card_end(app);
+}
+
 }  // namespace
 
 // ---------------------------------------------------------------- 5. The screen
@@ -252,11 +271,20 @@ void draw_plan(AppState& app) {
   if (c.plan) draw_verdict(app, *c.plan);
   draw_form(app, f);
   refresh_plan(app);  // a change in the form shows from the next frame on, the verdict included
+  if (!c.flags.empty()) {
+    ui::card_begin(app);
+    for (const std::string& fl : c.flags) ui::colored_wrapped(theme::kWarning, ("\u26a0 " + fl).c_str());
+    ui::record(app, "plan.flags");
+    ui::card_end(app);
+  }
   for (const std::string& a : c.assumptions) ui::dim_text(("\u2022 " + a).c_str());
   if (!c.error.empty()) {
     ui::card_begin(app);
     ui::colored_wrapped(theme::kError, c.error.c_str());
     ui::record(app, "plan.error");
+    if (c.stale && ui::button(app, "plan.accept_stale", "Plan from the old level anyway", 0, ui::Tone::Quiet)) {
+      f.accept_stale = true;
+    }
     ui::card_end(app);
   }
   if (!c.plan) return;
@@ -279,6 +307,7 @@ void draw_plan(AppState& app) {
                   "% a week holds it.").c_str());
   }
   ui::card_end(app);
+  draw_adopt(app, c);
   ui::heading(app, "Predicted water");
   draw_chart(app, c);
   ui::heading(app, "Day by day");

@@ -1,5 +1,7 @@
 #include "test_api.hpp"
 
+#include "log_schedules.hpp"
+
 #include <algorithm>
 #include <vector>
 #include <nlohmann/json.hpp>
@@ -90,7 +92,46 @@ std::string state_json() {
                  {"check_explained", pc.check && !v.holds && pc.check->only_floors_and_falls()},
                  {"verdict", {{"holds", v.holds}, {"headline", v.headline}, {"reasons", v.reasons}, {"fixes", v.fixes}}},
                  {"computed_count", pc.computed_count}};
+    // Where it starts and how high the water goes (a test compares them with the command line).
+    double max_alk = pc.plan->start.alkalinity_dkh;
+    for (const auto& d : pc.plan->doses) max_alk = std::max(max_alk, d.after.alkalinity_dkh);
+    j["plan"]["max_alkalinity_dkh"] = max_alk;
+    if (pc.input) {
+      j["plan"]["start"] = {{"alkalinity_dkh", pc.input->system.alkalinity_dkh},
+                            {"calcium_mg_l", pc.input->system.calcium_mg_l},
+                            {"magnesium_mg_l", pc.input->system.magnesium_mg_l},
+                            {"salinity", pc.input->system.salinity},
+                            {"temperature_c", pc.input->system.temperature_c}};
+      j["plan"]["target_alkalinity_dkh"] = pc.input->targets.alkalinity_dkh.target;
+    }
   }
+  if (pc.valid) {
+    j["plan_basis"] = {{"flags", pc.flags}, {"assumptions", pc.assumptions}, {"error", pc.error}, {"stale", pc.stale}};
+  }
+  // The Demand screen's estimate (when shown): level, flagged tests and the newest test's
+  // disagreement with the log, per parameter.
+  const DemandCache& dc = a.ui.dosing.demand_cache;
+  if (dc.valid && dc.error.empty()) {
+    json per = json::array();
+    for (const ParameterEstimate& pe : dc.per_parameter) {
+      json o = {{"ok", pe.ok}};
+      if (pe.ok) {
+        json flagged = json::array();
+        for (const auto& f : pe.estimate.outliers) flagged.push_back(f.time_days);
+        o.update({{"level", pe.estimate.level}, {"tests", pe.estimate.tests}, {"flagged_days", flagged},
+                  {"last_test_days", opt(pe.estimate.last_test_days)}, {"disagreement", pe.estimate.disagreement.has_value()},
+                  {"scheduled", pe.scheduled}, {"stale", pe.stale}});
+      }
+      per.push_back(o);
+    }
+    j["demand"] = {{"system", dc.system}, {"now_days", dc.now_days}, {"parameters", per}};
+  }
+  // The current system's schedules running now or starting later (as the Log screen lists them).
+  json schedules = json::array();
+  for (const jn::Event* e : schedules_now_and_later(a.journal, a.current_system, platform::now_unix_seconds())) {
+    schedules.push_back(jn::event_to_json(*e));
+  }
+  j["schedules"] = schedules;
   j["demo_system_ids"] = a.demo_system_ids;
   j["store"] = {{"loaded", a.store.loaded}, {"problem", a.store.problem}, {"save_error", a.store.save_error},
                 {"saves", a.store.saves}};

@@ -97,13 +97,20 @@ Result<std::vector<journal::EventId>> adopt_plan(journal::Journal& journal, jour
   journal::Journal trial = journal;
   std::int64_t first = adopted->front().start_s;
   for (const auto& a : *adopted) first = std::min(first, a.start_s);
-  for (const journal::Event* e : journal::schedules_running(journal, system, first)) {
-    const auto& old = std::get<journal::DoseSchedule>(e->data);
-    const bool same = std::any_of(adopted->begin(), adopted->end(), [&](const AdoptedSchedule& a) {
+  auto same_pump = [&](const journal::DoseSchedule& old) {
+    return std::any_of(adopted->begin(), adopted->end(), [&](const AdoptedSchedule& a) {
       return a.schedule.device == old.device || a.schedule.additive_id == old.additive_id;
     });
-    if (!same) continue;
+  };
+  for (const journal::Event* e : journal::schedules_running(journal, system, first)) {
+    if (!same_pump(std::get<journal::DoseSchedule>(e->data))) continue;
     if (auto st = journal::stop_schedule(trial, e->id, std::max(first, e->time_s + 1)); !st) return st.error();
+  }
+  // A plan adopted earlier may have set later runs of the same pump that have not begun yet
+  // (its ramp days): the new plan replaces them, or the pump would run both.
+  for (const journal::Event* e : journal::schedules_of(journal, system)) {
+    if (e->time_s < first || !same_pump(std::get<journal::DoseSchedule>(e->data))) continue;
+    if (auto st = journal::remove_event(trial, e->id); !st) return st.error();
   }
   std::vector<journal::EventId> ids;
   for (const auto& a : *adopted) {

@@ -172,6 +172,64 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
   return b;
 }
 
+namespace {
+
+// Honest precision: levels and consumption read from the journal are estimates, so the plan
+// keeps room for their 95 % uncertainty instead of running up to a limit with the truth
+// possibly beyond it. The largest rise and fall per day are tightened by 1.96 x the
+// consumption's sd (the water may use more or less than estimated every day), the ceiling and
+// floor of the level by 1.96 x the level's sd. A limit is never tightened by more than half its
+// room (the span between floor and ceiling, or half a rate), so a plan is still possible.
+void tighten(Limits& limits, LimitId id, double by, const char* why, std::vector<std::string>& lines) {
+  if (!(by > 0)) return;
+  const LimitSpec& spec = limit_spec(id);
+  const double before = limits.get(id);
+  double room = std::fabs(before) * 0.5;
+  if (id == LimitId::AlkalinityCeiling || id == LimitId::AlkalinityFloor) {
+    room = 0.25 * (limits.get(LimitId::AlkalinityCeiling) - limits.get(LimitId::AlkalinityFloor));
+  } else if (id == LimitId::CalciumCeiling || id == LimitId::CalciumFloor) {
+    room = 0.25 * (limits.get(LimitId::CalciumCeiling) - limits.get(LimitId::CalciumFloor));
+  } else if (id == LimitId::MagnesiumCeiling || id == LimitId::MagnesiumFloor) {
+    room = 0.25 * (limits.get(LimitId::MagnesiumCeiling) - limits.get(LimitId::MagnesiumFloor));
+  }
+  by = std::min(by, std::max(0.0, room));
+  if (!(by > 0)) return;
+  const double after = spec.side == LimitSide::Floor ? before + by : before - by;
+  limits.value[static_cast<std::size_t>(id)] = after;
+  const int dp = std::fabs(before) < 20 ? 2 : 0;
+  lines.push_back(fmt::format("{} planned at {:.{}f} {} instead of {:.{}f}: room for the 95 % uncertainty of {}",
+                              spec.key, after, dp, spec.unit, before, dp, why));
+}
+
+}  // namespace
+
+void keep_room_for_uncertainty(const JournalPlanBasis& basis, Limits& limits, std::vector<std::string>& lines) {
+  struct Row {
+    const std::optional<JournalLevel>& est;
+    LimitId rise, fall, ceiling, floor;
+    const char* name;
+  } rows[3] = {
+      {basis.alkalinity_dkh, LimitId::AlkalinityRisePerDay, LimitId::AlkalinityFallPerDay, LimitId::AlkalinityCeiling,
+       LimitId::AlkalinityFloor, "alkalinity"},
+      {basis.calcium_mg_l, LimitId::CalciumRisePerDay, LimitId::CalciumFallPerDay, LimitId::CalciumCeiling,
+       LimitId::CalciumFloor, "calcium"},
+      {basis.magnesium_mg_l, LimitId::MagnesiumRisePerDay, LimitId::MagnesiumFallPerDay, LimitId::MagnesiumCeiling,
+       LimitId::MagnesiumFloor, "magnesium"},
+  };
+  constexpr double k95 = 1.96;  // two-sided 95 % of a normal distribution
+  for (const Row& r : rows) {
+    if (!r.est) continue;
+    const std::string consumption = fmt::format("the {} consumption estimate", r.name);
+    const std::string level = fmt::format("the {} level estimate", r.name);
+    if (r.est->demand_known) {
+      tighten(limits, r.rise, k95 * r.est->demand_sd, consumption.c_str(), lines);
+      tighten(limits, r.fall, k95 * r.est->demand_sd, consumption.c_str(), lines);
+    }
+    tighten(limits, r.ceiling, k95 * r.est->level_sd, level.c_str(), lines);
+    tighten(limits, r.floor, k95 * r.est->level_sd, level.c_str(), lines);
+  }
+}
+
 std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, PlanInput& input) {
   std::vector<std::string> lines;
   lines.push_back(fmt::format("state and demand from the journal, system \"{}\":", basis.system_name));
@@ -209,6 +267,7 @@ std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, Plan
       lines.push_back(fmt::format("{}: demand unknown; {:g} per day kept from the plan input", r.name, r.demand));
     }
   }
+  keep_room_for_uncertainty(basis, input.limits, lines);
   for (const auto& f : basis.flags) lines.push_back("FLAG " + f);
   for (const auto& n : basis.notes) lines.push_back("journal note: " + n);
   return lines;

@@ -38,8 +38,9 @@ Result<std::vector<AdoptedSchedule>> schedules_from_plan(const PlanInput& input,
                                                          std::int64_t day1_start_s);
 
 // Writes them into the journal for the system: every schedule of the system running at the
-// plan's first dose that has the same device name or gives the same additive stops there; then
-// the new schedules start. All or nothing. Returns the new schedules' ids.
+// plan's first dose that has the same device name or gives the same additive stops there, and
+// such schedules that start later (runs of a plan adopted before, not begun yet) are removed;
+// then the new schedules start. All or nothing. Returns the new schedules' ids.
 Result<std::vector<journal::EventId>> adopt_plan(journal::Journal& journal, journal::SystemId system,
                                                  const PlanInput& input, const Plan& plan,
                                                  std::int64_t day1_start_s);

@@ -71,7 +71,14 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
 Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal, journal::SystemId system,
                                                  const BasisOptions& options);
 
-// Overrides the input's system state and demand with the basis. A parameter without an
+// Honest precision: tightens the limits by the 95 % uncertainty of the basis's estimates (the
+// largest rise and fall per day by 1.96 x the consumption's sd, a level's ceiling and floor by
+// 1.96 x the level's sd; never by more than half the room), so a plan from estimates does not
+// run the true water over a limit. One line per tightened limit. Called by apply_journal_basis.
+void keep_room_for_uncertainty(const JournalPlanBasis& basis, Limits& limits, std::vector<std::string>& lines);
+
+// Overrides the input's system state and demand with the basis (and keeps room in the limits
+// for the estimates' uncertainty, keep_room_for_uncertainty). A parameter without an
 // estimate keeps the input's value (its level, and its demand if the demand is unknown); the
 // returned lines say what was kept. Returns the provenance lines to show with the plan.
 std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, PlanInput& input);

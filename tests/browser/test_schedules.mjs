@@ -1,0 +1,181 @@
+// Browser tests of standing dose schedules (issue 11) on the demo data, in headless Chromium at
+// phone (390x844) and desktop (1280x800) sizes:
+//  - the hobbyist's walk: the demo reef's pumps dose on their schedule and no dose has been
+//    logged for days; today's alkalinity test of 7.4 dKH is logged, then Demand shows no flag on
+//    it and the Plan starts from it (within kit precision) with no dose that overshoots the
+//    target band; the Plan's starting levels are the command line's (`tidewright plan
+//    --journal ... --json` on the same journal, the same core rule);
+//  - "Adopt this plan" turns the plan into the pumps' schedules (shown on the Log screen), a
+//    schedule is changed and one stopped, a missed and an extra dose are logged against one.
+//   node test_schedules.mjs [site-dir]      (default ../../build/web/site)
+// The command line: TW_CLI, else ../../build/native/shell/tidewright.
+// Prints one line per test and "N passed, M failed"; exits non-zero on any failure.
+// Screenshots go to tests/browser/output/schedules-*.png.
+import { resolve, join } from 'node:path';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { startServer } from './serve.mjs';
+import { launch, PHONE, DESKTOP, state, widget, tap, enter, frames, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
+
+const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
+const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
+const demo = join(HERE, '../../assets/demo');
+const server = await startServer(site);
+const browser = await launch();
+
+const open = (opts) => openApp(browser, server.url, opts);
+
+async function shot(page, name) {
+  await frames(page, 2);
+  await page.screenshot({ path: join(OUTPUT, `schedules-${name}.png`) });
+}
+
+async function reveal(page, name) {
+  await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
+  await frames(page, 4);
+  return widget(page, name);
+}
+
+// Logs today's alkalinity test on the demo reef through the Log screen.
+async function logTodaysTest(page, value) {
+  let s = await state(page);
+  const reef = s.systems.find((x) => x.name === 'Living room reef');
+  check(reef && s.current_system === reef.id, 'the demo reef is not the current system');
+  check(reef.units.alkalinity === 'dKH', `the demo reef logs alkalinity in ${reef.units.alkalinity}`);
+  await tap(page, 'tab.log');
+  await tap(page, 'log.kind.0');
+  await tap(page, 'log.parameter.0');
+  await tap(page, 'log.value');
+  await enter(page, String(value));
+  await tap(page, 'log.save');
+  s = await state(page);
+  check(!s.message_is_error, `test refused: ${s.message}`);
+  const t = [...s.recent_events].reverse().find((e) => e.type === 'test');
+  check(t && t.parameter === 'alkalinity' && t.value === value, `stored ${JSON.stringify(t)}`);
+  return t;
+}
+
+// The command line on the same journal: the demo imported, the same test at the same time.
+function cliPlanStart(testEvent) {
+  const dir = mkdtempSync(join(tmpdir(), 'tw-sched-'));
+  try {
+    const db = join(dir, 'j.db');
+    execFileSync(cli, ['log', '--journal', db, 'import', join(demo, 'demo_journal.json')], { stdio: 'pipe' });
+    execFileSync(cli, ['log', '--journal', db, 'add', 'test', '--system', 'Living room reef', '--parameter', 'alkalinity',
+                       '--value', String(testEvent.value), '--unit', 'dKH', '--precision', String(testEvent.precision ?? 0.2),
+                       '--time', testEvent.time], { stdio: 'pipe' });
+    const out = execFileSync(cli, ['plan', join(demo, 'demo_plan.json'), '--journal', db, '--system', 'Living room reef', '--json'],
+                             { stdio: ['ignore', 'pipe', 'pipe'] }).toString();
+    const doc = JSON.parse(out);
+    return { start: doc.days[0].start, basis: doc.basis };
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+const tests = [];
+const test = (name, fn) => tests.push({ name, fn });
+
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`schedules: today's 7.4 dKH test after days of unlogged pump doses: no flag, plan starts from it, same start as the CLI (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    let s = await state(page);
+    check(s.schedules.length >= 1, 'the demo reef has no pump schedule running');
+    const logged = await logTodaysTest(page, 7.4);
+    await tap(page, 'tab.demand');
+    await tap(page, 'demand.param.0');
+    s = await state(page);
+    const alk = s.demand.parameters[0];
+    check(alk.ok && alk.scheduled, `demand: ok ${alk.ok}, scheduled ${alk.scheduled}`);
+    const testDay = Date.parse(logged.time) / 86400000;
+    check(Math.abs(alk.last_test_days - testDay) < 1e-6, `the newest test the estimate used is at ${alk.last_test_days}, not ${testDay}`);
+    check(!alk.flagged_days.some((d) => Math.abs(d - testDay) < 1e-6), "today's test is flagged as an outlier");
+    check(Math.abs(alk.level - 7.4) <= 0.4, `Demand level ${alk.level} dKH, more than the kit's 0.4 from today's 7.4`);
+    await shot(page, `${label}-demand`);
+    await tap(page, 'tab.plan');
+    s = await state(page);
+    check(s.plan && s.plan.start, `no plan: ${JSON.stringify(s.plan_basis)}`);
+    const start = s.plan.start.alkalinity_dkh;
+    check(Math.abs(start - 7.4) <= 0.4, `the plan starts at ${start} dKH, more than the kit's 0.4 from today's 7.4`);
+    const high = s.plan.target_alkalinity_dkh + 0.5;
+    check(s.plan.max_alkalinity_dkh <= high + 1e-6, `the plan takes alkalinity to ${s.plan.max_alkalinity_dkh} dKH, over the band's ${high}`);
+    check(s.plan.check_ok, 'the independent check failed');
+    // The command line, same journal, same rule.
+    const c = cliPlanStart(logged);
+    for (const k of ['alkalinity_dkh', 'calcium_mg_l', 'magnesium_mg_l']) {
+      const tol = k === 'alkalinity_dkh' ? 0.01 : 0.1;  // the two read "now" a few seconds apart
+      check(Math.abs(c.start[k] - s.plan.start[k]) <= tol, `${k}: app ${s.plan.start[k]}, command line ${c.start[k]}`);
+    }
+    await reveal(page, 'plan.verdict');
+    await shot(page, `${label}-plan`);
+    await reveal(page, 'plan.adopt');
+    await shot(page, `${label}-plan-adopt`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
+  test(`schedules: adopt the plan, change and stop a schedule, log a missed and an extra dose (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    let s = await state(page);
+    const running = s.schedules.map((e) => e.id);
+    check(running.length >= 1, 'no running schedule on the demo reef');
+    // A missed and an extra dose against the running soda-ash pump, from the Log screen.
+    await tap(page, 'tab.log');
+    const pump = s.schedules.find((e) => e.additive === 'sodium_carbonate');
+    check(pump, 'no soda ash schedule in the demo');
+    await reveal(page, `log.schedule.${pump.id}`);
+    await shot(page, `${label}-log-schedules`);
+    const before = s.events;
+    await tap(page, `log.schedule.missed.${pump.id}`);
+    await tap(page, `log.schedule.extra.${pump.id}`);
+    s = await state(page);
+    check(!s.message_is_error, `mark refused: ${s.message}`);
+    check(s.events === before + 2, `events ${before} -> ${s.events}`);
+    const marks = s.recent_events.filter((e) => e.type === 'dose' && e.schedule_id === pump.id).map((e) => e.mark);
+    check(marks.includes('missed') && marks.includes('extra'), `marks logged: ${JSON.stringify(marks)}`);
+    // Change the calcium pump from now: 25 mL a dose.
+    const ca = s.schedules.find((e) => e.additive !== 'sodium_carbonate');
+    check(ca, 'no second schedule in the demo');
+    await tap(page, `log.schedule.change.${ca.id}`);
+    await tap(page, `log.schedule.amount.${ca.id}`);
+    await enter(page, '25');
+    await shot(page, `${label}-log-change`);
+    await tap(page, `log.schedule.save.${ca.id}`);
+    s = await state(page);
+    check(!s.message_is_error, `change refused: ${s.message}`);
+    const changed = s.schedules.find((e) => e.device === ca.device);
+    check(changed && changed.id !== ca.id && changed.amount === 25, `after the change: ${JSON.stringify(changed)}`);
+    // Adopt the plan: the pumps' schedules now follow it (from tomorrow).
+    await tap(page, 'tab.plan');
+    s = await state(page);
+    check(s.plan && s.plan.verdict.holds, 'the plan does not hold');
+    await reveal(page, 'plan.adopt');
+    await tap(page, 'plan.adopt');
+    s = await state(page);
+    check(!s.message_is_error && /Adopted/.test(s.message), `adopt: ${s.message}`);
+    const later = s.schedules.filter((e) => Date.parse(e.time) > Date.now());
+    check(later.length >= 2, `adopted schedules starting tomorrow: ${later.length}`);
+    check(later.some((e) => e.device === 'pump 1') && later.some((e) => e.device === 'pump 2'),
+          `adopted devices ${later.map((e) => e.device).join(', ')}`);
+    const old = s.schedules.filter((e) => Date.parse(e.time) <= Date.now());
+    check(old.every((e) => e.stop), 'a pump schedule from before the plan was not stopped where the plan starts');
+    await tap(page, 'tab.log');
+    await reveal(page, `log.schedule.${later[0].id}`);
+    await shot(page, `${label}-log-adopted`);
+    // Stop the soda-ash pump's old schedule now instead of at the plan's start (two taps).
+    await reveal(page, `log.schedule.stop.${pump.id}`);
+    await tap(page, `log.schedule.stop.${pump.id}`);
+    await shot(page, `${label}-log-stop`);
+    await tap(page, `log.schedule.stop_confirm.${pump.id}`);
+    s = await state(page);
+    check(!s.message_is_error, `stop refused: ${s.message}`);
+    check(!s.schedules.some((e) => e.id === pump.id), 'the stopped schedule is still listed');
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
+await runTests(tests, browser, server);
