@@ -46,6 +46,7 @@ double dkh_per_ml(double volume_l) { return kStockGPerL / 1000.0 * 2.0 / 105.988
 struct Figures {
   int runs = 0, plans = 0, refused = 0;
   int start_within_1sd = 0, start_within_kit = 0;
+  int start_within_own_band = 0;  // within the estimate's own 95 % band (1.96 x its level sd)
   double worst_start_error = 0;
   int plans_crossing_on_truth = 0, runs_true_water_out = 0;
   double lowest_true = 1e9, highest_true = -1e9;
@@ -161,6 +162,7 @@ void run_one(std::uint32_t seed, Figures& fig) {
     fig.worst_start_error = std::max(fig.worst_start_error, err);
     if (err <= kKitSd) ++fig.start_within_1sd;
     if (err <= 2 * kKitSd) ++fig.start_within_kit;
+    if (err <= 1.96 * basis->alkalinity_dkh->level_sd) ++fig.start_within_own_band;
     plan::PlanInput in;
     in.system.volume_l = volume_l;
     in.system.air_co2_ppm = 800;  // a lived-in room, as the app's default (design.md: indoor air)
@@ -233,18 +235,24 @@ TEST_CASE("plan simulation: keepers following adopted plans start within kit pre
               plan::default_limits().get(plan::LimitId::AlkalinityFloor),
               plan::default_limits().get(plan::LimitId::AlkalinityCeiling), fig.runs_true_water_out, fig.lowest_true,
               fig.highest_true);
+  std::printf("  the estimate's own 95 %% band held the true level in %.2f %% of the plans\n",
+              planned ? 100.0 * fig.start_within_own_band / planned : 0.0);
   for (const plan::LimitSpec& spec : plan::limit_specs()) {
     const auto k = static_cast<std::size_t>(spec.id);
     if (fig.crossed[k]) std::printf("  %s crossed in %d plans, by up to %.3f %s\n", spec.key, fig.crossed[k], fig.worst_over[k], spec.unit);
   }
   CHECK(fig.runs == runs);
   CHECK(fig.refused == 0);  // the keeper plans after each test
-  // Not met yet (2026-12-04, 1,000 runs: about 98 % of starts within kit precision, and under
-  // 1 % of the plans, replayed on the truth, cross a rate, Omega or pH limit by a little; one
-  // run in 1,000 dips 0.2 dKH under the floor): the
-  // early estimates (three days of tests) are surer of themselves than they should be, and the
-  // planner keeps no room for the level's uncertainty in its pH and Omega limits. Warned, not
-  // failed, until the estimate and the planner carry it; the figures above say how far.
+  // The estimate is honest: its own 95 % band holds the true level in about 95 % of the plans.
+  const double own_band = planned ? 100.0 * fig.start_within_own_band / planned : 0.0;
+  CHECK(own_band >= 93.0);
+  // Not met yet (2026-12-04, 1,000 runs: 98.2 % of the starts within the kit's 0.4 dKH, and
+  // 0.7 % of the plans, replayed on the truth, cross a rate, Omega or pH limit by a little; one
+  // run in 1,000 dips 0.2 dKH under the floor). What is left: pump doses missed and not logged
+  // and consumption changes since the last test move the truth by more than a test can catch
+  // at once, and the planner keeps no room for the level's uncertainty in its pH and Omega
+  // limits (keep_room_for_uncertainty covers the rates, ceilings and floors). Warned, not
+  // failed; the figures above say how far.
   WARN(within_kit >= 99.0);
   WARN(fig.plans_crossing_on_truth == 0);
   WARN(fig.runs_true_water_out == 0);
