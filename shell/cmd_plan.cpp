@@ -124,7 +124,9 @@ void run(const PlanOptions& o) {
   const bool holds = plan->verdict.holds;
   // The verdict comes first: on stderr for the machine formats (CSV, iCalendar, JSON carry the
   // schedule on stdout), at the top of the text.
-  if (!holds && (o.json || o.csv || o.ics)) std::fprintf(stderr, "%s", plan::verdict_to_text(*plan).c_str());
+  // A target the room air puts out of bounds is flagged the same way (the exit status stays the verdict's).
+  const bool flagged = !plan->verdict.target_conflicts.empty();
+  if ((!holds || flagged) && (o.json || o.csv || o.ics)) std::fprintf(stderr, "%s", plan::verdict_to_text(*plan).c_str());
   if (o.adopt) {
     if (!holds) throw CommandError("--adopt: this plan cannot hold the water within its floors (see the verdict); not adopted");
     adopt(o, *in, *plan);
@@ -175,7 +177,9 @@ void register_plan(CLI::App& app) {
       "plan",
       "Day-by-day dose plan within safety limits, from a JSON plan input. Exit status: 0 the plan holds the "
       "water inside every limit; 3 it cannot hold it inside its floors (the plan is still written, its verdict "
-      "first: what is short and what would fix it); 1 refused input or a plan the checker refuses");
+      "first: what is short and what would fix it); 1 refused input or a plan the checker refuses. Targets whose "
+      "water, settled with the room air, already crosses a pH or saturation limit are flagged after the verdict "
+      "with the target that fits");
   sub->add_option("input", opts->input, "plan input file (JSON; - for stdin); see assets/demo/demo_plan.json")
       ->required();
   sub->add_option("--horizon-days", opts->horizon_days, "override the plan's horizon (1..365 days)");

@@ -233,6 +233,27 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
   });
 
+  test(`plan: a target the room air puts past a limit is flagged at the top with the target that fits (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.settings');
+    await reveal(page, 'settings.room_co2');
+    await tap(page, 'settings.room_co2');
+    await enter(page, '3000');
+    await tap(page, 'tab.plan');
+    await frames(page, 3);
+    const s = await state(page);
+    const flags = (s.plan && s.plan.target_conflicts) || [];
+    check(flags.length > 0, `no target conflict at 3000 ppm: ${JSON.stringify(s.plan && s.plan.verdict)}`);
+    check(flags.every((m) => /^TARGET CONFLICT: .*3000 ppm CO2/.test(m)), `flags: ${flags}`);
+    check(flags.some((m) => /below the floor of 7\.7 \(ph_min_total\)/.test(m)), `no pH floor flag: ${flags}`);
+    const v = await reveal(page, 'plan.verdict');
+    check(v.found && v.visible, 'verdict with the flag not visible');
+    await shot(page, `${label}-plan-target-conflict`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
   test(`plan: a limit tightened in Settings is planned to, one past its hard ceiling is refused, reload keeps it (${label})`, async () => {
     const { context, page, errors } = await open(opts);
     const key = 'alkalinity_rise_dkh_per_day';

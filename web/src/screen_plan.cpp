@@ -240,6 +240,8 @@ void draw_verdict(AppState& app, const pl::Plan& plan) {
     for (const std::string& r : v.reasons) ui::wrapped(("Short: " + r).c_str());
     for (const std::string& f : v.fixes) ui::wrapped(("Would hold it: " + f).c_str());
   }
+  // The same words as the command line's verdict (core message), in the warning colour.
+  for (const pl::TargetConflict& t : v.target_conflicts) ui::colored_wrapped(theme::kError, t.message.c_str());
   ui::record(app, "plan.verdict");
   ui::card_end(app);
 }

@@ -88,7 +88,10 @@ std::string state_json() {
     double rise = 0;
     for (const auto& d : pc.plan->days) rise = std::max(rise, d.rise_alkalinity_dkh);
     const auto& v = pc.plan->verdict;
-    j["plan"] = {{"limits", used}, {"max_alkalinity_rise_dkh", rise}, {"check_ok", pc.check && pc.check->ok()},
+    json conflicts = json::array();
+    for (const auto& t : v.target_conflicts) conflicts.push_back(t.message);
+    j["plan"] = {{"target_conflicts", conflicts},
+                 {"limits", used}, {"max_alkalinity_rise_dkh", rise}, {"check_ok", pc.check && pc.check->ok()},
                  {"check_explained", pc.check && !v.holds && pc.check->only_floors_and_falls()},
                  {"verdict", {{"holds", v.holds}, {"headline", v.headline}, {"reasons", v.reasons}, {"fixes", v.fixes}}},
                  {"computed_count", pc.computed_count}};

@@ -191,17 +191,27 @@ std::vector<Compound> build_catalog() {
     c.crystal_density_g_ml = 2.21;
     // The UPPER bound of published solubilities at each temperature, so that every check of a
     // limewater dose (pH, Omega, rise, single-dose step) assumes the strongest limewater a
-    // keeper can have: real saturated limewater is 1.65-1.73 g/L at 20 C. Sources, g per 100 g
-    // water: the handbook set 0.189 (0 C), 0.182 (10), 0.173 (20), 0.160 (30), 0.141 (40)
-    // (CRC Handbook of Chemistry and Physics, "Aqueous solubility of inorganic compounds at
-    // various temperatures"; from memory: unverified); the secondary set of facts.md 6, 0.185,
-    // 0.176, 0.165, 0.153, 0.141 (unverified); Bates, Bower & Smith 1956 (J. Res. NBS 56:305),
-    // 0.0203 mol/kg = 0.1504 at 25 C (published, the lowest). The handbook set is the highest
-    // at every temperature, so it is the bound.
+    // keeper can have: real saturated limewater is 1.65-1.73 g/L at 20 C. Values, g per 100 g
+    // water, and where each was found (searched 2026-12-04):
+    //  - 0.189 (0 C) and 0.173 (20 C): the handbook pair quoted as "g/100 mL" in reprints of an
+    //    encyclopedia data box (secondary; its primary handbook was not reachable). Read as g per
+    //    100 g water they over-state strength slightly (a litre of solution holds <1 kg water),
+    //    the safe side here.
+    //  - 0.182 (10), 0.160 (30), 0.141 (40): from memory (CRC-style table), unverified; they lie
+    //    on the smooth retrograde curve between the points above and at or above every value
+    //    below.
+    //  - the secondary set 0.185, 0.176, 0.165, 0.153, 0.141 (0-40 C; facts.md 6, and a reprinted
+    //    textbook table found by the same search): lower or equal at every temperature.
+    //  - Bates, Bower & Smith 1956 (J. Res. NBS 56:305, doi:10.6028/jres.056.040): 0.0203 mol/kg
+    //    = 0.1504 g/100 g at 25 C (published, primary, the lowest).
+    //  The CRC Handbook's "aqueous solubility of inorganic compounds at various temperatures"
+    //  (98th ed., 2017, as transcribed in a public data set) has no Ca(OH)2 row. So the set
+    //  below is the highest of the values found at every temperature; only Bates is primary.
     c.solubility = {{0, 0.189}, {10, 0.182}, {20, 0.173}, {30, 0.160}, {40, 0.141}};
     c.solubility_source =
-        "upper bound of published values: CRC Handbook table (from memory, unverified); above the facts.md 6 "
-        "secondary set and Bates, Bower & Smith 1956 (0.1504 g/100 g at 25 C)";
+        "upper bound of values found: 0.189 (0 C) and 0.173 (20 C) from a handbook pair reprinted in secondary "
+        "sources, 10-40 C from memory (unverified); above the secondary set of facts.md 6 and Bates, Bower & Smith "
+        "1956 (0.1504 g/100 g at 25 C, primary)";
     c.solubility_note = "retrograde (weaker when warmer); the temperature curve is approximate";
     c.signal_word = "Danger";
     c.hazard_statements = {kH315, kH318, kH335};

@@ -71,9 +71,11 @@ std::string plan_to_csv(const PlanInput& in, const Plan& plan) {
 std::string verdict_to_text(const Plan& plan) {
   const Verdict& v = plan.verdict;
   std::string o = v.headline + "\n";
-  if (v.holds) return o;
-  for (const auto& r : v.reasons) o += "  short: " + r + "\n";
-  for (const auto& f : v.fixes) o += "  would hold it: " + f + "\n";
+  if (!v.holds) {
+    for (const auto& r : v.reasons) o += "  short: " + r + "\n";
+    for (const auto& f : v.fixes) o += "  would hold it: " + f + "\n";
+  }
+  for (const auto& t : v.target_conflicts) o += t.message + "\n";
   return o;
 }
 

@@ -304,6 +304,15 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
                                      {"deliverable_per_day", s.deliverable_per_day},
                                      {"consumed_per_day", s.consumed_per_day}});
   }
+  verdict["target_conflicts"] = json::array();
+  for (const auto& t : v.target_conflicts) {
+    verdict["target_conflicts"].push_back(
+        {{"limit", limit_spec(t.limit).key}, {"value", t.value}, {"allowed", t.allowed},
+         {"ph_total_at_rest", t.ph_total}, {"omega_aragonite_at_rest", t.omega_aragonite},
+         {"alkalinity_fit_dkh", t.alkalinity_fit_dkh ? json(*t.alkalinity_fit_dkh) : json(nullptr)},
+         {"calcium_fit_mg_l", t.calcium_fit_mg_l ? json(*t.calcium_fit_mg_l) : json(nullptr)},
+         {"message", t.message}});
+  }
   j["verdict"] = verdict;
   j["findings"] = plan.findings;
   j["cautions"] = plan.cautions;

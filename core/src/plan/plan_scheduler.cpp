@@ -479,6 +479,10 @@ Result<Plan> make_plan(const PlanInput& in) {
       plan.salinity.per_day, plan.salinity.over_horizon, in.horizon_days, plan.salinity.water_change_percent_per_week,
       in.salinity_tolerance));
   detail::judge(in, plan);
+  // Targets the room air puts out of bounds: flagged with the verdict, never silently held back.
+  auto conflicts = check_targets_at_air(in);
+  if (!conflicts) return conflicts.error();
+  plan.verdict.target_conflicts = std::move(*conflicts);
   for (const auto& d : in.deliveries) {
     for (const auto& c : additives::cautions_for(d.additive)) {
       if (std::find(plan.cautions.begin(), plan.cautions.end(), c) == plan.cautions.end()) plan.cautions.push_back(c);

@@ -221,6 +221,26 @@ struct Shortfall {
   double consumed_per_day = 0;    // the demand
 };
 
+// A target in conflict with the limits at the room's CO2 (plan_targets.cpp): water held at the
+// targets and left to settle with the room air (air equilibrium, no dose) already crosses a
+// limit. Above a ceiling on pH or saturation after a dose, every dose would be held back; below
+// a floor on pH or saturation, the water sits under it whenever it rests. Flagged in the
+// verdict with the reason and the target that fits; the exit status stays the verdict's.
+struct TargetConflict {
+  LimitId limit;                  // the limit crossed at rest at the targets
+  double ph_total = 0;            // air equilibrium at the targets (total scale)
+  double omega_aragonite = 0;
+  double value = 0, allowed = 0;  // the limit's quantity at the targets, and the limit
+  // Highest alkalinity target (for a ceiling) or lowest (for a floor) whose air equilibrium
+  // fits, at the calcium target; absent when none between the alkalinity floor and ceiling fits.
+  std::optional<double> alkalinity_fit_dkh;
+  // For saturation: the highest (ceiling) or lowest (floor) calcium target that fits at the
+  // alkalinity target (saturation is proportional to calcium); absent for pH, and when it lies
+  // outside the calcium floor and ceiling.
+  std::optional<double> calcium_fit_mg_l;
+  std::string message;            // plain words with the numbers
+};
+
 // The plan's verdict: whether the water stays inside every floor and largest fall. A plan that
 // cannot hold says so first, in plain words and numbers (cmd_plan exits 3).
 struct Verdict {
@@ -232,6 +252,7 @@ struct Verdict {
   std::vector<Shortfall> shortfalls;   // parameters whose additives deliver less than the demand
   std::vector<std::string> reasons;    // what is short, in plain words
   std::vector<std::string> fixes;      // which setting would hold it (pump mL/day, stock, doses/day)
+  std::vector<TargetConflict> target_conflicts;  // targets the room air puts out of bounds (flags)
 };
 
 struct Plan {
@@ -340,7 +361,14 @@ std::string plan_to_csv(const PlanInput& input, const Plan& plan);
 Result<std::string> plan_to_icalendar(const PlanInput& input, const Plan& plan, const std::string& dtstamp_utc);
 // Plain text for print: the verdict first, then limits with sources, day table, findings, cautions.
 std::string plan_to_text(const PlanInput& input, const Plan& plan);
-// The verdict alone: its headline, then (when it cannot hold) what is short and what would fix it.
+// The verdict alone: its headline, then (when it cannot hold) what is short and what would fix
+// it, then any target in conflict with the limits at the room's CO2.
 std::string verdict_to_text(const Plan& plan);
+
+// Targets against the limits at the room's CO2 (plan_targets.cpp): the water at the alkalinity
+// and calcium targets, at the system's salinity and temperature, in equilibrium with the room
+// air, checked against the pH and saturation ceilings after a dose and the pH and saturation
+// floors. make_plan fills Verdict::target_conflicts with it; the app and CLI print its messages.
+Result<std::vector<TargetConflict>> check_targets_at_air(const PlanInput& input);
 
 }  // namespace tw::plan
