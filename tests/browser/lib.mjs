@@ -95,9 +95,10 @@ export async function openApp(browser, url, opts) {
 
 // Runs tests ([{name, fn}]) in order: one "ok"/"FAIL" line each, then "N passed, M failed";
 // closes the browser and the server and exits non-zero on any failure.
+// TW_ONLY=text runs only the tests whose name contains it.
 export async function runTests(tests, browser, server) {
   let passed = 0, failed = 0;
-  for (const t of tests) {
+  for (const t of tests.filter((x) => !process.env.TW_ONLY || x.name.includes(process.env.TW_ONLY))) {
     const t0 = Date.now();
     try {
       await t.fn();

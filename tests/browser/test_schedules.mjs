@@ -1,7 +1,7 @@
 // Browser tests of standing dose schedules (issue 11) on the demo data, in headless Chromium at
 // phone (390x844) and desktop (1280x800) sizes:
-//  - the hobbyist's walk: the demo reef's pumps dose on their schedule and no dose has been
-//    logged for days; today's alkalinity test of 7.4 dKH is logged, then Demand shows no flag on
+//  - the hobbyist's walk: the demo reef's pumps dose on their schedule (no alkalinity dose is
+//    logged; the app moves the demo forward to today when it loads it); today's alkalinity test of 7.4 dKH is logged, then Demand shows no flag on
 //    it and the Plan starts from it (within kit precision) with no dose that overshoots the
 //    target band; the Plan's starting levels are the command line's (`tidewright plan
 //    --journal ... --json` on the same journal, the same core rule);
@@ -13,7 +13,7 @@
 // Screenshots go to tests/browser/output/schedules-*.png.
 import { resolve, join } from 'node:path';
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
 import { launch, PHONE, DESKTOP, state, widget, tap, enter, frames, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
@@ -56,19 +56,28 @@ async function logTodaysTest(page, value) {
   return t;
 }
 
-// The command line on the same journal: the demo imported, the same test at the same time.
-function cliPlanStart(testEvent) {
+// The command line on the same journal: the demo moved forward as the app moved it when it
+// loaded it (whole days, demo_shift_s), imported, and the same test at the same time.
+function cliPlanStart(testEvent, shiftS) {
   const dir = mkdtempSync(join(tmpdir(), 'tw-sched-'));
   try {
+    const doc = JSON.parse(readFileSync(join(demo, 'demo_journal.json'), 'utf8'));
+    const moved = (iso) => new Date(Date.parse(iso) + shiftS * 1000).toISOString().replace('.000Z', 'Z');
+    for (const e of doc.events) {
+      e.time = moved(e.time);
+      if (e.stop) e.stop = moved(e.stop);
+    }
+    const shifted = join(dir, 'demo.json');
+    writeFileSync(shifted, JSON.stringify(doc));
     const db = join(dir, 'j.db');
-    execFileSync(cli, ['log', '--journal', db, 'import', join(demo, 'demo_journal.json')], { stdio: 'pipe' });
+    execFileSync(cli, ['log', '--journal', db, 'import', shifted], { stdio: 'pipe' });
     execFileSync(cli, ['log', '--journal', db, 'add', 'test', '--system', 'Living room reef', '--parameter', 'alkalinity',
                        '--value', String(testEvent.value), '--unit', 'dKH', '--precision', String(testEvent.precision ?? 0.2),
                        '--time', testEvent.time], { stdio: 'pipe' });
     const out = execFileSync(cli, ['plan', join(demo, 'demo_plan.json'), '--journal', db, '--system', 'Living room reef', '--json'],
                              { stdio: ['ignore', 'pipe', 'pipe'] }).toString();
-    const doc = JSON.parse(out);
-    return { start: doc.days[0].start, basis: doc.basis };
+    const plan = JSON.parse(out);
+    return { start: plan.days[0].start, basis: plan.basis };
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
@@ -78,10 +87,11 @@ const tests = [];
 const test = (name, fn) => tests.push({ name, fn });
 
 for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
-  test(`schedules: today's 7.4 dKH test after days of unlogged pump doses: no flag, plan starts from it, same start as the CLI (${label})`, async () => {
+  test(`schedules: today's 7.4 dKH test, pumps on schedules and no alkalinity dose logged: no flag, plan starts from it, same start as the CLI (${label})`, async () => {
     const { context, page, errors } = await open(opts);
     let s = await state(page);
     check(s.schedules.length >= 1, 'the demo reef has no pump schedule running');
+    const shift = s.demo_shift_s;
     const logged = await logTodaysTest(page, 7.4);
     await tap(page, 'tab.demand');
     await tap(page, 'demand.param.0');
@@ -102,7 +112,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(s.plan.max_alkalinity_dkh <= high + 1e-6, `the plan takes alkalinity to ${s.plan.max_alkalinity_dkh} dKH, over the band's ${high}`);
     check(s.plan.check_ok, 'the independent check failed');
     // The command line, same journal, same rule.
-    const c = cliPlanStart(logged);
+    const c = cliPlanStart(logged, shift);
     for (const k of ['alkalinity_dkh', 'calcium_mg_l', 'magnesium_mg_l']) {
       const tol = k === 'alkalinity_dkh' ? 0.01 : 0.1;  // the two read "now" a few seconds apart
       check(Math.abs(c.start[k] - s.plan.start[k]) <= tol, `${k}: app ${s.plan.start[k]}, command line ${c.start[k]}`);

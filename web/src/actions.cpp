@@ -414,6 +414,19 @@ void load_demo(AppState& app) {
     notify(app, "The demo data could not be read: " + stored.error().message, true);
     return;
   }
+  // The invented demo ends on a fixed date; moved forward by whole days so that its last entry
+  // is less than a day old, it stays a living tank (levels carried to now, no stale tests) on
+  // any date the app is opened. Times of day and every span between entries are kept.
+  std::int64_t last_s = 0;
+  for (const jn::Event& e : stored->journal.events) last_s = std::max(last_s, e.time_s);
+  const std::int64_t now_s = platform::now_unix_seconds();
+  const std::int64_t shift_s = last_s > 0 && now_s > last_s ? (now_s - last_s) / 86400 * 86400 : 0;
+  for (jn::Event& e : stored->journal.events) {
+    e.time_s += shift_s;
+    e.time_text.clear();
+    if (auto* sch = std::get_if<jn::DoseSchedule>(&e.data); sch && sch->stop_time_s) *sch->stop_time_s += shift_s;
+  }
+  app.demo_shift_s = shift_s;
   // Demo systems join what is there (ids and names are checked by the core).
   if (app.journal.systems.empty() && app.journal.events.empty()) {
     const Settings keep = app.settings;

@@ -183,6 +183,7 @@ struct AppState {
   tw::journal::Journal journal;
   tw::journal::SystemId current_system = 0;         // 0 = none
   std::vector<tw::journal::SystemId> demo_system_ids;  // systems that came from the demo
+  std::int64_t demo_shift_s = 0;  // how far the demo's times were moved forward when loaded (whole days)
   WaterInputs water;
   WaterResult water_result;
   bool water_stale = true;  // inputs or journal changed: recompute before the next draw

@@ -136,6 +136,7 @@ std::string state_json() {
   }
   j["schedules"] = schedules;
   j["demo_system_ids"] = a.demo_system_ids;
+  j["demo_shift_s"] = a.demo_shift_s;
   j["store"] = {{"loaded", a.store.loaded}, {"problem", a.store.problem}, {"save_error", a.store.save_error},
                 {"saves", a.store.saves}};
   j["message"] = a.ui.message;
