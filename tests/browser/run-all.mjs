@@ -169,4 +169,44 @@ test('text size setting and desktop Tab key navigation', async () => {
   await context.close();
 });
 
+// Issue 13: the Water screen shows every number with its band, and the readings' precisions
+// are shown and editable; a precision out of range is refused with the field and the range.
+for (const [label, opts] of [['phone 390x844', PHONE], ['desktop 1280x800', DESKTOP]]) {
+  test(`water: bands from the readings' precision, editable (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    const tag = opts.hasTouch ? 'phone' : 'desktop';
+    await tap(page, 'tab.water');
+    let s = await state(page);
+    check(s.water.ok && s.water.u, `no uncertainty on the Water screen: ${s.water.u_error}`);
+    check(s.water.precision.alkalinity_dkh === 0.2 && s.water.precision.ph === 0.05,
+          `default precisions ${JSON.stringify(s.water.precision)} are not the kit table's`);
+    check(s.water.u.omega_aragonite > 0 && s.water.u.ph_total > 0, `u ${JSON.stringify(s.water.u)}`);
+    const band = await page.evaluate(() => JSON.parse(Module.ccall('tw_test_widget', 'string', ['string'], ['water.omega_band'])));
+    check(band.found, 'the Omega band sentence is not shown');
+    await page.screenshot({ path: join(OUTPUT, `${tag}-water-bands.png`) });
+    const before = s.water.u.ph_total;
+    if (s.water.inputs.pair === 0) {
+      await tap(page, 'water.u_ph');
+      await enter(page, '0.1');
+      s = await state(page);
+      check(s.water.precision.ph === 0.1, `pH precision ${s.water.precision.ph} after typing 0.1`);
+      check(s.water.u.ph_total > before * 1.3, `u(pH_T) ${before} -> ${s.water.u.ph_total} after a coarser meter`);
+      await tap(page, 'water.u_ph');
+      await enter(page, '0.9');
+      const r = await state(page);
+      check(r.water.precision.ph === 0.1, 'a pH precision of 0.9 was taken');
+      check(r.message_is_error && /0\.5/.test(r.message), `no range message for 0.9: ${r.message}`);
+    }
+    await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['water.u_defaults']));
+    await frames(page, 4);
+    await page.screenshot({ path: join(OUTPUT, `${tag}-water-precisions.png`) });
+    await tap(page, 'water.u_defaults');
+    s = await state(page);
+    check(s.water.precision.ph === 0.05, `defaults not restored: ${JSON.stringify(s.water.precision)}`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
 await runTests(tests, browser, server);

@@ -401,6 +401,11 @@ void set_water_inputs(AppState& app, const WaterInputs& inputs) {
   app.water_stale = true;
 }
 
+void set_water_precision(AppState& app, const WaterPrecision& precision) {
+  app.water_precision = precision;
+  app.water_stale = true;
+}
+
 void use_latest_readings(AppState& app) {
   app.water.what_if = false;
   app.water_stale = true;

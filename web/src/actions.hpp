@@ -54,6 +54,8 @@ std::vector<tw::plan::LimitSetting> safety_limit_settings(const Settings& settin
 
 // Water screen
 void set_water_inputs(AppState& app, const WaterInputs& inputs);  // becomes a what-if
+// The readings' precisions; the numbers stay as they are (latest readings or a what-if).
+void set_water_precision(AppState& app, const WaterPrecision& precision);
 void use_latest_readings(AppState& app);
 
 // Demo data, export and import

@@ -18,6 +18,8 @@
 #include <vector>
 
 #include "tidewright/carbonate/carbonate.hpp"
+#include "tidewright/carbonate/measurement_precision.hpp"
+#include "tidewright/carbonate/uncertainty.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "dosing_state.hpp"  // forms and cached results of Demand, Hatchery, Mixes, Plan
 
@@ -58,6 +60,21 @@ struct WaterInputs {
   bool operator==(const WaterInputs&) const = default;
 };
 
+// How precise the Water screen's readings are: one standard deviation each, in canonical units
+// (dKH, pH units, psu, C, uatm, umol/kg). Defaults from the core's one table of kit and meter
+// precisions (carbonate/measurement_precision.hpp, common practice); pCO2 and DIC have none.
+struct WaterPrecision {
+  double alkalinity_dkh = typical(tw::journal::Parameter::Alkalinity);
+  double ph = typical(tw::journal::Parameter::PH);
+  double ph_conversion = tw::carbonate::kPhNbsToTotalUncertainty;  // NBS reading -> total scale
+  double salinity = typical(tw::journal::Parameter::Salinity);
+  double temperature_c = typical(tw::journal::Parameter::Temperature);
+  double pco2_uatm = 0;
+  double dic_umol_kg = 0;
+  bool operator==(const WaterPrecision&) const = default;
+  static double typical(tw::journal::Parameter p) { return tw::carbonate::default_precision(p)->typical; }
+};
+
 // Fractions of DIC as CO2*, HCO3- and CO3-- across pH (the x axis is on the shown scale).
 struct SpeciesCurve {
   std::vector<float> ph, co2, hco3, co3;
@@ -70,6 +87,11 @@ struct WaterResult {
   std::optional<tw::carbonate::CarbonateState> air;  // same alkalinity, at the room's CO2
   std::string air_error;
   SpeciesCurve curve;
+  // Standard uncertainty of each output from the readings' precision (Orr et al. 2018 linear
+  // propagation in the core); unset with u_error when it could not be computed.
+  std::optional<tw::carbonate::CarbonateOutputs> u;
+  std::string u_error;
+  std::string omega_main_source;           // the reading that adds most to u(Omega aragonite)
   double density_kg_per_l = 1.02334;
   int computed_count = 0;                  // how many times it was recomputed (tests)
 };
@@ -185,6 +207,7 @@ struct AppState {
   std::vector<tw::journal::SystemId> demo_system_ids;  // systems that came from the demo
   std::int64_t demo_shift_s = 0;  // how far the demo's times were moved forward when loaded (whole days)
   WaterInputs water;
+  WaterPrecision water_precision;
   WaterResult water_result;
   bool water_stale = true;  // inputs or journal changed: recompute before the next draw
   UiState ui;

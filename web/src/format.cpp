@@ -3,6 +3,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "tidewright/carbonate/uncertainty.hpp"
 #include "tidewright/common/datetime.hpp"
 
 namespace twapp::fmtx {
@@ -19,6 +20,19 @@ std::string fixed(double value, int decimals) {
     return "\u2212" + s.substr(1);
   }
   return s;
+}
+
+std::string with_u(double value, double u, const char* unit) {
+  if (tw::carbonate::taken_as_exact(value, u))
+    return fmt::format("{:.4g}", value) + (*unit ? std::string(" ") + unit : "") + " (as given)";
+  const int d = tw::carbonate::decimals_for_uncertainty(u);
+  return fixed(value, d) + " \u00b1 " + fixed(u, d) + (*unit ? std::string(" ") + unit : "");
+}
+
+std::string between_95(double value, double u, double floor, const char* unit) {
+  const int d = tw::carbonate::decimals_for_uncertainty(u);
+  const tw::carbonate::Range r = tw::carbonate::range95(value, u, floor);
+  return "between " + fixed(r.low, d) + " and " + fixed(r.high, d) + (*unit ? std::string(" ") + unit : "");
 }
 
 UnitShown alkalinity_shown(au::AlkalinityUnit unit) {

@@ -14,6 +14,13 @@ namespace twapp::fmtx {
 
 std::string fixed(double value, int decimals);  // "8.10"; "−" for negatives
 
+// A measured number with its standard uncertainty, digits set by u (the core's
+// decimals_for_uncertainty): "8.01 ± 0.06" plus " unit" if one is given.
+std::string with_u(double value, double u, const char* unit = "");
+// Its 95 % range in plain words: "between 3.16 and 4.93" (+/- 1.96 u, the low end kept at or
+// above floor).
+std::string between_95(double value, double u, double floor = 0.0, const char* unit = "");
+
 struct UnitShown {
   const char* unit;  // as printed
   int decimals;      // shown

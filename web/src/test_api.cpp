@@ -68,7 +68,18 @@ std::string state_json() {
     water["omega_aragonite"] = w.state.omega_aragonite;
     water["omega_calcite"] = w.state.omega_calcite;
     water["curve_points"] = w.curve.ph.size();
+    water["u_error"] = w.u_error;
+    if (w.u) {
+      json u = json::object();
+      for (const auto& f : tw::carbonate::kOutputFields) u[f.name] = (*w.u).*f.output;
+      water["u"] = u;
+      water["omega_main_source"] = w.omega_main_source;
+    }
   }
+  const WaterPrecision& wp = a.water_precision;
+  water["precision"] = {{"alkalinity_dkh", wp.alkalinity_dkh}, {"ph", wp.ph}, {"ph_conversion", wp.ph_conversion},
+                        {"salinity", wp.salinity}, {"temperature_c", wp.temperature_c},
+                        {"pco2_uatm", wp.pco2_uatm}, {"dic_umol_kg", wp.dic_umol_kg}};
   j["water"] = water;
   j["settings"] = {{"alkalinity_unit", tw::units::to_string(a.settings.units.alkalinity)},
                    {"volume_unit", tw::units::to_string(a.settings.units.volume)},

@@ -86,6 +86,51 @@ std::optional<cb::CarbonateState> solve_at(const cb::Constants& k, const cb::Inp
   return std::move(s).value();
 }
 
+// The uncertainty of the state from the readings' precision (core: solve_with_uncertainty, or
+// equilibrate_with_air_with_uncertainty for water settled with the room's air).
+void add_uncertainty(const AppState& app, const cb::Conditions& cond, double alk_umol_kg,
+                     WaterResult& out) {
+  const WaterInputs& w = app.water;
+  const WaterPrecision& p = app.water_precision;
+  const cb::Measurement a{cb::Quantity::Alkalinity, alk_umol_kg};
+  cb::InputPair pair{a, {cb::Quantity::PH, w.ph}, w.ph_scale};
+  cb::InputUncertainties u;
+  u.first = tw::units::alkalinity_to_umol_kg(p.alkalinity_dkh, tw::units::AlkalinityUnit::DKH,
+                                             out.density_kg_per_l);
+  switch (w.pair) {
+    case WaterPair::AlkalinityPH:
+      u.second = p.ph;
+      if (w.ph_scale == cb::PhScale::NBS) u.ph_scale_conversion = p.ph_conversion;
+      break;
+    case WaterPair::AlkalinityPCO2:
+      pair.second = {cb::Quantity::PCO2, w.pco2_uatm};
+      u.second = p.pco2_uatm;
+      break;
+    case WaterPair::AlkalinityDIC:
+      pair.second = {cb::Quantity::DIC, w.dic_umol_kg};
+      u.second = p.dic_umol_kg;
+      break;
+    case WaterPair::AlkalinityAir: break;
+  }
+  u.salinity = p.salinity;
+  u.temperature_c = p.temperature_c;
+  auto r = w.pair == WaterPair::AlkalinityAir
+               ? cb::equilibrate_with_air_with_uncertainty(cond, alk_umol_kg, app.settings.room_co2_ppm, u)
+               : cb::solve_with_uncertainty(cond, pair, u);
+  if (!r) {
+    out.u_error = "No uncertainty: " + r.error().message;
+    return;
+  }
+  out.u = r->u;
+  double largest = 0;
+  for (const auto& src : r->sources) {
+    if (src.contribution.omega_aragonite > largest) {
+      largest = src.contribution.omega_aragonite;
+      out.omega_main_source = src.name;
+    }
+  }
+}
+
 }  // namespace
 
 void refresh_water(AppState& app) {
@@ -130,6 +175,7 @@ void refresh_water(AppState& app) {
   } else {
     out.air_error = air.error().message;
   }
+  add_uncertainty(app, cond, alk, out);
   // Species across pH 6..10 on the shown scale, at this water's DIC (the core solves each point).
   const double dic = out.state.dic_umol_kg;
   for (int i = 0; i <= 80; ++i) {
