@@ -185,24 +185,25 @@ for (const [label, opts] of [['phone 390x844', PHONE], ['desktop 1280x800', DESK
     check(band.found, 'the Omega band sentence is not shown');
     await page.screenshot({ path: join(OUTPUT, `${tag}-water-bands.png`) });
     const before = s.water.u.ph_total;
-    if (s.water.inputs.pair === 0) {
-      await tap(page, 'water.u_ph');
-      await enter(page, '0.1');
-      s = await state(page);
-      check(s.water.precision.ph === 0.1, `pH precision ${s.water.precision.ph} after typing 0.1`);
-      check(s.water.u.ph_total > before * 1.3, `u(pH_T) ${before} -> ${s.water.u.ph_total} after a coarser meter`);
-      await tap(page, 'water.u_ph');
-      await enter(page, '0.9');
-      const r = await state(page);
-      check(r.water.precision.ph === 0.1, 'a pH precision of 0.9 was taken');
-      check(r.message_is_error && /0\.5/.test(r.message), `no range message for 0.9: ${r.message}`);
-    }
+    check(s.water.inputs.pair === 0, `the demo reef's Water screen should solve from alkalinity + pH, not pair ${s.water.inputs.pair}`);
+    await tap(page, 'water.u_ph');
+    await enter(page, '0.1');
+    s = await state(page);
+    check(s.water.precision.ph === 0.1, `pH precision ${s.water.precision.ph} after typing 0.1`);
+    check(s.water.u.ph_total > before * 1.3, `u(pH_T) ${before} -> ${s.water.u.ph_total} after a coarser meter`);
     await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['water.u_defaults']));
     await frames(page, 4);
     await page.screenshot({ path: join(OUTPUT, `${tag}-water-precisions.png`) });
     await tap(page, 'water.u_defaults');
     s = await state(page);
     check(s.water.precision.ph === 0.05, `defaults not restored: ${JSON.stringify(s.water.precision)}`);
+    check(Math.abs(s.water.u.ph_total - before) < 1e-12, `u(pH_T) ${s.water.u.ph_total} back to ${before}`);
+    // Out of range: refused with the range, the precision kept.
+    await tap(page, 'water.u_ph');
+    await enter(page, '0.9');
+    const r = await state(page);
+    check(r.water.precision.ph === 0.05, 'a pH precision of 0.9 was taken');
+    check(r.message_is_error && /0\.5/.test(r.message), `no range message for 0.9: ${r.message}`);
     await context.close();
     const real = errors.filter((e) => !benign(e));
     check(real.length === 0, `console errors: ${real.join(' | ')}`);

@@ -38,7 +38,11 @@ Range range95(double value, double u, double floor) {
 
 int decimals_for_uncertainty(double u) {
   if (!(u > 0.0) || !std::isfinite(u)) return 6;
-  const int d = 1 - static_cast<int>(std::floor(std::log10(u)));
+  // Metrology's usual rounding of an uncertainty: two significant digits when its first
+  // digit is 1 or 2 (0.20 dKH, 0.15), one otherwise (0.05 pH, 0.6) [common practice].
+  const int exponent = static_cast<int>(std::floor(std::log10(u)));
+  const double leading = u / std::pow(10.0, exponent);
+  const int d = -exponent + (leading < 3.0 ? 1 : 0);
   return std::clamp(d, 0, 6);
 }
 

@@ -270,3 +270,16 @@ TEST_CASE("uncertainty: water settled with air carries the alkalinity test's unc
   CHECK(r->u.ph_total == doctest::Approx(70.0 / (2800.0 * std::log(10.0))).epsilon(0.15));
   CHECK_FALSE(tc::equilibrate_with_air_with_uncertainty(c, 2800, 0.5, u).ok());
 }
+
+TEST_CASE("uncertainty: digits shown follow the uncertainty") {
+  CHECK(tc::decimals_for_uncertainty(0.05) == 2);   // 8.11 +/- 0.05
+  CHECK(tc::decimals_for_uncertainty(0.058) == 2);  // 7.97 +/- 0.06
+  CHECK(tc::decimals_for_uncertainty(0.2) == 2);    // 7.30 +/- 0.20
+  CHECK(tc::decimals_for_uncertainty(0.15) == 2);
+  CHECK(tc::decimals_for_uncertainty(0.45) == 1);   // 4.0 +/- 0.5
+  CHECK(tc::decimals_for_uncertainty(73) == 0);
+  CHECK(tc::decimals_for_uncertainty(0.0) == 6);
+  const tc::Range r = tc::range95(0.5, 0.4);        // the low end stops at 0
+  CHECK(r.low == 0.0);
+  CHECK(r.high == doctest::Approx(0.5 + 1.96 * 0.4));
+}

@@ -111,8 +111,9 @@ Range range95(double value, double u, double floor = 0.0);
 // The floor that fits an output (a pH can be any number: -inf; everything else 0).
 double output_floor(const OutputField& field);
 
-// How many decimals to show a value with standard uncertainty u: enough for two significant
-// digits of u and no more (a pH known to 0.06 shows 8.04, not 8.0412). 0 to 6.
+// How many decimals to show a value with standard uncertainty u: u to two significant digits
+// when it starts with 1 or 2, else one, and the value to the same place (a pH known to 0.06
+// shows 8.04, not 8.0412; 0.20 dKH shows 7.30 +/- 0.20). 0 to 6.
 int decimals_for_uncertainty(double u);
 
 // True when u is nothing but the rounding of the differences (below a billionth of the value):
