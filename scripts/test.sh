@@ -62,6 +62,7 @@ scripts/build-web.sh
 (cd tests/browser && node test_screens_dosing.mjs "$ROOT/build/web/site")
 (cd tests/browser && node test_log.mjs "$ROOT/build/web/site")
 (cd tests/browser && TW_CLI="$ROOT/build/native/shell/tidewright" node test_schedules.mjs "$ROOT/build/web/site")
+(cd tests/browser && node test_store.mjs "$ROOT/build/web/site")
 cmake -S . -B build/app-native -G Ninja -DCMAKE_BUILD_TYPE=Release -DTW_BUILD_WEB=ON \
   -DTW_BUILD_TESTS=OFF -DTW_IMGUI_DIR="$ROOT/.cache/imgui" >/dev/null
 ninja -C build/app-native -j"$JOBS" tidewright-app

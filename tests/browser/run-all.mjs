@@ -141,20 +141,7 @@ test('export then import restores everything', async () => {
   check(real.length === 0, `console errors: ${real.join(' | ')}`);
 });
 
-test('a damaged store gives a clear message and keeps a copy', async () => {
-  const { context, page } = await open(PHONE);
-  await page.evaluate(() => { Module.FS.writeFile('/persist/tidewright.json', '{"format": "tidewright-journal", broken'); Module.tw.flush(); });
-  await flushed(page);
-  await page.reload();
-  await waitReady(page);
-  await frames(page, 2);
-  const s = await state(page);
-  check(/could not be read/.test(s.store.problem), `no damage message: ${s.store.problem}`);
-  const files = await page.evaluate(() => Module.FS.readdir('/persist'));
-  check(files.some((f) => f.startsWith('tidewright-damaged-')), `no copy kept: ${files}`);
-  await page.screenshot({ path: join(OUTPUT, 'phone-damaged-store.png') });
-  await context.close();
-});
+// A damaged store, two tabs, the older IDBFS store: test_store.mjs.
 
 test('text size setting and desktop Tab key navigation', async () => {
   const { context, page } = await open(DESKTOP);

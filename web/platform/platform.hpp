@@ -52,29 +52,41 @@ void request_frames(int n);
 bool touch_input();
 
 // ---------------------------------------------------------------- 2. Storage
-// Small named text blobs that survive restarts: a file natively, IndexedDB (IDBFS at
-// /persist) in the browser. write() returns false with a reason; the browser copy is
-// flushed to IndexedDB after every write.
-std::optional<std::string> storage_read(const std::string& name);
+// Small named text blobs that survive restarts (e.g. the copy kept of a damaged store): a file
+// natively; in the browser a record of IndexedDB (web_store.js, store "files"), written
+// asynchronously. write() returns false with a reason.
+std::optional<std::string> storage_read(const std::string& name);  // nullopt in the browser
 bool storage_write(const std::string& name, const std::string& text, std::string* error);
 std::string storage_location();  // for messages: "this browser" or the directory
 
-// The app's saved state: the journal and the app's own part (settings). Native: the journal
-// database <data dir>/tidewright-journal.db (core/store, the same store as the command line),
-// written record by record: only what changed since the last save, in one transaction; the
-// app part is a setting in it. Browser: the whole store text `name` in IndexedDB (IDBFS).
+// The app's saved state: the journal and the app's own part (settings), written record by
+// record: only what changed since the last save (journal_diff.hpp), in one transaction.
+// Native: the journal database <data dir>/tidewright-journal.db (core/store, the same store
+// as the command line); the app part is a setting in it. Browser: IndexedDB, one record per
+// system and event (web_store.js); the transaction runs after store_save returns and its
+// result arrives through poll_store_update().
 struct StoreLoad {
   std::string text;                // the store text: journal JSON with an "app" member (store.hpp)
   bool first_save_needed = false;  // read from an older store: save everything once
   std::string notice;              // what happened, for the user (empty: nothing to say)
 };
 std::optional<StoreLoad> store_load(const std::string& name);  // nullopt: nothing saved yet
-// saved: the journal as last saved; now: as it is. full_text() gives the whole store text (the
-// browser writes it); app_part is the app member's JSON text. *reload is set when another copy
-// of the app wrote at the same moment and some new entries got other ids: read the store again.
+// saved: the journal as last saved; now: as it is. full_text() gives the whole store text;
+// app_part is the app member's JSON text. *reload is set when another copy of the app wrote
+// at the same moment and some new entries got other ids: read the store again.
 bool store_save(const std::string& name, const tw::journal::Journal& saved, const tw::journal::Journal& now,
                 const std::function<std::string()>& full_text, const std::string& app_part, bool* reload,
                 std::string* error);
+
+// What another copy of the app (another browser tab) stored, or what a save here turned out
+// to be, since the last poll (browser only; natively always nullopt).
+struct StoreUpdate {
+  enum class Kind { Records, Everything, Message };
+  Kind kind = Kind::Message;
+  std::string text;     // Records: changes_to_text's layout (store.hpp); Everything: a store text
+  bool is_error = false;  // Message: a failed save or a closed database
+};
+std::optional<StoreUpdate> poll_store_update();
 
 // ---------------------------------------------------------------- 3. Files
 // Offers text to the user as a file (a download in the browser; a file in the data

@@ -225,6 +225,10 @@ bool store_save(const std::string&, const tw::journal::Journal& saved, const tw:
   return true;
 }
 
+// Only this process writes through this store object; other processes' changes show on the
+// next start (the command line and a second desktop window do not notify).
+std::optional<StoreUpdate> poll_store_update() { return std::nullopt; }
+
 // ---------------------------------------------------------------- files
 bool export_file(const std::string& file_name, const std::string&, const std::string& text,
                  std::string* where) {

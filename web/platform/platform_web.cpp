@@ -1,5 +1,6 @@
 // Browser implementation of platform.hpp: Emscripten's GLFW on the page's canvas, WebGL2,
-// IDBFS for storage, and the JavaScript glue in web_pre.js (Module.tw.*). Also the exported
+// IndexedDB for storage (web_store.js, Module.twStore.*), and the JavaScript glue in
+// web_pre.js (Module.tw.*). Also the exported
 // C functions that the page and the browser tests call (tw_*).
 #include <emscripten.h>
 #include <emscripten/heap.h>
@@ -12,14 +13,16 @@
 #include <cstdlib>
 #include <ctime>
 #include <deque>
-#include <fstream>
-#include <sstream>
+
+#include <nlohmann/json.hpp>
 
 #include "imgui.h"
 #include "imgui_impl_glfw.h"
 #include "imgui_impl_opengl3.h"
 #include "platform.hpp"
+#include "store.hpp"
 #include "test_api.hpp"
+#include "tidewright/journal/journal_diff.hpp"
 
 namespace twapp::platform {
 namespace {
@@ -32,16 +35,37 @@ std::deque<TextEntryResult> g_entries;
 std::deque<std::string> g_imports;
 FrameFn g_frame = nullptr;
 void* g_user = nullptr;
-const char* kPersistDir = "/persist";
 
 // clang-format off
 EM_JS(void, js_poll_pointer, (float* out), { Module.tw.poll(out); });
 EM_JS(int, js_take_dirty, (), { return Module.tw.takeDirty() ? 1 : 0; });
-EM_JS(void, js_flush_storage, (), { Module.tw.flush(); });
-EM_JS(int, js_store_error, (char* out, int size), {
-  var e = Module.tw.storeError; Module.tw.storeError = "";
-  if (!e) return 0;
-  stringToUTF8(e, out, size); return 1;
+// Storage (web_store.js). Texts handed to C++ are malloc'd copies; the caller frees them.
+EM_JS(char*, js_take_loaded, (int* legacy), {
+  var l = Module.twStore.loaded; Module.twStore.loaded = null;
+  HEAP32[legacy >> 2] = 0;
+  if (!l) return 0;
+  var n = lengthBytesUTF8(l.text) + 1, p = _malloc(n);
+  stringToUTF8(l.text, p, n);
+  HEAP32[legacy >> 2] = l.legacy ? 1 : 0;
+  return p;
+});
+EM_JS(int, js_store_had_records, (), { return Module.twStore.hadRecords ? 1 : 0; });
+EM_JS(int, js_store_write, (const char* text, char* reason, int size), {
+  var S = Module.twStore;
+  if (!S.db) { stringToUTF8(S.closed || "this browser's database is not open", reason, size); return 0; }
+  S.write(UTF8ToString(text)); return 1;
+});
+EM_JS(int, js_keep_text, (const char* name, const char* text), {
+  return Module.twStore.keepText(UTF8ToString(name), UTF8ToString(text)) ? 1 : 0;
+});
+EM_JS(char*, js_take_update, (int* kind, int* is_error), {
+  var u = Module.twStore.takeUpdate();
+  if (!u) return 0;
+  HEAP32[kind >> 2] = u.kind === 'records' ? 1 : u.kind === 'all' ? 2 : 3;
+  HEAP32[is_error >> 2] = u.error ? 1 : 0;
+  var n = lengthBytesUTF8(u.text) + 1, p = _malloc(n);
+  stringToUTF8(u.text, p, n);
+  return p;
 });
 EM_JS(void, js_open_entry, (const char* key, const char* label, const char* initial, const char* hint, int numeric), {
   Module.tw.openEntry(UTF8ToString(key), UTF8ToString(label), UTF8ToString(initial), UTF8ToString(hint), numeric !== 0);
@@ -161,48 +185,76 @@ void request_frames(int n) { g_pending_frames = std::max(g_pending_frames, n); }
 bool touch_input() { return g_touch; }
 
 // ---------------------------------------------------------------- storage
-std::optional<std::string> storage_read(const std::string& name) {
-  std::ifstream in(std::string(kPersistDir) + "/" + name, std::ios::binary);
-  if (!in) return std::nullopt;
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+// The journal in IndexedDB record by record: web_store.js. The records were read into one
+// store text before main() ran (a run dependency), so loading is synchronous here; each save
+// hands one change (store.hpp changes_to_text) to a readwrite transaction.
+namespace {
+bool g_legacy_import_pending = false;  // the first save copies the older IDBFS store in
+// The database held records when the app started and nothing was saved since: a first save
+// from an empty journal means the app could not read them (and kept a copy): replace them.
+bool g_store_had_records = false;
+std::string g_saved_app_part;          // the app part as last written
+}  // namespace
+
+std::optional<std::string> storage_read(const std::string&) { return std::nullopt; }
 
 bool storage_write(const std::string& name, const std::string& text, std::string* error) {
-  // A failed earlier copy into IndexedDB is reported now (the write below retries it).
-  char reason[512];
-  const bool earlier_failure = js_store_error(reason, sizeof reason) != 0;
-  if (earlier_failure && error) *error = reason;
-  const std::string path = std::string(kPersistDir) + "/" + name;
-  {
-    std::ofstream out(path + ".tmp", std::ios::binary | std::ios::trunc);
-    out << text;
-    if (!out.good()) {
-      if (error) *error = "could not write " + name + " in this browser's storage";
-      return false;
-    }
-  }
-  if (std::rename((path + ".tmp").c_str(), path.c_str()) != 0) {
-    if (error) *error = "could not replace " + name + " in this browser's storage";
-    return false;
-  }
-  js_flush_storage();  // FS.syncfs(false): copy /persist into IndexedDB now
-  return !earlier_failure;
+  if (js_keep_text(name.c_str(), text.c_str()) != 0) return true;
+  if (error) *error = "this browser's database is not open";
+  return false;
 }
 
 std::string storage_location() { return "this browser's storage (IndexedDB)"; }
 
-std::optional<StoreLoad> store_load(const std::string& name) {
-  auto text = storage_read(name);
+std::optional<StoreLoad> store_load(const std::string&) {
+  int legacy = 0;
+  char* text = js_take_loaded(&legacy);
   if (!text) return std::nullopt;
-  return StoreLoad{std::move(*text), false, ""};
+  g_store_had_records = js_store_had_records() != 0;
+  StoreLoad out{text, false, ""};
+  std::free(text);
+  if (legacy) {
+    g_legacy_import_pending = true;
+    out.first_save_needed = true;
+    out.notice = "Your data now lives in this browser's database record by record; the older copy is kept unchanged";
+  }
+  return out;
 }
 
-bool store_save(const std::string& name, const tw::journal::Journal&, const tw::journal::Journal&,
-                const std::function<std::string()>& full_text, const std::string&, bool* reload, std::string* error) {
-  if (reload) *reload = false;
-  return storage_write(name, full_text(), error);
+bool store_save(const std::string&, const tw::journal::Journal& saved, const tw::journal::Journal& now,
+                const std::function<std::string()>&, const std::string& app_part, bool* reload, std::string* error) {
+  if (reload) *reload = false;  // ids another tab took are moved in the transaction (web_store.js)
+  const tw::journal::JournalChanges changes = tw::journal::diff_journals(saved, now);
+  const bool app_changed = app_part != g_saved_app_part;
+  const bool replace_all = saved.systems.empty() && saved.events.empty() && g_store_had_records && !g_legacy_import_pending;
+  if (changes.empty() && !app_changed && !g_legacy_import_pending && !replace_all) return true;
+  auto doc = nlohmann::json::parse(changes_to_text(changes));
+  if (app_changed) doc["app"] = nlohmann::json::parse(app_part, nullptr, false);
+  if (g_legacy_import_pending) doc["legacy_import"] = true;
+  // The app started empty over records it could not read (a copy was kept): they go.
+  if (replace_all) doc["replace_all"] = true;
+  char reason[512];
+  if (js_store_write(doc.dump().c_str(), reason, sizeof reason) == 0) {
+    if (error) *error = reason;
+    return false;
+  }
+  g_saved_app_part = app_part;
+  g_legacy_import_pending = false;
+  g_store_had_records = false;
+  return true;
+}
+
+std::optional<StoreUpdate> poll_store_update() {
+  int kind = 0, is_error = 0;
+  char* text = js_take_update(&kind, &is_error);
+  if (!text) return std::nullopt;
+  StoreUpdate u;
+  u.kind = kind == 1 ? StoreUpdate::Kind::Records : kind == 2 ? StoreUpdate::Kind::Everything : StoreUpdate::Kind::Message;
+  u.text = text;
+  u.is_error = is_error != 0;
+  std::free(text);
+  request_frames(3);
+  return u;
 }
 
 // ---------------------------------------------------------------- files

@@ -1,38 +1,18 @@
 // Browser glue for platform_web.cpp, included into tidewright.js with --pre-js (runs inside
-// the Module scope, so FS and IDBFS are visible). Map:
-//   1. storage: IndexedDB mounted at /persist before main() runs
+// the Module scope). Map:
+//   1. storage: in web_store.js (IndexedDB, record by record); here only the tests' wait
 //   2. pointer: mouse, touch and pen as one queue (Emscripten 3.1.6's GLFW loses touch positions)
 //   3. redraw flag: any input or resize asks for a frame
 //   4. text entry overlay (a real <input>, so phones show their keyboard)
 //   5. files: download and file picker
 // Functions called from C++ hang off Module.tw.
 
-Module.tw = { dirty: true, events: [], x: -1, y: -1, down: false, touch: false, liftPending: false,
-  syncing: false, syncAgain: false, storeError: '' };
+Module.tw = { dirty: true, events: [], x: -1, y: -1, down: false, touch: false, liftPending: false };
 
 // ---------------------------------------------------------------- 1. storage
-Module.preRun = Module.preRun || [];
-Module.preRun.push(function () {
-  FS.mkdir('/persist');
-  FS.mount(IDBFS, {}, '/persist');
-  addRunDependency('tw-syncfs');
-  FS.syncfs(true, function (err) {
-    if (err) Module.tw.storeError = 'Could not read saved data from this browser: ' + err;
-    removeRunDependency('tw-syncfs');
-  });
-});
-
-Module.tw.flush = function () {
-  var tw = Module.tw;
-  if (tw.syncing) { tw.syncAgain = true; return; }
-  tw.syncing = true;
-  FS.syncfs(false, function (err) {
-    tw.syncing = false;
-    if (err) { tw.storeError = 'Could not save to this browser: ' + err; tw.dirty = true; }
-    if (tw.syncAgain) { tw.syncAgain = false; tw.flush(); }
-  });
-};
-Module.tw.flushing = function () { return Module.tw.syncing || Module.tw.syncAgain; };
+// The journal lives in IndexedDB record by record: web_store.js (Module.twStore). Tests wait
+// for its writes and re-reads with flushing().
+Module.tw.flushing = function () { return Module.twStore.pending > 0 || Module.twStore.rereading > 0; };
 
 // ---------------------------------------------------------------- 2. pointer
 (function () {

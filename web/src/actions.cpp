@@ -85,6 +85,31 @@ void save(AppState& app) {
   }
 }
 
+void apply_store_update(AppState& app, const platform::StoreUpdate& update) {
+  using Kind = platform::StoreUpdate::Kind;
+  if (update.kind == Kind::Message) {
+    if (update.is_error) app.store.save_error = update.text;
+    notify(app, update.text, update.is_error);
+    return;
+  }
+  if (update.kind == Kind::Everything) {
+    auto stored = store_from_text(update.text);
+    if (!stored) return;  // the next start reports it (and keeps a copy)
+    const Settings keep = app.settings;  // this tab's settings stay as they are
+    const jn::SystemId current = app.current_system;
+    adopt(app, std::move(stored).value());
+    app.settings = keep;
+    if (jn::find_system(app.journal, current)) app.current_system = current;
+  } else {
+    auto changes = changes_from_text(update.text);
+    if (!changes) return;
+    jn::apply_changes(app.journal, *changes);
+    if (!current_system(app)) app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
+    app.water_stale = true;
+  }
+  app.store.saved_journal = app.journal;
+}
+
 void start_app(AppState& app) {
   app.store.loaded = true;
   const auto loaded = platform::store_load(kStoreName);

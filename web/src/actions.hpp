@@ -8,6 +8,7 @@
 #include <string>
 
 #include "app_state.hpp"
+#include "platform.hpp"
 
 namespace twapp {
 
@@ -64,6 +65,9 @@ void load_demo(AppState& app);
 void export_all(AppState& app);
 void ask_import(AppState& app);
 bool import_text(AppState& app, const std::string& text);
+// Records another tab stored (or the store as a whole after a failed save) come into the
+// journal here; nothing is written back.
+void apply_store_update(AppState& app, const platform::StoreUpdate& update);
 
 // Saves the store now (called by the actions above).
 void save(AppState& app);

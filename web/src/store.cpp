@@ -126,6 +126,46 @@ tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
 }
 }  // namespace
 
+std::string changes_to_text(const jn::JournalChanges& c) {
+  json out = {{"schema_version", jn::kSchemaVersion}, {"first_new_id", c.first_new_id}, {"next_id", c.next_id},
+              {"systems_put", json::array()}, {"systems_removed", c.systems_removed},
+              {"events_put", json::array()}, {"events_removed", c.events_removed}};
+  for (const auto& s : c.systems_put) out["systems_put"].push_back(jn::system_to_json(s));
+  for (const auto& e : c.events_put) out["events_put"].push_back(jn::event_to_json(e));
+  if (c.description) out["description"] = *c.description;
+  return out.dump();
+}
+
+namespace {
+tw::Result<jn::JournalChanges> changes_from_json(const json& doc) {
+  jn::JournalChanges c;
+  if (!doc.is_object()) return tw::Error{"records", "the records read back are not a JSON object"};
+  for (const auto& j : doc.value("systems_put", json::array())) {
+    auto s = jn::system_from_json(j);
+    if (!s) return s.error();
+    c.systems_put.push_back(std::move(s).value());
+  }
+  for (const auto& j : doc.value("events_put", json::array())) {
+    auto e = jn::event_from_json(j);
+    if (!e) return e.error();
+    c.events_put.push_back(std::move(e).value());
+  }
+  c.systems_removed = doc.value("systems_removed", std::vector<jn::SystemId>{});
+  c.events_removed = doc.value("events_removed", std::vector<jn::EventId>{});
+  if (doc.contains("description") && doc["description"].is_string()) c.description = doc["description"].get<std::string>();
+  c.next_id = doc.value("next_id", std::int64_t{1});
+  return c;
+}
+}  // namespace
+
+tw::Result<jn::JournalChanges> changes_from_text(const std::string& text) {
+  try {
+    return changes_from_json(json::parse(text));
+  } catch (const nlohmann::json::exception& e) {
+    return tw::Error{"records", std::string("the records read back could not be read: ") + e.what()};
+  }
+}
+
 tw::Result<StoredApp> store_from_text(const std::string& text) {
   try {
     return store_from_text_unchecked(text);

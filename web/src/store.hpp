@@ -10,6 +10,7 @@
 
 #include "app_state.hpp"
 #include "tidewright/common/result.hpp"
+#include "tidewright/journal/journal_diff.hpp"
 
 namespace twapp {
 
@@ -27,5 +28,13 @@ struct StoredApp {
 std::string store_to_text(const AppState& app);
 std::string app_part_to_text(const AppState& app);  // the "app" member alone, JSON
 tw::Result<StoredApp> store_from_text(const std::string& text);
+
+// A change record by record, as JSON text: what the browser's database writes after a tap and
+// what another tab reads back (web_store.js). Records are the journal format's (journal_file.hpp):
+//   { "schema_version": 3, "first_new_id": N, "next_id": N, "systems_put": [system...],
+//     "systems_removed": [id...], "events_put": [event...], "events_removed": [id...],
+//     "description": "..." (when it changed) }
+std::string changes_to_text(const tw::journal::JournalChanges& changes);
+tw::Result<tw::journal::JournalChanges> changes_from_text(const std::string& text);
 
 }  // namespace twapp

@@ -356,6 +356,9 @@ Result<Event> read_event(const json& j, const std::string& path) {
 
 }  // namespace
 
+Result<System> system_from_json(const json& j) { return read_system(j, "system"); }
+Result<Event> event_from_json(const json& j) { return read_event(j, "event"); }
+
 // ---------------------------------------------------------------- 4. migration v1 -> v2
 Result<json> migrate_v1_to_v2(const json& v1) {
   json v2 = v1;

@@ -33,3 +33,41 @@ TEST_CASE("journal: diff_journals lists added, changed and removed records only"
   CHECK(c.description == std::optional<std::string>("farm"));
   CHECK(c.next_id == after.next_id);
 }
+
+TEST_CASE("journal: apply_changes brings a journal up to another's state, record by record") {
+  Journal before;
+  System s;
+  s.name = "Reef";
+  s.volume_l = 300;
+  REQUIRE(add_system(before, s).ok());
+  for (int i = 0; i < 6; ++i) REQUIRE(add_event(before, Event{0, 1, 1700000000 + 50 * i, "", Note{"n" + std::to_string(i)}}).ok());
+
+  Journal after = before;
+  REQUIRE(remove_event(after, 2).ok());
+  Event moved = *find_event(after, 5);
+  moved.time_s = 1699999000;  // edited to an earlier time: must move to the front
+  REQUIRE(update_event(after, moved).ok());
+  s.name = "Frag tank";
+  auto second = add_system(after, s);
+  REQUIRE(second.ok());
+  REQUIRE(add_event(after, Event{0, *second, 1700000010, "", Note{"first in the new tank"}}).ok());
+  after.description = "two tanks";
+
+  Journal applied = before;
+  apply_changes(applied, diff_journals(before, after));
+  CHECK(applied == after);
+
+  // Removing a system and its events, and a put of a record already there (a change seen twice).
+  Journal fewer = after;
+  REQUIRE(remove_system(fewer, *second, true).ok());
+  JournalChanges c = diff_journals(after, fewer);
+  apply_changes(applied, c);
+  apply_changes(applied, c);
+  CHECK(applied == fewer);
+
+  // next_id never goes back, even when the change was made from an older state.
+  JournalChanges old;
+  old.next_id = 2;
+  apply_changes(applied, old);
+  CHECK(applied.next_id == fewer.next_id);
+}

@@ -121,6 +121,26 @@ TEST_CASE("journal: JSON round trip is exact for random journals (seeded)") {
   }
 }
 
+TEST_CASE("journal: single records round trip (what the browser's database stores per record)") {
+  std::mt19937_64 rng(20261204);
+  for (int round = 0; round < 50; ++round) {
+    const Journal j = random_journal(rng);
+    for (const System& s : j.systems) {
+      auto back = system_from_json(system_to_json(s));
+      REQUIRE_MESSAGE(back.ok(), back.error().message);
+      CHECK(*back == s);
+    }
+    for (const Event& e : j.events) {
+      auto back = event_from_json(event_to_json(e));
+      REQUIRE_MESSAGE(back.ok(), back.error().message);
+      CHECK(*back == e);
+    }
+  }
+  auto bad = event_from_json(nlohmann::json{{"id", 1}, {"system_id", 1}, {"time", "yesterday"}, {"type", "note"}, {"text", "x"}});
+  REQUIRE_FALSE(bad.ok());
+  CHECK(bad.error().message.find("event") != std::string::npos);
+}
+
 TEST_CASE("journal: v1 files are migrated to v2") {
   // Version 1 (first draft format): no unit preferences, "salinity"/"temperature_c", integer
   // "time_s", pH without scale, no next_id.

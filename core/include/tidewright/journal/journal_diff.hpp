@@ -28,4 +28,10 @@ struct JournalChanges {
 // grow with the size of the journals (a hash of ids), not with their product.
 JournalChanges diff_journals(const Journal& before, const Journal& after);
 
+// The other way: a journal brought up to date with changes another copy of the app stored
+// (records put whole by id, removed by id; events kept in (time, id) order, systems in id
+// order; next_id never goes back). apply_changes(a, diff_journals(a, b)) makes a equal b. No
+// validation: the records come from a store that validated them when they were written.
+void apply_changes(Journal& journal, const JournalChanges& changes);
+
 }  // namespace tw::journal

@@ -43,5 +43,10 @@ Result<nlohmann::json> migrate_v2_to_v3(const nlohmann::json& v2);
 // Single records as JSON objects of the current version (for `tidewright log ... --json`).
 nlohmann::json system_to_json(const System& system);
 nlohmann::json event_to_json(const Event& event);
+// And back: one record of the current version, its fields checked as parse_journal checks
+// them, but not against a journal (the caller validates or trusts where it came from: the
+// browser's database holds records this app wrote). Errors name the field.
+Result<System> system_from_json(const nlohmann::json& j);
+Result<Event> event_from_json(const nlohmann::json& j);
 
 }  // namespace tw::journal
