@@ -26,6 +26,8 @@ struct BufferOptions {
   // water
   double salinity = 35.0, temperature_c = 20.0;
   std::string k1k2 = "lueker2000";
+  std::optional<double> calcium;  // measured; absent = from salinity
+  std::string calcium_unit = "mg/L";
   std::optional<double> alkalinity, dic, ph, pco2;
   std::string alkalinity_unit = "umol/kg", ph_scale;
   // target and limits
@@ -56,7 +58,7 @@ const std::vector<std::pair<std::string, std::string>> kFieldOptions = {
     {"stock_g_per_l", "--stock-g-per-l"}, {"stock_fraction_of_saturation", "--stock-saturation-fraction"},
     {"volume_l", "--volume"}, {"temperature_c", "--temperature"}, {"salinity", "--salinity"},
     {"alkalinity_umol_kg", "--alkalinity"}, {"flow", "--flow"}, {"step", "--step"}, {"to", "--to"},
-    {"ph", "--ph"}};
+    {"ph", "--ph"}, {"calcium_umol_kg", "--calcium"}};
 
 [[noreturn]] void fail(const Error& e) {
   std::string msg = e.message;
@@ -109,6 +111,11 @@ hy::Water water_of(const BufferOptions& o, bool table) {
   if (auto r = check_range("salinity", o.salinity, 2.0, 45.0, ""); !r) fail(r.error());
   if (auto r = check_range("temperature_c", o.temperature_c, -2.0, 40.0, "C"); !r) fail(r.error());
   const double density = seawater::density_kg_per_l(o.salinity, o.temperature_c);
+  if (o.calcium) {
+    auto unit = units::concentration_unit_from_string(o.calcium_unit);
+    if (!unit) throw CommandError("--calcium-unit: " + unit.error().message);
+    w.calcium_umol_kg = units::ion_to_umol_kg(*o.calcium, *unit, units::Ion::Calcium, density);
+  }
   auto m = readings(o, density);
   const bool ph_used = o.ph.has_value() || (table && o.vary == "ph");
   if (ph_used && o.ph_scale.empty()) throw CommandError("--ph-scale is required with a pH reading (total, sws, free or nbs)");
@@ -193,12 +200,13 @@ json treatment_json(const hy::Treatment& t) {
           {"dose_needed", t.dose_needed},
           {"carbonate_share_of_added_alkalinity", t.carbonate_share},
           {"added_alkalinity_umol_kg", t.dose.alkalinity_umol_kg()},
-          {"added_dic_umol_kg", t.dose.dic_umol_kg()}};
+          {"added_dic_umol_kg", t.dose.dic_umol_kg()},
+          {"calcium_source", t.calcium_source}};
 }
 
 std::string header_text(const hy::Water& w, const hy::Settings& s) {
-  return fmt::format("  water: salinity {:g}, {:g} C\n  target: {} {}; additive {}; pH ceiling {:.2f} ({} scale)\n",
-                     w.salinity, w.temperature_c,
+  return fmt::format("  water: salinity {:g}, {:g} C; K1 K2 {}\n  target: {} {}; additive {}; pH ceiling {:.2f} ({} scale)\n",
+                     w.salinity, w.temperature_c, cb::to_string(w.k1k2),
                      s.target.kind == hy::TargetKind::OmegaAragonite ? fmt::format("Omega ar {:.2f}", s.target.value)
                      : s.target.kind == hy::TargetKind::PH
                          ? fmt::format("pH {:.2f} ({} scale)", s.target.value, cb::to_string(s.target.ph_scale))
@@ -229,10 +237,14 @@ std::string chemistry_text(const hy::Treatment& t) {
   return out;
 }
 
-std::string notes_text(const std::vector<std::string>& warnings, const std::vector<std::string>& cautions) {
-  std::string out;
+std::string notes_text(const std::vector<std::string>& warnings, const std::vector<std::string>& cautions,
+                       const std::string& calcium_source) {
+  // Where calcium came from, always said; at low salinity the same sentence is also a warning.
+  std::string out = "\n  " + calcium_source + (calcium_source.find("measure calcium") != std::string::npos
+                                                   ? " (--calcium, in --calcium-unit)\n" : "\n");
   if (!warnings.empty()) out += "\nWarnings\n";
   for (const auto& w : warnings) {
+    if (w == calcium_source) continue;
     out += "  - " + w + "\n";
     // The core's suggestion of a K1 K2 set names no option: say which one chooses it here.
     if (w.find("is the set suggested for this water") != std::string::npos) out += "    (choose it with --k1k2 millero2010)\n";
@@ -278,7 +290,7 @@ void run_flow(const BufferOptions& o) {
     out += fmt::format("          metering pump {:.2f} mL/min ({:.1f} L of stock per day)\n", l.pump_ml_per_min,
                        l.stock_litres_per_day);
   }
-  out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions);
+  out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions, p.treatment.calcium_source);
   std::fwrite(out.data(), 1, out.size(), stdout);
 }
 
@@ -310,7 +322,7 @@ void run_batch(const BufferOptions& o) {
     out += fmt::format("  {:<7} {:10.2f} g  ({:.1f} umol/kg, {:.2f} mg/kg)\n", hy::formula_of(a.compound), a.grams,
                        a.umol_per_kg, a.grams * 1000.0 / p.water_mass_kg);
   }
-  out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions);
+  out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions, p.treatment.calcium_source);
   std::fwrite(out.data(), 1, out.size(), stdout);
 }
 
@@ -340,9 +352,11 @@ void run_table(const BufferOptions& o) {
     json stocks = json::object();
     for (size_t k = 0; k < t.columns.size(); ++k) stocks[hy::formula_of(t.columns[k])] = t.stock_g_per_l[k];
     out = json{{"mode", "table"}, {"flow_l_per_min", flow}, {"vary", o.vary}, {"stock_g_per_l", stocks},
-               {"rows", rows}, {"cautions", t.cautions}}.dump(2) + "\n";
+               {"rows", rows}, {"calcium_source", t.calcium_source}, {"cautions", t.cautions}}.dump(2) + "\n";
   } else {
     out = o.csv ? hy::pump_table_csv(t) : hy::pump_table_text(t);
+    // CSV has no place for it: where calcium came from goes to stderr.
+    if (o.csv) std::fprintf(stderr, "note: %s\n", t.calcium_source.c_str());
   }
   std::fwrite(out.data(), 1, out.size(), stdout);
 }
@@ -351,6 +365,8 @@ void add_common(CLI::App* c, BufferOptions& o) {
   c->add_option("--salinity", o.salinity, "Practical salinity of the water")->default_str("35");
   c->add_option("--temperature", o.temperature_c, "Water temperature [C]")->default_str("20");
   c->add_option("--k1k2", o.k1k2, "Carbonic acid constants: lueker2000, or millero2010 for brackish water (suggested below S 19)")->default_str("lueker2000");
+  c->add_option("--calcium", o.calcium, "Measured calcium, in --calcium-unit (default: from salinity by the seawater ratio, which under-reads estuarine intakes)");
+  c->add_option("--calcium-unit", o.calcium_unit, "mg/L, mmol/kg or umol/kg")->default_str("mg/L");
   c->add_option("--alkalinity", o.alkalinity, "Total alkalinity, in --alkalinity-unit");
   c->add_option("--alkalinity-unit", o.alkalinity_unit, "umol/kg, meq/L, dKH or mg/L CaCO3")->default_str("umol/kg");
   c->add_option("--ph", o.ph, "pH on the scale given by --ph-scale");

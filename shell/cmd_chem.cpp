@@ -95,6 +95,7 @@ nlohmann::json state_json(const carbonate::CarbonateState& s, const carbonate::C
           {"revelle_factor", s.revelle_factor},
           {"buffer_capacity_umol_kg_per_ph", s.buffer_capacity_umol_kg},
           {"iterations", s.iterations},
+          {"calcium_source", carbonate::calcium_source(c).note},
           {"warnings", s.warnings}};
 }
 
@@ -113,9 +114,15 @@ std::string state_text(const carbonate::CarbonateState& s, const carbonate::Cond
   fmt::format_to(put, "Species HCO3- {:.1f}, CO3-- {:.1f}, B(OH)4- {:.1f}, OH- {:.2f} umol/kg\n",
              s.hco3_umol_kg, s.co3_umol_kg, s.borate_umol_kg, s.hydroxide_umol_kg);
   fmt::format_to(put, "Omega   aragonite {:.3f}, calcite {:.3f}\n", s.omega_aragonite, s.omega_calcite);
+  // Where calcium came from; at low salinity the same sentence is among the warnings.
+  const carbonate::CalciumSource ca = carbonate::calcium_source(c);
+  if (!ca.low_salinity) fmt::format_to(put, "Note    {}\n", ca.note);
   fmt::format_to(put, "Buffer  Revelle factor {:.2f}, buffer capacity {:.1f} umol/kg per pH unit\n",
              s.revelle_factor, s.buffer_capacity_umol_kg);
-  for (const auto& w : s.warnings) fmt::format_to(put, "Warning {}\n", w);
+  for (const auto& w : s.warnings) {
+    fmt::format_to(put, "Warning {}\n", w);
+    if (w == ca.note) fmt::format_to(put, "        (give it with --calcium, in --calcium-unit)\n");
+  }
   return out;
 }
 

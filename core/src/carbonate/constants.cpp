@@ -171,6 +171,9 @@ Result<Constants> compute_constants(const Conditions& conditions) {
   k.ph_sws_minus_total = std::log10(k.sws_to_total);
   k.ph_nbs_minus_total = k.ph_sws_minus_total - std::log10(k.nbs_activity_coefficient);
 
+  k.calcium = calcium_source(conditions);
+  if (k.calcium.low_salinity) w.push_back(k.calcium.note);
+
   switch (conditions.k1k2) {
     case K1K2Option::Lueker2000:
       k.k1 = std::pow(10.0, -pk1_total_lueker2000(s, tk));

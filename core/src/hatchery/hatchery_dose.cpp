@@ -141,6 +141,7 @@ Result<Line> solve_intake(const Water& water) {
   c.salinity = water.salinity;
   c.temperature_c = water.temperature_c;
   c.k1k2 = water.k1k2;
+  c.calcium_umol_kg = water.calcium_umol_kg;
   auto k = cb::compute_constants(c);
   if (!k) return k.error();
   auto s = cb::solve(*k, water.measurements);
@@ -308,6 +309,7 @@ Treatment make_treatment(const detail::Line& line, const detail::Chain& chain,
   t.degassing_fraction = phi;
   t.dose = dose;
   t.warnings = line.constants.warnings;
+  t.calcium_source = line.constants.calcium.note;
   return t;
 }
 

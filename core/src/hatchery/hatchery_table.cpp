@@ -78,6 +78,13 @@ Result<PumpTable> build_pump_table(const Water& intake, double flow_l_per_min,
     t.stock_g_per_l.push_back(*g);
   }
   t.cautions = cautions_for(t.columns);
+  {
+    cb::Conditions c;
+    c.salinity = intake.salinity;
+    c.temperature_c = intake.temperature_c;
+    c.calcium_umol_kg = intake.calcium_umol_kg;
+    t.calcium_source = cb::calcium_source(c).note;
+  }
   const int n = static_cast<int>(n_real);
   for (int i = 0; i < n; ++i) {
     TableRow row;
@@ -155,6 +162,7 @@ std::string pump_table_text(const PumpTable& t) {
                      t.settings.target_point == TargetPoint::AtTanks ? "at the tanks" : "after mixing",
                      t.settings.limits.ph_ceiling, cb::to_string(t.settings.limits.ph_ceiling_scale),
                      to_string(t.settings.buffer));
+  out += fmt::format("  K1 K2 {}; {}\n", cb::to_string(t.fixed.k1k2), t.calcium_source);
   for (size_t k = 0; k < t.columns.size(); ++k) {
     out += fmt::format("  stock {}: {:.1f} g/L (anhydrous, made up to volume, kept at {:g} C)\n",
                        formula_of(t.columns[k]), t.stock_g_per_l[k], t.settings.stock.temperature_c);

@@ -92,6 +92,21 @@ struct K1K2Suggestion {
 };
 std::optional<K1K2Suggestion> suggest_k1k2(const Conditions& conditions);
 
+// Where the calcium of the saturation states comes from (calcium_source.cpp): measured, or
+// scaled from salinity by the seawater ratio (Riley & Tongudai 1967). `note` is a sentence for
+// the user; below salinity 30 it says how far the scaled value can be off in water mixed with
+// river water (and `low_salinity` is set, the note then also being a warning).
+struct CalciumSource {
+  bool measured = false;
+  bool low_salinity = false;
+  double calcium_umol_kg = 0;
+  std::string note;
+};
+CalciumSource calcium_source(const Conditions& conditions);
+// Share (relative to the salinity-scaled value) of calcium that salinity scaling misses in
+// water of salinity S mixed from seawater (S 35) and fresh water holding fresh_calcium_mg_kg.
+double calcium_scaling_missed_share(double salinity, double fresh_calcium_mg_kg);
+
 // Total concentrations used by the equilibria, mol/kg-soln.
 struct Totals {
   double boron = 0, sulfate = 0, fluoride = 0, calcium = 0, phosphate = 0, silicate = 0;
@@ -127,6 +142,7 @@ struct Constants {
   double ph_sws_minus_total = 0;    // log10(sws_to_total), about -0.01 at S 35, 25 C
   double ph_nbs_minus_total = 0;    // ph_sws_minus_total - log10(fH)
   std::optional<K1K2Suggestion> k1k2_suggestion;  // suggest_k1k2(conditions); its reason is also a warning
+  CalciumSource calcium;            // calcium_source(conditions); its note is a warning at low salinity
   std::vector<std::string> warnings;    // e.g. "temperature 38 C is outside the calibration range of Lueker et al. (2000), 2 to 35 C"
 };
 

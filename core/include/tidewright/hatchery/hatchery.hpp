@@ -66,6 +66,10 @@ struct Water {
   // Carbonic acid constants for this water: Lueker et al. (2000) by default; Millero (2010)
   // for brackish and estuarine intakes (carbonate::suggest_k1k2 says when, and why).
   carbonate::K1K2Option k1k2 = carbonate::K1K2Option::Lueker2000;
+  // Measured calcium (0..50000 umol/kg); absent = scaled from salinity by the seawater ratio,
+  // which under-reads estuarine and river-influenced intakes (Treatment::calcium_source says
+  // which was used and, at low salinity, by how much it can be off).
+  std::optional<double> calcium_umol_kg;
   carbonate::InputPair measurements{{carbonate::Quantity::Alkalinity, 2300.0},
                                     {carbonate::Quantity::PH, 8.0},
                                     carbonate::PhScale::Total};
@@ -130,6 +134,7 @@ struct Treatment {
   DoseMix dose;
   double carbonate_share = 1;              // blend: fraction of added TA from Na2CO3
   bool dose_needed = true;                 // false when the intake already meets the target
+  std::string calcium_source;              // carbonate::calcium_source(...).note
   std::vector<std::string> warnings;
 };
 
@@ -211,6 +216,7 @@ struct PumpTable {
   std::vector<Compound> columns;       // compounds that get a pump
   std::vector<double> stock_g_per_l;   // per column, fixed for the whole table
   std::vector<TableRow> rows;
+  std::string calcium_source;          // carbonate::calcium_source(...).note for the fixed water
   std::vector<std::string> cautions;
 };
 // `intake.measurements.first` is the varied reading (its value is ignored); the second is
