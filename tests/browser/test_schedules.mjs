@@ -4,7 +4,7 @@
 //    logged; the app moves the demo forward to today when it loads it); today's alkalinity test of 7.4 dKH is logged, then Demand shows no flag on
 //    it and the Plan starts from it (within kit precision) with no dose that overshoots the
 //    target band; the Plan's starting levels are the command line's (`tidewright plan
-//    --journal ... --json` on the same journal, the same core rule);
+//    --journal ... --json` on the same journal, the same core rule), and so are its limits;
 //  - "Adopt this plan" turns the plan into the pumps' schedules (shown on the Log screen), a
 //    schedule is changed and one stopped, a missed and an extra dose are logged against one.
 //   node test_schedules.mjs [site-dir]      (default ../../build/web/site)
@@ -77,7 +77,7 @@ function cliPlanStart(testEvent, shiftS) {
     const out = execFileSync(cli, ['plan', join(demo, 'demo_plan.json'), '--journal', db, '--system', 'Living room reef', '--json'],
                              { stdio: ['ignore', 'pipe', 'pipe'] }).toString();
     const plan = JSON.parse(out);
-    return { start: plan.days[0].start, basis: plan.basis };
+    return { start: plan.days[0].start, basis: plan.basis, limits: plan.limits };
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
@@ -116,6 +116,11 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     for (const k of ['alkalinity_dkh', 'calcium_mg_l', 'magnesium_mg_l']) {
       const tol = k === 'alkalinity_dkh' ? 0.01 : 0.1;  // the two read "now" a few seconds apart
       check(Math.abs(c.start[k] - s.plan.start[k]) <= tol, `${k}: app ${s.plan.start[k]}, command line ${c.start[k]}`);
+    }
+    // The same room kept in the limits for the estimates' uncertainty (defaults on both sides).
+    for (const k of ['alkalinity_rise_dkh_per_day', 'alkalinity_min_dkh', 'calcium_max_mg_l']) {
+      check(Math.abs(c.limits[k].value - s.plan.limits[k]) <= 0.01 * Math.abs(c.limits[k].value),
+            `${k}: app ${s.plan.limits[k]}, command line ${c.limits[k].value}`);
     }
     await reveal(page, 'plan.verdict');
     await shot(page, `${label}-plan`);

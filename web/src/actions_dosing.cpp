@@ -342,6 +342,14 @@ void refresh_plan(AppState& app) {
   in.system.magnesium_mg_l = mg_t;
   in.demand = pl::demand_from_per_litre(f.alkalinity_demand_dkh_per_day, f.calcium_demand_mg_l_per_day, 0,
                                         sys->volume_l);
+  // The limits first: the basis keeps room in them for the estimates' uncertainty.
+  auto limits = pl::make_limits(safety_limit_settings(app.settings));
+  if (!limits) {  // cannot happen for stored values (checked when set and when loaded)
+    out.error = "Safety limits: " + limits.error().message;
+    c = std::move(out);
+    return;
+  }
+  in.limits = std::move(limits).value();
   pl::BasisOptions bo;
   bo.series.until_s = platform::now_unix_seconds();
   bo.accept_stale = f.accept_stale;
@@ -410,13 +418,6 @@ void refresh_plan(AppState& app) {
     in.deliveries.push_back(pump(std::move(a).value(), "pump 2"));
   }
   in.horizon_days = std::clamp(f.horizon_days, 1, 60);
-  auto limits = pl::make_limits(safety_limit_settings(app.settings));
-  if (!limits) {  // cannot happen for stored values (checked when set and when loaded)
-    out.error = "Safety limits: " + limits.error().message;
-    c = std::move(out);
-    return;
-  }
-  in.limits = std::move(limits).value();
   const std::int64_t local_s = platform::now_unix_seconds() + 60LL * platform::utc_offset_minutes();
   const std::int64_t tomorrow = (local_s / 86400 + 1) * 86400;
   in.start_date = tw::datetime::format_date_utc(tomorrow);
