@@ -101,13 +101,18 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     const testDay = Date.parse(logged.time) / 86400000;
     check(Math.abs(alk.last_test_days - testDay) < 1e-6, `the newest test the estimate used is at ${alk.last_test_days}, not ${testDay}`);
     check(!alk.flagged_days.some((d) => Math.abs(d - testDay) < 1e-6), "today's test is flagged as an outlier");
-    check(Math.abs(alk.level - 7.4) <= 0.4, `Demand level ${alk.level} dKH, more than the kit's 0.4 from today's 7.4`);
+    // The level saw-tooths with the pump: one dose of the demo's soda-ash pump (47.5 mL of
+    // 80 g/L in 380 L, make_demo_journal.py) is about 0.53 dKH, so the estimate at a test taken
+    // just before a dose sits below a reading taken after one. Allowed: the kit's 95 % (0.4 dKH)
+    // plus one dose.
+    const near = 0.4 + 0.53;
+    check(Math.abs(alk.level - 7.4) <= near, `Demand level ${alk.level} dKH, more than ${near} from today's 7.4`);
     await shot(page, `${label}-demand`);
     await tap(page, 'tab.plan');
     s = await state(page);
     check(s.plan && s.plan.start, `no plan: ${JSON.stringify(s.plan_basis)}`);
     const start = s.plan.start.alkalinity_dkh;
-    check(Math.abs(start - 7.4) <= 0.4, `the plan starts at ${start} dKH, more than the kit's 0.4 from today's 7.4`);
+    check(Math.abs(start - 7.4) <= near, `the plan starts at ${start} dKH, more than ${near} from today's 7.4`);
     const high = s.plan.target_alkalinity_dkh + 0.5;
     check(s.plan.max_alkalinity_dkh <= high + 1e-6, `the plan takes alkalinity to ${s.plan.max_alkalinity_dkh} dKH, over the band's ${high}`);
     check(s.plan.check_ok, 'the independent check failed');

@@ -301,7 +301,14 @@ void refresh_plan(AppState& app) {
   const PlanForm& f = app.ui.dosing.plan;
   const DemandCache& dc = app.ui.dosing.demand_cache;
   PlanCache& c = app.ui.dosing.plan_cache;
-  if (c.valid && c.key == f && c.system == app.current_system && c.demand_computed == dc.computed_count &&
+  // Only what the plan is made from: the export format and "show every day" are not (a new
+  // plan at a later "now" would move the estimate's figures between the screen and its download).
+  const auto inputs_of = [](PlanForm form) {
+    form.export_index = 0;
+    form.show_all_days = false;
+    return form;
+  };
+  if (c.valid && inputs_of(c.key) == inputs_of(f) && c.system == app.current_system && c.demand_computed == dc.computed_count &&
       c.room_co2_ppm == app.settings.room_co2_ppm && c.safety_limits == app.settings.safety_limits) {
     return;
   }
