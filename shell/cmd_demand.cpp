@@ -78,7 +78,7 @@ SystemResult compute(const journal::Journal& j, const journal::System& sys, cons
     const auto i = static_cast<std::size_t>(p);
     const est::FilterOptions fo = est::default_filter_options(p);
     auto e = est::estimate_series(r.series.of(p), fo, r.now_days);
-    if (!e) throw CommandError(fmt::format("{} of '{}': {}", est::to_string(p), sys.name, e.error().message));
+    if (!e) throw CommandError(fmt::format("{} of '{}': {}", tw::parameter_name(p), sys.name, e.error().message));
     ParamResult pr{p, std::move(e).value(), 0.0, {}};
     // Current dosing: the running schedules, else the logged doses of the window.
     pr.dose_per_day = r.series.scheduled[i] ? r.series.scheduled_per_day[i]
@@ -97,7 +97,7 @@ SystemResult compute(const journal::Journal& j, const journal::System& sys, cons
 // ------------------------------------------------------------ JSON
 nlohmann::json param_json(const ParamResult& pr) {
   const est::SeriesEstimate& e = pr.e;
-  nlohmann::json j{{"unit", est::unit_of(pr.p)},
+  nlohmann::json j{{"unit", tw::parameter_unit(pr.p)},
                    {"tests", e.tests},
                    {"tests_used", e.tests_used},
                    {"demand_known", e.demand_known}};
@@ -152,7 +152,7 @@ nlohmann::json param_json(const ParamResult& pr) {
 
 nlohmann::json system_json(const SystemResult& r) {
   nlohmann::json params = nlohmann::json::object();
-  for (const auto& pr : r.params) params[est::to_string(pr.p)] = param_json(pr);
+  for (const auto& pr : r.params) params[tw::parameter_name(pr.p)] = param_json(pr);
   const auto& c = r.ratio;
   nlohmann::json ratio{{"verdict", est::to_string(c.verdict)},
                        {"expected_mg_l_per_dkh", c.expected_mg_l_per_dkh},
@@ -184,21 +184,21 @@ void print_system(const SystemResult& r, const DemandOptions& o) {
               static_cast<long long>(r.system->id), r.system->volume_l, when(r.now_days).c_str());
   for (const auto& pr : r.params) {
     const auto& e = pr.e;
-    const char* u = est::unit_of(pr.p);
+    const char* u = tw::parameter_unit(pr.p);
     const int d = decimals(pr.p);
     if (est::is_stale(e, r.now_days)) {
       std::printf("  %-10s  stale: the last test is %s, %.0f days ago, beyond the %.0f-day horizon; not estimated (test it)\n",
-                  est::to_string(pr.p), date_of(*e.last_test_days).c_str(), r.now_days - *e.last_test_days,
+                  tw::parameter_name(pr.p), date_of(*e.last_test_days).c_str(), r.now_days - *e.last_test_days,
                   est::useful_horizon_days(pr.p));
       continue;
     }
     if (!e.demand_known) {
       std::printf("  %-10s  not enough tests for a demand (%zu test%s; needs two usable on different days)\n",
-                  est::to_string(pr.p), e.tests, e.tests == 1 ? "" : "s");
+                  tw::parameter_name(pr.p), e.tests, e.tests == 1 ? "" : "s");
       continue;
     }
     std::printf("  %-10s  demand %s +/- %s %s/day (95 %%: %s to %s); level %s +/- %s %s; %zu tests, %zu used\n",
-                est::to_string(pr.p), fmt::format("{:.{}f}", e.demand_per_day, d + 1).c_str(),
+                tw::parameter_name(pr.p), fmt::format("{:.{}f}", e.demand_per_day, d + 1).c_str(),
                 fmt::format("{:.{}f}", e.demand_sd, d + 1).c_str(), u,
                 fmt::format("{:.{}f}", e.demand_low95, d + 1).c_str(),
                 fmt::format("{:.{}f}", e.demand_high95, d + 1).c_str(),
@@ -233,11 +233,11 @@ void print_system(const SystemResult& r, const DemandOptions& o) {
     std::printf("  Forecast with the current dosing continuing (schedules, else the doses logged in the last %g days: ",
                 o.dose_window_days);
     for (std::size_t i = 0; i < fc.size(); ++i)
-      std::printf("%s%s %+.*f %s/day", i ? ", " : "", est::to_string(fc[i]->p), decimals(fc[i]->p) + 1,
-                  fc[i]->dose_per_day, est::unit_of(fc[i]->p));
+      std::printf("%s%s %+.*f %s/day", i ? ", " : "", tw::parameter_name(fc[i]->p), decimals(fc[i]->p) + 1,
+                  fc[i]->dose_per_day, tw::parameter_unit(fc[i]->p));
     std::printf("; water changes not included), level and 95 %% band:\n");
     std::string line = fmt::format("    {:<4} {:<10}", "day", "date");
-    for (const auto* pr : fc) line += fmt::format(" {:<26}", fmt::format("{} {}", est::to_string(pr->p), est::unit_of(pr->p)));
+    for (const auto* pr : fc) line += fmt::format(" {:<26}", fmt::format("{} {}", tw::parameter_name(pr->p), tw::parameter_unit(pr->p)));
     print_trimmed(line);
     for (int k = 0; k < o.days; ++k) {
       line = fmt::format("    {:<4} {:<10}", k + 1, date_of(fc[0]->forecast[static_cast<std::size_t>(k)].time_days));

@@ -166,7 +166,7 @@ void run_add_test(const LogOptions& o) {
   auto st = open_for(o, Access::Write);
   const System sys = system_or_fail(*st, o.system);
   TestResult t;
-  t.parameter = or_fail(parameter_from_string(o.parameter));
+  t.parameter = or_fail(tw::parameter_from_name(o.parameter));
   t.other_name = o.other_name;
   if (!o.value) throw CommandError("--value is needed");
   t.value = *o.value;
@@ -176,7 +176,7 @@ void run_add_test(const LogOptions& o) {
     else if (t.parameter == Parameter::Calcium || t.parameter == Parameter::Magnesium)
       unit = units::to_string(sys.units.calcium_magnesium);
     else if (t.parameter == Parameter::Temperature) unit = to_string(sys.units.temperature);
-    else if (t.parameter != Parameter::Other) unit = canonical_unit(t.parameter);
+    else if (t.parameter != Parameter::Other) unit = tw::parameter_unit(t.parameter);
   }
   t.unit = or_fail(normalize_unit(t.parameter, unit));
   t.precision = o.precision;
@@ -238,7 +238,7 @@ void run_add_note(const LogOptions& o) {
 EventFilter filter_from(const LogOptions& o, const Store& st) {
   EventFilter f;
   if (!o.system.empty()) f.system_id = system_or_fail(st, o.system).id;
-  if (!o.parameter.empty()) f.parameter = or_fail(parameter_from_string(o.parameter));
+  if (!o.parameter.empty()) f.parameter = or_fail(tw::parameter_from_name(o.parameter));
   if (!o.from.empty()) f.from_s = or_fail(datetime::parse_datetime(o.from, time_options(o)));
   if (!o.to.empty()) {
     f.to_s = or_fail(datetime::parse_datetime(o.to, time_options(o)));

@@ -78,13 +78,13 @@ void run(const MixOptions& o) {
   }
   if (compounds.size() != 1) throw CommandError("--raise: a recipe for an effect takes exactly one --compound");
   const additives::Compound* c = compounds.front();
-  auto p = additives::parameter_from_string(o.parameter);
+  auto p = tw::dosed_parameter_from_name(o.parameter);
   if (!p) throw CommandError(p.error().message);
   auto r = additives::recipe_for_effect(c->id, {*p, o.raise, o.per_ml, o.in_l}, o.temperature_c);
   if (!r) throw CommandError(r.error().message);
   std::printf("%s: dissolve %.2f g per litre of finished solution (%s), so that %g mL raises %g L by %g %s\n",
               c->name.c_str(), r->grams_per_l, c->formula.c_str(), o.per_ml, o.in_l, o.raise,
-              additives::unit_of(*p));
+              tw::parameter_unit(*p));
   print_strength(r->strength);
   additives::Additive a = additives::additive_from_compound(c->id);
   for (const auto& line : additives::cautions_for(a)) std::printf("caution: %s\n", line.c_str());

@@ -33,7 +33,7 @@ std::string describe_system_line(const System& s) {
 namespace {
 std::string what(const EventData& data) {
   if (const auto* t = std::get_if<TestResult>(&data)) {
-    std::string name = t->parameter == Parameter::Other ? t->other_name : to_string(t->parameter);
+    std::string name = t->parameter == Parameter::Other ? t->other_name : tw::parameter_name(t->parameter);
     std::string s = fmt::format("test {} {:g} {}", name, t->value, t->unit);
     if (t->ph_scale) s += fmt::format(" ({} scale)", ph_scale_name(*t->ph_scale));
     if (t->precision) s += fmt::format(" (sd {:g})", *t->precision);

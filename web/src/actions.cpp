@@ -219,7 +219,7 @@ bool refuse_future(AppState& app, std::int64_t when_s) {
 
 std::string logged_text(const jn::EventData& data) {
   if (const auto* t = std::get_if<jn::TestResult>(&data)) {
-    return std::string(fmtx::parameter_label(t->parameter)) + " " + fmtx::fixed(t->value, 2) + " " + t->unit;
+    return std::string(tw::parameter_label(t->parameter)) + " " + fmtx::fixed(t->value, 2) + " " + t->unit;
   }
   if (std::holds_alternative<jn::Dose>(data)) return "the dose";
   if (std::holds_alternative<jn::WaterChange>(data)) return "the water change";

@@ -330,14 +330,14 @@ void refresh_plan(AppState& app) {
   in.system.name = sys->name;
   in.system.volume_l = sys->volume_l;
   in.system.air_co2_ppm = app.settings.room_co2_ppm;
-  // Targets: the system's own, with the band of the Demand screen (common practice).
+  // Targets: the system's own, with the parameter table's band (common/parameter.hpp).
   const pl::Targets defaults;
   const double alk_t = sys->targets.alkalinity_dkh.value_or(defaults.alkalinity_dkh.target);
   const double ca_t = sys->targets.calcium_mg_l.value_or(defaults.calcium_mg_l.target);
   const double mg_t = sys->targets.magnesium_mg_l.value_or(defaults.magnesium_mg_l.target);
-  in.targets.alkalinity_dkh = {alk_t, alk_t - 0.5, alk_t + 0.5};
-  in.targets.calcium_mg_l = {ca_t, ca_t - 20, ca_t + 20};
-  in.targets.magnesium_mg_l = {mg_t, mg_t - 50, mg_t + 50};
+  in.targets.alkalinity_dkh = tw::target_band(tw::Parameter::Alkalinity, alk_t);
+  in.targets.calcium_mg_l = tw::target_band(tw::Parameter::Calcium, ca_t);
+  in.targets.magnesium_mg_l = tw::target_band(tw::Parameter::Magnesium, mg_t);
   if (!sys->targets.alkalinity_dkh || !sys->targets.calcium_mg_l || !sys->targets.magnesium_mg_l) {
     out.assumptions.push_back("Targets the system does not set are taken as the planner's defaults.");
   }

@@ -95,22 +95,6 @@ double ph_on_scale(const tw::carbonate::CarbonateState& s, tw::carbonate::PhScal
   return s.ph_total;
 }
 
-const char* parameter_label(jn::Parameter p) {
-  switch (p) {
-    case jn::Parameter::Alkalinity: return "Alkalinity";
-    case jn::Parameter::Calcium: return "Calcium";
-    case jn::Parameter::Magnesium: return "Magnesium";
-    case jn::Parameter::PH: return "pH";
-    case jn::Parameter::Salinity: return "Salinity";
-    case jn::Parameter::SpecificGravity: return "Specific gravity";
-    case jn::Parameter::Temperature: return "Temperature";
-    case jn::Parameter::Nitrate: return "Nitrate";
-    case jn::Parameter::Phosphate: return "Phosphate";
-    case jn::Parameter::Other: return "Other";
-  }
-  return "?";
-}
-
 const char* system_kind_label(jn::SystemKind k) {
   switch (k) {
     case jn::SystemKind::ReefDisplay: return "Reef display";

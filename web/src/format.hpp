@@ -46,7 +46,6 @@ std::string volume_text(double litres, tw::units::VolumeUnit unit);
 const char* ph_scale_label(tw::carbonate::PhScale scale);  // "NBS", "total", "seawater", "free"
 double ph_on_scale(const tw::carbonate::CarbonateState& s, tw::carbonate::PhScale scale);
 
-const char* parameter_label(tw::journal::Parameter p);     // "Alkalinity", "pH", ...
 const char* system_kind_label(tw::journal::SystemKind k);  // "Reef display", ...
 
 // "2026-11-30 08:05" in local time (offset from UTC in minutes).

@@ -334,7 +334,7 @@ LogForm from_event(const jn::Event& e) {
 
 std::string event_text(const jn::Event& e, const jn::UnitPreferences& units) {
   if (const auto* t = std::get_if<jn::TestResult>(&e.data)) {
-    std::string s = std::string(fmtx::parameter_label(t->parameter)) + " " +
+    std::string s = std::string(tw::parameter_label(t->parameter)) + " " +
                     fmtx::fixed(t->value, decimals_for(t->parameter, t->unit));
     if (t->parameter == jn::Parameter::PH) return s + " (" + fmtx::ph_scale_label(t->ph_scale.value_or(cb::PhScale::NBS)) + ")";
     if (t->parameter == jn::Parameter::SpecificGravity) return s;  // a ratio: no unit

@@ -7,6 +7,8 @@
 #include <cmath>
 #include <string>
 
+#include <fmt/format.h>
+
 #include "actions.hpp"
 #include "actions_dosing.hpp"
 #include "chart_timeseries.hpp"
@@ -28,8 +30,8 @@ struct Shown {
   double factor = 1;  // shown per core unit
   std::string unit;
   int decimals = 1;
-  double band_half = 0;  // half-width of the target band, core units [common practice]
-  const char* band_text = "";
+  double band_half = 0;  // half-width of the target band, core units (common/parameter.hpp)
+  std::string band_text;
 };
 
 Shown shown_for(const AppState& app, est::Parameter p) {
@@ -41,28 +43,22 @@ Shown shown_for(const AppState& app, est::Parameter p) {
     s.factor = fmtx::alkalinity_from_dkh(1.0, u.alkalinity);
     s.unit = a.unit;
     s.decimals = a.decimals;
-    s.band_half = 0.5;
-    s.band_text = "target \u00b1 0.5 dKH";
   } else {
     const auto ion = p == est::Parameter::Calcium ? tw::units::Ion::Calcium : tw::units::Ion::Magnesium;
     s.factor = ion_shown(1.0, u.calcium_magnesium, ion);
     s.unit = tw::units::to_string(u.calcium_magnesium);
     s.decimals = ion_decimals(u.calcium_magnesium);
-    s.band_half = p == est::Parameter::Calcium ? 20 : 50;
-    s.band_text = p == est::Parameter::Calcium ? "target \u00b1 20 mg/L" : "target \u00b1 50 mg/L";
   }
+  const tw::ParameterInfo& info = tw::info_of(p);
+  s.band_half = info.band_half_width.value_or(0.0);
+  s.band_text = fmt::format("target \u00b1 {:g} {}", s.band_half, info.unit);
   return s;
 }
 
 std::optional<double> target_of(const AppState& app, est::Parameter p) {
   const auto* sys = current_system(app);
   if (!sys) return std::nullopt;
-  switch (p) {
-    case est::Parameter::Alkalinity: return sys->targets.alkalinity_dkh;
-    case est::Parameter::Calcium: return sys->targets.calcium_mg_l;
-    case est::Parameter::Magnesium: return sys->targets.magnesium_mg_l;
-  }
-  return std::nullopt;
+  return tw::journal::target_of(*sys, p);
 }
 
 std::string when(double t_days) {

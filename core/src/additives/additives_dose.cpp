@@ -10,25 +10,6 @@
 
 namespace tw::additives {
 
-const char* to_string(Parameter p) {
-  switch (p) {
-    case Parameter::Alkalinity: return "alkalinity";
-    case Parameter::Calcium: return "calcium";
-    case Parameter::Magnesium: return "magnesium";
-  }
-  return "?";
-}
-
-const char* unit_of(Parameter p) { return p == Parameter::Alkalinity ? "dKH" : "mg/L"; }
-
-Result<Parameter> parameter_from_string(const std::string& text) {
-  if (text == "alkalinity" || text == "alk") return Parameter::Alkalinity;
-  if (text == "calcium" || text == "ca") return Parameter::Calcium;
-  if (text == "magnesium" || text == "mg") return Parameter::Magnesium;
-  return Error{"parameter", fmt::format("parameter \"{}\" is unknown; accepted: alkalinity, calcium, magnesium",
-                                        text)};
-}
-
 const char* to_string(DoseUnit unit) { return unit == DoseUnit::Gram ? "g" : "mL"; }
 
 // Per-litre change in `volume_l` litres. Alkalinity: eq -> meq/L -> dKH with
@@ -56,6 +37,7 @@ double rise_of(Parameter p, const ChemicalChange& c, double volume_l) {
     case Parameter::Alkalinity: return l.alkalinity_dkh;
     case Parameter::Calcium: return l.calcium_mg_l;
     case Parameter::Magnesium: return l.magnesium_mg_l;
+    default: break;  // not a dosed parameter
   }
   return 0.0;
 }
@@ -65,6 +47,7 @@ double amount_for_rise(Parameter p, double rise, double volume_l) {
     case Parameter::Alkalinity: return rise * units::kMeqPerLPerDKH * volume_l / 1000.0;
     case Parameter::Calcium: return rise * volume_l / 1000.0 / atomic_weight_iupac(Element::Ca);
     case Parameter::Magnesium: return rise * volume_l / 1000.0 / atomic_weight_iupac(Element::Mg);
+    default: break;  // not a dosed parameter
   }
   return 0.0;
 }
@@ -75,6 +58,7 @@ double per_mole_of(Parameter p, const ChemicalChange& c) {
     case Parameter::Alkalinity: return c.alkalinity_eq;
     case Parameter::Calcium: return c.calcium_mol;
     case Parameter::Magnesium: return c.magnesium_mol;
+    default: break;  // not a dosed parameter
   }
   return 0.0;
 }
@@ -84,11 +68,12 @@ double per_mole_of(Parameter p, const ChemicalChange& c) {
 // 3.00 g, Na2CO3 1.89 g, NaOH 1.43 g, Ca(OH)2 1.32 g; per 100 L and 10 mg/L Ca CaCl2.2H2O 3.67 g.
 Result<double> grams_for_rise(CompoundId id, Parameter p, double rise, double volume_l) {
   if (auto s = check_range("volume_l", volume_l, 0.1, 1.0e7, "L"); !s) return s.error();
-  if (auto s = check_range("rise", rise, 0.0, 1.0e4, unit_of(p)); !s) return s.error();
+  if (!is_dosed(p)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
+  if (auto s = check_range("rise", rise, 0.0, 1.0e4, parameter_unit(p)); !s) return s.error();
   const Compound& c = compound(id);
   const double per_mole = per_mole_of(p, c.per_mole);
   if (per_mole <= 0) {
-    return Error{"compound", fmt::format("{} does not raise {}", c.key, to_string(p))};
+    return Error{"compound", fmt::format("{} does not raise {}", c.key, parameter_name(p))};
   }
   return amount_for_rise(p, rise, volume_l) / per_mole * c.molar_mass_g_mol();
 }

@@ -141,7 +141,8 @@ Result<StockStrength> stock_strength(const StockRecipe& recipe) {
 }
 
 Result<RecipeForEffect> recipe_for_effect(CompoundId id, const TargetEffect& target, double temperature_c) {
-  if (auto s = check_range("rise", target.rise, 1e-6, 1000.0, unit_of(target.parameter)); !s) return s.error();
+  if (!is_dosed(target.parameter)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
+  if (auto s = check_range("rise", target.rise, 1e-6, 1000.0, parameter_unit(target.parameter)); !s) return s.error();
   if (auto s = check_range("dose_ml", target.dose_ml, 0.01, 10000.0, "mL"); !s) return s.error();
   if (auto s = check_range("tank_volume_l", target.tank_volume_l, 0.1, 1.0e7, "L"); !s) return s.error();
   // Grams of compound per dose = grams for the rise in the tank; per litre of stock = /dose_ml*1000.
@@ -166,9 +167,9 @@ Result<RecipeForEffect> recipe_for_effect(CompoundId id, const TargetEffect& tar
     const double max_rise = target.rise * lo / grams_per_l;
     return Error{"rise", fmt::format("rise {:g} {} per {:g} mL in {:g} L needs {:.0f} g/L of {}, over its solubility "
                                      "at {:g} C (accepted: rise up to {:.3g} {} for that dose, or a larger dose)",
-                                     target.rise, unit_of(target.parameter), target.dose_ml, target.tank_volume_l,
+                                     target.rise, parameter_unit(target.parameter), target.dose_ml, target.tank_volume_l,
                                      grams_per_l, compound(id).formula, temperature_c, max_rise,
-                                     unit_of(target.parameter))};
+                                     parameter_unit(target.parameter))};
   }
   return RecipeForEffect{id, grams_per_l, *strength};
 }
@@ -179,7 +180,8 @@ Result<RecipeForEffect> recipe_for_effect(CompoundId id, const TargetEffect& tar
 Result<StockStrength> strength_from_label(const LabelClaim& claim) {
   if (auto s = check_range("dose_ml", claim.dose_ml, 0.01, 10000.0, "mL"); !s) return s.error();
   if (auto s = check_range("tank_volume_l", claim.tank_volume_l, 0.1, 1.0e7, "L"); !s) return s.error();
-  if (auto s = check_range("rise", claim.rise, 1e-6, 1000.0, unit_of(claim.parameter)); !s) return s.error();
+  if (!is_dosed(claim.parameter)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
+  if (auto s = check_range("rise", claim.rise, 1e-6, 1000.0, parameter_unit(claim.parameter)); !s) return s.error();
   if (auto s = check_range("dic_per_alkalinity_eq", claim.dic_per_alkalinity_eq, 0.0, 1.0, "mol/eq"); !s) {
     return s.error();
   }
@@ -204,6 +206,7 @@ Result<StockStrength> strength_from_label(const LabelClaim& claim) {
       out.per_ml.chloride_mol = 2 * amount_per_ml;
       out.notes.push_back("assumed magnesium chloride");
       break;
+    default: break;  // not a dosed parameter
   }
   // Stronger than any solution of these salts can be: the label or its entry is wrong.
   const double limit = claim.parameter == Parameter::Alkalinity ? 20e-3 : 10e-3;  // eq or mol per mL

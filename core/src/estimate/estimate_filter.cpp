@@ -140,12 +140,12 @@ Disagreement describe_disagreement(Parameter p, double t, double reading, double
   d.z = expected_sd > 0.0 ? d.difference / expected_sd : 0.0;
   d.days_without_logged_dosing = silent_days;
   d.beyond_unlogged_allowance = beyond;
-  const char* unit = unit_of(p);
+  const char* unit = parameter_unit(p);
   const bool high = d.difference > 0.0;
   std::string reasons = fmt::format(
       "The newest {} test reads {:.4g} {}, {:.3g} {} {} than the {:.4g} +/- {:.2g} the log alone "
       "predicts ({:.1f} sd). Likely reasons: ",
-      to_string(p), reading, unit, std::fabs(d.difference), unit, high ? "higher" : "lower", expected,
+      parameter_name(p), reading, unit, std::fabs(d.difference), unit, high ? "higher" : "lower", expected,
       expected_sd, std::fabs(d.z));
   if (silent_days > 0.0) {
     reasons += fmt::format(
@@ -171,7 +171,7 @@ std::string flag_reason(Parameter p, double z_reading, double expected, double e
       "reads {:.4g} {} but {:.4g} +/- {:.2g} was expected from the earlier tests and logged "
       "inputs: {:.1f} sd {}, beyond the {:.1f} sd limit; kept in the log, left out of the "
       "estimate (a misreading, a kit error or an unlogged event?)",
-      z_reading, unit_of(p), expected, expected_sd, std::fabs(z), z > 0 ? "high" : "low", limit);
+      z_reading, parameter_unit(p), expected, expected_sd, std::fabs(z), z > 0 ? "high" : "low", limit);
 }
 
 }  // namespace
@@ -381,17 +381,6 @@ Result<SeriesEstimate> estimate_series(const Series& series, const FilterOptions
 // ------------------------------------------------------------ names, defaults, option checks
 namespace tw::estimate {
 
-const char* to_string(Parameter p) {
-  switch (p) {
-    case Parameter::Alkalinity: return "alkalinity";
-    case Parameter::Calcium: return "calcium";
-    case Parameter::Magnesium: return "magnesium";
-  }
-  return "?";
-}
-
-const char* unit_of(Parameter p) { return p == Parameter::Alkalinity ? "dKH" : "mg/L"; }
-
 double useful_horizon_days(Parameter p) {
   switch (p) {
     case Parameter::Alkalinity: return 14.0;
@@ -423,6 +412,7 @@ FilterOptions default_filter_options(Parameter p) {
       o.level_noise_sd_per_sqrt_day = 0.5;
       o.prior_demand_sd = 100.0;
       break;
+    default: break;  // not a dosed parameter: the estimate tracks only the three above
   }
   return o;
 }

@@ -118,7 +118,7 @@ Result<std::vector<ForecastPoint>> forecast_levels(const SeriesEstimate& e,
   if (auto s = check_options(options); !s) return s.error();
   if (auto s = check_range("days", days, 1, 3650, "days"); !s) return s.error();
   if (auto s = check_range("daily_dose_effect", daily_dose_effect_per_day, -1e4, 1e4,
-                           std::string(unit_of(e.parameter)) + "/day");
+                           std::string(parameter_unit(e.parameter)) + "/day");
       !s)
     return s.error();
   const double qd = options.demand_noise_sd_per_sqrt_day * options.demand_noise_sd_per_sqrt_day;

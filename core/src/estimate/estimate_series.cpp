@@ -16,24 +16,6 @@ namespace {
 
 constexpr double kSecondsPerDay = 86400.0;
 
-std::optional<Parameter> estimate_parameter(journal::Parameter p) {
-  switch (p) {
-    case journal::Parameter::Alkalinity: return Parameter::Alkalinity;
-    case journal::Parameter::Calcium: return Parameter::Calcium;
-    case journal::Parameter::Magnesium: return Parameter::Magnesium;
-    default: return std::nullopt;
-  }
-}
-
-additives::Parameter additive_parameter(Parameter p) {
-  switch (p) {
-    case Parameter::Alkalinity: return additives::Parameter::Alkalinity;
-    case Parameter::Calcium: return additives::Parameter::Calcium;
-    case Parameter::Magnesium: return additives::Parameter::Magnesium;
-  }
-  return additives::Parameter::Alkalinity;
-}
-
 std::size_t index_of(Parameter p) { return static_cast<std::size_t>(p); }
 
 Series& series_of(SystemSeries& s, Parameter p) {
@@ -41,6 +23,7 @@ Series& series_of(SystemSeries& s, Parameter p) {
     case Parameter::Alkalinity: return s.alkalinity;
     case Parameter::Calcium: return s.calcium;
     case Parameter::Magnesium: return s.magnesium;
+    default: break;  // only the dosed parameters reach here
   }
   return s.alkalinity;
 }
@@ -50,7 +33,7 @@ Series& series_of(SystemSeries& s, Parameter p) {
 void add_change(SystemSeries& out, double t, const additives::ChemicalChange& c,
                 std::vector<std::pair<double, double>>* logged = nullptr) {
   for (Parameter p : kAllParameters) {
-    const double rise = additives::rise_of(additive_parameter(p), c, out.volume_l);
+    const double rise = additives::rise_of(p, c, out.volume_l);
     if (rise != 0.0 && std::isfinite(rise)) {
       series_of(out, p).events.push_back(Addition{t, rise, 0.0});
       if (logged) logged[index_of(p)].push_back({t, rise});
@@ -90,15 +73,7 @@ std::optional<double> new_water_value(const journal::WaterChange& w, Parameter p
     case Parameter::Alkalinity: return w.alkalinity_dkh;
     case Parameter::Calcium: return w.calcium_mg_l;
     case Parameter::Magnesium: return w.magnesium_mg_l;
-  }
-  return std::nullopt;
-}
-
-std::optional<double> target_of(const journal::System& s, Parameter p) {
-  switch (p) {
-    case Parameter::Alkalinity: return s.targets.alkalinity_dkh;
-    case Parameter::Calcium: return s.targets.calcium_mg_l;
-    case Parameter::Magnesium: return s.targets.magnesium_mg_l;
+    default: break;
   }
   return std::nullopt;
 }
@@ -169,6 +144,7 @@ const Series& SystemSeries::of(Parameter p) const {
     case Parameter::Alkalinity: return alkalinity;
     case Parameter::Calcium: return calcium;
     case Parameter::Magnesium: return magnesium;
+    default: break;  // not a dosed parameter
   }
   return alkalinity;
 }
@@ -195,17 +171,17 @@ Result<SystemSeries> series_from_journal(const journal::Journal& journal, journa
     // The time as text only for a note (formatting it for every event cost ~5 % of a demand run).
     auto when = [&] { return datetime::format_iso8601_utc(ev->time_s); };
     if (const auto* test = std::get_if<journal::TestResult>(&ev->data)) {
-      const auto p = estimate_parameter(test->parameter);
-      if (!p) continue;
+      if (!is_dosed(test->parameter)) continue;
+      const Parameter p = test->parameter;
       auto value = journal::canonical_value(*test);
       if (!value) {
-        out.notes.push_back(fmt::format("{} {} test left out: {}", when(), to_string(*p),
+        out.notes.push_back(fmt::format("{} {} test left out: {}", when(), parameter_name(p),
                                         value.error().message));
         continue;
       }
       auto sigma = journal::canonical_precision(*test);
-      if (!sigma || !(*sigma > 0.0)) sigma = journal::typical_precision(test->parameter);
-      series_of(out, *p).events.push_back(Measurement{t, *value, sigma.value_or(1.0)});
+      if (!sigma || !(*sigma > 0.0)) sigma = info_of(test->parameter).typical_precision;
+      series_of(out, p).events.push_back(Measurement{t, *value, sigma.value_or(1.0)});
     } else if (const auto* dose = std::get_if<journal::Dose>(&ev->data)) {
       if (dose->mark == journal::ScheduleMark::Missed) continue;  // taken off its schedule below
       journal::Dose counted = *dose;
@@ -247,17 +223,17 @@ Result<SystemSeries> series_from_journal(const journal::Journal& journal, journa
       for (Parameter p : kAllParameters) {
         if (auto v = new_water_value(*wc, p)) {
           series_of(out, p).events.push_back(Dilution{t, f, *v, 0.0});
-        } else if (auto target = target_of(*sys, p)) {
+        } else if (auto target = journal::target_of(*sys, p)) {
           series_of(out, p).events.push_back(
               Dilution{t, f, *target, options.new_water_unknown_sd[index_of(p)]});
           out.notes.push_back(fmt::format(
               "{} water change: new water's {} not logged; taken as the target {:g} {} +/- {:g}",
-              when(), to_string(p), *target, unit_of(p), options.new_water_unknown_sd[index_of(p)]));
+              when(), parameter_name(p), *target, parameter_unit(p), options.new_water_unknown_sd[index_of(p)]));
         } else {
           out.notes.push_back(fmt::format(
               "{} water change: new water's {} not logged and no target set; left out of the {} "
               "estimate",
-              when(), to_string(p), to_string(p)));
+              when(), parameter_name(p), parameter_name(p)));
         }
       }
     }
@@ -276,7 +252,7 @@ Result<SystemSeries> series_from_journal(const journal::Journal& journal, journa
     }
     const bool running_at_end = se->time_s <= end_s && (!sched.stop_time_s || *sched.stop_time_s > end_s);
     for (Parameter p : kAllParameters) {
-      const double rise = additives::rise_of(additive_parameter(p), *per_dose, out.volume_l);
+      const double rise = additives::rise_of(p, *per_dose, out.volume_l);
       if (rise == 0.0 || !std::isfinite(rise)) continue;
       const double from = static_cast<double>(se->time_s) / kSecondsPerDay;
       const double to = sched.stop_time_s ? static_cast<double>(*sched.stop_time_s) / kSecondsPerDay : kOpenEnd;

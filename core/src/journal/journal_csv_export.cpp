@@ -49,7 +49,7 @@ std::string export_csv(const Journal& journal, const EventFilter& filter) {
     c[kSystem] = sys ? sys->name : std::to_string(e->system_id);
     c[kType] = event_type_name(e->data);
     if (const auto* t = std::get_if<TestResult>(&e->data)) {
-      c[kParameter] = to_string(t->parameter);
+      c[kParameter] = tw::parameter_name(t->parameter);
       c[kOtherName] = t->other_name;
       c[kValue] = num(t->value);
       c[kUnit] = t->unit;

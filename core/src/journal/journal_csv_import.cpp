@@ -101,13 +101,13 @@ std::string default_unit(const System& sys, Parameter p) {
     case Parameter::Magnesium: return units::to_string(sys.units.calcium_magnesium);
     case Parameter::Temperature: return to_string(sys.units.temperature);
     case Parameter::Other: return "";
-    default: return canonical_unit(p);
+    default: return parameter_unit(p);
   }
 }
 
 Result<EventData> long_test(const RowReader& r, const System& sys) {
   TestResult t;
-  TW_ROW_TRY(p, parameter_from_string(r.get("parameter")));
+  TW_ROW_TRY(p, parameter_from_name(r.get("parameter")));
   t.parameter = p;
   if (p == Parameter::Other) t.other_name = r.get("other_name");
   TW_ROW_TRY(value, r.required_number("value"));

@@ -55,7 +55,7 @@ json event_to_json(const Event& e) {
   if (!e.time_text.empty()) j["time_text"] = e.time_text;
   j["type"] = event_type_name(e.data);
   if (const auto* t = std::get_if<TestResult>(&e.data)) {
-    j["parameter"] = to_string(t->parameter);
+    j["parameter"] = tw::parameter_name(t->parameter);
     if (!t->other_name.empty()) j["other_name"] = t->other_name;
     j["value"] = t->value;
     j["unit"] = t->unit;
@@ -229,7 +229,7 @@ Result<EventData> read_payload(const json& j, const std::string& path, const std
   if (type == "test") {
     TestResult t;
     TW_TRY(p_text, get_string(j, path, "parameter"));
-    TW_TRY_NAME(p, parameter_from_string(p_text), path);
+    TW_TRY_NAME(p, parameter_from_name(p_text), path);
     TW_TRY(other, get_string(j, path, "other_name", false));
     TW_TRY(value, get_number(j, path, "value"));
     TW_TRY(unit, get_string(j, path, "unit"));

@@ -116,8 +116,8 @@ Status validate_test(const TestResult& t) {
             : fmt::format("{:g} {} ({:g} {})", t.value, t.unit, canon, r.unit);
     return Error{"value", fmt::format("{} {} is outside the accepted range {:g} to {:g} {} "
                                       "(plausible range, common practice)",
-                                      to_string(t.parameter), shown, r.lo, r.hi,
-                                      t.parameter == Parameter::Other ? "" : canonical_unit(t.parameter))};
+                                      tw::parameter_name(t.parameter), shown, r.lo, r.hi,
+                                      t.parameter == Parameter::Other ? "" : parameter_unit(t.parameter))};
   }
   if (t.precision) {
     const double span = (r.hi - r.lo) / 2.0;

@@ -51,40 +51,6 @@ Result<TemperatureUnit> temperature_unit_from_string(const std::string& text) {
   return Error{"temperature unit", "temperature unit '" + text + "' is not known; accepted: C, F"};
 }
 
-const char* to_string(Parameter p) {
-  switch (p) {
-    case Parameter::Alkalinity: return "alkalinity";
-    case Parameter::Calcium: return "calcium";
-    case Parameter::Magnesium: return "magnesium";
-    case Parameter::PH: return "ph";
-    case Parameter::Salinity: return "salinity";
-    case Parameter::SpecificGravity: return "specific_gravity";
-    case Parameter::Temperature: return "temperature";
-    case Parameter::Nitrate: return "nitrate";
-    case Parameter::Phosphate: return "phosphate";
-    case Parameter::Other: return "other";
-  }
-  return "other";
-}
-
-Result<Parameter> parameter_from_string(const std::string& text) {
-  const std::string t = lower_trim(text);
-  if (t == "alkalinity" || t == "alk" || t == "kh") return Parameter::Alkalinity;
-  if (t == "calcium" || t == "ca") return Parameter::Calcium;
-  if (t == "magnesium" || t == "mg") return Parameter::Magnesium;
-  if (t == "ph") return Parameter::PH;
-  if (t == "salinity" || t == "sal") return Parameter::Salinity;
-  if (t == "specific_gravity" || t == "sg") return Parameter::SpecificGravity;
-  if (t == "temperature" || t == "temp") return Parameter::Temperature;
-  if (t == "nitrate" || t == "no3") return Parameter::Nitrate;
-  if (t == "phosphate" || t == "po4") return Parameter::Phosphate;
-  if (t == "other") return Parameter::Other;
-  return Error{"parameter", "parameter '" + text +
-                                "' is not known; accepted: alkalinity, calcium, magnesium, ph, "
-                                "salinity, specific_gravity, temperature, nitrate, phosphate, "
-                                "other"};
-}
-
 const char* ph_scale_name(carbonate::PhScale scale) {
   switch (scale) {
     case carbonate::PhScale::Total: return "total";
@@ -156,26 +122,19 @@ double net_volume_l(const VolumeParts& parts) {
   return parts.display_l + parts.sump_l - parts.rock_displacement_l;
 }
 
-const char* canonical_unit(Parameter p) {
+std::optional<double> target_of(const System& s, Parameter p) {
   switch (p) {
-    case Parameter::Alkalinity: return "dKH";
-    case Parameter::Calcium:
-    case Parameter::Magnesium:
-    case Parameter::Nitrate:
-    case Parameter::Phosphate: return "mg/L";
-    case Parameter::PH: return "pH";
-    case Parameter::Salinity: return "psu";
-    case Parameter::SpecificGravity: return "sg";
-    case Parameter::Temperature: return "C";
-    case Parameter::Other: return "";
+    case Parameter::Alkalinity: return s.targets.alkalinity_dkh;
+    case Parameter::Calcium: return s.targets.calcium_mg_l;
+    case Parameter::Magnesium: return s.targets.magnesium_mg_l;
+    default: return std::nullopt;
   }
-  return "";
 }
 
 Result<std::string> normalize_unit(Parameter p, const std::string& unit) {
   const std::string t = lower_trim(unit);
   auto bad = [&](const char* accepted) {
-    return Error{"unit", std::string("unit '") + unit + "' is not accepted for " + to_string(p) +
+    return Error{"unit", std::string("unit '") + unit + "' is not accepted for " + parameter_name(p) +
                              "; accepted: " + accepted};
   };
   switch (p) {
@@ -256,22 +215,6 @@ std::optional<double> canonical_precision(const TestResult& test, double density
   auto one = canonical_value(test.parameter, 1.0, test.unit, density_kg_per_l);
   if (!one) return std::nullopt;
   return *test.precision * std::fabs(*one);
-}
-
-std::optional<double> typical_precision(Parameter p) {
-  switch (p) {
-    case Parameter::Alkalinity: return 0.2;
-    case Parameter::Calcium: return 10.0;
-    case Parameter::Magnesium: return 25.0;
-    case Parameter::PH: return 0.05;
-    case Parameter::Salinity: return 0.5;
-    case Parameter::SpecificGravity: return 0.0005;
-    case Parameter::Temperature: return 0.2;
-    case Parameter::Nitrate: return 1.0;
-    case Parameter::Phosphate: return 0.02;
-    case Parameter::Other: return std::nullopt;
-  }
-  return std::nullopt;
 }
 
 }  // namespace tw::journal

@@ -108,12 +108,12 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
   std::optional<JournalLevel>* slot[3] = {&b.alkalinity_dkh, &b.calcium_mg_l, &b.magnesium_mg_l};
   for (estimate::Parameter p : estimate::kAllParameters) {
     const int i = static_cast<int>(p);
-    const char* name = estimate::to_string(p);
-    const char* unit = estimate::unit_of(p);
+    const char* name = parameter_name(p);
+    const char* unit = parameter_unit(p);
     auto e = estimate::estimate_series(series->of(p), estimate::default_filter_options(p), now_days);
     if (!e) return e.error();
     if (e->tests_used == 0 || e->history.empty()) continue;
-    const int dp0 = p == estimate::Parameter::Alkalinity ? 2 : 0;
+    const int dp0 = info_of(p).decimals;
     if (now_days && e->last_test_days) {
       const double age = *now_days - *e->last_test_days;
       const std::string when = date_of_days(*e->last_test_days);
@@ -121,10 +121,7 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
       if (estimate::is_stale(*e, *now_days)) {
         why = fmt::format("its last test ({}, {:.0f} days ago) is older than the {:.0f}-day horizon", when, age,
                           estimate::useful_horizon_days(p));
-      } else if (e->unknown_dosing_level_sd > journal::typical_precision(
-                     p == estimate::Parameter::Alkalinity ? journal::Parameter::Alkalinity
-                     : p == estimate::Parameter::Calcium ? journal::Parameter::Calcium
-                                                         : journal::Parameter::Magnesium).value_or(0.2)) {
+      } else if (e->unknown_dosing_level_sd > info_of(p).typical_precision.value_or(0.2)) {
         why = fmt::format("doses since its last test ({}) are not in the log and no schedule covers them, so today's "
                           "level could be {:.{}f} {} off either way",
                           when, e->unknown_dosing_level_sd, dp0, unit);
@@ -150,7 +147,7 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
     l.demand_low95 = e->demand_low95;
     l.demand_high95 = e->demand_high95;
     l.last_test_date = date_of_days(e->history.back().time_days);
-    const int dp = p == estimate::Parameter::Alkalinity ? 2 : 0;
+    const int dp = info_of(p).decimals;
     b.provenance.push_back(fmt::format("{} {:.{}f} {}: estimated level {} (sd {:.{}f}), last test {}", name, l.level,
                                        dp, unit, now_days ? "now, with the known doses since" : "at the last test",
                                        l.level_sd, dp, l.last_test_date));

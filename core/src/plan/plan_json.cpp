@@ -109,7 +109,7 @@ Result<additives::Additive> read_additive(const json& a, const std::string& f) {
                                          "dic_per_alkalinity_eq", "caustic"}));
     ad::LabelClaim c;
     c.name = l.value("name", std::string("product"));
-    auto p = ad::parameter_from_string(l.value("parameter", std::string("alkalinity")));
+    auto p = dosed_parameter_from_name(l.value("parameter", std::string("alkalinity")));
     if (!p) return Error{f + "label.parameter", p.error().message};
     c.parameter = *p;
     TW_TRY(read_number(l, "dose_ml", f + "label.", c.dose_ml));

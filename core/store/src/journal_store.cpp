@@ -54,7 +54,7 @@ std::vector<System> all_systems(sqlite3* db) {
 void WhereClause::bind(Statement& st) const {
   int i = 1;
   if (filter.system_id) st.bind(i++, *filter.system_id);
-  if (filter.parameter) st.bind(i++, std::string(to_string(*filter.parameter)));
+  if (filter.parameter) st.bind(i++, std::string(tw::parameter_name(*filter.parameter)));
   if (filter.from_s) st.bind(i++, *filter.from_s);
   if (filter.to_s) st.bind(i++, *filter.to_s);
 }

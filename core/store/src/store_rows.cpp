@@ -51,7 +51,7 @@ void bind_event(Statement& st, const Event& e) {
   st.bind(1, e.id).bind(2, e.system_id).bind(3, e.time_s).bind_text_or_null(4, e.time_text);
   st.bind(5, std::string(event_type_name(e.data)));
   if (const auto* t = std::get_if<TestResult>(&e.data)) {
-    st.bind(6, std::string(to_string(t->parameter))).bind_text_or_null(7, t->other_name);
+    st.bind(6, std::string(tw::parameter_name(t->parameter))).bind_text_or_null(7, t->other_name);
     st.bind(8, t->value).bind(9, t->unit).bind(10, t->precision);
     if (t->ph_scale) st.bind(11, std::string(ph_scale_name(*t->ph_scale)));
     st.bind_text_or_null(12, t->kit);
@@ -150,7 +150,7 @@ Event read_event(const Statement& r) {
   const std::string type = r.text(4);
   if (type == "test") {
     TestResult t;
-    t.parameter = known(parameter_from_string(r.text(5)), "parameter", e.id);
+    t.parameter = known(tw::parameter_from_name(r.text(5)), "parameter", e.id);
     t.other_name = r.text(6);
     t.value = r.real(7);
     t.unit = r.text(8);

@@ -30,8 +30,8 @@ void check_system(const journal::Journal& j, const char* name, const double trut
     REQUIRE(e.ok());
     REQUIRE(e->demand_known);
     const double t = truth[static_cast<int>(p)];
-    MESSAGE(std::string(name) << " " << std::string(to_string(p)) << ": demand " << e->demand_per_day << " +/- "
-                 << e->demand_sd << " " << std::string(unit_of(p)) << "/day (put in: " << t << ")");
+    MESSAGE(std::string(name) << " " << std::string(tw::parameter_name(p)) << ": demand " << e->demand_per_day << " +/- "
+                 << e->demand_sd << " " << std::string(tw::parameter_unit(p)) << "/day (put in: " << t << ")");
     CHECK(t >= e->demand_low95);
     CHECK(t <= e->demand_high95);
   }

@@ -120,8 +120,8 @@ TEST_CASE("estimate: 95 % band covers the true demand in about 95 % of 1,000 see
       sum_sd += e->demand_sd;
     }
     const double coverage = static_cast<double>(covered) / runs;
-    MESSAGE(std::string(to_string(sc.p)) << ": coverage of the 95 % band " << coverage << " over " << runs
-                            << " runs; mean demand sd " << sum_sd / runs << " " << std::string(unit_of(sc.p))
+    MESSAGE(std::string(tw::parameter_name(sc.p)) << ": coverage of the 95 % band " << coverage << " over " << runs
+                            << " runs; mean demand sd " << sum_sd / runs << " " << std::string(tw::parameter_unit(sc.p))
                             << "/day; runs with a (false) outlier flag: " << flagged_runs);
     // Binomial sd at 1,000 runs is 0.007, so 0.92-0.98 is about +/-4 sd around 0.95.
     CHECK(coverage >= 0.92);
@@ -137,7 +137,7 @@ TEST_CASE("estimate: noise-free data give the true demand to 1e-6") {
     Series s = simulate(sc, o, sim, truth, true, 365.0);
     auto e = estimate_series(s, o);
     REQUIRE(e.ok());
-    INFO(std::string(to_string(sc.p)) << " demand " << e->demand_per_day << " true " << truth);
+    INFO(std::string(tw::parameter_name(sc.p)) << " demand " << e->demand_per_day << " true " << truth);
     CHECK(std::fabs(e->demand_per_day - truth) < 1e-6);
     CHECK(e->outliers.empty());
     // The smoothed history also sits on the truth (constant demand) after the first few tests.

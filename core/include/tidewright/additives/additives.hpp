@@ -23,6 +23,7 @@
 #include <string>
 #include <vector>
 
+#include "tidewright/common/parameter.hpp"
 #include "tidewright/common/result.hpp"
 
 namespace tw::additives {
@@ -144,10 +145,8 @@ double baked_soda_mass_ratio();
 double sodium_carbonate_from_baked_soda_g(double sodium_bicarbonate_g);
 
 // ---------------------------------------------------------------- 4. Tank arithmetic
-enum class Parameter { Alkalinity, Calcium, Magnesium };
-const char* to_string(Parameter parameter);       // "alkalinity", "calcium", "magnesium"
-const char* unit_of(Parameter parameter);         // "dKH", "mg/L", "mg/L"
-Result<Parameter> parameter_from_string(const std::string& text);
+// The dosed parameters of tw::Parameter (common/parameter.hpp: names, units "dKH", "mg/L").
+using tw::Parameter;
 
 // Change of concentration per litre when `change` is mixed into `volume_l` litres.
 struct LitreChange {

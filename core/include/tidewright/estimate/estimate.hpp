@@ -44,12 +44,9 @@
 namespace tw::estimate {
 
 // ============================================================ 1. Parameters and units
-enum class Parameter { Alkalinity, Calcium, Magnesium };
-inline constexpr Parameter kAllParameters[] = {Parameter::Alkalinity, Parameter::Calcium,
-                                               Parameter::Magnesium};
-
-const char* to_string(Parameter p);  // "alkalinity", "calcium", "magnesium"
-const char* unit_of(Parameter p);    // "dKH", "mg/L", "mg/L"
+// The dosed parameters of tw::Parameter (common/parameter.hpp: names, units "dKH", "mg/L").
+using tw::Parameter;
+inline constexpr auto& kAllParameters = kDosedParameters;
 
 // ============================================================ 2. Plain input series
 // One test result: value in the parameter's unit, sigma = the kit's precision (1 sd, > 0).
@@ -244,7 +241,7 @@ Result<std::vector<ForecastPoint>> forecast_levels(const SeriesEstimate& estimat
 // One system's journal events as three series (estimate_series.cpp). Time: days since
 // 1970-01-01T00:00Z (time_s / 86400). Each event becomes:
 //   test of alkalinity/calcium/magnesium -> Measurement in dKH / mg/L, sigma = the test's kit
-//     precision, else journal::typical_precision (0.2 dKH, 10 mg/L, 25 mg/L);
+//     precision, else the table's typical_precision (0.2 dKH, 10 mg/L, 25 mg/L);
 //   dose -> Addition to every parameter it changes: amount (g, or mL x stock g/L / 1000) of the
 //     catalog compound x its change per mole / system volume (additives::rise_of);
 //   limewater top-off -> Addition of volume x strength (g/L Ca(OH)2, saturated 1.50 g/L if

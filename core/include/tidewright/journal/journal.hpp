@@ -19,6 +19,7 @@
 #include <vector>
 
 #include "tidewright/carbonate/carbonate.hpp"
+#include "tidewright/common/parameter.hpp"
 #include "tidewright/common/result.hpp"
 #include "tidewright/common/units.hpp"
 
@@ -37,15 +38,8 @@ enum class TemperatureUnit { Celsius, Fahrenheit };
 const char* to_string(TemperatureUnit unit);  // "C", "F"
 Result<TemperatureUnit> temperature_unit_from_string(const std::string& text);
 
-enum class Parameter {
-  Alkalinity, Calcium, Magnesium, PH, Salinity, SpecificGravity, Temperature,
-  Nitrate, Phosphate, Other
-};
-const char* to_string(Parameter p);  // "alkalinity", "calcium", "magnesium", "ph", "salinity",
-                                     // "specific_gravity", "temperature", "nitrate",
-                                     // "phosphate", "other"
-// Also accepts the short forms "alk", "ca", "mg", "sg", "temp", "no3", "po4".
-Result<Parameter> parameter_from_string(const std::string& text);
+// The parameter of a test: tw::Parameter (common/parameter.hpp), one table of names and units.
+using tw::Parameter;
 
 // pH scale names as in files: "total", "sws", "free", "nbs".
 const char* ph_scale_name(carbonate::PhScale scale);
@@ -97,6 +91,8 @@ struct System {
   Targets targets;
   bool operator==(const System&) const = default;
 };
+// The system's own target of a dosed parameter (canonical unit), unset if it sets none.
+std::optional<double> target_of(const System& system, Parameter p);
 
 // ---------------------------------------------------------------- 3. Events
 struct TestResult {
@@ -226,9 +222,7 @@ inline constexpr std::int64_t kLatestTimeS = 7258118400;
 // no better density.
 inline constexpr double kNominalDensityKgPerL = 1.02334;
 
-// The unit a journal uses for each parameter's canonical value: "dKH", "mg/L", "mg/L", "pH",
-// "psu", "sg", "C", "mg/L", "mg/L", and for Other the unit as entered.
-const char* canonical_unit(Parameter p);
+// The canonical unit of each parameter is parameter_unit(p) (common/parameter.hpp).
 
 // Accepted unit spellings per parameter, normalised:
 //   alkalinity: dKH, meq/L, mg/L CaCO3, umol/kg     calcium, magnesium: mg/L, mmol/kg, umol/kg
@@ -246,11 +240,7 @@ Result<double> canonical_value(const TestResult& test,
 std::optional<double> canonical_precision(const TestResult& test,
                                           double density_kg_per_l = kNominalDensityKgPerL);
 
-// Typical hobby-kit precision (one standard deviation) in canonical units, for tests logged
-// without one [common practice: no single source; design.md "+/-0.2-0.5 dKH"]:
-// alkalinity 0.2 dKH, calcium 10 mg/L, magnesium 25 mg/L, pH 0.05, salinity 0.5, sg 0.0005,
-// temperature 0.2 C, nitrate 1 mg/L, phosphate 0.02 mg/L, other: unset.
-std::optional<double> typical_precision(Parameter p);
+// Typical kit precision of each parameter: info_of(p).typical_precision (common/parameter.hpp).
 
 // ---------------------------------------------------------------- 5. The journal
 struct Journal {

@@ -119,13 +119,13 @@ struct SystemState {
   double air_co2_ppm = 424.6;    // room air, accepted 200..5000 ppm (facts.md 10 default)
 };
 
-struct Band {
-  double target = 0, low = 0, high = 0;  // low <= target <= high
-};
+using Band = TargetBand;  // low <= target <= high (common/parameter.hpp)
+// Defaults: the parameter table's default targets and bands (8.0 +/- 0.5 dKH, 430 +/- 20 mg/L,
+// 1350 +/- 50 mg/L).
 struct Targets {
-  Band alkalinity_dkh{8.0, 7.5, 8.5};
-  Band calcium_mg_l{430, 410, 450};
-  Band magnesium_mg_l{1350, 1300, 1400};
+  Band alkalinity_dkh = default_target_band(Parameter::Alkalinity);
+  Band calcium_mg_l = default_target_band(Parameter::Calcium);
+  Band magnesium_mg_l = default_target_band(Parameter::Magnesium);
 };
 
 // Daily demand of the whole system (what the livestock takes up per day), as the consumption
