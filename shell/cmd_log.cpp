@@ -148,9 +148,7 @@ void run_add_system(const LogOptions& o) {
   }
   if (o.salinity) s.default_salinity = *o.salinity;
   if (o.temperature) {
-    s.default_temperature_c = s.units.temperature == TemperatureUnit::Fahrenheit
-                                  ? units::fahrenheit_to_celsius(*o.temperature)
-                                  : *o.temperature;
+    s.default_temperature_c = units::temperature_to_celsius(*o.temperature, s.units.temperature);
   }
   s.targets = Targets{o.target_alk, o.target_ca, o.target_mg};
   const SystemId id = stored_or_fail(st->add_system(s));

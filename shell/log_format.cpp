@@ -13,9 +13,7 @@ std::string describe_system_line(const System& s) {
   std::string vol = s.units.volume == units::VolumeUnit::UsGallon
                         ? fmt::format("{:.1f} gal", units::litres_to_us_gallons(s.volume_l))
                         : fmt::format("{:g} L", s.volume_l);
-  const double t = s.units.temperature == TemperatureUnit::Fahrenheit
-                       ? units::celsius_to_fahrenheit(s.default_temperature_c)
-                       : s.default_temperature_c;
+  const double t = units::temperature_from_celsius(s.default_temperature_c, s.units.temperature);
   std::string out = fmt::format("{} ({}, {} net, S {:g}, {:g} {}", s.name, to_string(s.kind), vol,
                                 s.default_salinity, t, to_string(s.units.temperature));
   std::string targets;

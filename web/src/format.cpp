@@ -60,10 +60,10 @@ const char* temperature_unit_text(jn::TemperatureUnit unit) {
   return unit == jn::TemperatureUnit::Fahrenheit ? "\u00b0F" : "\u00b0C";
 }
 double temperature_shown(double c, jn::TemperatureUnit unit) {
-  return unit == jn::TemperatureUnit::Fahrenheit ? au::celsius_to_fahrenheit(c) : c;
+  return au::temperature_from_celsius(c, unit);
 }
 double temperature_from_shown(double v, jn::TemperatureUnit unit) {
-  return unit == jn::TemperatureUnit::Fahrenheit ? au::fahrenheit_to_celsius(v) : v;
+  return au::temperature_to_celsius(v, unit);
 }
 std::string temperature_text(double c, jn::TemperatureUnit unit) {
   return fixed(temperature_shown(c, unit), 1) + " " + temperature_unit_text(unit);

@@ -104,4 +104,25 @@ double volume_from_litres(double litres, VolumeUnit unit) {
   return unit == VolumeUnit::Litre ? litres : litres_to_us_gallons(litres);
 }
 
+const char* to_string(TemperatureUnit unit) { return unit == TemperatureUnit::Celsius ? "C" : "F"; }
+
+Result<TemperatureUnit> temperature_unit_from_string(const std::string& text) {
+  const auto b = text.find_first_not_of(" \t");
+  const auto e = text.find_last_not_of(" \t");
+  const std::string t = b == std::string::npos ? "" : lower(text.substr(b, e - b + 1));
+  if (t == "c" || t == "degc" || t == "\xc2\xb0" "c" || t == "celsius") return TemperatureUnit::Celsius;
+  if (t == "f" || t == "degf" || t == "\xc2\xb0" "f" || t == "fahrenheit") return TemperatureUnit::Fahrenheit;
+  return Error{"temperature unit", "temperature unit '" + text + "' is not known; accepted: C, F"};
+}
+
+double temperature_to_celsius(double value, TemperatureUnit unit) {
+  return unit == TemperatureUnit::Celsius ? value : fahrenheit_to_celsius(value);
+}
+double temperature_from_celsius(double celsius, TemperatureUnit unit) {
+  return unit == TemperatureUnit::Celsius ? celsius : celsius_to_fahrenheit(celsius);
+}
+double temperature_difference_to_celsius(double value, TemperatureUnit unit) {
+  return unit == TemperatureUnit::Celsius ? value : value * 5.0 / 9.0;
+}
+
 }  // namespace tw::units

@@ -122,8 +122,10 @@ Status validate_test(const TestResult& t) {
   if (t.precision) {
     const double span = (r.hi - r.lo) / 2.0;
     auto one = canonical_value(t.parameter, 1.0, t.unit);
-    const double scale = t.parameter == Parameter::Temperature ? (t.unit == "F" ? 5.0 / 9.0 : 1.0)
-                                                               : std::fabs(*one);
+    const auto unit_t = temperature_unit_from_string(t.unit);
+    const double scale = t.parameter == Parameter::Temperature
+                             ? units::temperature_difference_to_celsius(1.0, unit_t.ok() ? *unit_t : TemperatureUnit::Celsius)
+                             : std::fabs(*one);
     const double hi = scale > 0 ? span / scale : span;
     Status s = positive_in_range("precision", *t.precision, Range{0.0, hi, t.unit.c_str()});
     if (!s) return s;

@@ -40,16 +40,6 @@ Result<SystemKind> system_kind_from_string(const std::string& text) {
                            "larval_culture, fish_only, other"};
 }
 
-const char* to_string(TemperatureUnit unit) {
-  return unit == TemperatureUnit::Celsius ? "C" : "F";
-}
-
-Result<TemperatureUnit> temperature_unit_from_string(const std::string& text) {
-  const std::string t = lower_trim(text);
-  if (t == "c" || t == "degc" || t == "\xc2\xb0" "c" || t == "celsius") return TemperatureUnit::Celsius;
-  if (t == "f" || t == "degf" || t == "\xc2\xb0" "f" || t == "fahrenheit") return TemperatureUnit::Fahrenheit;
-  return Error{"temperature unit", "temperature unit '" + text + "' is not known; accepted: C, F"};
-}
 
 const char* ph_scale_name(carbonate::PhScale scale) {
   switch (scale) {
@@ -196,7 +186,7 @@ Result<double> canonical_value(Parameter p, double value, const std::string& uni
       return units::ion_from_umol_kg(umol, units::ConcentrationUnit::MgPerL, ion, density_kg_per_l);
     }
     case Parameter::Temperature:
-      return n == "F" ? units::fahrenheit_to_celsius(value) : value;
+      return units::temperature_to_celsius(value, *temperature_unit_from_string(n));
     default:
       return value;
   }
@@ -209,7 +199,9 @@ Result<double> canonical_value(const TestResult& test, double density_kg_per_l) 
 std::optional<double> canonical_precision(const TestResult& test, double density_kg_per_l) {
   if (!test.precision) return std::nullopt;
   if (test.parameter == Parameter::Temperature) {
-    return test.unit == "F" ? *test.precision * 5.0 / 9.0 : *test.precision;
+    auto unit = temperature_unit_from_string(test.unit);
+    if (!unit) return std::nullopt;
+    return units::temperature_difference_to_celsius(*test.precision, *unit);
   }
   // Every other conversion is a pure scale factor: convert 1 unit and scale.
   auto one = canonical_value(test.parameter, 1.0, test.unit, density_kg_per_l);

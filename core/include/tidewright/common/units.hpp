@@ -39,8 +39,18 @@ double ion_to_umol_kg(double value, ConcentrationUnit unit, Ion ion, double dens
 double ion_from_umol_kg(double umol_kg, ConcentrationUnit unit, Ion ion, double density_kg_per_l);
 
 // ------------------------------------------------------------ temperature
+// The only place that converts degrees Fahrenheit (NIST SP 811: t/C = (t/F - 32)/1.8).
 inline double fahrenheit_to_celsius(double f) { return (f - 32.0) * 5.0 / 9.0; }
 inline double celsius_to_fahrenheit(double c) { return c * 9.0 / 5.0 + 32.0; }
+enum class TemperatureUnit { Celsius, Fahrenheit };
+const char* to_string(TemperatureUnit unit);  // "C", "F"
+// "C", "degC", "celsius", "\u00b0C"; the same for F; any case, spaces trimmed. Error field "temperature unit".
+Result<TemperatureUnit> temperature_unit_from_string(const std::string& text);
+// A temperature in `unit` to degrees C, and back.
+double temperature_to_celsius(double value, TemperatureUnit unit);
+double temperature_from_celsius(double celsius, TemperatureUnit unit);
+// A temperature DIFFERENCE (a precision, a width) in `unit` to kelvin/degrees C: no offset.
+double temperature_difference_to_celsius(double value, TemperatureUnit unit);
 
 // ------------------------------------------------------------ volume
 inline constexpr double kLitresPerUsGallon = 3.785411784;  // exact by definition (231 in^3)

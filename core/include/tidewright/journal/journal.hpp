@@ -34,9 +34,10 @@ const char* to_string(SystemKind kind);  // "reef_display", "coral_grow_out", "l
                                          // "fish_only", "other"
 Result<SystemKind> system_kind_from_string(const std::string& text);
 
-enum class TemperatureUnit { Celsius, Fahrenheit };
-const char* to_string(TemperatureUnit unit);  // "C", "F"
-Result<TemperatureUnit> temperature_unit_from_string(const std::string& text);
+// Temperature units live with the other units (common/units.hpp).
+using units::TemperatureUnit;
+using units::temperature_unit_from_string;
+using units::to_string;
 
 // The parameter of a test: tw::Parameter (common/parameter.hpp), one table of names and units.
 using tw::Parameter;
