@@ -10,7 +10,7 @@ namespace tw::carbonate {
 
 std::optional<PrecisionDefault> default_precision(journal::Parameter p) {
   using P = journal::Parameter;
-  const auto typical = journal::typical_precision(p);
+  const auto typical = info_of(p).typical_precision;
   if (!typical) return std::nullopt;
   // coarse and maximum: common practice (see the header); the maxima of pH, salinity and
   // temperature are the propagation's own accepted ranges (uncertainty.hpp).

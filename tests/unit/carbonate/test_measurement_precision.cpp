@@ -19,8 +19,8 @@ TEST_CASE("measurement precision: defaults sit in the ranges of common practice"
   for (const Row& r : rows) {
     auto d = tc::default_precision(r.p);
     REQUIRE(d);
-    INFO(tw::journal::to_string(r.p), ": typical ", d->typical, ", coarse ", d->coarse);
-    CHECK(d->typical == *tw::journal::typical_precision(r.p));  // one number, two users
+    INFO(tw::parameter_name(r.p), ": typical ", d->typical, ", coarse ", d->coarse);
+    CHECK(d->typical == *tw::info_of(r.p).typical_precision);  // one number, two users
     CHECK(d->typical >= r.low);
     CHECK(d->coarse <= r.high);
     CHECK(d->typical <= d->coarse);
