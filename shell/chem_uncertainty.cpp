@@ -124,8 +124,8 @@ tc::InputUncertainties input_uncertainties(const ChemPrecisionOptions& o, const 
     u.salinity = *o.salinity;
   }
   if (o.temperature) {
-    // a difference of temperatures: the one C/F conversion, taken between two points
-    const double c_per_unit = un.fahrenheit ? units::fahrenheit_to_celsius(1.0) - units::fahrenheit_to_celsius(0.0) : 1.0;
+    const auto unit = un.fahrenheit ? units::TemperatureUnit::Fahrenheit : units::TemperatureUnit::Celsius;
+    const double c_per_unit = units::temperature_difference_to_celsius(1.0, unit);  // a precision: no offset
     check_in_unit(P::Temperature, *o.temperature, c_per_unit, un.fahrenheit ? "F" : "C",
                   "--temperature-precision");
     u.temperature_c = *o.temperature * c_per_unit;
@@ -208,7 +208,7 @@ std::string uncertainty_text(const tc::UncertainState& s, const ChemUnits& un) {
     } else if (src.name == "ph_scale_conversion") {
       shown = fmt::format("pH scale to total {:g}", src.u);
     } else if (src.name == "temperature_c") {
-      shown = un.fahrenheit ? fmt::format("temperature {:.3g} F", units::celsius_to_fahrenheit(src.u) - units::celsius_to_fahrenheit(0.0))
+      shown = un.fahrenheit ? fmt::format("temperature {:.3g} F", src.u / units::temperature_difference_to_celsius(1.0, units::TemperatureUnit::Fahrenheit))
                             : fmt::format("temperature {:g} C", src.u);
     } else if (src.name == "calcium_umol_kg") {
       shown = fmt::format("calcium {:.3g} {}", units::ion_from_umol_kg(src.u, un.calcium, units::Ion::Calcium,

@@ -35,10 +35,10 @@ double alkalinity_to_dkh(double value, tw::units::AlkalinityUnit unit,
 std::string alkalinity_text(double dkh, tw::units::AlkalinityUnit unit,
                             double density_kg_per_l = tw::journal::kNominalDensityKgPerL);
 
-const char* temperature_unit_text(tw::journal::TemperatureUnit unit);  // "°C", "°F"
-double temperature_shown(double celsius, tw::journal::TemperatureUnit unit);
-double temperature_from_shown(double value, tw::journal::TemperatureUnit unit);
-std::string temperature_text(double celsius, tw::journal::TemperatureUnit unit);
+const char* temperature_unit_text(tw::units::TemperatureUnit unit);  // "°C", "°F"
+double temperature_shown(double celsius, tw::units::TemperatureUnit unit);
+double temperature_from_shown(double value, tw::units::TemperatureUnit unit);
+std::string temperature_text(double celsius, tw::units::TemperatureUnit unit);
 
 const char* volume_unit_text(tw::units::VolumeUnit unit);  // "L", "gal"
 std::string volume_text(double litres, tw::units::VolumeUnit unit);

@@ -1,7 +1,7 @@
 // How precise the keeper's measurements are, when they do not say: one table of default
 // standard uncertainties per kind of kit or meter, used by `chem`, the Water screen and the
 // hatchery so they all start from the same numbers. The typical value of each is the
-// journal's typical precision (journal::typical_precision, the same numbers the consumption
+// journal's typical precision (tw::info_of(p).typical_precision, the same numbers the consumption
 // estimate uses); the coarse one is the worse end commonly met.
 //
 // Sources: hobby kits and meters have no single published precision. The ranges below are
