@@ -112,6 +112,31 @@ CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alk,
   return r;
 }
 
+double z95() { return kZ95; }
+
+LevelSpread spread_of(const SeriesEstimate& e, const FilterOptions& options) {
+  LevelSpread s;
+  s.level_sd = e.level_sd;
+  s.level_demand_cov = e.level_demand_cov;
+  s.demand_sd = e.demand_sd;
+  s.demand_noise_q = options.demand_noise_sd_per_sqrt_day * options.demand_noise_sd_per_sqrt_day;
+  s.level_noise_q = options.level_noise_sd_per_sqrt_day * options.level_noise_sd_per_sqrt_day;
+  s.unknown_rate_sd = e.unknown_dosing_rate_sd;
+  s.unknown_level_sd = e.unknown_dosing_level_sd;
+  return s;
+}
+
+double LevelSpread::sd_after(double dt) const {
+  dt = std::max(0.0, dt);
+  // The filter's transition dt days ahead in one step (exact for the model): level and demand
+  // with their covariance, the demand's random walk (q_d dt^3 / 3), the level's wander (q_l dt).
+  // Unknown dosing goes on at its rate sd: the level's share of it grows linearly in time.
+  const double u0 = unknown_level_sd, u1 = u0 + unknown_rate_sd * dt;
+  const double var = level_sd * level_sd - 2.0 * dt * level_demand_cov + dt * dt * demand_sd * demand_sd +
+                     demand_noise_q * dt * dt * dt / 3.0 + level_noise_q * dt + (u1 * u1 - u0 * u0);
+  return var > 0.0 ? std::sqrt(var) : 0.0;
+}
+
 Result<std::vector<ForecastPoint>> forecast_levels(const SeriesEstimate& e,
                                                    double daily_dose_effect_per_day, int days,
                                                    const FilterOptions& options) {
@@ -121,23 +146,17 @@ Result<std::vector<ForecastPoint>> forecast_levels(const SeriesEstimate& e,
                            std::string(parameter_unit(e.parameter)) + "/day");
       !s)
     return s.error();
-  const double qd = options.demand_noise_sd_per_sqrt_day * options.demand_noise_sd_per_sqrt_day;
-  const double ql = options.level_noise_sd_per_sqrt_day * options.level_noise_sd_per_sqrt_day;
+  const LevelSpread spread = spread_of(e, options);
   std::vector<ForecastPoint> out;
   out.reserve(static_cast<std::size_t>(days));
   for (int k = 1; k <= days; ++k) {
     const double dt = k;
     // The same transition as the filter, dt days ahead in one step (exact for the model).
     const double level = e.level + (daily_dose_effect_per_day - e.demand_per_day) * dt;
-    const double pdd = e.demand_sd * e.demand_sd;
-    // Unknown dosing goes on at its rate sd: the level's share of it grows linearly in time.
-    const double u0 = e.unknown_dosing_level_sd, u1 = u0 + e.unknown_dosing_rate_sd * dt;
-    const double var = e.level_sd * e.level_sd - 2.0 * dt * e.level_demand_cov + dt * dt * pdd +
-                       qd * dt * dt * dt / 3.0 + ql * dt + (u1 * u1 - u0 * u0);
     ForecastPoint p;
     p.day = k;
     p.time_days = e.time_days + dt;
-    p.level_sd = var > 0.0 ? std::sqrt(var) : 0.0;
+    p.level_sd = spread.sd_after(dt);
     // Truncated at the physical bound: no water holds a negative concentration.
     p.level = std::max(0.0, level);
     p.low95 = std::max(0.0, level - kZ95 * p.level_sd);

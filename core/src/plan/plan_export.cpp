@@ -80,7 +80,12 @@ std::string verdict_to_text(const Plan& plan) {
 }
 
 std::string plan_to_text(const PlanInput& in, const Plan& plan) {
-  std::string o = verdict_to_text(plan) + "\n";
+  std::string o = verdict_to_text(plan);
+  if (plan.uncertainty) {
+    if (plan.uncertainty->retest) o += "TEST AGAIN: " + plan.uncertainty->retest->message + "\n";
+    if (plan.uncertainty->cost) o += "How sure: " + plan.uncertainty->cost->summary + "\n";
+  }
+  o += "\n";
   o += fmt::format("Dose plan for {} ({:g} L, salinity {:g}, {:g} C, room air {:g} ppm CO2)\n",
                               in.system.name, in.system.volume_l, in.system.salinity, in.system.temperature_c,
                               in.system.air_co2_ppm);
@@ -90,12 +95,20 @@ std::string plan_to_text(const PlanInput& in, const Plan& plan) {
                      s.default_value, s.source);
   }
   for (const auto& r : plan.limits.record) o += "  " + r + "\n";
+  const bool bands = plan.uncertainty.has_value();
   o += "\nDay  start alk  end alk  end Ca  end Mg  end pH  ";
+  if (bands) o += "alk 95 %      Ca 95 %   pH 95 %    ";
   for (const auto& d : in.deliveries) o += fmt::format("{} ({})  ", d.additive.name, additives::to_string(d.additive.unit));
   o += "\n";
   for (const auto& d : plan.days) {
     o += fmt::format("{:>3}  {:>9.2f}  {:>7.2f}  {:>6.0f}  {:>6.0f}  {:>6.3f}  ", d.day, d.start.alkalinity_dkh,
                      d.end.alkalinity_dkh, d.end.calcium_mg_l, d.end.magnesium_mg_l, d.end.ph_total);
+    if (bands) {
+      auto b = [](const std::optional<Band95>& x, int dp) {
+        return x ? fmt::format("{:.{}f}-{:.{}f}", x->low, dp, x->high, dp) : std::string("-");
+      };
+      o += fmt::format("{:<12}  {:<8}  {:<9}  ", b(d.end_band[0], 1), b(d.end_band[1], 0), b(d.end_ph_band, 2));
+    }
     for (double a : d.amount_per_delivery) o += fmt::format("{:>10.2f}  ", a);
     o += "\n";
   }

@@ -10,6 +10,7 @@
 
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/seawater/seawater.hpp"
+#include "plan_internal.hpp"
 
 namespace tw::plan {
 namespace {
@@ -147,6 +148,7 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
     l.demand_low95 = e->demand_low95;
     l.demand_high95 = e->demand_high95;
     l.last_test_date = date_of_days(e->history.back().time_days);
+    l.spread = estimate::spread_of(*e, estimate::default_filter_options(p));
     const int dp = info_of(p).decimals;
     b.provenance.push_back(fmt::format("{} {:.{}f} {}: estimated level {} (sd {:.{}f}), last test {}", name, l.level,
                                        dp, unit, now_days ? "now, with the known doses since" : "at the last test",
@@ -188,6 +190,10 @@ void tighten(Limits& limits, LimitId id, double by, const char* why, std::vector
     room = 0.25 * (limits.get(LimitId::CalciumCeiling) - limits.get(LimitId::CalciumFloor));
   } else if (id == LimitId::MagnesiumCeiling || id == LimitId::MagnesiumFloor) {
     room = 0.25 * (limits.get(LimitId::MagnesiumCeiling) - limits.get(LimitId::MagnesiumFloor));
+  } else if (id == LimitId::PhAfterDose || id == LimitId::PhFloor) {
+    room = 0.25 * (limits.get(LimitId::PhAfterDose) - limits.get(LimitId::PhFloor));
+  } else if (id == LimitId::OmegaAragoniteAfterDose || id == LimitId::OmegaAragoniteFloor) {
+    room = 0.25 * (limits.get(LimitId::OmegaAragoniteAfterDose) - limits.get(LimitId::OmegaAragoniteFloor));
   }
   by = std::min(by, std::max(0.0, room));
   if (!(by > 0)) return;
@@ -200,30 +206,52 @@ void tighten(Limits& limits, LimitId id, double by, const char* why, std::vector
 
 }  // namespace
 
-void keep_room_for_uncertainty(const JournalPlanBasis& basis, Limits& limits, std::vector<std::string>& lines) {
+void keep_room_for_uncertainty(const JournalPlanBasis& basis, PlanInput& input, std::vector<std::string>& lines) {
   struct Row {
     const std::optional<JournalLevel>& est;
     LimitId rise, fall, ceiling, floor;
-    const char* name;
+    Parameter parameter;
   } rows[3] = {
       {basis.alkalinity_dkh, LimitId::AlkalinityRisePerDay, LimitId::AlkalinityFallPerDay, LimitId::AlkalinityCeiling,
-       LimitId::AlkalinityFloor, "alkalinity"},
+       LimitId::AlkalinityFloor, Parameter::Alkalinity},
       {basis.calcium_mg_l, LimitId::CalciumRisePerDay, LimitId::CalciumFallPerDay, LimitId::CalciumCeiling,
-       LimitId::CalciumFloor, "calcium"},
+       LimitId::CalciumFloor, Parameter::Calcium},
       {basis.magnesium_mg_l, LimitId::MagnesiumRisePerDay, LimitId::MagnesiumFallPerDay, LimitId::MagnesiumCeiling,
-       LimitId::MagnesiumFloor, "magnesium"},
+       LimitId::MagnesiumFloor, Parameter::Magnesium},
   };
-  constexpr double k95 = 1.96;  // two-sided 95 % of a normal distribution
-  for (const Row& r : rows) {
+  if (!input.limits_as_set) input.limits_as_set = input.limits;
+  Limits& limits = input.limits;
+  const double k95 = estimate::z95();  // two-sided 95 % of a normal distribution
+  double sd_at_test[3] = {0, 0, 0};     // each level's sd now
+  for (std::size_t i = 0; i < 3; ++i) {
+    const Row& r = rows[i];
     if (!r.est) continue;
-    const std::string consumption = fmt::format("the {} consumption estimate", r.name);
-    const std::string level = fmt::format("the {} level estimate", r.name);
+    const char* name = parameter_name(r.parameter);
+    input.spread[i] = r.est->spread;
+    const std::string consumption = fmt::format("the {} consumption estimate", name);
+    // Today's band: it widens as the plan goes on, and the plan says when to test before it
+    // reaches a limit as set (plan_bands.cpp); a room for a week's band would put the floor
+    // above a tank that is fine today.
+    sd_at_test[i] = r.est->level_sd;
+    const std::string level = fmt::format("the {} level estimate", name);
     if (r.est->demand_known) {
       tighten(limits, r.rise, k95 * r.est->demand_sd, consumption.c_str(), lines);
       tighten(limits, r.fall, k95 * r.est->demand_sd, consumption.c_str(), lines);
     }
-    tighten(limits, r.ceiling, k95 * r.est->level_sd, level.c_str(), lines);
-    tighten(limits, r.floor, k95 * r.est->level_sd, level.c_str(), lines);
+    tighten(limits, r.ceiling, k95 * sd_at_test[i], level.c_str(), lines);
+    tighten(limits, r.floor, k95 * sd_at_test[i], level.c_str(), lines);
+  }
+  // pH and Omega follow the alkalinity and calcium levels: their bands at the input's water.
+  if (sd_at_test[0] > 0 || sd_at_test[1] > 0) {
+    auto sens = detail::chemistry_sensitivity(input.system, input.system.alkalinity_dkh, input.system.calcium_mg_l);
+    if (sens) {
+      const auto hw = detail::chemistry_half_width(*sens, sd_at_test[0], sd_at_test[1]);
+      const char* why = "pH and Omega from the alkalinity and calcium levels";
+      tighten(limits, LimitId::PhAfterDose, hw.ph, why, lines);
+      tighten(limits, LimitId::PhFloor, hw.ph, why, lines);
+      tighten(limits, LimitId::OmegaAragoniteAfterDose, hw.omega, why, lines);
+      tighten(limits, LimitId::OmegaAragoniteFloor, hw.omega, why, lines);
+    }
   }
 }
 
@@ -264,7 +292,7 @@ std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, Plan
       lines.push_back(fmt::format("{}: demand unknown; {:g} per day kept from the plan input", r.name, r.demand));
     }
   }
-  keep_room_for_uncertainty(basis, input.limits, lines);
+  keep_room_for_uncertainty(basis, input, lines);
   for (const auto& f : basis.flags) lines.push_back("FLAG " + f);
   for (const auto& n : basis.notes) lines.push_back("journal note: " + n);
   return lines;

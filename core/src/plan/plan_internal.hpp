@@ -29,3 +29,24 @@ namespace tw::plan::detail {
 // start_date: a real calendar date YYYY-MM-DD (2026-02-30 is refused), field "start_date".
 Status check_start_date(const std::string& date);
 }  // namespace tw::plan::detail
+
+namespace tw::plan::detail {
+// How pH (total scale) and Omega aragonite move with the alkalinity and calcium levels in water
+// that has settled with the room air: a level's uncertainty is days old and gas exchange takes
+// hours, so the true water's DIC has followed its true alkalinity. Central differences of the
+// carbonate engine (equilibrate_with_air) at the system's salinity, temperature and air.
+struct ChemistrySensitivity {
+  double ph_per_dkh = 0, omega_per_dkh = 0, omega_per_mg_l_calcium = 0;
+};
+Result<ChemistrySensitivity> chemistry_sensitivity(const SystemState& system, double alkalinity_dkh,
+                                                   double calcium_mg_l);
+// 95 % half-widths of pH and Omega from the levels' standard uncertainties (linear propagation,
+// alkalinity and calcium estimates independent: separate filters).
+struct ChemistryHalfWidth {
+  double ph = 0, omega = 0;
+};
+ChemistryHalfWidth chemistry_half_width(const ChemistrySensitivity& s, double alkalinity_sd, double calcium_sd);
+// Bands on the plan's days, the day to test again and what the room costs (plan_bands.cpp);
+// make_plan calls it when the input carries a spread.
+Status add_bands(const PlanInput& input, Plan& plan);
+}  // namespace tw::plan::detail

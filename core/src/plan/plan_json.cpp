@@ -287,6 +287,41 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
                                                {"magnesium_mg_l", d.fall_magnesium_mg_l}}}});
   }
   const char* names[] = {"alkalinity", "calcium", "magnesium"};
+  // 95 % bands at each day's end, when the plan's start carries its uncertainty.
+  auto band = [](const std::optional<Band95>& b) { return b ? json::array({b->low, b->high}) : json(nullptr); };
+  for (std::size_t i = 0; i < plan.days.size(); ++i) {
+    const DaySummary& d = plan.days[i];
+    j["days"][i]["end_band_95"] =
+        plan.uncertainty ? json{{"alkalinity_dkh", band(d.end_band[0])}, {"calcium_mg_l", band(d.end_band[1])},
+                                {"magnesium_mg_l", band(d.end_band[2])}, {"ph_total", band(d.end_ph_band)},
+                                {"omega_aragonite", band(d.end_omega_band)}}
+                         : json(nullptr);
+  }
+  j["uncertainty"] = nullptr;
+  if (plan.uncertainty) {
+    json u = json::object();
+    if (const auto& r = plan.uncertainty->retest) {
+      u["test_again"] = {{"day", r->day}, {"minute", r->minute}, {"parameter", r->parameter},
+                         {"limit", r->limit ? json(limit_spec(*r->limit).key) : json(nullptr)},
+                         {"message", r->message}};
+    }
+    u["margin_cost"] = nullptr;
+    if (const auto& c = plan.uncertainty->cost) {
+      json days = json::object();
+      for (std::size_t p = 0; p < 3; ++p) {
+        days[names[p]] = c->target_day_without_room[p] ? json(*c->target_day_without_room[p]) : json(nullptr);
+      }
+      u["margin_cost"] = {{"room", c->room}, {"target_day_without_room", days},
+                          {"amount_per_additive_with_room", c->amount_with_room},
+                          {"amount_per_additive_without_room", c->amount_without_room}, {"summary", c->summary}};
+    }
+    if (in.limits_as_set) {
+      json set = json::object();
+      for (const auto& s : limit_specs()) set[s.key] = in.limits_as_set->get(s.id);
+      u["limits_as_set"] = set;
+    }
+    j["uncertainty"] = u;
+  }
   for (std::size_t p = 0; p < 3; ++p) {
     j["target_day"][names[p]] = plan.target_day[p] ? json(*plan.target_day[p]) : json(nullptr);
   }

@@ -24,24 +24,40 @@ struct Followed {
   bool crossed = false;
 };
 
-// Lowest and highest level of each parameter on the plan's time line after each moment.
+// Lowest and highest level of each parameter on the plan's time line after each moment. When
+// the plan carries bands (PlanInput::spread) these are the band's edges, up to the moment to
+// test again (a test then starts a new plan), checked against the limits as the keeper set
+// them: the mishap is judged by the band's bad edge, not its centre.
 struct Suffix {
   std::vector<double> t;
   std::vector<std::array<double, 3>> lo, hi;
+  const Limits* limits = nullptr;  // what the edges are checked against
+  bool edges = false;
 };
-Suffix suffix_extremes(const Plan& plan) {
+Suffix suffix_extremes(const PlanInput& in, const Plan& plan) {
   Suffix s;
   const std::size_t n = plan.timeline.size();
   s.t.resize(n);
   s.lo.resize(n);
   s.hi.resize(n);
+  s.limits = &in.limits;
+  double until = 1e300;
+  if (plan.uncertainty && plan.uncertainty->retest) {
+    s.edges = true;
+    s.limits = in.limits_as_set ? &*in.limits_as_set : &in.limits;
+    until = (plan.uncertainty->retest->day - 1) * kDay + plan.uncertainty->retest->minute;
+  }
+  const double z = estimate::z95();
   std::array<double, 3> lo{1e300, 1e300, 1e300}, hi{-1e300, -1e300, -1e300};
   for (std::size_t i = n; i-- > 0;) {
-    const WaterState& w = plan.timeline[i].water;
+    const Moment& m = plan.timeline[i];
+    const WaterState& w = m.water;
     const double v[3] = {w.alkalinity_dkh, w.calcium_mg_l, w.magnesium_mg_l};
     for (int p = 0; p < 3; ++p) {
-      lo[p] = std::min(lo[p], v[p]);
-      hi[p] = std::max(hi[p], v[p]);
+      if (s.edges && m.minute > until) continue;
+      const double half = s.edges && in.spread[p] ? z * in.spread[p]->sd_after(m.minute / kDay) : 0.0;
+      lo[p] = std::min(lo[p], v[p] - half);
+      hi[p] = std::max(hi[p], v[p] + half);
     }
     s.t[i] = plan.timeline[i].minute;
     s.lo[i] = lo;
@@ -113,10 +129,11 @@ Followed follow(const replay::Engine& at, const PlanInput& in, const Plan& plan,
       if (shift[p] == 0) continue;
       const bool down = shift[p] < 0;
       const LimitId id = down ? floor[p] : ceiling[p];
-      const double allowed = in.limits.get(id);
-      const double nominal = down ? suffix.lo[k][p] : suffix.hi[k][p];
-      const double value = nominal + shift[p];
-      const bool plan_ok = (down ? nominal >= allowed : nominal <= allowed) && !plan_crosses(id);
+      const double allowed = suffix.limits->get(id);
+      const double planned = down ? suffix.lo[k][p] : suffix.hi[k][p];
+      if (std::fabs(planned) > 1e299) continue;  // no moment left before the next test
+      const double value = planned + shift[p];
+      const bool plan_ok = (down ? planned >= allowed : planned <= allowed) && !plan_crosses(id);
       if (!plan_ok) continue;
       const double m = (down ? value - allowed : allowed - value) / std::max(1e-9, std::abs(allowed));
       if (m < w.closest_margin) {
@@ -126,8 +143,9 @@ Followed follow(const replay::Engine& at, const PlanInput& in, const Plan& plan,
         w.closest_allowed = allowed;
       }
       if (m < -1e-9 && crossing.empty()) {
-        crossing = fmt::format("for the rest of the plan {} is {:.3g} {} and reaches {:.6g}, {} {:g}",
-                               limit_spec(id).key, std::abs(shift[p]), down ? "lower" : "higher", value,
+        crossing = fmt::format("for the rest of the plan{} {} is {:.3g} {} and {} reaches {:.6g}, {} {:g}",
+                               suffix.edges ? " until the next test" : "", limit_spec(id).key, std::abs(shift[p]),
+                               down ? "lower" : "higher", suffix.edges ? "the 95 % band's edge" : "it", value,
                                down ? "floor" : "limit", allowed);
       }
     }
@@ -191,7 +209,7 @@ Result<WhatIf> what_if(const PlanInput& in, const Plan& plan, std::size_t dose, 
     return Error{"dose", fmt::format("dose {} does not exist (accepted: 0 to {})", dose,
                                      plan.doses.empty() ? 0 : plan.doses.size() - 1)};
   }
-  const Suffix suffix = suffix_extremes(plan);
+  const Suffix suffix = suffix_extremes(in, plan);
   const CheckReport nominal = check_plan(in, plan);
   std::vector<PlannedDose> list;
   std::vector<std::size_t> index;
@@ -209,7 +227,7 @@ Result<WhatIf> what_if(const PlanInput& in, const Plan& plan, std::size_t dose, 
 std::vector<WorstMishap> mishap_summary(const PlanInput& in, const Plan& plan) {
   std::vector<WorstMishap> out;
   if (plan.doses.empty()) return out;
-  const Suffix suffix = suffix_extremes(plan);
+  const Suffix suffix = suffix_extremes(in, plan);
   const CheckReport nominal = check_plan(in, plan);
   WorstMishap missed{Mishap::Missed, 0, 0, {}, {}}, twice{Mishap::RanTwice, 0, 0, {}, {}};
   std::vector<PlannedDose> list;

@@ -483,6 +483,10 @@ Result<Plan> make_plan(const PlanInput& in) {
   auto conflicts = check_targets_at_air(in);
   if (!conflicts) return conflicts.error();
   plan.verdict.target_conflicts = std::move(*conflicts);
+  // Bands, the moment to test again and the cost of the room kept for them (plan_bands.cpp).
+  if (in.spread[0] || in.spread[1] || in.spread[2]) {
+    if (auto s = detail::add_bands(in, plan); !s) return s.error();
+  }
   for (const auto& d : in.deliveries) {
     for (const auto& c : additives::cautions_for(d.additive)) {
       if (std::find(plan.cautions.begin(), plan.cautions.end(), c) == plan.cautions.end()) plan.cautions.push_back(c);

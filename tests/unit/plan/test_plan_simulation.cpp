@@ -47,6 +47,9 @@ struct Figures {
   int runs = 0, plans = 0, refused = 0;
   int start_within_1sd = 0, start_within_kit = 0;
   int start_within_own_band = 0;  // within the estimate's own 95 % band (1.96 x its level sd)
+  // The plan's forecast band (Plan::days[].end_band): day ends up to the moment to test again,
+  // and how many of them held the level of the true water under the plan's doses.
+  int band_days = 0, band_hits = 0, band_below = 0;
   double worst_start_error = 0;
   int plans_crossing_on_truth = 0, runs_true_water_out = 0;
   double lowest_true = 1e9, highest_true = -1e9;
@@ -182,6 +185,19 @@ void run_one(std::uint32_t seed, Figures& fig) {
     true_in.demand = plan::demand_from_per_litre(demand, 0, 0, volume_l);
     true_in.limits = plan::default_limits();  // the limits themselves, not the room the plan kept
     const plan::CheckReport truth_check = plan::check_plan(true_in, *p);
+    // The forecast band against the true water under the same doses, day by day until the plan
+    // says to test again (the keeper tests by then and plans anew).
+    REQUIRE(p->uncertainty.has_value());
+    REQUIRE(p->uncertainty->retest.has_value());
+    const int retest_day = p->uncertainty->retest->day;
+    for (std::size_t d = 0; d < p->days.size() && d < truth_check.day_end.size(); ++d) {
+      if (p->days[d].day >= retest_day) break;
+      REQUIRE(p->days[d].end_band[0].has_value());
+      const double t = truth_check.day_end[d].alkalinity_dkh;
+      ++fig.band_days;
+      if (t >= p->days[d].end_band[0]->low && t <= p->days[d].end_band[0]->high) ++fig.band_hits;
+      if (t < p->days[d].end_band[0]->low) ++fig.band_below;
+    }
     if (!truth_check.ok()) {
       ++fig.plans_crossing_on_truth;
       for (const plan::Violation& v : truth_check.violations) {
@@ -237,10 +253,20 @@ TEST_CASE("plan simulation: keepers following adopted plans start within kit pre
               fig.highest_true);
   std::printf("  the estimate's own 95 %% band held the true level in %.2f %% of the plans\n",
               planned ? 100.0 * fig.start_within_own_band / planned : 0.0);
+  const double band_coverage = fig.band_days ? 100.0 * fig.band_hits / fig.band_days : 0.0;
+  std::printf("  the plan's 95 %% forecast band held the true planned level at %.2f %% of %d day ends before the "
+              "plans' test-again day (%d below it, %d above)\n",
+              band_coverage, fig.band_days, fig.band_below, fig.band_days - fig.band_hits - fig.band_below);
   for (const plan::LimitSpec& spec : plan::limit_specs()) {
     const auto k = static_cast<std::size_t>(spec.id);
     if (fig.crossed[k]) std::printf("  %s crossed in %d plans, by up to %.3f %s\n", spec.key, fig.crossed[k], fig.worst_over[k], spec.unit);
   }
+  // The forecast band is not too narrow; it is wider than 95 % here (98.4 % of 30,844 day ends
+  // in 300 runs, 2026-12-04): it carries the filter's demand random walk (0.03 dKH/day per
+  // sqrt(day)) while this simulation's consumption changes at most once, and the truth is
+  // replayed with a constant consumption. Warned above 96 %.
+  CHECK(band_coverage >= 94.0);
+  WARN(band_coverage <= 96.0);
   CHECK(fig.runs == runs);
   CHECK(fig.refused == 0);  // the keeper plans after each test
   // The estimate is honest: its own 95 % band holds the true level in about 95 % of the plans.

@@ -223,6 +223,21 @@ struct CalciumAlkalinityReading {
 CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alkalinity,
                                                  const SeriesEstimate& calcium);
 
+// How the uncertainty of an estimated level grows when it is carried forward with known
+// dosing: today's level sd, the level-demand covariance, the demand's sd, the filter's process
+// noise and any unknown dosing (the same terms forecast_levels uses). The plan reads it to put
+// a band on each forecast level.
+struct LevelSpread {
+  double level_sd = 0.0, level_demand_cov = 0.0, demand_sd = 0.0;
+  double demand_noise_q = 0.0, level_noise_q = 0.0;  // per day^3 and per day (filter's q_d, q_l)
+  double unknown_rate_sd = 0.0, unknown_level_sd = 0.0;
+  // 1 sd of the level `days` (>= 0) after the estimate's time, with the dosing known exactly.
+  double sd_after(double days) const;
+};
+LevelSpread spread_of(const SeriesEstimate& estimate, const FilterOptions& options);
+// The two-sided 95 % point of the normal distribution (1.959964), one constant for every band.
+double z95();
+
 struct ForecastPoint {
   int day = 0;              // days after the estimate's time
   double time_days = 0.0;

@@ -31,6 +31,7 @@
 #include <vector>
 
 #include "tidewright/additives/additives.hpp"
+#include "tidewright/estimate/estimate.hpp"
 #include "tidewright/common/result.hpp"
 
 namespace tw::plan {
@@ -164,6 +165,15 @@ struct PlanInput {
   double salinity_tolerance = 1.0;   // drift the water change should hold, salinity units
                                      // (chosen here: about a hobby refractometer's reading step)
   std::string start_date = "2026-12-02";  // YYYY-MM-DD, day 1 of the plan (for calendars)
+  // How sure the starting levels and the demand are (alkalinity, calcium, magnesium), when they
+  // come from an estimate (apply_journal_basis fills them; absent = taken as exact). With them
+  // the plan puts a 95 % band on every forecast level, pH and Omega, names the day to test again
+  // and says what the room kept for the band costs (plan_bands.cpp). The time of the estimate
+  // is the plan's start (day 1, 00:00).
+  std::array<std::optional<estimate::LevelSpread>, 3> spread;
+  // The limits as the keeper set them, before keep_room_for_uncertainty tightened `limits`:
+  // the band is checked against these.
+  std::optional<Limits> limits_as_set;
 };
 
 // ---------------------------------------------------------------- 3. Output
@@ -192,9 +202,18 @@ struct Moment {
   bool after_dose = false;
 };
 
+// A 95 % band (absent when the plan's start is taken as exact).
+struct Band95 {
+  double low = 0, high = 0;
+};
+
 struct DaySummary {
   int day = 1;
   WaterState start, end;
+  // 95 % bands at the day's end of alkalinity, calcium, magnesium, pH (total) and Omega
+  // aragonite, from the uncertainty of the starting levels and the demand (plan_bands.cpp).
+  std::array<std::optional<Band95>, 3> end_band;
+  std::optional<Band95> end_ph_band, end_omega_band;
   std::vector<double> amount_per_delivery;  // total mL or g per delivery that day
   // Largest rise and fall over any 24-hour window that ends during this day.
   double rise_alkalinity_dkh = 0, rise_calcium_mg_l = 0, rise_magnesium_mg_l = 0;
@@ -255,7 +274,30 @@ struct Verdict {
   std::vector<TargetConflict> target_conflicts;  // targets the room air puts out of bounds (flags)
 };
 
+// When to test again: the first moment a 95 % band (of a level, or of pH or Omega from the
+// levels' bands) would reach a limit as the keeper set it, or a level's estimate would grow
+// stale (estimate::useful_horizon_days), whichever comes first; test before it.
+struct Retest {
+  int day = 1, minute = 0;        // test before this moment (day 1-based, minute of the day)
+  std::string parameter;          // whose band or estimate sets it
+  std::optional<LimitId> limit;   // the limit the band would reach (absent: staleness or plan end)
+  std::string message;            // plain words with the date
+};
+// What keeping the band inside the limits costs, against the same plan with the limits as set.
+struct MarginCost {
+  std::vector<std::string> room;     // one line per tightened limit: as set -> planned
+  std::array<std::optional<int>, 3> target_day_without_room;  // alkalinity, calcium, magnesium
+  std::vector<double> amount_without_room;  // total mL or g per delivery over the horizon
+  std::vector<double> amount_with_room;
+  std::string summary;               // plain words
+};
+struct PlanUncertainty {
+  std::optional<Retest> retest;
+  std::optional<MarginCost> cost;    // absent when no limit was tightened
+};
+
 struct Plan {
+  std::optional<PlanUncertainty> uncertainty;  // when the input carries a spread
   std::vector<DoseRecord> doses;
   std::vector<DaySummary> days;
   std::vector<Moment> timeline;  // every predicted state: each slot, each dose, each day end

@@ -25,6 +25,7 @@ struct JournalLevel {
   double demand_low95 = 0, demand_high95 = 0;
   bool demand_known = false;                 // two used tests at different times
   std::string last_test_date;                // YYYY-MM-DD (UTC)
+  estimate::LevelSpread spread;              // how the level's sd grows from now (plan bands)
 };
 
 struct JournalPlanBasis {
@@ -71,14 +72,20 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
 Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal, journal::SystemId system,
                                                  const BasisOptions& options);
 
-// Honest precision: tightens the limits by the 95 % uncertainty of the basis's estimates (the
-// largest rise and fall per day by 1.96 x the consumption's sd, a level's ceiling and floor by
-// 1.96 x the level's sd; never by more than half the room), so a plan from estimates does not
-// run the true water over a limit. One line per tightened limit. Called by apply_journal_basis.
-void keep_room_for_uncertainty(const JournalPlanBasis& basis, Limits& limits, std::vector<std::string>& lines);
+// Honest precision: tightens the limits by the 95 % uncertainty of the basis's estimates, so a
+// plan from estimates does not run the true water over a limit: the largest rise and fall per
+// day by 1.96 x the consumption's sd; a level's ceiling and floor by 1.96 x the level's sd
+// today; the pH and Omega ceilings after a dose and floors by the band those levels' bands give
+// them at the input's water (never by more than a quarter of the room between a floor and its
+// ceiling). The band widens as the plan goes on; the plan names the moment to test again
+// before it reaches a limit as set (Plan::uncertainty). Sets input.spread and
+// input.limits_as_set. One line per tightened limit. Called by apply_journal_basis, which has
+// put the basis's levels into input.system.
+void keep_room_for_uncertainty(const JournalPlanBasis& basis, PlanInput& input, std::vector<std::string>& lines);
 
 // Overrides the input's system state and demand with the basis (and keeps room in the limits
-// for the estimates' uncertainty, keep_room_for_uncertainty). A parameter without an
+// for the estimates' uncertainty, keep_room_for_uncertainty; input.spread and
+// input.limits_as_set are set so the plan carries bands). A parameter without an
 // estimate keeps the input's value (its level, and its demand if the demand is unknown); the
 // returned lines say what was kept. Returns the provenance lines to show with the plan.
 std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, PlanInput& input);
