@@ -123,6 +123,84 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
   });
 
+  test(`hatchery: a brackish intake with measured calcium and the low-salinity constants; refusals name the field and range (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.hatchery');
+    // Salinity 8: below the default K1 K2 set's range, so the core suggests Millero 2010 and
+    // says calcium was scaled from salinity and how far that can be off (issue 18).
+    await tap(page, 'hatchery.salinity');
+    await enter(page, '8');
+    let h = (await state(page)).hatchery;
+    check(h.salinity === 8, `salinity not taken: ${h.salinity}`);
+    check(h.k1k2 === 'lueker2000' && /Millero \(2010\)/.test(h.k1k2_suggestion || ''), `no suggestion of the low-salinity set: ${h.k1k2_suggestion}`);
+    check(/calcium from salinity/.test(h.calcium_source || '') && /measure calcium/.test(h.calcium_source),
+      `calcium note missing or without the low-salinity caution: ${h.calcium_source}`);
+    check((h.warnings || []).includes(h.calcium_source), 'the low-salinity calcium note is not among the warnings');
+    const scaledOmega = h.omega_intake;
+    await reveal(page, 'hatchery.k1k2.1');
+    await shot(page, `${label}-hatchery-brackish-suggestion`);
+    await reveal(page, 'hatchery.cautions');
+    await shot(page, `${label}-hatchery-brackish-note`);
+    await tap(page, 'hatchery.k1k2.1');
+    h = (await state(page)).hatchery;
+    check(h.k1k2 === 'millero2010' && h.k1k2_suggestion === null, `the chosen set or the suggestion is wrong: ${h.k1k2} ${h.k1k2_suggestion}`);
+    // A calcium outside the accepted range is refused with the field's name and the range; the
+    // form keeps what it had.
+    await tap(page, 'hatchery.calcium');
+    await enter(page, '5000');
+    let s = await state(page);
+    check(s.message_is_error && /Calcium/.test(s.message) && /0 to 1000 mg\/L/.test(s.message), `no clear refusal of 5000 mg/L: "${s.message}"`);
+    check(s.hatchery.calcium_mg_l === null, 'a refused calcium was kept');
+    // Measured calcium: the saturation uses it (twice the scaled calcium, twice Omega: Omega is
+    // proportional to calcium at a fixed carbonate ion).
+    await tap(page, 'hatchery.calcium');
+    await enter(page, '150');
+    h = (await state(page)).hatchery;
+    check(h.calcium_mg_l === 150 && /calcium as measured/.test(h.calcium_source || ''), `measured calcium not used: ${h.calcium_source}`);
+    check(h.omega_intake > scaledOmega, `Omega did not rise with measured calcium above the scaled value: ${h.omega_intake} <= ${scaledOmega}`);
+    await reveal(page, 'hatchery.calcium');
+    await shot(page, `${label}-hatchery-brackish-measured`);
+    await reveal(page, 'hatchery.cautions');
+    await shot(page, `${label}-hatchery-brackish-measured-note`);
+    await tap(page, 'hatchery.calcium.clear');
+    h = (await state(page)).hatchery;
+    check(h.calcium_mg_l === null && /calcium from salinity/.test(h.calcium_source || ''), 'clearing calcium did not return to salinity scaling');
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
+  test(`water: measured calcium from the log, or typed; the calcium note (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.water');
+    let s = await state(page);
+    const w0 = s.water;
+    check(/calcium/.test(w0.source), `the source line does not say where calcium came from: ${w0.source}`);
+    // The demo logs calcium: the Water screen starts from the latest logged value.
+    check(s.latest.calcium_mg_l !== null && w0.calcium_mg_l === s.latest.calcium_mg_l && /calcium as measured/.test(w0.calcium_source),
+      `the latest logged calcium (${s.latest.calcium_mg_l}) is not the Water screen's (${w0.calcium_mg_l}): ${w0.calcium_source}`);
+    await tap(page, 'water.calcium');
+    await enter(page, '1500');
+    s = await state(page);
+    check(s.message_is_error && /Calcium/.test(s.message) && /0 to 1000 mg\/L/.test(s.message), `no clear refusal of 1500 mg/L: "${s.message}"`);
+    await tap(page, 'water.calcium');
+    await enter(page, '210');
+    s = await state(page);
+    check(s.water.calcium_mg_l === 210 && /calcium as measured/.test(s.water.calcium_source), `typed calcium not used: ${s.water.calcium_source}`);
+    const omega210 = s.water.omega_aragonite;
+    await tap(page, 'water.calcium');
+    await enter(page, '420');
+    s = await state(page);
+    // Omega is proportional to calcium at the same alkalinity and pH (calcium does not enter the
+    // acid-base equilibria here): twice the calcium, twice Omega.
+    check(Math.abs(s.water.omega_aragonite / omega210 - 2) < 0.01, `Omega ${s.water.omega_aragonite} is not twice ${omega210}`);
+    await reveal(page, 'water.calcium');
+    await shot(page, `${label}-water-calcium`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+
   test(`mixes: recipe to strength, effect to recipe, solubility (${label})`, async () => {
     const { context, page, errors } = await open(opts);
     await tap(page, 'tab.mixes');

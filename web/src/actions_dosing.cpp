@@ -114,6 +114,18 @@ void refresh_hatchery(AppState& app) {
   hat::Water water;
   water.salinity = f.salinity;
   water.temperature_c = f.temperature_c;
+  water.k1k2 = f.k1k2;
+  {
+    cb::Conditions here;
+    here.salinity = f.salinity;
+    here.temperature_c = f.temperature_c;
+    here.k1k2 = f.k1k2;
+    out.k1k2_suggestion = cb::suggest_k1k2(here);
+  }
+  if (f.calcium_mg_l) {
+    water.calcium_umol_kg =
+        tw::units::ion_to_umol_kg(*f.calcium_mg_l, tw::units::ConcentrationUnit::MgPerL, tw::units::Ion::Calcium, density);
+  }
   water.measurements = {{cb::Quantity::Alkalinity,
                          tw::units::alkalinity_to_umol_kg(f.alkalinity_dkh, tw::units::AlkalinityUnit::DKH, density)},
                         {cb::Quantity::PH, f.ph},

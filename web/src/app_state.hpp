@@ -55,6 +55,7 @@ struct WaterInputs {
   double dic_umol_kg = 2000;
   double salinity = 35;
   double temperature_c = 25;
+  std::optional<double> calcium_mg_l;  // measured (latest logged); absent = from salinity
   bool what_if = false;  // false: filled from the current system's latest readings
   std::string source;    // where the numbers came from, in words
   bool operator==(const WaterInputs&) const = default;
@@ -86,6 +87,7 @@ struct WaterResult {
   tw::carbonate::CarbonateState state;     // at the inputs
   std::optional<tw::carbonate::CarbonateState> air;  // same alkalinity, at the room's CO2
   std::string air_error;
+  tw::carbonate::CalciumSource calcium;    // where the saturation's calcium came from (core)
   SpeciesCurve curve;
   // Standard uncertainty of each output from the readings' precision (Orr et al. 2018 linear
   // propagation in the core); unset with u_error when it could not be computed.

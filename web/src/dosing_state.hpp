@@ -80,6 +80,8 @@ struct HatcheryForm {
   double alkalinity_dkh = 6.2;      // intake alkalinity (shown in the user's unit)
   double ph = 7.75;                 // intake pH on ph_scale
   tw::carbonate::PhScale ph_scale = tw::carbonate::PhScale::Total;
+  std::optional<double> calcium_mg_l;  // measured; absent = from salinity (core says how far off)
+  tw::carbonate::K1K2Option k1k2 = tw::carbonate::K1K2Option::Lueker2000;
   tw::hatchery::TargetKind target_kind = tw::hatchery::TargetKind::OmegaAragonite;
   double target_omega = 2.0;
   double target_ph = 8.0;           // on ph_scale
@@ -105,6 +107,8 @@ struct HatcheryCache {
   std::optional<tw::hatchery::BatchPlan> batch;
   std::optional<tw::hatchery::PumpTable> table;
   std::string table_error;
+  // The core's suggestion of another K1 K2 set for this water (carbonate::suggest_k1k2).
+  std::optional<tw::carbonate::K1K2Suggestion> k1k2_suggestion;
   int computed_count = 0;
 };
 

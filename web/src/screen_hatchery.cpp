@@ -60,6 +60,26 @@ void draw_water_form(AppState& app, HatcheryForm& f) {
     f.ph_scale = kScales[scale];
   }
   ui::number_field(app, "hatchery.ph", {"pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.0, 10.0}, &f.ph);
+  // Measured calcium (empty: the core scales it from salinity and says how far that can be off).
+  ui::optional_number_field(app, "hatchery.calcium",
+                            {"Calcium (measured)", jn::kCalciumMgLRange.unit, 0, 10, jn::kCalciumMgLRange.lo,
+                             jn::kCalciumMgLRange.hi},
+                            &f.calcium_mg_l);
+  if (f.calcium_mg_l && ui::button(app, "hatchery.calcium.clear", "Scale calcium from salinity instead", -1, ui::Tone::Quiet)) {
+    f.calcium_mg_l.reset();
+  }
+  // Carbonic acid constants for this water; below the default set's range the core suggests
+  // the low-salinity set with its reason (computed with the results, not every frame).
+  int set = f.k1k2 == cb::K1K2Option::Millero2010 ? 1 : 0;
+  const char* const sets[] = {"Lueker et al. 2000", "Millero 2010"};
+  if (ui::choice(app, "hatchery.k1k2", "Carbonic acid constants (K1 K2)", &set, sets, 2)) {
+    f.k1k2 = set == 1 ? cb::K1K2Option::Millero2010 : cb::K1K2Option::Lueker2000;
+  }
+  const HatcheryCache& c = app.ui.dosing.hatchery_cache;
+  if (c.valid && c.key == f && c.k1k2_suggestion) {
+    ui::colored_wrapped(theme::kWarning,
+                        ("Suggested: Millero 2010 (choose it above). The " + c.k1k2_suggestion->reason + ".").c_str());
+  }
   ui::card_end(app);
 }
 
@@ -170,6 +190,13 @@ void list(const std::vector<std::string>& lines, ImU32 color) {
   for (const std::string& l : lines) ui::colored_wrapped(color, ("\u2022 " + l).c_str());
 }
 
+// Where calcium came from (the core's sentence). At low salinity the same sentence is one of
+// the warnings listed below it, drawn there in the warning colour instead.
+void calcium_line(const hat::Treatment& t) {
+  if (std::find(t.warnings.begin(), t.warnings.end(), t.calcium_source) == t.warnings.end())
+    ui::dim_text(("Saturation uses " + t.calcium_source + ".").c_str());
+}
+
 void draw_flow_result(AppState& app, const hat::FlowPlan& p) {
   ui::card_begin(app);
   ui::heading(app, p.treatment.dose_needed ? "Dose" : "No dose needed");
@@ -193,6 +220,7 @@ void draw_flow_result(AppState& app, const hat::FlowPlan& p) {
     ui::dim_text(("Blend: " + fmtx::fixed(100 * p.treatment.carbonate_share, 0) + "% of the added alkalinity as carbonate.").c_str());
   }
   water_table(app, p.treatment, false);
+  calcium_line(p.treatment);
   list(p.warnings, theme::kWarning);
   ui::card_end(app);
 }
@@ -207,6 +235,7 @@ void draw_batch_result(AppState& app, const hat::BatchPlan& p) {
   }
   ui::dim_text("Dissolve in a bucket of tank water first and add it slowly where the water moves.");
   water_table(app, p.treatment, true);
+  calcium_line(p.treatment);
   list(p.warnings, theme::kWarning);
   ui::card_end(app);
 }

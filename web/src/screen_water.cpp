@@ -84,6 +84,15 @@ void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
     ui::dim_text(("Water left to settle with the room's air at " + fmtx::fixed(app.settings.room_co2_ppm, 0) +
                   " ppm CO\u2082 (change it in Settings).").c_str());
   }
+  // Empty: the core scales calcium from salinity and says so under the results.
+  changed |= ui::optional_number_field(app, "water.calcium",
+                                       {"Calcium (measured)", jn::kCalciumMgLRange.unit, 0, 10, jn::kCalciumMgLRange.lo,
+                                        jn::kCalciumMgLRange.hi},
+                                       &w.calcium_mg_l);
+  if (w.calcium_mg_l && ui::button(app, "water.calcium.clear", "Scale calcium from salinity instead", -1, ui::Tone::Quiet)) {
+    w.calcium_mg_l.reset();
+    changed = true;
+  }
   changed |= ui::number_field(app, "water.salinity", {"Salinity", "psu", 1, 0.5, jn::kSalinityRange.lo, jn::kSalinityRange.hi}, &w.salinity);
   double t = fmtx::temperature_shown(w.temperature_c, u.temperature);
   if (ui::number_field(app, "water.temperature",
@@ -241,6 +250,9 @@ void draw_results(AppState& app, const jn::UnitPreferences& u) {
   } else if (!r.air_error.empty()) {
     ui::colored_wrapped(theme::kWarning, r.air_error.c_str());
   }
+  // Where calcium came from (the core's sentence); at low salinity the same sentence is one of
+  // the warnings below, drawn there in the warning colour instead.
+  if (!r.calcium.low_salinity) ui::dim_text(("Saturation uses " + r.calcium.note + ".").c_str());
   for (const auto& wmsg : s.warnings) ui::colored_wrapped(theme::kWarning, wmsg.c_str());
   (void)e;
 }

@@ -51,10 +51,12 @@ std::string state_json() {
                    {"when_s", a.ui.log.when_s ? json(*a.ui.log.when_s) : json(nullptr)}};
   const LatestReadings r = latest_readings(a);
   j["latest"] = {{"alkalinity_dkh", opt(r.alkalinity_dkh)}, {"ph", opt(r.ph)},
-                 {"salinity", opt(r.salinity)}, {"temperature_c", opt(r.temperature_c)}};
+                 {"salinity", opt(r.salinity)}, {"temperature_c", opt(r.temperature_c)},
+                 {"calcium_mg_l", opt(r.calcium_mg_l)}};
   const WaterResult& w = a.water_result;
   json water = {{"ok", w.ok}, {"error", w.error}, {"what_if", a.water.what_if}, {"source", a.water.source},
-                {"computed_count", w.computed_count},
+                {"computed_count", w.computed_count}, {"calcium_mg_l", opt(a.water.calcium_mg_l)},
+                {"calcium_source", w.calcium.note},
                 {"inputs", {{"pair", static_cast<int>(a.water.pair)}, {"alkalinity_dkh", a.water.alkalinity_dkh},
                             {"ph", a.water.ph}, {"ph_scale", jn::ph_scale_name(a.water.ph_scale)},
                             {"salinity", a.water.salinity}, {"temperature_c", a.water.temperature_c}}}};
@@ -139,6 +141,22 @@ std::string state_json() {
       per.push_back(o);
     }
     j["demand"] = {{"system", dc.system}, {"now_days", dc.now_days}, {"parameters", per}};
+  }
+  // The Hatchery screen's form and last result (issue 18: measured calcium, the K1 K2 set and
+  // the core's suggestion of another set, where calcium came from).
+  {
+    const HatcheryForm& hf = a.ui.dosing.hatchery;
+    const HatcheryCache& hc = a.ui.dosing.hatchery_cache;
+    json h = {{"salinity", hf.salinity}, {"calcium_mg_l", opt(hf.calcium_mg_l)},
+              {"k1k2", tw::carbonate::to_string(hf.k1k2)}, {"error", hc.error},
+              {"k1k2_suggestion", hc.k1k2_suggestion ? json(hc.k1k2_suggestion->reason) : json(nullptr)}};
+    const tw::hatchery::Treatment* t = hc.flow ? &hc.flow->treatment : hc.batch ? &hc.batch->treatment : nullptr;
+    if (hc.valid && t) {
+      h["calcium_source"] = t->calcium_source;
+      h["omega_intake"] = t->intake.omega_aragonite;
+      h["warnings"] = t->warnings;
+    }
+    j["hatchery"] = h;
   }
   // The current system's schedules running now or starting later (as the Log screen lists them).
   json schedules = json::array();

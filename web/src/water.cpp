@@ -40,7 +40,10 @@ LatestReadings latest_readings(const AppState& app) {
   if (cond.salinity.time_s) r.salinity = cond.salinity.value;
   if (cond.temperature_c.time_s) r.temperature_c = cond.temperature_c.value;
   if (const jn::Event* e = last(jn::Parameter::Calcium)) {
-    if (auto v = jn::canonical_value(std::get<jn::TestResult>(e->data)); v) r.calcium_mg_l = *v;
+    if (auto v = jn::canonical_value(std::get<jn::TestResult>(e->data)); v) {
+      r.calcium_mg_l = *v;
+      r.calcium_time_s = e->time_s;
+    }
   }
   return r;
 }
@@ -60,6 +63,7 @@ void fill_from_journal(AppState& app) {
   w.pair = r.ph ? WaterPair::AlkalinityPH : WaterPair::AlkalinityAir;
   w.salinity = r.salinity.value_or(sys->default_salinity);
   w.temperature_c = r.temperature_c.value_or(sys->default_temperature_c);
+  w.calcium_mg_l = r.calcium_mg_l;
   std::string src = "Latest readings of " + sys->name + ": ";
   if (r.alkalinity_dkh) {
     w.alkalinity_dkh = *r.alkalinity_dkh;
@@ -75,6 +79,8 @@ void fill_from_journal(AppState& app) {
   } else {
     src += "; no pH logged, so pH is taken at equilibrium with the room's air";
   }
+  src += r.calcium_mg_l ? ", calcium " + fmtx::local_time_text(r.calcium_time_s, tz)
+                        : std::string("; no calcium logged, so calcium is scaled from salinity");
   src += r.salinity ? "" : "; salinity from the system's default";
   src += r.temperature_c ? "" : "; temperature from the system's default";
   w.source = src + ".";
@@ -144,6 +150,11 @@ void refresh_water(AppState& app) {
   cond.salinity = w.salinity;
   cond.temperature_c = w.temperature_c;
   cond.convention = app.settings.constants_convention;
+  out.density_kg_per_l = tw::seawater::density_kg_per_l(w.salinity, w.temperature_c);
+  if (w.calcium_mg_l) {
+    cond.calcium_umol_kg = tw::units::ion_to_umol_kg(*w.calcium_mg_l, tw::units::ConcentrationUnit::MgPerL,
+                                                     tw::units::Ion::Calcium, out.density_kg_per_l);
+  }
   auto constants = cb::compute_constants(cond);
   if (!constants) {
     out.error = constants.error().message;
@@ -151,7 +162,7 @@ void refresh_water(AppState& app) {
     return;
   }
   const cb::Constants& k = *constants;
-  out.density_kg_per_l = tw::seawater::density_kg_per_l(w.salinity, w.temperature_c);
+  out.calcium = k.calcium;
   const double alk = tw::units::alkalinity_to_umol_kg(w.alkalinity_dkh, tw::units::AlkalinityUnit::DKH,
                                                       out.density_kg_per_l);
   tw::Result<cb::CarbonateState> state = tw::Error{"", ""};
