@@ -10,6 +10,7 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
+#include "chem_uncertainty.hpp"
 #include "commands.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
 #include "tidewright/seawater/seawater.hpp"
@@ -46,6 +47,9 @@ struct BufferOptions {
   std::optional<double> from, to;
   double step = 0.05;
   bool json = false, csv = false;
+  // dosing to a confidence: the intake readings' precision (the chem options) and the probability
+  ChemPrecisionOptions precision;
+  std::optional<double> confidence_percent;
 };
 
 // Core field names -> command-line options, so that every one-line reason names the option.
@@ -58,7 +62,7 @@ const std::vector<std::pair<std::string, std::string>> kFieldOptions = {
     {"stock_g_per_l", "--stock-g-per-l"}, {"stock_fraction_of_saturation", "--stock-saturation-fraction"},
     {"volume_l", "--volume"}, {"temperature_c", "--temperature"}, {"salinity", "--salinity"},
     {"alkalinity_umol_kg", "--alkalinity"}, {"flow", "--flow"}, {"step", "--step"}, {"to", "--to"},
-    {"ph", "--ph"}, {"calcium_umol_kg", "--calcium"}};
+    {"ph", "--ph"}, {"calcium_umol_kg", "--calcium"}, {"confidence", "--confidence"}};
 
 [[noreturn]] void fail(const Error& e) {
   std::string msg = e.message;
@@ -174,6 +178,38 @@ hy::Settings settings_of(const BufferOptions& o) {
   return s;
 }
 
+// Dosing to a confidence when --confidence, --uncertainty or a precision option is given: the
+// intake readings' uncertainties (kit defaults from the core's table, replaced by each option)
+// and the probability (default 95 %).
+void add_confidence(const BufferOptions& o, const hy::Water& w, hy::Settings& s) {
+  if (!o.confidence_percent && !o.precision.wanted()) return;
+  const double percent = o.confidence_percent.value_or(95.0);
+  if (auto r = check_range("--confidence", percent, 50.0, 99.9, "%"); !r) throw CommandError(r.error().message);
+  cb::Conditions c;
+  c.salinity = w.salinity;
+  c.temperature_c = w.temperature_c;
+  c.k1k2 = w.k1k2;
+  c.calcium_umol_kg = w.calcium_umol_kg;
+  ChemUnits un;
+  un.density_kg_l = seawater::density_kg_per_l(w.salinity, w.temperature_c);
+  if (auto a = units::alkalinity_unit_from_string(o.alkalinity_unit)) un.alkalinity = *a;
+  if (auto ca = units::concentration_unit_from_string(o.calcium_unit)) un.calcium = *ca;
+  hy::Confidence conf;
+  conf.probability = percent / 100.0;
+  conf.intake = input_uncertainties(o.precision, c, w.measurements, un);
+  s.confidence = conf;
+}
+
+json confidence_json(const hy::Treatment& t) {
+  if (!t.confidence) return nullptr;
+  const hy::ConfidenceReport& r = *t.confidence;
+  return {{"probability", r.probability}, {"z_one_sided", r.z},
+          {"added_alkalinity_umol_kg", r.added_alkalinity_umol_kg},
+          {"centre_added_alkalinity_umol_kg", r.centre_added_alkalinity_umol_kg},
+          {"target_value", r.target_value}, {"target_u", r.target_u}, {"target_bound", r.target_bound},
+          {"ph_max", r.ph_max}, {"ph_u", r.ph_u}, {"ph_bound", r.ph_bound}, {"summary", r.summary}};
+}
+
 double flow_l_per_min(const BufferOptions& o) {
   if (!o.flow) throw CommandError("--flow is required (intake flow, in --flow-unit)");
   auto unit = hy::flow_unit_from_string(o.flow_unit);
@@ -256,7 +292,8 @@ std::string notes_text(const std::vector<std::string>& warnings, const std::vect
 
 void run_flow(const BufferOptions& o) {
   const hy::Water w = water_of(o, false);
-  const hy::Settings s = settings_of(o);
+  hy::Settings s = settings_of(o);
+  add_confidence(o, w, s);
   const double flow = flow_l_per_min(o);
   const hy::FlowPlan p = or_fail(hy::plan_flow(w, flow, s));
   if (o.json) {
@@ -273,6 +310,7 @@ void run_flow(const BufferOptions& o) {
     }
     json out = {{"mode", "flow"}, {"flow_l_per_min", flow}, {"additive", hy::to_string(s.buffer)},
                 {"treatment", treatment_json(p.treatment)}, {"lines", lines},
+                {"confidence", confidence_json(p.treatment)},
                 {"warnings", p.warnings}, {"cautions", p.cautions}};
     std::cout << out.dump(2) << "\n";
     return;
@@ -290,13 +328,15 @@ void run_flow(const BufferOptions& o) {
     out += fmt::format("          metering pump {:.2f} mL/min ({:.1f} L of stock per day)\n", l.pump_ml_per_min,
                        l.stock_litres_per_day);
   }
+  if (p.treatment.confidence) out += "\nConfidence\n  " + p.treatment.confidence->summary + "\n";
   out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions, p.treatment.calcium_source);
   std::fwrite(out.data(), 1, out.size(), stdout);
 }
 
 void run_batch(const BufferOptions& o) {
   const hy::Water w = water_of(o, false);
-  const hy::Settings s = settings_of(o);
+  hy::Settings s = settings_of(o);
+  add_confidence(o, w, s);
   if (!o.volume) throw CommandError("--volume is required (tank volume, in --volume-unit)");
   auto unit = units::volume_unit_from_string(o.volume_unit);
   if (!unit) throw CommandError("--volume-unit '" + o.volume_unit + "' is not known; accepted: L, gal");
@@ -310,7 +350,8 @@ void run_batch(const BufferOptions& o) {
     }
     json out = {{"mode", "batch"}, {"volume_l", p.volume_l}, {"water_mass_kg", p.water_mass_kg},
                 {"additive", hy::to_string(s.buffer)}, {"treatment", treatment_json(p.treatment)},
-                {"additions", adds}, {"warnings", p.warnings}, {"cautions", p.cautions}};
+                {"additions", adds}, {"confidence", confidence_json(p.treatment)},
+                {"warnings", p.warnings}, {"cautions", p.cautions}};
     std::cout << out.dump(2) << "\n";
     return;
   }
@@ -322,15 +363,21 @@ void run_batch(const BufferOptions& o) {
     out += fmt::format("  {:<7} {:10.2f} g  ({:.1f} umol/kg, {:.2f} mg/kg)\n", hy::formula_of(a.compound), a.grams,
                        a.umol_per_kg, a.grams * 1000.0 / p.water_mass_kg);
   }
+  if (p.treatment.confidence) out += "\nConfidence\n  " + p.treatment.confidence->summary + "\n";
   out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions, p.treatment.calcium_source);
   std::fwrite(out.data(), 1, out.size(), stdout);
 }
 
 void run_table(const BufferOptions& o) {
   const hy::Water w = water_of(o, true);
-  const hy::Settings s = settings_of(o);
+  hy::Settings s = settings_of(o);
   const double flow = flow_l_per_min(o);
   if (!o.from || !o.to) throw CommandError("--from and --to are required (range of the --vary reading)");
+  {
+    hy::Water first = w;  // the precisions are checked against the first row's reading
+    first.measurements.first.value = *o.from;
+    add_confidence(o, first, s);
+  }
   hy::TableRange r{w.measurements.first.quantity, *o.from, *o.to, o.step};
   const hy::PumpTable t = or_fail(hy::build_pump_table(w, flow, r, s));
   std::string out;
@@ -347,7 +394,11 @@ void run_table(const BufferOptions& o) {
                       {"grams_per_hour", grams}, {"ph_total_after_mixing", row.ph_total_after_mixing},
                       {"omega_aragonite_after_mixing", row.omega_aragonite_after_mixing},
                       {"ph_total_at_tanks", row.ph_total_at_tanks},
-                      {"omega_aragonite_at_tanks", row.omega_aragonite_at_tanks}});
+                      {"omega_aragonite_at_tanks", row.omega_aragonite_at_tanks},
+                      {"confidence", row.confidence ? json{{"target_bound", row.confidence->target_bound},
+                                                           {"ph_bound", row.confidence->ph_bound},
+                                                           {"probability", row.confidence->probability}}
+                                                     : json(nullptr)}});
     }
     json stocks = json::object();
     for (size_t k = 0; k < t.columns.size(); ++k) stocks[hy::formula_of(t.columns[k])] = t.stock_g_per_l[k];
@@ -390,6 +441,10 @@ void add_common(CLI::App* c, BufferOptions& o) {
   c->add_option("--stock-g-per-l", o.stock_g_per_l, "Stock strength, g of anhydrous salt per L of solution (default: from saturation)");
   c->add_option("--stock-saturation-fraction", o.stock_fraction, "Default stock strength as a fraction of saturation")->default_str("0.8");
   c->add_flag("--json", o.json, "Print JSON instead of text");
+  c->add_option("--confidence", o.confidence_percent,
+                "Dose so the target is reached, and the pH ceiling holds, with this probability [%] (50 to 99.9) "
+                "given the intake readings' precision (default 95 with --uncertainty or a precision option)");
+  add_precision_options(*c, o.precision);
 }
 
 }  // namespace

@@ -317,6 +317,7 @@ Treatment make_treatment(const detail::Line& line, const detail::Chain& chain,
 
 Result<Treatment> plan_treatment(const Water& water, const Settings& s) {
   if (auto v = detail::validate_settings(s); !v) return v.error();
+  if (s.confidence) return detail::treatment_to_confidence(water, s);
   const double phi = degassing_fraction(s.gas).value();
   auto line = detail::solve_intake(water);
   if (!line) return line.error();

@@ -56,4 +56,8 @@ struct BlendSearch {
 };
 Result<BlendSearch> blend_for_target(const Line& line, const Settings& settings, double phi);
 
+// Settings::confidence set: the dose for the raised target under the lowered ceiling
+// (hatchery_confidence.cpp); plan_treatment calls it.
+Result<Treatment> treatment_to_confidence(const Water& water, const Settings& settings);
+
 }  // namespace tw::hatchery::detail

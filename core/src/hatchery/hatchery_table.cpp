@@ -107,6 +107,7 @@ Result<PumpTable> build_pump_table(const Water& intake, double flow_l_per_min,
     row.omega_aragonite_after_mixing = tr.after_mixing.omega_aragonite;
     row.ph_total_at_tanks = tr.at_tanks.ph_total;
     row.omega_aragonite_at_tanks = tr.at_tanks.omega_aragonite;
+    row.confidence = tr.confidence;
     if (!tr.dose_needed) row.note = "no dose needed";
     for (const StockLine& sl : plan->lines) {
       for (size_t k = 0; k < t.columns.size(); ++k) {
@@ -128,9 +129,16 @@ std::string pump_table_csv(const PumpTable& t) {
     head.push_back(fmt::format("{}_g_per_h", formula_of(c)));
   }
   for (const char* h : {"ph_total_after_mixing", "omega_aragonite_after_mixing", "ph_total_at_tanks",
-                        "omega_aragonite_at_tanks", "note"}) {
+                        "omega_aragonite_at_tanks"}) {
     head.push_back(h);
   }
+  // Dosing to a confidence: the target's one-sided bound and the highest pH's, at that probability.
+  const bool conf = t.settings.confidence.has_value();
+  if (conf) {
+    head.push_back(fmt::format("target_at_least_{:g}pct", 100 * t.settings.confidence->probability));
+    head.push_back(fmt::format("ph_max_at_most_{:g}pct", 100 * t.settings.confidence->probability));
+  }
+  head.push_back("note");
   std::string out = csv::format_row(head);
   const int dp = decimals_of(t.range.varied) + 1;
   for (const TableRow& r : t.rows) {
@@ -146,6 +154,10 @@ std::string pump_table_csv(const PumpTable& t) {
     cells.push_back(num(r.omega_aragonite_after_mixing, 3));
     cells.push_back(num(r.ph_total_at_tanks, 3));
     cells.push_back(num(r.omega_aragonite_at_tanks, 3));
+    if (conf) {
+      cells.push_back(r.ok && r.confidence ? fmt::format("{:.3f}", r.confidence->target_bound) : std::string());
+      cells.push_back(r.ok && r.confidence ? fmt::format("{:.3f}", r.confidence->ph_bound) : std::string());
+    }
     cells.push_back(r.note);
     out += csv::format_row(cells, true);
   }
@@ -173,7 +185,10 @@ std::string pump_table_text(const PumpTable& t) {
                              : std::string(cb::to_string(t.range.varied));
   std::string head = fmt::format("{:>9} {:>7}", rl, "Omega");
   for (Compound c : t.columns) head += fmt::format(" {:>14}", fmt::format("{} mL/min", formula_of(c)));
-  head += fmt::format(" {:>8} {:>7}  {}", "pH_T out", "Om out", "note");
+  const bool conf = t.settings.confidence.has_value();
+  head += fmt::format(" {:>8} {:>7}", "pH_T out", "Om out");
+  if (conf) head += fmt::format(" {:>10} {:>10}", "target >=", "pH max <=");
+  head += "  note";
   out += head + "\n";
   out += std::string(head.size() + 10, '-') + "\n";
   const int dp = decimals_of(t.range.varied);
@@ -189,10 +204,18 @@ std::string pump_table_text(const PumpTable& t) {
                        std::fabs(r.ph_total_at_tanks - r.ph_total_after_mixing) > 1e-9;
     line += fmt::format(" {:>8.3f} {:>7.2f}", tanks ? r.ph_total_at_tanks : r.ph_total_after_mixing,
                         tanks ? r.omega_aragonite_at_tanks : r.omega_aragonite_after_mixing);
+    if (conf && r.confidence) line += fmt::format(" {:>10.3f} {:>10.3f}", r.confidence->target_bound, r.confidence->ph_bound);
     if (!r.note.empty()) line += "  " + r.note;
     out += line + "\n";
   }
-  out += "\n\"out\" is the water reaching the tanks (after mixing and any gas exchange).\nCautions:\n";
+  out += "\n\"out\" is the water reaching the tanks (after mixing and any gas exchange).\n";
+  if (conf) {
+    out += fmt::format("Dosed for {:g} % confidence from the intake readings' precision: \"target >=\" is what the "
+                       "target reaches with that probability, \"pH max <=\" the highest pH with that probability "
+                       "(ceiling {:.2f}).\n",
+                       100 * t.settings.confidence->probability, t.settings.limits.ph_ceiling);
+  }
+  out += "Cautions:\n";
   for (const std::string& c : t.cautions) out += "  - " + c + "\n";
   return out;
 }

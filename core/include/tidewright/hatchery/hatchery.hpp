@@ -39,6 +39,7 @@
 #include <vector>
 
 #include "tidewright/carbonate/carbonate.hpp"
+#include "tidewright/carbonate/uncertainty.hpp"
 #include "tidewright/common/result.hpp"
 
 namespace tw::hatchery {
@@ -109,8 +110,22 @@ struct StockOptions {
   double fraction_of_saturation = 0.8;    // default strength = this x saturation (0.05..1)
 };
 
+// Dosing to a confidence (hatchery_confidence.cpp): given how precisely the intake was
+// measured, the dose reaches the target with `probability` and the pH ceiling holds with the
+// same probability. The uncertainty of the target's quantity and of the highest pH at a dose
+// is propagated from the intake readings by the method of Orr et al. (2018, Mar. Chem. 207:84):
+// first order, inputs independent, derivatives by central differences of the same chain
+// (intake solve, dose, gas exchange). One-sided normal bounds: target - z u >= target value,
+// highest pH + z u <= ceiling, z = the normal quantile of `probability` (1.645 for 95 %).
+struct Confidence {
+  double probability = 0.95;              // accepted 0.5..0.999
+  carbonate::InputUncertainties intake;   // of Water::measurements (first, second, pH scale
+                                          // conversion), salinity, temperature, calcium
+};
+
 struct Settings {
   Target target;
+  std::optional<Confidence> confidence;  // absent: the dose for the readings as they stand
   TargetPoint target_point = TargetPoint::AfterMixing;
   Buffer buffer = Buffer::SodiumCarbonate;
   Limits limits;
@@ -126,7 +141,18 @@ struct DoseMix {
   double dic_umol_kg() const;         // carbonate + bicarbonate
 };
 
+// What dosing to a confidence gave (Treatment::confidence).
+struct ConfidenceReport {
+  double probability = 0.95, z = 0;
+  double centre_added_alkalinity_umol_kg = 0;  // the dose for the readings as they stand
+  double added_alkalinity_umol_kg = 0;         // the dose chosen for the confidence
+  double target_value = 0, target_u = 0, target_bound = 0;  // at the chosen dose: value - z u
+  double ph_max = 0, ph_u = 0, ph_bound = 0;   // highest pH (ceiling's scale): value + z u
+  std::string summary;                         // plain words with the numbers
+};
+
 struct Treatment {
+  std::optional<ConfidenceReport> confidence;  // when Settings::confidence was given
   carbonate::CarbonateState intake;
   carbonate::CarbonateState after_mixing;  // closed system, fully mixed, before gas exchange
   carbonate::CarbonateState at_tanks;      // after gas exchange phi
@@ -141,6 +167,9 @@ struct Treatment {
 // Solves the intake, finds the dose for the settings, and returns the chemistry through the
 // line. Refuses (Error) targets that cannot be met under the pH ceiling, naming the option.
 Result<Treatment> plan_treatment(const Water& water, const Settings& settings);
+
+// The one-sided normal quantile z with P(Z <= z) = probability (0.5..0.999).
+Result<double> one_sided_z(double probability);
 
 // Applies a given dose to the water and returns the same chemistry (for checking a dose).
 Result<Treatment> apply_dose(const Water& water, const DoseMix& dose, const Settings& settings);
@@ -200,6 +229,7 @@ struct TableRange {
 };
 struct TableRow {
   double reading = 0;
+  std::optional<ConfidenceReport> confidence;  // with Settings::confidence: both bounds
   bool ok = false;
   std::string note;                   // refusal reason or "no dose needed"
   double intake_omega_aragonite = 0, intake_ph_total = 0;
