@@ -2,8 +2,8 @@
 // hazards), the atomic weights they are built from, solubility interpolation, saturated
 // limewater and baking soda baked to sodium carbonate.
 //
-// Sections: 1. atomic weights  2. ChemicalChange  3. the catalog rows  4. lookups
-//           5. solubility  6. limewater  7. baked baking soda
+// Sections: 1. atomic weights  2. ChemicalChange  2b. the CaCl2 solubility table  3. the catalog
+//           rows  4. lookups  5. solubility (and as the hydrate sold)  6. limewater  7. baked baking soda
 #include <algorithm>
 #include <cctype>
 #include <cmath>
@@ -72,6 +72,39 @@ ChemicalChange& ChemicalChange::operator+=(const ChemicalChange& o) {
 }
 
 ChemicalChange operator+(ChemicalChange a, const ChemicalChange& b) { return a += b; }
+
+// ================================================================ 2b. CaCl2 solubility table
+// Calcium chloride in water, 0-40 C: CRC Handbook of Chemistry and Physics, 98th ed. (2017),
+// "Aqueous solubility of inorganic compounds at various temperatures": mass per cent of the
+// anhydrous salt in the saturated solution (values as supplied by the lead engineer from that
+// table; not re-read here). Stored as the handbook prints them and converted once to
+// g anhydrous per 100 g water, w / (100 - w) x 100: 58.0, 64.4, 72.8, 81.3, 96.5, 112.1.
+// Cross-check at 25 C: IUPAC-NIST Solubility Database (NIST SRD 106), CaCl2-H2O at 25 C with
+// CaCl2.6H2O as solid, 45.30 mass % (Stoilova 1992, Bulg. Chem. Commun. 25:249), 1 % above
+// the handbook's 44.83.
+namespace {
+constexpr const char* kCalciumChlorideSolubilitySource =
+    "CRC Handbook of Chemistry and Physics, 98th ed. (2017), aqueous solubility of inorganic compounds, CaCl2 "
+    "0-40 C, anhydrous basis";
+struct MassPercentPoint {
+  double temperature_c;
+  double mass_percent_anhydrous;  // of the saturated solution
+};
+constexpr MassPercentPoint kCalciumChlorideCrc2017[] = {{0, 36.70},  {10, 39.19}, {20, 42.13},
+                                                        {25, 44.83}, {30, 49.12}, {40, 52.85}};
+
+// g solute per 100 g water from mass per cent of solute in the solution.
+double g_per_100g_water_from_mass_percent(double mass_percent) {
+  return mass_percent / (100.0 - mass_percent) * 100.0;
+}
+
+std::vector<SolubilityPoint> calcium_chloride_solubility_crc2017() {
+  std::vector<SolubilityPoint> out;
+  for (const auto& p : kCalciumChlorideCrc2017)
+    out.push_back({p.temperature_c, g_per_100g_water_from_mass_percent(p.mass_percent_anhydrous)});
+  return out;
+}
+}  // namespace
 
 // ================================================================ 3. Catalog rows
 namespace {
@@ -254,11 +287,11 @@ std::vector<Compound> build_catalog() {
     c.per_mole.calcium_mol = 1;
     c.per_mole.chloride_mol = 2;
     c.crystal_density_g_ml = row.density;
-    c.solubility = {{20, 74.0}, {100, 159.0}};
-    c.solubility_source = "Great Soviet Encyclopedia, \"Calcium chloride\", anhydrous basis";
+    c.solubility = calcium_chloride_solubility_crc2017();
+    c.solubility_source = kCalciumChlorideSolubilitySource;
     c.solubility_note =
-        "only two points (20 and 100 C): the straight line between them is thin data; the stable solid is "
-        "the hexahydrate up to 29.8 C; no hydrate-specific table was found";
+        "one table for all three forms: it gives the saturated solution, whichever salt was dissolved; up to 29.8 C "
+        "the solid that crystallises is the hexahydrate (facts.md 6, Great Soviet Encyclopedia)";
     c.signal_word = "Warning";
     c.hazard_statements = {kH319};
     c.hazard_source = "supplier SDS via a secondary infobox";
@@ -375,6 +408,7 @@ Result<Solubility> solubility_at(const Compound& c, double temperature_c) {
   Solubility out;
   out.source = c.solubility_source;
   out.note = c.solubility_note;
+  out.g_anhydrous_per_100g_water = c.solubility.back().g_anhydrous_per_100g_water;
   for (std::size_t i = 0; i + 1 < c.solubility.size(); ++i) {
     const auto& a = c.solubility[i];
     const auto& b = c.solubility[i + 1];
@@ -387,11 +421,34 @@ Result<Solubility> solubility_at(const Compound& c, double temperature_c) {
         out.note += (out.note.empty() ? "" : "; ") +
                     fmt::format("interpolated between data points {:g} C apart", b.temperature_c - a.temperature_c);
       }
-      return out;
+      break;
     }
   }
-  out.g_anhydrous_per_100g_water = c.solubility.back().g_anhydrous_per_100g_water;
+  out.g_as_sold_per_100g_water = as_sold_per_100g_water(out.g_anhydrous_per_100g_water,
+                                                        c.anhydrous_molar_mass_g_mol(), c.molar_mass_g_mol());
+  if (!out.g_as_sold_per_100g_water) {
+    out.note += (out.note.empty() ? "" : "; ") +
+                fmt::format("{} holds too little water of crystallization to saturate its own solution at {:g} C: "
+                            "it dissolves in any amount of water",
+                            c.formula, temperature_c);
+  }
   return out;
+}
+
+// Grams of a hydrate that saturate 100 g of added water, from the anhydrous-basis solubility
+// A [g anhydrous per 100 g water] and the molar masses: A g anhydrous come with A (r - 1) g of
+// water of crystallization (r = M_hydrate / M_anhydrous), which joins the solvent, so
+//     g hydrate per 100 g added water = 100 A r / (100 - A (r - 1)).
+// Unset when A (r - 1) >= 100: the hydrate's own water is not enough to reach saturation.
+// Check value (hand-worked): CaCl2.2H2O at 20 C, A = 72.80, r = 147.008 / 110.978 = 1.32466:
+// 100 x 96.44 / (100 - 23.64) = 126.3 g per 100 g water.
+std::optional<double> as_sold_per_100g_water(double g_anhydrous_per_100g_water, double anhydrous_molar_mass_g_mol,
+                                             double molar_mass_g_mol) {
+  const double a = g_anhydrous_per_100g_water;
+  const double r = molar_mass_g_mol / anhydrous_molar_mass_g_mol;
+  const double crystal_water_g = a * (r - 1.0);
+  if (crystal_water_g >= 100.0) return std::nullopt;
+  return 100.0 * a * r / (100.0 - crystal_water_g);
 }
 
 // ================================================================ 6. Limewater

@@ -117,12 +117,21 @@ Result<const Compound*> find_compound(const std::string& key_or_formula);
 // Solubility at a temperature by linear interpolation in the compound's table. Refuses
 // temperatures outside the tabulated range and compounds without a table (field
 // "temperature_c" or "compound"). `note` says when the interpolation spans thin data.
+// Solubility at a temperature, interpolated linearly between the table's points; outside the
+// table refused (field "temperature_c", the table's range in the message).
 struct Solubility {
   double g_anhydrous_per_100g_water = 0;
+  // The same saturation as grams of the compound as sold (a hydrate with its water of
+  // crystallization) per 100 g of added water, converted by molar mass; unset when the
+  // hydrate dissolves in any amount (its own water cannot saturate the solution).
+  std::optional<double> g_as_sold_per_100g_water;
   std::string source;
   std::string note;
 };
 Result<Solubility> solubility_at(const Compound& compound, double temperature_c);
+// The molar-mass conversion used by solubility_at (additives_catalog.cpp has the formula).
+std::optional<double> as_sold_per_100g_water(double g_anhydrous_per_100g_water, double anhydrous_molar_mass_g_mol,
+                                             double molar_mass_g_mol);
 
 // Saturated limewater (Ca(OH)2 in fresh water) at a temperature 0..40 C: the one strength used
 // everywhere (plan safety checks, consumption estimate, stocks). Strength per litre of solution
