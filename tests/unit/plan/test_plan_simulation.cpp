@@ -52,6 +52,7 @@ struct Figures {
   int band_days = 0, band_hits = 0, band_below = 0;
   double worst_start_error = 0;
   int plans_crossing_on_truth = 0, runs_true_water_out = 0;
+  int plans_crossing_before_retest = 0;  // of those, crossing before the plan's own test-again moment
   double lowest_true = 1e9, highest_true = -1e9;
   std::array<int, plan::kLimitCount> crossed{};       // plans whose truth replay crossed each limit
   std::array<double, plan::kLimitCount> worst_over{};  // by how much, at worst (limit's unit)
@@ -130,7 +131,7 @@ void run_one(std::uint32_t seed, Figures& fig) {
             e.data = journal::Dose{sch->additive_id, sch->amount, sch->unit, sch->stock_g_per_l,
                                    journal::ScheduleMark::Missed, d.schedule_id};
             auto added = journal::add_event(j, e);
-            REQUIRE_MESSAGE(added.ok(), "seed " << seed << ": " << added.error().message);
+            if (!added) FAIL("seed " << seed << ": " << added.error().message);  // (-s builds a passing message too)
           }
           continue;
         }
@@ -144,7 +145,11 @@ void run_one(std::uint32_t seed, Figures& fig) {
         out_of_limits = true;
       }
       if (hour == 20 && day == next_test_day) {
-        add_test(j, sys, t0, std::round((truth + kit(rng)) * 10.0) / 10.0);  // read to 0.1 dKH
+        // The truth here is the water at the END of this hour (its doses given, its demand
+        // used), so the test carries that time. Stamped at the hour's start, as it was until
+        // 2026-12-04, every reading was one hour's consumption low against the journal's clock:
+        // a bias of demand/24 (about 0.04 dKH) in every start level that no keeper's kit has.
+        add_test(j, sys, t0 + kHour, std::round((truth + kit(rng)) * 10.0) / 10.0);  // read to 0.1 dKH
         next_test_day = day + static_cast<int>(uni(1, 4));
         plan_day = day >= 3;
       }
@@ -178,7 +183,7 @@ void run_one(std::uint32_t seed, Figures& fig) {
     in.start_date = datetime::format_date_utc(now);
     plan::apply_journal_basis(*basis, in);
     auto p = plan::make_plan(in);
-    REQUIRE_MESSAGE(p.ok(), "seed " << seed << ": " << p.error().message);
+    if (!p) FAIL("seed " << seed << ": " << p.error().message);
     // The independent checker replays the plan's doses from the TRUE water and consumption.
     plan::PlanInput true_in = in;
     true_in.system.alkalinity_dkh = truth;
@@ -200,6 +205,13 @@ void run_one(std::uint32_t seed, Figures& fig) {
     }
     if (!truth_check.ok()) {
       ++fig.plans_crossing_on_truth;
+      const auto& retest = p->uncertainty ? p->uncertainty->retest : std::nullopt;
+      for (const plan::Violation& v : truth_check.violations) {
+        if (!retest || v.day * 1440 + v.minute < retest->day * 1440 + retest->minute) {
+          ++fig.plans_crossing_before_retest;
+          break;
+        }
+      }
       for (const plan::Violation& v : truth_check.violations) {
         const auto k = static_cast<std::size_t>(v.limit);
         ++fig.crossed[k];
@@ -226,7 +238,7 @@ void run_one(std::uint32_t seed, Figures& fig) {
       continue;
     }
     auto adopted = plan::adopt_plan(j, sys, in, *p, now);
-    REQUIRE_MESSAGE(adopted.ok(), "seed " << seed << ": " << adopted.error().message);
+    if (!adopted) FAIL("seed " << seed << ": " << adopted.error().message);
     adopted_once = true;
   }
   if (out_of_limits) ++fig.runs_true_water_out;
@@ -253,6 +265,10 @@ TEST_CASE("plan simulation: keepers following adopted plans start within kit pre
               fig.highest_true);
   std::printf("  the estimate's own 95 %% band held the true level in %.2f %% of the plans\n",
               planned ? 100.0 * fig.start_within_own_band / planned : 0.0);
+  std::printf("  plans crossing any limit on the truth %.2f %% (%d), %.2f %% (%d) of them before the plan's own "
+              "test-again moment (the keeper here tests at random gaps, not at that moment)\n",
+              planned ? 100.0 * fig.plans_crossing_on_truth / planned : 0.0, fig.plans_crossing_on_truth,
+              planned ? 100.0 * fig.plans_crossing_before_retest / planned : 0.0, fig.plans_crossing_before_retest);
   const double band_coverage = fig.band_days ? 100.0 * fig.band_hits / fig.band_days : 0.0;
   std::printf("  the plan's 95 %% forecast band held the true planned level at %.2f %% of %d day ends before the "
               "plans' test-again day (%d below it, %d above)\n",
@@ -272,13 +288,16 @@ TEST_CASE("plan simulation: keepers following adopted plans start within kit pre
   // The estimate is honest: its own 95 % band holds the true level in about 95 % of the plans.
   const double own_band = planned ? 100.0 * fig.start_within_own_band / planned : 0.0;
   CHECK(own_band >= 93.0);
-  // Not met yet (2026-12-04, 1,000 runs: 98.2 % of the starts within the kit's 0.4 dKH, and
-  // 0.7 % of the plans, replayed on the truth, cross a rate, Omega or pH limit by a little; one
-  // run in 1,000 dips 0.2 dKH under the floor). What is left: pump doses missed and not logged
-  // and consumption changes since the last test move the truth by more than a test can catch
-  // at once, and the planner keeps no room for the level's uncertainty in its pH and Omega
-  // limits (keep_room_for_uncertainty covers the rates, ceilings and floors). Warned, not
-  // failed; the figures above say how far.
+  // Not met yet (2026-12-04, 1,000 runs). The start: 98.2 % within the kit's 0.4 dKH before
+  // the test-time fix above (a bias, not the product), 98.5 % after it. What is left is the
+  // filter's own precision, not a bias or a missed dose: its 95 % band holds the truth 95.9 % of
+  // the time, unlogged misses sit behind about 1 in 7 of the starts off by more than 0.4, and
+  // the first plans (after two or three tests, the consumption barely known) miss 4-7 % each
+  // against about 1 % later. Tuning the consumption drift (estimate.hpp, 0.01..0.03 dKH/day per
+  // sqrt(day)) moved it to 98.7 % at best. The limits: 0.72 % of the plans cross one on the
+  // truth, about 70 % of them only after the plan's own test-again moment (plan_bands.cpp; the
+  // keeper here tests at random gaps, not when told), the rest early plans whose consumption
+  // was off by more than 2 sd. Warned, not failed; the figures above say how far.
   WARN(within_kit >= 99.0);
   WARN(fig.plans_crossing_on_truth == 0);
   WARN(fig.runs_true_water_out == 0);
