@@ -13,7 +13,10 @@
 //      back), in a child process each, and the ratio JSON / database.
 // Targets (issue 17): one add < 20 ms, demand of one system < 100 ms, last 100 events < 20 ms,
 // peak memory < 64 MB for every command.
-//   TW_BENCH_SYSTEMS, TW_BENCH_YEARS: a smaller farm;  TW_BENCH_SKIP_JSON=1: no JSON figures.
+//   TW_BENCH_SYSTEMS, TW_BENCH_YEARS: a smaller farm;  TW_BENCH_SKIP_JSON=1: no JSON figures;
+//   TW_BENCH_DIR=dir: build the farm database in dir once and keep it; a later run with the
+//   same dir reuses it and skips the import (minutes of wall time on a busy machine), e.g. to
+//   compare the reads before and after a change or to profile one command.
 #include <sys/resource.h>
 #include <time.h>
 #include <sys/wait.h>
@@ -180,13 +183,18 @@ int main(int argc, char** argv) {
   const int years = std::getenv("TW_BENCH_YEARS") ? std::atoi(std::getenv("TW_BENCH_YEARS")) : 10;
   const bool skip_json = std::getenv("TW_BENCH_SKIP_JSON") != nullptr;
   const std::string binary = argc > 1 ? argv[1] : (fs::canonical("/proc/self/exe").parent_path().parent_path() / "shell" / "tidewright").string();
-  const fs::path dir = fs::temp_directory_path() / fmt::format("tw_bench_store_{}", getpid());
+  const char* keep_dir = std::getenv("TW_BENCH_DIR");
+  const fs::path dir = keep_dir ? fs::path(keep_dir) : fs::temp_directory_path() / fmt::format("tw_bench_store_{}", getpid());
   fs::create_directories(dir);
   const std::string db = (dir / "farm.db").string(), csv = (dir / "farm.csv").string(), json = (dir / "farm.json").string();
   const std::string target = system_name(systems / 4);
+  // A kept farm is reused only when its import finished (the marker is written after it).
+  const fs::path imported_marker = dir / fmt::format("imported-{}x{}", systems, years);
+  const bool reuse = keep_dir && fs::exists(imported_marker);
 
   std::printf("journal store benchmark: %d systems x %d years (invented data), binary %s\n", systems, years, binary.c_str());
-  {
+  if (keep_dir && !reuse) fs::remove(db);
+  if (!reuse) {
     auto st = store::JournalStore::open(db);
     if (!st) {
       std::fprintf(stderr, "%s\n", st.error().message.c_str());
@@ -199,11 +207,15 @@ int main(int argc, char** argv) {
       if (!(*st)->add_system(sys)) return 1;
     }
   }
-  const std::size_t rows = write_farm_csv(csv, systems, 365 * years);
-  std::printf("  generated %zu CSV rows (%.1f MB)\n", rows, fs::file_size(csv) / 1e6);
-
   std::printf("1. commands (child process, start-up included; median wall time, largest peak memory)\n");
-  print("log import farm.csv (whole farm, one transaction)", run_command(binary, {"log", "--journal", db, "import", csv}, 1));
+  if (reuse) {
+    std::printf("  farm database kept from an earlier run in %s (import not measured)\n", dir.c_str());
+  } else {
+    const std::size_t rows = write_farm_csv(csv, systems, 365 * years);
+    std::printf("  generated %zu CSV rows (%.1f MB)\n", rows, fs::file_size(csv) / 1e6);
+    print("log import farm.csv (whole farm, one transaction)", run_command(binary, {"log", "--journal", db, "import", csv}, 1));
+    if (keep_dir) std::ofstream(imported_marker) << "done\n";
+  }
   std::printf("  database %.1f MB\n", fs::file_size(db) / 1e6);
   print("tidewright --version (process start only)", run_command(binary, {"--version"}, 5));
   print("log add test (one add)", run_command(binary, {"log", "--journal", db, "add", "test", "--system", target,
@@ -288,6 +300,6 @@ int main(int argc, char** argv) {
                 double(jdemand.max_rss_kb) / ddemand.max_rss_kb, jlast.cpu_ms / dlast.cpu_ms,
                 double(jlast.max_rss_kb) / dlast.max_rss_kb);
   }
-  fs::remove_all(dir);
+  if (!keep_dir) fs::remove_all(dir);
   return 0;
 }

@@ -152,10 +152,12 @@ Result<std::unique_ptr<JournalStore>> JournalStore::open(const std::string& path
   return guarded(path, [&]() -> Result<std::unique_ptr<JournalStore>> {
     sqlite3_busy_timeout(db, o.busy_timeout_ms);
     exec(db, "PRAGMA foreign_keys = ON");
-    if (o.read_only && !file_read_only) {
-      exec(db, "PRAGMA query_only = ON");
-    }
-    if (!o.read_only) {
+    // A reader of a writable journal written by an older build brings its schema up to date
+    // first (the records are copied unchanged), so a read right after an update works.
+    const int found_version = read_schema_version(db);
+    const bool migrate_for_reader =
+        o.read_only && !file_read_only && found_version >= 1 && found_version < latest_schema_version();
+    if (!o.read_only || migrate_for_reader) {
       // WAL: readers never block the writer and a commit is one append; FULL: a commit that
       // returned has reached the disk (a dosing journal is small; durability comes first).
       std::string mode;
@@ -170,12 +172,21 @@ Result<std::unique_ptr<JournalStore>> JournalStore::open(const std::string& path
       }
       exec(db, "PRAGMA synchronous = FULL");
       migrate(db);
-    } else {
+    }
+    if (o.read_only) {
       const int v = read_schema_version(db);
+      if (v > latest_schema_version()) {
+        return Error{"journal", fmt::format("{}: the journal database has schema version {}, newer than this program "
+                                            "knows (up to {}); update Tidewright to open it", path, v,
+                                            latest_schema_version())};
+      }
       if (v != latest_schema_version()) {
         return Error{"journal", fmt::format("{}: schema version {} cannot be read without writing (this program "
-                                            "uses version {})", path, v, latest_schema_version())};
+                                            "uses version {}){}", path, v, latest_schema_version(),
+                                            file_read_only ? "; the file is read-only: make it writable once so "
+                                                             "it can be brought up to date" : "")};
       }
+      if (!file_read_only) exec(db, "PRAGMA query_only = ON");
     }
     return std::move(store);
   });
