@@ -52,7 +52,8 @@ struct Figures {
   int band_days = 0, band_hits = 0, band_below = 0;
   double worst_start_error = 0;
   int plans_crossing_on_truth = 0, runs_true_water_out = 0;
-  int plans_crossing_before_retest = 0;  // of those, crossing before the plan's own test-again moment
+  int plans_crossing_before_retest = 0;
+  double dose_with_room = 0, dose_without_room = 0;  // mL over the plans (Plan::uncertainty cost)  // of those, crossing before the plan's own test-again moment
   double lowest_true = 1e9, highest_true = -1e9;
   std::array<int, plan::kLimitCount> crossed{};       // plans whose truth replay crossed each limit
   std::array<double, plan::kLimitCount> worst_over{};  // by how much, at worst (limit's unit)
@@ -184,6 +185,16 @@ void run_one(std::uint32_t seed, Figures& fig) {
     plan::apply_journal_basis(*basis, in);
     auto p = plan::make_plan(in);
     if (!p) FAIL("seed " << seed << ": " << p.error().message);
+    // The dose cost of the room kept (the plan's own figure against the limits as set).
+    if (p->uncertainty && p->uncertainty->cost) {
+      for (double a : p->uncertainty->cost->amount_with_room) fig.dose_with_room += a;
+      for (double a : p->uncertainty->cost->amount_without_room) fig.dose_without_room += a;
+    } else {
+      for (const plan::DoseRecord& d : p->doses) {
+        fig.dose_with_room += d.amount;
+        fig.dose_without_room += d.amount;
+      }
+    }
     // The independent checker replays the plan's doses from the TRUE water and consumption.
     plan::PlanInput true_in = in;
     true_in.system.alkalinity_dkh = truth;
@@ -266,9 +277,12 @@ TEST_CASE("plan simulation: keepers following adopted plans start within kit pre
   std::printf("  the estimate's own 95 %% band held the true level in %.2f %% of the plans\n",
               planned ? 100.0 * fig.start_within_own_band / planned : 0.0);
   std::printf("  plans crossing any limit on the truth %.2f %% (%d), %.2f %% (%d) of them before the plan's own "
-              "test-again moment (the keeper here tests at random gaps, not at that moment)\n",
+              "test-again moment (the keeper here tests at random gaps, not at that moment); dose cost of the room "
+              "kept %+.2f %% (%.0f mL against %.0f mL at the limits as set)\n",
               planned ? 100.0 * fig.plans_crossing_on_truth / planned : 0.0, fig.plans_crossing_on_truth,
-              planned ? 100.0 * fig.plans_crossing_before_retest / planned : 0.0, fig.plans_crossing_before_retest);
+              planned ? 100.0 * fig.plans_crossing_before_retest / planned : 0.0, fig.plans_crossing_before_retest,
+              fig.dose_without_room > 0 ? 100.0 * (fig.dose_with_room / fig.dose_without_room - 1.0) : 0.0,
+              fig.dose_with_room, fig.dose_without_room);
   const double band_coverage = fig.band_days ? 100.0 * fig.band_hits / fig.band_days : 0.0;
   std::printf("  the plan's 95 %% forecast band held the true planned level at %.2f %% of %d day ends before the "
               "plans' test-again day (%d below it, %d above)\n",
