@@ -62,6 +62,16 @@ export async function tap(page, name) {
   await frames(page, 3);
 }
 
+// Waits until the app's message strip (shown for a few seconds after an action) has gone and
+// the page is drawn without it: the strip takes height from the page, so while it shows, a
+// widget scrolled to the bottom moves when it goes, and a tap aimed at the old place misses.
+export async function messageGone(page, timeout = 30000) {
+  await page.evaluate(() => Module.ccall('tw_test_animate', null, ['number'], [2]));
+  await page.waitForFunction(() => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).message === '',
+    null, { timeout });
+  await frames(page, 2);
+}
+
 // Types into the app's text entry field (opened by tapping a field) and confirms.
 export async function enter(page, text) {
   await page.waitForSelector('#entry.open', { timeout: 5000 });

@@ -5,7 +5,7 @@
 import { resolve, join } from 'node:path';
 import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
+import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -123,9 +123,11 @@ test('export then import restores everything', async () => {
   const doc = JSON.parse(readFileSync(file, 'utf8'));
   check(doc.format === 'tidewright-journal' && doc.app && doc.app.schema_version === 1, 'export is not a journal with the app part');
   // Change things: remove the demo systems, then import the file.
+  await messageGone(page);
   await tap(page, 'settings.remove_demo');
   const emptied = await state(page);
   check(emptied.systems.length < before.systems.length, 'remove demo did not remove systems');
+  await messageGone(page);  // the strip going moves the button under the tap (lib.mjs)
   const [chooser] = await Promise.all([page.waitForEvent('filechooser'), tap(page, 'settings.import')]);
   await chooser.setFiles(file);
   await page.waitForFunction((n) => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).systems.length === n,
