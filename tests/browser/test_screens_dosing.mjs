@@ -106,6 +106,12 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await found(page, 'hatchery.water_table');
     await found(page, 'hatchery.cautions');
     await shot(page, `${label}-hatchery-result`);
+    // Dosed to be 95 % sure from the intake readings' precision (issue 13): both bounds shown.
+    await tap(page, 'hatchery.confidence.2');
+    await found(page, 'hatchery.ph_precision');
+    const sure = await found(page, 'hatchery.confidence_result');
+    check(sure.visible, 'the 95 % result is not on screen');
+    await shot(page, `${label}-hatchery-confidence`);
     await tap(page, 'hatchery.table.show');
     await found(page, 'hatchery.table');
     await shot(page, `${label}-hatchery-table`);
@@ -227,6 +233,11 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check((await state(page)).screen === 'plan', 'not on the plan screen');
     await shot(page, `${label}-plan`);
     await found(page, 'plan.summary');
+    // The plan from the journal's estimates names when to test again (issue 13).
+    await found(page, 'plan.test_again');
+    const ps = await state(page);
+    check(ps.plan && ps.plan.test_again && /test .* (again|now)/.test(ps.plan.test_again.message),
+          `no test-again moment: ${JSON.stringify(ps.plan && ps.plan.test_again)}`);
     await found(page, 'plan.chart');
     await shot(page, `${label}-plan-chart`);
     await found(page, 'plan.days');

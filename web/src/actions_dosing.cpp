@@ -146,6 +146,14 @@ void refresh_hatchery(AppState& app) {
   s.limits.ph_ceiling_scale = f.ph_scale;
   s.gas.residence_time_min = f.residence_time_min;
   s.stock.temperature_c = f.stock_temperature_c;
+  if (f.confidence_index > 0) {
+    hat::Confidence conf;
+    conf.probability = kConfidenceChoices[f.confidence_index];
+    conf.intake.first = tw::units::alkalinity_to_umol_kg(f.alkalinity_precision_dkh, tw::units::AlkalinityUnit::DKH, density);
+    conf.intake.second = f.ph_precision;
+    if (f.ph_scale != cb::PhScale::Total) conf.intake.ph_scale_conversion = cb::kPhNbsToTotalUncertainty;
+    s.confidence = conf;
+  }
   if (f.mode == HatcheryMode::FlowThrough) {
     auto plan = hat::plan_flow(water, f.flow_l_per_min, s);
     if (plan) {

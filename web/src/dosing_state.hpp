@@ -18,6 +18,7 @@
 
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/estimate/estimate.hpp"
+#include "tidewright/carbonate/measurement_precision.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/plan/plan.hpp"
@@ -93,11 +94,18 @@ struct HatcheryForm {
   double volume_l = 1000.0;
   std::optional<double> residence_time_min;
   double stock_temperature_c = 20.0;
+  // Dosing to a confidence (hatchery::Confidence): 0 = for the readings as they stand, else the
+  // probability kConfidenceChoices[i] with the intake readings' precision (kit table defaults).
+  int confidence_index = 0;
+  double alkalinity_precision_dkh = tw::carbonate::default_precision(tw::Parameter::Alkalinity)->typical;
+  double ph_precision = tw::carbonate::default_precision(tw::Parameter::PH)->typical;
   // pump-side table over the intake pH
   double table_from_ph = 7.50, table_to_ph = 8.00, table_step_ph = 0.05;
   bool show_table = false;
   bool operator==(const HatcheryForm&) const = default;
 };
+
+inline constexpr double kConfidenceChoices[] = {0.0, 0.90, 0.95, 0.99};
 
 struct HatcheryCache {
   bool valid = false;

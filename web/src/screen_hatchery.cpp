@@ -127,6 +127,26 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
   }
   ui::number_field(app, "hatchery.ph_ceiling", {"pH ceiling", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 7.0, 9.3},
                    &f.ph_ceiling);
+  // Dosing to a confidence: the target reached, and the ceiling kept, with this probability
+  // given how precisely the intake was read (the core propagates it, Orr et al. 2018).
+  const char* const sure[] = {"As read", "90% sure", "95% sure", "99% sure"};
+  ui::choice(app, "hatchery.confidence", "Dose so the target is met and the ceiling kept", &f.confidence_index, sure, 4);
+  if (f.confidence_index > 0) {
+    const auto& ap = *tw::carbonate::default_precision(tw::Parameter::Alkalinity);
+    const double dkh_per_unit = tw::units::alkalinity_from_umol_kg(
+        tw::units::alkalinity_to_umol_kg(1.0, u.alkalinity, jn::kNominalDensityKgPerL), tw::units::AlkalinityUnit::DKH,
+        jn::kNominalDensityKgPerL);
+    double shown = f.alkalinity_precision_dkh / dkh_per_unit;
+    if (ui::number_field(app, "hatchery.alkalinity_precision",
+                         {"Intake alkalinity test precision (1 sd)", fmtx::alkalinity_shown(u.alkalinity).unit, 2, 0.05,
+                          0.0, ap.maximum / dkh_per_unit},
+                         &shown)) {
+      f.alkalinity_precision_dkh = shown * dkh_per_unit;
+    }
+    const auto& pp = *tw::carbonate::default_precision(tw::Parameter::PH);
+    ui::number_field(app, "hatchery.ph_precision", {"Intake pH reading precision (1 sd)", "pH", 3, 0.005, 0.0, pp.maximum},
+                     &f.ph_precision);
+  }
   if (f.mode == HatcheryMode::FlowThrough) {
     ui::number_field(app, "hatchery.flow", {"Intake flow", "L/min", 1, 5, 0.01, 100000}, &f.flow_l_per_min);
     ui::optional_number_field(app, "hatchery.residence",
@@ -197,6 +217,23 @@ void calcium_line(const hat::Treatment& t) {
     ui::dim_text(("Saturation uses " + t.calcium_source + ".").c_str());
 }
 
+// What dosing to a confidence gives: both one-sided bounds and the extra alkalinity.
+void confidence_line(AppState& app, const hat::Treatment& t) {
+  if (!t.confidence) return;
+  const hat::ConfidenceReport& r = *t.confidence;
+  const auto& f = app.ui.dosing.hatchery;
+  const int dp_t = std::max(2, cb::decimals_for_uncertainty(r.target_u));
+  const std::string target = f.target_kind == hat::TargetKind::OmegaAragonite ? "\u03a9 arag." : "the target";
+  ui::colored_wrapped(theme::kAccent,
+                      (fmtx::fixed(100 * r.probability, 0) + "% sure: " + target + " at least " +
+                       fmtx::fixed(r.target_bound, dp_t) + " and pH at most " + fmtx::fixed(r.ph_bound, 2) +
+                       " (ceiling " + fmtx::fixed(f.ph_ceiling, 2) + "), from the intake readings' precision. The margin "
+                       "adds " + fmtx::fixed(r.added_alkalinity_umol_kg - r.centre_added_alkalinity_umol_kg, 0) +
+                       " \u03bcmol/kg of alkalinity to the dose for the readings as they stand.")
+                          .c_str());
+  ui::record(app, "hatchery.confidence_result");
+}
+
 void draw_flow_result(AppState& app, const hat::FlowPlan& p) {
   ui::card_begin(app);
   ui::heading(app, p.treatment.dose_needed ? "Dose" : "No dose needed");
@@ -219,6 +256,7 @@ void draw_flow_result(AppState& app, const hat::FlowPlan& p) {
   if (p.lines.size() > 1) {
     ui::dim_text(("Blend: " + fmtx::fixed(100 * p.treatment.carbonate_share, 0) + "% of the added alkalinity as carbonate.").c_str());
   }
+  confidence_line(app, p.treatment);
   water_table(app, p.treatment, false);
   calcium_line(p.treatment);
   list(p.warnings, theme::kWarning);
@@ -234,6 +272,7 @@ void draw_batch_result(AppState& app, const hat::BatchPlan& p) {
     ui::record(app, std::string("hatchery.grams.") + hat::formula_of(a.compound));
   }
   ui::dim_text("Dissolve in a bucket of tank water first and add it slowly where the water moves.");
+  confidence_line(app, p.treatment);
   water_table(app, p.treatment, true);
   calcium_line(p.treatment);
   list(p.warnings, theme::kWarning);
@@ -257,12 +296,17 @@ void draw_pump_table(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
   if (!c.table_error.empty()) ui::colored_wrapped(theme::kError, c.table_error.c_str());
   if (c.table) {
     const hat::PumpTable& t = *c.table;
-    const int cols = 3 + static_cast<int>(t.columns.size());
+    const bool conf = t.settings.confidence.has_value();
+    const int cols = 3 + static_cast<int>(t.columns.size()) + (conf ? 2 : 0);
     if (ImGui::BeginTable("##pump", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
       ImGui::TableSetupColumn("pH in");
       for (hat::Compound k : t.columns) ImGui::TableSetupColumn((std::string(hat::formula_of(k)) + " mL/min").c_str());
       ImGui::TableSetupColumn("pH out");
       ImGui::TableSetupColumn("\u03a9 out");
+      if (conf) {
+        ImGui::TableSetupColumn("target \u2265");
+        ImGui::TableSetupColumn("pH \u2264");
+      }
       ImGui::TableHeadersRow();
       for (const hat::TableRow& r : t.rows) {
         ImGui::TableNextRow();
@@ -285,11 +329,19 @@ void draw_pump_table(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
         ImGui::TableNextColumn();
         ImGui::TextUnformatted(
             fmtx::fixed(tanks ? r.omega_aragonite_at_tanks : r.omega_aragonite_after_mixing, 2).c_str());
+        if (conf && r.confidence) {
+          ImGui::TableNextColumn();
+          ImGui::TextUnformatted(fmtx::fixed(r.confidence->target_bound, 2).c_str());
+          ImGui::TableNextColumn();
+          ImGui::TextUnformatted(fmtx::fixed(r.confidence->ph_bound, 2).c_str());
+        }
       }
       ImGui::EndTable();
     }
     ui::record(app, "hatchery.table");
-    ui::dim_text("pH out is on the total scale; the stock strengths are those of the dose above.");
+    ui::dim_text(conf ? "pH out is on the total scale; the stock strengths are those of the dose above. Target \u2265 and "
+                        "pH \u2264: what each row reaches and stays under with the chosen probability."
+                      : "pH out is on the total scale; the stock strengths are those of the dose above.");
     if (ui::button(app, "hatchery.table.export_csv", "Download CSV", half)) export_pump_table(app, true);
     ImGui::SameLine();
     if (ui::button(app, "hatchery.table.export_text", "Download text", half)) export_pump_table(app, false);

@@ -14,6 +14,7 @@
 #include "platform.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
+#include "tidewright/carbonate/uncertainty.hpp"
 #include "ui.hpp"
 
 namespace twapp {
@@ -100,10 +101,27 @@ void draw_chart(AppState& app, const PlanCache& c) {
   }
   line.lo = line.mid;
   line.hi = line.mid;
+  // The 95 % band of the forecast at each day's end (from today's level and the demand's
+  // uncertainty), shaded around the day-end levels.
+  if (plan.uncertainty && !plan.days.empty() && plan.days.front().end_band[static_cast<size_t>(p)]) {
+    chart::Band unc{{}, {}, {}, {}, theme::kWarning, true};
+    for (const pl::DaySummary& d : plan.days) {
+      const auto& b = d.end_band[static_cast<size_t>(p)];
+      if (!b) continue;
+      unc.t.push_back(c.start_day + d.day);
+      unc.mid.push_back(value_of(d.end, p));
+      unc.lo.push_back(b->low);
+      unc.hi.push_back(b->high);
+    }
+    ts.bands.push_back(unc);
+  }
   ts.bands.push_back(line);
   std::optional<double>& probe = app.ui.dosing.plan_probe_day;
   chart::draw_timeseries(app, ts, &probe);
-  ui::dim_text("Predicted level after each dose and just before the next; ticks: doses; shaded: the target band.");
+  ui::dim_text(plan.uncertainty ? "Predicted level after each dose and just before the next; ticks: doses; shaded: the target "
+                                  "band; dashed with shade: each day's end with its 95% band (today's level and the "
+                                  "consumption estimate's uncertainty)."
+                                : "Predicted level after each dose and just before the next; ticks: doses; shaded: the target band.");
   if (probe && !plan.doses.empty()) {
     const pl::DoseRecord* best = &plan.doses.front();
     for (const auto& d : plan.doses) if (std::fabs(dose_time(c, d) - *probe) < std::fabs(dose_time(c, *best) - *probe)) best = &d;
@@ -122,6 +140,14 @@ void draw_chart(AppState& app, const PlanCache& c) {
 }
 
 // ---------------------------------------------------------------- 3. Days and doses
+// "8.0 (7.2-8.8)": the level and its 95 % band, digits set by the band (a level known to
+// +/- 0.4 dKH shows one decimal, not two); without a band, `decimals`.
+std::string level_with_band(double level, const std::optional<pl::Band95>& band, int decimals) {
+  if (!band) return fmtx::fixed(level, decimals);
+  const int dp = std::min(decimals, tw::carbonate::decimals_for_uncertainty((band->high - band->low) / (2 * 1.96)));
+  return fmtx::fixed(level, dp) + " (" + fmtx::fixed(band->low, dp) + "\u2013" + fmtx::fixed(band->high, dp) + ")";
+}
+
 void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   const pl::Plan& plan = *c.plan;
   const auto& del = c.input->deliveries;
@@ -129,8 +155,8 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   if (ImGui::BeginTable("##days", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
     ImGui::TableSetupColumn("Day");
     for (const auto& d : del) ImGui::TableSetupColumn((d.device + ", " + tw::additives::to_string(d.additive.unit)).c_str());
-    ImGui::TableSetupColumn("dKH end");
-    ImGui::TableSetupColumn("Ca end");
+    ImGui::TableSetupColumn(plan.uncertainty ? "dKH end (95%)" : "dKH end");
+    ImGui::TableSetupColumn(plan.uncertainty ? "Ca end (95%)" : "Ca end");
     ImGui::TableHeadersRow();
     const size_t shown = f.show_all_days ? plan.days.size() : std::min<size_t>(plan.days.size(), 7);
     for (size_t i = 0; i < shown; ++i) {
@@ -143,9 +169,9 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
         ImGui::TextUnformatted(fmtx::fixed(a, 1).c_str());
       }
       ImGui::TableNextColumn();
-      ImGui::TextUnformatted(fmtx::fixed(d.end.alkalinity_dkh, 2).c_str());
+      ImGui::TextUnformatted(level_with_band(d.end.alkalinity_dkh, d.end_band[0], 2).c_str());
       ImGui::TableNextColumn();
-      ImGui::TextUnformatted(fmtx::fixed(d.end.calcium_mg_l, 0).c_str());
+      ImGui::TextUnformatted(level_with_band(d.end.calcium_mg_l, d.end_band[1], 0).c_str());
     }
     ImGui::EndTable();
   }
@@ -243,6 +269,22 @@ void draw_verdict(AppState& app, const pl::Plan& plan) {
   // The same words as the command line's verdict (core message), in the warning colour.
   for (const pl::TargetConflict& t : v.target_conflicts) ui::colored_wrapped(theme::kError, t.message.c_str());
   ui::record(app, "plan.verdict");
+  // How sure the plan is: when to test again (before a 95 % band reaches a limit as set), and
+  // what keeping the band inside the limits costs (the core's words, as the command line's).
+  if (plan.uncertainty) {
+    if (const auto& r = plan.uncertainty->retest) {
+      ImGui::PushFont(app.ui.fonts.bold);
+      ui::colored_wrapped(theme::kWarning, ("When to test again: " + r->message + ".").c_str());
+      ImGui::PopFont();
+      ui::record(app, "plan.test_again");
+    }
+    if (const auto& cost = plan.uncertainty->cost) {
+      ui::dim_text(("Room kept for the 95 % band: " + std::to_string(cost->room.size()) +
+                    " limits tightened (see Safety limits); against the limits as set this costs: " + cost->effect + ".")
+                       .c_str());
+      ui::record(app, "plan.margin_cost");
+    }
+  }
   ui::card_end(app);
 }
 

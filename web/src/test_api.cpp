@@ -112,6 +112,11 @@ std::string state_json() {
     double max_alk = pc.plan->start.alkalinity_dkh;
     for (const auto& d : pc.plan->doses) max_alk = std::max(max_alk, d.after.alkalinity_dkh);
     j["plan"]["max_alkalinity_dkh"] = max_alk;
+    j["plan"]["test_again"] = pc.plan->uncertainty && pc.plan->uncertainty->retest
+                                  ? nlohmann::json{{"day", pc.plan->uncertainty->retest->day},
+                                                   {"minute", pc.plan->uncertainty->retest->minute},
+                                                   {"message", pc.plan->uncertainty->retest->message}}
+                                  : nlohmann::json(nullptr);
     if (pc.input) {
       j["plan"]["start"] = {{"alkalinity_dkh", pc.input->system.alkalinity_dkh},
                             {"calcium_mg_l", pc.input->system.calcium_mg_l},

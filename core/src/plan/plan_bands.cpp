@@ -224,11 +224,12 @@ Status add_bands(const PlanInput& in, Plan& plan) {
                                     additives::to_string(in.deliveries[i].additive.unit), b));
       }
       const bool crosses_without = !without->verdict.holds && plan.verdict.holds;
-      cost.summary = fmt::format(
-          "room for the 95 % band: {} limits tightened ({}); cost against the plan at the limits as set: {}{}",
-          cost.room.size(), fmt::join(cost.room, "; "),
-          parts.empty() ? std::string("the same doses and days to target") : fmt::format("{}", fmt::join(parts, "; ")),
+      cost.effect = fmt::format(
+          "{}{}", parts.empty() ? std::string("the same doses and days to target") : fmt::format("{}", fmt::join(parts, "; ")),
           crosses_without ? " (that plan would not hold)" : "");
+      cost.summary = fmt::format("room for the 95 % band: {} limits tightened ({}); cost against the plan at the limits "
+                                 "as set: {}",
+                                 cost.room.size(), fmt::join(cost.room, "; "), cost.effect);
       u.cost = std::move(cost);
     }
   }

@@ -289,7 +289,8 @@ struct MarginCost {
   std::array<std::optional<int>, 3> target_day_without_room;  // alkalinity, calcium, magnesium
   std::vector<double> amount_without_room;  // total mL or g per delivery over the horizon
   std::vector<double> amount_with_room;
-  std::string summary;               // plain words
+  std::string effect;                // what it changes in the plan, plain words
+  std::string summary;               // plain words: the room and the effect
 };
 struct PlanUncertainty {
   std::optional<Retest> retest;
