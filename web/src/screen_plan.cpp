@@ -346,9 +346,18 @@ void draw_plan(AppState& app) {
     ui::colored_wrapped(theme::kWarning, (c.input->deliveries[r.delivery].device + " runs dry on day " + std::to_string(r.day)).c_str());
   }
   if (plan.salinity.per_day > 0) {
-    ui::dim_text(("Salts left behind raise salinity by about " + fmtx::fixed(plan.salinity.per_day, 3) +
-                  " a day; a water change of " + fmtx::fixed(plan.salinity.water_change_percent_per_week, 1) +
-                  "% a week holds it.").c_str());
+    // The core's split (plan_salinity.cpp): the weekly change from the holding days, the ramp once.
+    const auto& sd = plan.salinity;
+    std::string text = "Salts left behind raise salinity by about " + fmtx::fixed(sd.holding_per_day, 3) +
+                       " a day while the levels are held; a water change of " +
+                       fmtx::fixed(sd.water_change_percent_per_week, 1) + "% a week holds it.";
+    if (!sd.holding_seen) {
+      text += " The plan is still ramping at its end, so this includes ramp doses.";
+    } else if (sd.ramp_days > 0) {
+      text += " The ramp (days 1-" + std::to_string(sd.ramp_days) + ") adds " + fmtx::fixed(sd.ramp_extra, 2) +
+              " more, once.";
+    }
+    ui::dim_text(text.c_str());
   }
   ui::card_end(app);
   draw_adopt(app, c);

@@ -326,6 +326,8 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
     j["target_day"][names[p]] = plan.target_day[p] ? json(*plan.target_day[p]) : json(nullptr);
   }
   j["salinity_drift"] = {{"per_day", plan.salinity.per_day}, {"over_horizon", plan.salinity.over_horizon},
+                         {"holding_seen", plan.salinity.holding_seen}, {"ramp_days", plan.salinity.ramp_days},
+                         {"holding_per_day", plan.salinity.holding_per_day}, {"ramp_extra", plan.salinity.ramp_extra},
                          {"water_change_percent_per_week", plan.salinity.water_change_percent_per_week}};
   const Verdict& v = plan.verdict;
   json verdict = {{"holds", v.holds}, {"headline", v.headline}, {"reasons", v.reasons}, {"fixes", v.fixes}};

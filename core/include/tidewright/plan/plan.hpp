@@ -226,11 +226,28 @@ struct ReservoirEmpty {
   int minute;
 };
 
+// Salinity left behind by dosing (Na, K, Cl, SO4), plan_salinity.cpp. A ramp doses more than
+// holding does, so the weekly water change comes from the holding days and the ramp's extra is
+// stated once, separately.
 struct SalinityDrift {
-  double per_day = 0;             // salinity units per day from Na, K, Cl and SO4 left behind
+  double per_day = 0;             // salinity units per day, averaged over the whole horizon
   double over_horizon = 0;
-  double water_change_percent_per_week = 0;  // that holds the steady excess at salinity_tolerance
+  bool holding_seen = false;      // the plan holds the levels on at least one day after its ramp
+  int ramp_days = 0;              // days 1..ramp_days ramp the levels up (0: no ramp)
+  double holding_per_day = 0;     // salinity units per day on the holding days (= per_day if none)
+  double ramp_extra = 0;          // what the ramp days add above holding_per_day x ramp_days, once
+  // Weekly water change (per cent of the volume) that holds the steady excess at the tolerance,
+  // from holding_per_day: excess = 7 x holding_per_day / f at steady state.
+  double water_change_percent_per_week = 0;
 };
+// Salinity units that a change of composition leaves in mass_kg of water (g per kg of Na, K,
+// Cl, SO4, reference salinity to practical by 35 / 35.16504, Millero et al. 2008).
+double salinity_added(const additives::ChemicalChange& added, double mass_kg);
+// The drift from the salinity each day of the plan adds (day 1 first), the number of ramp days
+// and the tolerance (salinity units, > 0).
+SalinityDrift salinity_drift(const std::vector<double>& salinity_per_day, int ramp_days, double tolerance);
+// The finding's sentence.
+std::string salinity_drift_text(const SalinityDrift& drift, int horizon_days, double tolerance);
 
 // What one parameter's additives can deliver at most per day against what the system consumes.
 struct Shortfall {
