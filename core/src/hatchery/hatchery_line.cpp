@@ -1,0 +1,89 @@
+// The hatchery line: intake -> conditioned (heated, cooled, mixed) -> dosed (see the header).
+// Mixing check value (hand-worked, tests/unit/hatchery/test_hatchery_line.cpp): 1 part fresh
+// water to 3 parts S 30 seawater at 15 C, densities 0.99910 and 1.02254 kg/L (EOS-80): mass
+// fraction of fresh water 0.99910 / (0.99910 + 3 x 1.02254) = 0.24568, salinity 22.630.
+#include "tidewright/hatchery/hatchery_line.hpp"
+
+#include <fmt/format.h>
+
+#include "hatchery_internal.hpp"
+#include "tidewright/seawater/seawater.hpp"
+
+namespace tw::hatchery {
+
+namespace cb = tw::carbonate;
+
+Result<MixResult> mix_waters(double salinity, double temperature_c, double alkalinity_umol_kg, double dic_umol_kg,
+                             double calcium_umol_kg, const OtherWater& o) {
+  if (auto r = check_range("mix_fraction", o.volume_fraction, 0.0, 1.0, ""); !r) return r.error();
+  if (auto r = check_range("mix_salinity", o.salinity, 0.0, 50.0, ""); !r) return r.error();
+  if (auto r = check_range("mix_temperature_c", o.temperature_c, -2.0, 50.0, "C"); !r) return r.error();
+  if (auto r = check_range("mix_alkalinity", o.alkalinity_umol_kg, 0.0, 10000.0, "umol/kg"); !r) return r.error();
+  if (auto r = check_range("mix_dic", o.dic_umol_kg, 0.0, 10000.0, "umol/kg"); !r) return r.error();
+  if (auto r = check_range("mix_calcium", o.calcium_umol_kg, 0.0, cb::kCalciumMaxUmolKg, "umol/kg"); !r)
+    return r.error();
+  // Volume fraction -> mass fraction with each water's own density (EOS-80).
+  const double m_intake = (1.0 - o.volume_fraction) * seawater::density_kg_per_l(salinity, temperature_c);
+  const double m_other = o.volume_fraction * seawater::density_kg_per_l(o.salinity, o.temperature_c);
+  const double x = m_other / (m_intake + m_other);
+  const auto by_mass = [x](double a, double b) { return (1.0 - x) * a + x * b; };
+  MixResult out;
+  out.mass_fraction_other = x;
+  out.salinity = by_mass(salinity, o.salinity);
+  out.temperature_c = by_mass(temperature_c, o.temperature_c);  // equal heat capacities assumed
+  out.alkalinity_umol_kg = by_mass(alkalinity_umol_kg, o.alkalinity_umol_kg);
+  out.dic_umol_kg = by_mass(dic_umol_kg, o.dic_umol_kg);
+  out.calcium_umol_kg = by_mass(calcium_umol_kg, o.calcium_umol_kg);
+  return out;
+}
+
+Result<HatcheryLine> plan_line(const Water& intake, const Conditioning& c, const Settings& s) {
+  auto line = detail::solve_intake(intake);
+  if (!line) return line.error();
+  HatcheryLine out;
+  const double ca_intake = line->constants.calcium.calcium_umol_kg;
+  out.points.push_back({"intake", intake.salinity, intake.temperature_c, ca_intake, line->intake});
+
+  // Conditioned water: alkalinity and DIC are conserved by heating; mixing changes them by mass.
+  MixResult m{0, intake.salinity, intake.temperature_c, line->intake.alkalinity_umol_kg, line->intake.dic_umol_kg,
+              ca_intake};
+  if (c.mix) {
+    auto mixed = mix_waters(intake.salinity, intake.temperature_c, line->intake.alkalinity_umol_kg,
+                            line->intake.dic_umol_kg, ca_intake, *c.mix);
+    if (!mixed) return mixed.error();
+    m = *mixed;
+    out.notes.push_back(fmt::format("mixed {:.1f} % by volume ({:.1f} % by mass) of water at salinity {:g} into the "
+                                    "intake: salinity {:.2f}",
+                                    100 * c.mix->volume_fraction, 100 * m.mass_fraction_other, c.mix->salinity,
+                                    m.salinity));
+  }
+  if (c.tank_temperature_c) {
+    if (auto r = check_range("tank_temperature_c", *c.tank_temperature_c, -2.0, 50.0, "C"); !r) return r.error();
+    m.temperature_c = *c.tank_temperature_c;
+  }
+  if (m.salinity < cb::kSalinityMin) {
+    return Error{"mix_fraction", fmt::format("the mixed water's salinity {:.2f} is below {:g}, where the seawater "
+                                             "carbonate constants end; use less fresh water (accepted salinity {:g} "
+                                             "to {:g})",
+                                             m.salinity, cb::kSalinityMin, cb::kSalinityMin, cb::kSalinityMax)};
+  }
+  Water w = intake;
+  w.salinity = m.salinity;
+  w.temperature_c = m.temperature_c;
+  w.calcium_umol_kg = m.calcium_umol_kg;  // carried from the intake (measured or scaled), then mixed
+  w.measurements = {{cb::Quantity::Alkalinity, m.alkalinity_umol_kg}, {cb::Quantity::DIC, m.dic_umol_kg},
+                    cb::PhScale::Total};
+  auto cond = detail::solve_intake(w);
+  if (!cond) return cond.error();
+  out.points.push_back({"conditioned", w.salinity, w.temperature_c, m.calcium_umol_kg, cond->intake});
+
+  auto t = plan_treatment(w, s);
+  if (!t) return t.error();
+  out.points.push_back({"dosed (after mixing)", w.salinity, w.temperature_c, m.calcium_umol_kg, t->after_mixing});
+  out.points.push_back({"at the tanks", w.salinity, w.temperature_c, m.calcium_umol_kg, t->at_tanks});
+  out.treatment = std::move(t).value();
+  out.conditioned = w;
+  return out;
+}
+
+}  // namespace tw::hatchery
