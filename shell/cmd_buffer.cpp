@@ -13,6 +13,7 @@
 #include "chem_uncertainty.hpp"
 #include "commands.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
+#include "tidewright/hatchery/hatchery_line.hpp"
 #include "tidewright/seawater/seawater.hpp"
 #include "tidewright/common/units.hpp"
 
@@ -50,6 +51,9 @@ struct BufferOptions {
   // dosing to a confidence: the intake readings' precision (the chem options) and the probability
   ChemPrecisionOptions precision;
   std::optional<double> confidence_percent;
+  // buffer line: conditioning between the intake and the tanks
+  std::optional<double> mix_fraction, tank_temperature;
+  double mix_salinity = 0, mix_temperature = 20, mix_alkalinity = 0, mix_dic = 0, mix_calcium = 0;
 };
 
 // Core field names -> command-line options, so that every one-line reason names the option.
@@ -412,6 +416,56 @@ void run_table(const BufferOptions& o) {
   std::fwrite(out.data(), 1, out.size(), stdout);
 }
 
+// The line: intake -> conditioned (mixed and/or heated) -> dosed, pH and Omega at each point.
+void run_line(const BufferOptions& o) {
+  const hy::Water w = water_of(o, false);
+  hy::Settings s = settings_of(o);
+  hy::Conditioning c;
+  c.tank_temperature_c = o.tank_temperature;
+  if (o.mix_fraction) {
+    hy::OtherWater other;
+    other.volume_fraction = *o.mix_fraction;
+    other.salinity = o.mix_salinity;
+    other.temperature_c = o.mix_temperature;
+    other.alkalinity_umol_kg = o.mix_alkalinity;
+    other.dic_umol_kg = o.mix_dic;
+    other.calcium_umol_kg = o.mix_calcium;
+    c.mix = other;
+  }
+  const hy::HatcheryLine line = or_fail(hy::plan_line(w, c, s));
+  if (o.json) {
+    json points = json::array();
+    for (const auto& p : line.points) {
+      points.push_back({{"point", p.name}, {"salinity", p.salinity}, {"temperature_c", p.temperature_c},
+                        {"calcium_umol_kg", p.calcium_umol_kg}, {"state", state_json(p.state)}});
+    }
+    json out = {{"mode", "line"}, {"points", points}, {"treatment", treatment_json(line.treatment)},
+                {"notes", line.notes}, {"warnings", line.treatment.warnings}};
+    std::cout << out.dump(2) << "\n";
+    return;
+  }
+  std::string out = "Hatchery line: intake, conditioned, dosed\n" + header_text(line.conditioned, s);
+  for (const auto& n : line.notes) out += "  " + n + "\n";
+  out += fmt::format("\n  {:<22} {:>8} {:>6} {:>8} {:>8} {:>8} {:>8} {:>6}\n", "point", "salinity", "C", "TA", "DIC",
+                     "Ca", "pH(T)", "Omega");
+  for (const auto& p : line.points) {
+    out += fmt::format("  {:<22} {:>8.2f} {:>6.1f} {:>8.0f} {:>8.0f} {:>8.0f} {:>8.3f} {:>6.2f}\n", p.name, p.salinity,
+                       p.temperature_c, p.state.alkalinity_umol_kg, p.state.dic_umol_kg, p.calcium_umol_kg,
+                       p.state.ph_total, p.state.omega_aragonite);
+  }
+  out += "  (TA, DIC and Ca in umol/kg; Omega aragonite)\n";
+  out += fmt::format("\nDose on the conditioned water: +{:.1f} umol/kg alkalinity ({})\n",
+                     line.treatment.dose.alkalinity_umol_kg(), hy::to_string(s.buffer));
+  out += notes_text(line.treatment.warnings,
+                    hy::cautions_for(s.buffer == hy::Buffer::SodiumHydroxide ? std::vector{hy::Compound::SodiumHydroxide}
+                                     : s.buffer == hy::Buffer::SodiumBicarbonate ? std::vector{hy::Compound::SodiumBicarbonate}
+                                     : s.buffer == hy::Buffer::Blend
+                                         ? std::vector{hy::Compound::SodiumCarbonate, hy::Compound::SodiumBicarbonate}
+                                         : std::vector{hy::Compound::SodiumCarbonate}),
+                    line.treatment.calcium_source);
+  std::fwrite(out.data(), 1, out.size(), stdout);
+}
+
 void add_common(CLI::App* c, BufferOptions& o) {
   c->add_option("--salinity", o.salinity, "Practical salinity of the water")->default_str("35");
   c->add_option("--temperature", o.temperature_c, "Water temperature [C]")->default_str("20");
@@ -483,6 +537,18 @@ void register_buffer(CLI::App& app) {
   t->add_option("--step", table->step, "Step of the varied reading")->default_str("0.05");
   t->add_flag("--csv", table->csv, "Print CSV instead of text");
   t->callback([table] { run_table(*table); });
+
+  auto line = std::make_shared<BufferOptions>();
+  CLI::App* l = cmd->add_subcommand("line", "The water through the line: intake, after mixing or heating, after the dose");
+  add_common(l, *line);
+  l->add_option("--mix-fraction", line->mix_fraction, "Volume fraction 0..1 of other (fresh) water mixed into the intake");
+  l->add_option("--mix-salinity", line->mix_salinity, "Salinity of that water (0..50)")->default_str("0");
+  l->add_option("--mix-temperature", line->mix_temperature, "Its temperature [C]")->default_str("20");
+  l->add_option("--mix-alkalinity", line->mix_alkalinity, "Its alkalinity [umol/kg] (0..10000)")->default_str("0");
+  l->add_option("--mix-dic", line->mix_dic, "Its DIC [umol/kg] (0..10000)")->default_str("0");
+  l->add_option("--mix-calcium", line->mix_calcium, "Its calcium [umol/kg] (0..50000)")->default_str("0");
+  l->add_option("--tank-temperature", line->tank_temperature, "Temperature at the tanks after heating or cooling [C]");
+  l->callback([line] { run_line(*line); });
 }
 
 }  // namespace tw::shell

@@ -82,6 +82,11 @@ Result<HatcheryLine> plan_line(const Water& intake, const Conditioning& c, const
   out.points.push_back({"dosed (after mixing)", w.salinity, w.temperature_c, m.calcium_umol_kg, t->after_mixing});
   out.points.push_back({"at the tanks", w.salinity, w.temperature_c, m.calcium_umol_kg, t->at_tanks});
   out.treatment = std::move(t).value();
+  if (c.mix) {  // not "as measured": mixed from the intake's calcium and the added water's
+    out.treatment.calcium_source = fmt::format(
+        "calcium mixed by mass, {:.0f} umol/kg, from the intake's ({}) and {:.0f} umol/kg in the added water",
+        m.calcium_umol_kg, line->constants.calcium.note, c.mix->calcium_umol_kg);
+  }
   out.conditioned = w;
   return out;
 }
