@@ -3,6 +3,7 @@
 // store after a change and marks the Water results stale.
 #include "actions.hpp"
 
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/journal/schedule.hpp"
 
 #include <algorithm>
@@ -376,7 +377,7 @@ void set_text_size(AppState& app, float text_size) {
 }
 
 bool set_room_co2(AppState& app, double ppm) {
-  auto st = tw::check_range("room CO2", ppm, 150, 10000, "ppm");
+  auto st = tw::ranges::check("room CO2", ppm, tw::ranges::kRoomCo2Ppm);
   if (!st) {
     notify(app, st.error().message, true);
     return false;

@@ -178,10 +178,10 @@ void draw_dose(AppState& app, LogForm& f) {
   const char* const forms[] = {"mL of stock solution", "grams of dry salt"};
   if (ui::choice(app, "log.dose.form", "Dosed as", &form, forms, 2)) f.dose_in_ml = form == 0;
   ui::optional_number_field(app, "log.dose.amount", {"Amount", f.dose_in_ml ? "mL" : "g", 1, f.dose_in_ml ? 1.0 : 0.5,
-                                                     0.1, tw::journal::kDoseAmountRange.hi}, &f.dose_amount);
+                                                     0.1, tw::ranges::kDoseAmount.hi}, &f.dose_amount);
   if (f.dose_in_ml) {
     ui::number_field(app, "log.dose.stock", {"Stock strength (salt as sold per litre of solution)", "g/L", 0, 5, 1,
-                                             tw::journal::kStockGPerLRange.hi}, &f.dose_stock_g_per_l);
+                                             tw::ranges::kStockGPerL.hi}, &f.dose_stock_g_per_l);
   }
 }
 
@@ -209,22 +209,22 @@ void draw_water_change(AppState& app, const jn::System& sys, LogForm& f) {
   const au::AlkalinityUnit au_ = sys.units.alkalinity;
   const fmtx::UnitShown alk = fmtx::alkalinity_shown(au_);
   converted_field(app, "log.change.alkalinity", {"Alkalinity of the new water", alk.unit, alk.decimals, alk.step,
-                                                 0, tw::journal::kAlkalinityDkhRange.hi},
+                                                 0, tw::ranges::kAlkalinityDkh.hi},
                   &f.change_alkalinity_dkh, [au_](double d) { return fmtx::alkalinity_from_dkh(d, au_); },
                   [au_](double v) { return fmtx::alkalinity_to_dkh(v, au_); });
   const au::ConcentrationUnit cu = sys.units.calcium_magnesium;
   const char* cu_text = cu == au::ConcentrationUnit::MmolPerKg ? "mmol/kg" : "mg/L";
   const int cd = ion_decimals(cu);
   converted_field(app, "log.change.calcium", {"Calcium of the new water", cu_text, cd, cd ? 0.1 : 5.0, 0,
-                                              tw::journal::kCalciumMgLRange.hi},
+                                              tw::ranges::kCalciumMgL.hi},
                   &f.change_calcium_mg_l, [cu](double m) { return ion_shown(m, cu, au::Ion::Calcium); },
                   [cu](double v) { return ion_from_shown(v, cu, au::Ion::Calcium); });
   converted_field(app, "log.change.magnesium", {"Magnesium of the new water", cu_text, cd, cd ? 0.2 : 10.0, 0,
-                                                tw::journal::kMagnesiumMgLRange.hi},
+                                                tw::ranges::kMagnesiumMgL.hi},
                   &f.change_magnesium_mg_l, [cu](double m) { return ion_shown(m, cu, au::Ion::Magnesium); },
                   [cu](double v) { return ion_from_shown(v, cu, au::Ion::Magnesium); });
   ui::optional_number_field(app, "log.change.salinity", {"Salinity of the new water", "psu", 1, 0.1, 0,
-                                                         tw::journal::kSalinityRange.hi}, &f.change_salinity);
+                                                         tw::ranges::kSalinity.hi}, &f.change_salinity);
 }
 
 std::optional<jn::EventData> build_water_change(AppState& app, const LogForm& f) {

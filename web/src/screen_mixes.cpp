@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <string>
 
+#include "tidewright/common/ranges.hpp"
 #include "actions.hpp"
 #include "actions_dosing.hpp"
 #include "format.hpp"
@@ -67,7 +68,7 @@ void draw_form(AppState& app, MixesForm& f) {
     f.temperature_c = fmtx::temperature_from_shown(t, tu);
   }
   if (f.direction == MixDirection::RecipeToStrength) {
-    ui::number_field(app, "mixes.grams", {"Grams per litre of finished solution", "g/L", 1, 5, 0.1, 1500},
+    ui::number_field(app, "mixes.grams", {"Grams per litre of finished solution", "g/L", 1, 5, 0.1, tw::ranges::kStockGPerL.hi},
                      &f.grams_per_l);
     ui::dim_text("Weigh the compound as sold (with its water of crystallisation), dissolve, and make up to the litre.");
   } else {

@@ -7,6 +7,7 @@
 #include <cmath>
 #include <string>
 
+#include "tidewright/common/ranges.hpp"
 #include "actions.hpp"
 #include "actions_dosing.hpp"
 #include "chart_timeseries.hpp"
@@ -42,10 +43,10 @@ void draw_form(AppState& app, PlanForm& f) {
     ui::number_field(app, "plan.ca_strength", {"Stock strength", "g/L", 0, 10, 1, 800}, &f.calcium_g_per_l);
   }
   double n = f.doses_per_day;
-  if (ui::number_field(app, "plan.doses_per_day", {"Doses per day per pump", "", 0, 1, 1, 24}, &n)) f.doses_per_day = static_cast<int>(n);
+  if (ui::number_field(app, "plan.doses_per_day", {"Doses per day per pump", "", 0, 1, tw::ranges::kDosesPerDay.lo, tw::ranges::kDosesPerDay.hi}, &n)) f.doses_per_day = static_cast<int>(n);
   ui::number_field(app, "plan.max_dose", {"Largest single dose", "mL", 0, 5, 1, 1000}, &f.max_dose_ml);
   double h = f.horizon_days;
-  if (ui::number_field(app, "plan.horizon", {"Days to plan", "days", 0, 1, 1, 60}, &h)) f.horizon_days = static_cast<int>(h);
+  if (ui::number_field(app, "plan.horizon", {"Days to plan", "days", 0, 1, tw::ranges::kPlanHorizonDays.lo, tw::ranges::kPlanHorizonDays.hi}, &h)) f.horizon_days = static_cast<int>(h);
   int src = f.use_estimate ? 0 : 1;
   const char* const srcs[] = {"From the log", "Typed here"};
   if (ui::choice(app, "plan.demand_source", "Consumption", &src, srcs, 2)) f.use_estimate = src == 0;

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <string>
 
+#include "tidewright/common/ranges.hpp"
 #include "actions.hpp"
 #include "format.hpp"
 #include "platform.hpp"
@@ -137,7 +138,7 @@ void draw_settings(AppState& app) {
 
   ui::heading(app, "Room air");
   double co2 = app.settings.room_co2_ppm;
-  if (ui::number_field(app, "settings.room_co2", {"CO\u2082 in the room's air", "ppm", 0, 50, 150, 10000}, &co2)) {
+  if (ui::number_field(app, "settings.room_co2", {"CO\u2082 in the room's air", "ppm", 0, 50, tw::ranges::kRoomCo2Ppm.lo, tw::ranges::kRoomCo2Ppm.hi}, &co2)) {
     set_room_co2(app, co2);
   }
   ui::dim_text("Outdoor air is about 420 ppm; closed rooms with people in them often reach 800 to 2000 ppm, which lowers the pH that tank water settles at.");

@@ -31,19 +31,19 @@ void draw_editor(AppState& app) {
 
   const tw::units::VolumeUnit vu = u.volume;
   double volume = tw::units::volume_from_litres(s.volume_l, vu);
-  const double vmax = tw::units::volume_from_litres(jn::kSystemVolumeLRange.hi, vu);
-  const double vmin = tw::units::volume_from_litres(jn::kSystemVolumeLRange.lo, vu);
+  const double vmax = tw::units::volume_from_litres(tw::ranges::kSystemVolumeL.hi, vu);
+  const double vmin = tw::units::volume_from_litres(tw::ranges::kSystemVolumeL.lo, vu);
   if (ui::number_field(app, "system.volume", {"Net water volume", fmtx::volume_unit_text(vu), 1, 10, vmin, vmax}, &volume)) {
     s.volume_l = tw::units::volume_to_litres(volume, vu);
     s.volume_parts.reset();
   }
-  ui::number_field(app, "system.salinity", {"Usual salinity", "psu", 1, 0.5, jn::kSalinityRange.lo, jn::kSalinityRange.hi},
+  ui::number_field(app, "system.salinity", {"Usual salinity", "psu", 1, 0.5, tw::ranges::kSalinity.lo, tw::ranges::kSalinity.hi},
                    &s.default_salinity);
   double t = fmtx::temperature_shown(s.default_temperature_c, u.temperature);
   if (ui::number_field(app, "system.temperature",
                        {"Usual temperature", fmtx::temperature_unit_text(u.temperature), 1, 0.5,
-                        fmtx::temperature_shown(jn::kTemperatureCRange.lo, u.temperature),
-                        fmtx::temperature_shown(jn::kTemperatureCRange.hi, u.temperature)},
+                        fmtx::temperature_shown(tw::ranges::kTemperatureC.lo, u.temperature),
+                        fmtx::temperature_shown(tw::ranges::kTemperatureC.hi, u.temperature)},
                        &t)) {
     s.default_temperature_c = fmtx::temperature_from_shown(t, u.temperature);
   }
@@ -52,8 +52,8 @@ void draw_editor(AppState& app) {
   if (s.targets.alkalinity_dkh) target = fmtx::alkalinity_from_dkh(*s.targets.alkalinity_dkh, u.alkalinity);
   if (ui::optional_number_field(app, "system.alk_target",
                                 {"Alkalinity target", au.unit, au.decimals, au.step,
-                                 fmtx::alkalinity_from_dkh(jn::kAlkalinityDkhRange.lo, u.alkalinity),
-                                 fmtx::alkalinity_from_dkh(jn::kAlkalinityDkhRange.hi, u.alkalinity)},
+                                 fmtx::alkalinity_from_dkh(tw::ranges::kAlkalinityDkh.lo, u.alkalinity),
+                                 fmtx::alkalinity_from_dkh(tw::ranges::kAlkalinityDkh.hi, u.alkalinity)},
                                 &target) && target) {
     s.targets.alkalinity_dkh = fmtx::alkalinity_to_dkh(*target, u.alkalinity);
   }

@@ -61,8 +61,8 @@ void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
   double alk = fmtx::alkalinity_from_dkh(w.alkalinity_dkh, u.alkalinity);
   if (ui::number_field(app, "water.alkalinity",
                        {"Alkalinity", au.unit, au.decimals, au.step,
-                        fmtx::alkalinity_from_dkh(jn::kAlkalinityDkhRange.lo, u.alkalinity),
-                        fmtx::alkalinity_from_dkh(jn::kAlkalinityDkhRange.hi, u.alkalinity)},
+                        fmtx::alkalinity_from_dkh(tw::ranges::kAlkalinityDkh.lo, u.alkalinity),
+                        fmtx::alkalinity_from_dkh(tw::ranges::kAlkalinityDkh.hi, u.alkalinity)},
                        &alk)) {
     w.alkalinity_dkh = fmtx::alkalinity_to_dkh(alk, u.alkalinity);
     changed = true;
@@ -71,7 +71,7 @@ void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
     int scale = 0;
     for (int i = 0; i < 4; ++i) if (kScaleValues[i] == w.ph_scale) scale = i;
     const std::string label = std::string("pH (") + fmtx::ph_scale_label(w.ph_scale) + " scale)";
-    changed |= ui::number_field(app, "water.ph", {label.c_str(), "", 2, 0.01, jn::kPhRange.lo, jn::kPhRange.hi}, &w.ph);
+    changed |= ui::number_field(app, "water.ph", {label.c_str(), "", 2, 0.01, tw::ranges::kPh.lo, tw::ranges::kPh.hi}, &w.ph);
     if (ui::choice(app, "water.ph_scale", "pH scale of that reading", &scale, kScales, 4)) {
       w.ph_scale = kScaleValues[scale];
       changed = true;
@@ -86,19 +86,19 @@ void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
   }
   // Empty: the core scales calcium from salinity and says so under the results.
   changed |= ui::optional_number_field(app, "water.calcium",
-                                       {"Calcium (measured)", jn::kCalciumMgLRange.unit, 0, 10, jn::kCalciumMgLRange.lo,
-                                        jn::kCalciumMgLRange.hi},
+                                       {"Calcium (measured)", tw::ranges::kCalciumMgL.unit, 0, 10, tw::ranges::kCalciumMgL.lo,
+                                        tw::ranges::kCalciumMgL.hi},
                                        &w.calcium_mg_l);
   if (w.calcium_mg_l && ui::button(app, "water.calcium.clear", "Scale calcium from salinity instead", -1, ui::Tone::Quiet)) {
     w.calcium_mg_l.reset();
     changed = true;
   }
-  changed |= ui::number_field(app, "water.salinity", {"Salinity", "psu", 1, 0.5, jn::kSalinityRange.lo, jn::kSalinityRange.hi}, &w.salinity);
+  changed |= ui::number_field(app, "water.salinity", {"Salinity", "psu", 1, 0.5, tw::ranges::kSalinity.lo, tw::ranges::kSalinity.hi}, &w.salinity);
   double t = fmtx::temperature_shown(w.temperature_c, u.temperature);
   if (ui::number_field(app, "water.temperature",
                        {"Temperature", fmtx::temperature_unit_text(u.temperature), 1, 0.5,
-                        fmtx::temperature_shown(jn::kTemperatureCRange.lo, u.temperature),
-                        fmtx::temperature_shown(jn::kTemperatureCRange.hi, u.temperature)},
+                        fmtx::temperature_shown(tw::ranges::kTemperatureC.lo, u.temperature),
+                        fmtx::temperature_shown(tw::ranges::kTemperatureC.hi, u.temperature)},
                        &t)) {
     w.temperature_c = fmtx::temperature_from_shown(t, u.temperature);
     changed = true;

@@ -5,6 +5,7 @@
 
 #include <fmt/format.h>
 
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/common/units.hpp"
 
@@ -67,7 +68,7 @@ double per_mole_of(Parameter p, const ChemicalChange& c) {
 // Check values (facts.md 5, computed there from IUPAC weights): per 100 L and 1 dKH NaHCO3
 // 3.00 g, Na2CO3 1.89 g, NaOH 1.43 g, Ca(OH)2 1.32 g; per 100 L and 10 mg/L Ca CaCl2.2H2O 3.67 g.
 Result<double> grams_for_rise(CompoundId id, Parameter p, double rise, double volume_l) {
-  if (auto s = check_range("volume_l", volume_l, 0.1, 1.0e7, "L"); !s) return s.error();
+  if (auto s = ranges::check("volume_l", volume_l, ranges::kSystemVolumeL); !s) return s.error();
   if (!is_dosed(p)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
   if (auto s = check_range("rise", rise, 0.0, 1.0e4, parameter_unit(p)); !s) return s.error();
   const Compound& c = compound(id);

@@ -4,6 +4,7 @@
 
 #include <fmt/format.h>
 
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/common/units.hpp"
 
@@ -25,10 +26,10 @@ Result<DailyAddition> daily_addition(const ContinuousSource& source, const TankL
       return s.error();
     }
   }
-  if (auto s = check_range("tank.alkalinity_dkh", tank.alkalinity_dkh, 0.0, 30.0, "dKH"); !s) return s.error();
-  if (auto s = check_range("tank.calcium_mg_l", tank.calcium_mg_l, 0.0, 1000.0, "mg/L"); !s) return s.error();
-  if (auto s = check_range("tank.magnesium_mg_l", tank.magnesium_mg_l, 0.0, 3000.0, "mg/L"); !s) return s.error();
-  if (auto s = check_range("system_volume_l", system_volume_l, 1.0, 1.0e7, "L"); !s) return s.error();
+  if (auto s = ranges::check("tank.alkalinity_dkh", tank.alkalinity_dkh, ranges::kAlkalinityDkh); !s) return s.error();
+  if (auto s = ranges::check("tank.calcium_mg_l", tank.calcium_mg_l, ranges::kCalciumMgL); !s) return s.error();
+  if (auto s = ranges::check("tank.magnesium_mg_l", tank.magnesium_mg_l, ranges::kMagnesiumMgL); !s) return s.error();
+  if (auto s = ranges::check("system_volume_l", system_volume_l, ranges::kSystemVolumeL); !s) return s.error();
 
   const double litres_per_day = source.flow_ml_per_min * 1440.0 / 1000.0;
   DailyAddition out;

@@ -6,6 +6,7 @@
 
 #include <fmt/format.h>
 
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/additives/additives.hpp"
 
 namespace tw::additives {
@@ -144,7 +145,7 @@ Result<RecipeForEffect> recipe_for_effect(CompoundId id, const TargetEffect& tar
   if (!is_dosed(target.parameter)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
   if (auto s = check_range("rise", target.rise, 1e-6, 1000.0, parameter_unit(target.parameter)); !s) return s.error();
   if (auto s = check_range("dose_ml", target.dose_ml, 0.01, 10000.0, "mL"); !s) return s.error();
-  if (auto s = check_range("tank_volume_l", target.tank_volume_l, 0.1, 1.0e7, "L"); !s) return s.error();
+  if (auto s = ranges::check("tank_volume_l", target.tank_volume_l, ranges::kSystemVolumeL); !s) return s.error();
   // Grams of compound per dose = grams for the rise in the tank; per litre of stock = /dose_ml*1000.
   auto grams = grams_for_rise(id, target.parameter, target.rise, target.tank_volume_l);
   if (!grams) return grams.error();
@@ -179,7 +180,7 @@ Result<RecipeForEffect> recipe_for_effect(CompoundId id, const TargetEffect& tar
 // and magnesium products are chlorides. The notes say so.
 Result<StockStrength> strength_from_label(const LabelClaim& claim) {
   if (auto s = check_range("dose_ml", claim.dose_ml, 0.01, 10000.0, "mL"); !s) return s.error();
-  if (auto s = check_range("tank_volume_l", claim.tank_volume_l, 0.1, 1.0e7, "L"); !s) return s.error();
+  if (auto s = ranges::check("tank_volume_l", claim.tank_volume_l, ranges::kSystemVolumeL); !s) return s.error();
   if (!is_dosed(claim.parameter)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
   if (auto s = check_range("rise", claim.rise, 1e-6, 1000.0, parameter_unit(claim.parameter)); !s) return s.error();
   if (auto s = check_range("dic_per_alkalinity_eq", claim.dic_per_alkalinity_eq, 0.0, 1.0, "mol/eq"); !s) {

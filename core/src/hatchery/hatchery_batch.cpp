@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include "hatchery_internal.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
 #include "tidewright/seawater/seawater.hpp"
@@ -16,7 +17,7 @@ std::vector<Compound> compounds_of(Buffer b);                           // hatch
 }  // namespace detail
 
 Result<BatchPlan> plan_batch(const Water& tank, double volume_l, const Settings& s) {
-  if (auto r = check_range("volume_l", volume_l, 0.1, 1e7, "L"); !r) return r.error();
+  if (auto r = ranges::check("volume_l", volume_l, ranges::kSystemVolumeL); !r) return r.error();
   auto treatment = plan_treatment(tank, s);
   if (!treatment) return treatment.error();
 

@@ -14,6 +14,7 @@
 
 #include <fmt/format.h>
 
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
 #include "hatchery_internal.hpp"
 
@@ -116,17 +117,17 @@ Status validate_settings(const Settings& s) {
   const Target& t = s.target;
   Status st = Ok{};
   switch (t.kind) {
-    case TargetKind::OmegaAragonite: st = check_range("target_omega", t.value, 0.5, 8.0, ""); break;
-    case TargetKind::PH: st = check_range("target_ph", t.value, 6.5, 9.3, ""); break;
+    case TargetKind::OmegaAragonite: st = ranges::check("target_omega", t.value, ranges::kHatcheryTargetOmega); break;
+    case TargetKind::PH: st = ranges::check("target_ph", t.value, ranges::kHatcheryTargetPh); break;
     case TargetKind::AlkalinityRise:
       st = check_range("target_alkalinity_rise", t.value, 0.0, kMaxAddedAlkalinityUmolKg, "umol/kg");
       break;
   }
   if (!st) return st;
-  if (auto r = check_range("ph_ceiling", s.limits.ph_ceiling, 7.0, 9.3, ""); !r) return r;
+  if (auto r = ranges::check("ph_ceiling", s.limits.ph_ceiling, ranges::kHatcheryPhCeiling); !r) return r;
   if (auto r = check_range("mixing_omega_ceiling", s.limits.mixing_omega_ceiling, 1.0, 20.0, ""); !r) return r;
   if (auto r = degassing_fraction(s.gas); !r) return r.error();
-  if (auto r = check_range("air_co2_ppm", s.gas.air_co2_ppm, 100.0, 10000.0, "ppm"); !r) return r;
+  if (auto r = ranges::check("air_co2_ppm", s.gas.air_co2_ppm, ranges::kRoomCo2Ppm); !r) return r;
   if (auto r = check_range("stock_temperature_c", s.stock.temperature_c, 0.0, 60.0, "C"); !r) return r;
   if (auto r = check_range("stock_fraction_of_saturation", s.stock.fraction_of_saturation, 0.05, 1.0, ""); !r) return r;
   if (s.stock.strength_g_per_l) {

@@ -14,6 +14,7 @@
 #include <fmt/format.h>
 
 #include "hatchery_internal.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
 #include "tidewright/seawater/seawater.hpp"
@@ -220,7 +221,7 @@ std::vector<std::string> cautions_for(const std::vector<Compound>& compounds) {
 
 // ================================================================ 6. plan_flow
 Result<FlowPlan> plan_flow(const Water& intake, double flow_l_per_min, const Settings& s) {
-  if (auto r = check_range("flow", flow_l_per_min, 0.01, 100000.0, "L/min"); !r) return r.error();
+  if (auto r = ranges::check("flow", flow_l_per_min, ranges::kIntakeFlowLPerMin); !r) return r.error();
   auto treatment = plan_treatment(intake, s);
   if (!treatment) return treatment.error();
   auto line = detail::solve_intake(intake);

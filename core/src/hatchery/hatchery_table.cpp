@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 
 #include "hatchery_internal.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/common/csv.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
 
@@ -50,7 +51,7 @@ int decimals_of(cb::Quantity q) { return q == cb::Quantity::PH ? 2 : 0; }
 
 Result<PumpTable> build_pump_table(const Water& intake, double flow_l_per_min,
                                    const TableRange& range, const Settings& settings) {
-  if (auto r = check_range("flow", flow_l_per_min, 0.01, 100000.0, "L/min"); !r) return r.error();
+  if (auto r = ranges::check("flow", flow_l_per_min, ranges::kIntakeFlowLPerMin); !r) return r.error();
   if (auto v = detail::validate_settings(settings); !v) return v.error();
   if (!std::isfinite(range.step) || range.step <= 0.0) {
     return Error{"step", fmt::format("step {:g} must be above 0", range.step)};

@@ -391,7 +391,7 @@ Result<json> migrate_v1_to_v2(const json& v1) {
       const std::string path = fmt::format("events[{}]", i);
       if (!e.is_object()) return at(path, "must be an object");
       TW_TRY(time_s, get_integer(e, path, "time_s"));
-      if (time_s < kEarliestTimeS || time_s > kLatestTimeS) {
+      if (time_s < ranges::kEarliestTimeS || time_s > ranges::kLatestTimeS) {
         return at(path + ".time_s", "is outside the accepted range 1970-01-01 to 2200-01-01");
       }
       e["time"] = datetime::format_iso8601_utc(time_s);

@@ -52,9 +52,7 @@ Status check_text(const char* field, const std::string& s) {
   return Ok{};
 }
 
-Status in_range(const std::string& field, double v, const Range& r) {
-  return check_range(field, v, r.lo, r.hi, r.unit);
-}
+Status in_range(const std::string& field, double v, const Range& r) { return ranges::check(field, v, r); }
 
 // lo < v <= hi (a volume or an amount of zero means nothing happened).
 Status positive_in_range(const std::string& field, double v, const Range& r) {
@@ -76,21 +74,7 @@ Status optional_in_range(const std::string& field, const std::optional<double>& 
   return in_range(field, *v, r);
 }
 
-const Range& range_of(Parameter p) {
-  switch (p) {
-    case Parameter::Alkalinity: return kAlkalinityDkhRange;
-    case Parameter::Calcium: return kCalciumMgLRange;
-    case Parameter::Magnesium: return kMagnesiumMgLRange;
-    case Parameter::PH: return kPhRange;
-    case Parameter::Salinity: return kSalinityRange;
-    case Parameter::SpecificGravity: return kSpecificGravityRange;
-    case Parameter::Temperature: return kTemperatureCRange;
-    case Parameter::Nitrate: return kNitrateMgLRange;
-    case Parameter::Phosphate: return kPhosphateMgLRange;
-    case Parameter::Other: return kOtherValueRange;
-  }
-  return kOtherValueRange;
-}
+const Range& range_of(Parameter p) { return ranges::of_measurement(p); }
 
 Status validate_test(const TestResult& t) {
   if (t.parameter == Parameter::Other &&
@@ -148,13 +132,13 @@ Status validate_dose(const Dose& d) {
     return Error{"additive_id", "additive_id must name a catalog additive in 1 to 60 characters"};
   }
   if (Status t = check_text("additive_id", d.additive_id); !t) return t;
-  Status s = positive_in_range("amount", d.amount, kDoseAmountRange);
+  Status s = positive_in_range("amount", d.amount, ranges::kDoseAmount);
   if (!s) return s;
   if (d.stock_g_per_l) {
     if (d.unit != DoseUnit::Millilitres) {
       return Error{"stock_g_per_l", "stock_g_per_l is only for doses in mL of a stock solution"};
     }
-    return positive_in_range("stock_g_per_l", *d.stock_g_per_l, kStockGPerLRange);
+    return positive_in_range("stock_g_per_l", *d.stock_g_per_l, ranges::kStockGPerL);
   }
   return Ok{};
 }
@@ -208,8 +192,8 @@ Status validate_schedule(const Event& e, const DoseSchedule& d) {
     return Error{"doses_per_day", fmt::format("doses_per_day {} is outside the accepted range 1 to {}",
                                               d.doses_per_day, kMaxDosesPerDay)};
   }
-  if (Status s = in_range("calibration", d.calibration, kCalibrationRange); !s) return s;
-  if (d.stop_time_s && (*d.stop_time_s <= e.time_s || *d.stop_time_s > kLatestTimeS)) {
+  if (Status s = in_range("calibration", d.calibration, ranges::kPumpCalibration); !s) return s;
+  if (d.stop_time_s && (*d.stop_time_s <= e.time_s || *d.stop_time_s > ranges::kLatestTimeS)) {
     return Error{"stop", fmt::format("stop {} must come after the schedule's start {}",
                                      datetime::format_iso8601_utc(*d.stop_time_s),
                                      datetime::format_iso8601_utc(e.time_s))};
@@ -220,10 +204,10 @@ Status validate_schedule(const Event& e, const DoseSchedule& d) {
 Status validate_water_change(const WaterChange& w, const System& sys) {
   Status s = volume_within_system(w.volume_l, sys);
   if (!s) return s;
-  if (!(s = optional_in_range("alkalinity_dkh", w.alkalinity_dkh, kAlkalinityDkhRange))) return s;
-  if (!(s = optional_in_range("calcium_mg_l", w.calcium_mg_l, kCalciumMgLRange))) return s;
-  if (!(s = optional_in_range("magnesium_mg_l", w.magnesium_mg_l, kMagnesiumMgLRange))) return s;
-  return optional_in_range("salinity", w.salinity, kSalinityRange);
+  if (!(s = optional_in_range("alkalinity_dkh", w.alkalinity_dkh, ranges::kAlkalinityDkh))) return s;
+  if (!(s = optional_in_range("calcium_mg_l", w.calcium_mg_l, ranges::kCalciumMgL))) return s;
+  if (!(s = optional_in_range("magnesium_mg_l", w.magnesium_mg_l, ranges::kMagnesiumMgL))) return s;
+  return optional_in_range("salinity", w.salinity, ranges::kSalinity);
 }
 
 Status validate_top_off(const TopOff& t, const System& sys) {
@@ -233,7 +217,7 @@ Status validate_top_off(const TopOff& t, const System& sys) {
     if (t.kind != TopOffKind::Limewater) {
       return Error{"limewater_g_per_l", "limewater_g_per_l is only for limewater top-off"};
     }
-    return positive_in_range("limewater_g_per_l", *t.limewater_g_per_l, kLimewaterGPerLRange);
+    return positive_in_range("limewater_g_per_l", *t.limewater_g_per_l, ranges::kLimewaterGPerL);
   }
   return Ok{};
 }
@@ -277,12 +261,12 @@ Status validate_system(const Journal& journal, const System& s) {
       return Error{"name", "name '" + s.name + "' is already used by another system"};
     }
   }
-  Status st = in_range("volume_l", s.volume_l, kSystemVolumeLRange);
+  Status st = in_range("volume_l", s.volume_l, ranges::kSystemVolumeL);
   if (!st) return st;
   if (s.volume_parts) {
     const auto& p = *s.volume_parts;
-    if (!(st = in_range("display_l", p.display_l, kEventVolumeLRange))) return st;
-    if (!(st = in_range("sump_l", p.sump_l, kEventVolumeLRange))) return st;
+    if (!(st = in_range("display_l", p.display_l, ranges::kEventVolumeL))) return st;
+    if (!(st = in_range("sump_l", p.sump_l, ranges::kEventVolumeL))) return st;
     if (!(st = in_range("rock_displacement_l", p.rock_displacement_l,
                         Range{0.0, p.display_l + p.sump_l, "L (display + sump)"})))
       return st;
@@ -293,15 +277,15 @@ Status validate_system(const Journal& journal, const System& s) {
                                            s.volume_l, net)};
     }
   }
-  if (!(st = in_range("default_salinity", s.default_salinity, kSalinityRange))) return st;
-  if (!(st = in_range("default_temperature_c", s.default_temperature_c, kTemperatureCRange)))
+  if (!(st = in_range("default_salinity", s.default_salinity, ranges::kSalinity))) return st;
+  if (!(st = in_range("default_temperature_c", s.default_temperature_c, ranges::kTemperatureC)))
     return st;
   if (!(st = optional_in_range("target alkalinity_dkh", s.targets.alkalinity_dkh,
-                               kAlkalinityDkhRange)))
+                               ranges::kAlkalinityTargetDkh)))
     return st;
-  if (!(st = optional_in_range("target calcium_mg_l", s.targets.calcium_mg_l, kCalciumMgLRange)))
+  if (!(st = optional_in_range("target calcium_mg_l", s.targets.calcium_mg_l, ranges::kCalciumTargetMgL)))
     return st;
-  return optional_in_range("target magnesium_mg_l", s.targets.magnesium_mg_l, kMagnesiumMgLRange);
+  return optional_in_range("target magnesium_mg_l", s.targets.magnesium_mg_l, ranges::kMagnesiumTargetMgL);
 }
 
 Status check_not_in_future(std::int64_t time_s, std::int64_t now_s) {
@@ -316,7 +300,7 @@ Status validate_event(const Journal& journal, const Event& e) {
   if (!sys) {
     return Error{"system_id", fmt::format("system_id {} is not a system of this journal", e.system_id)};
   }
-  if (e.time_s < kEarliestTimeS || e.time_s > kLatestTimeS) {
+  if (e.time_s < ranges::kEarliestTimeS || e.time_s > ranges::kLatestTimeS) {
     return Error{"time", fmt::format("time {} s is outside the accepted range 1970-01-01 to "
                                      "2200-01-01 UTC",
                                      e.time_s)};

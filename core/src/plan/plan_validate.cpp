@@ -5,12 +5,15 @@
 
 #include "plan_internal.hpp"
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/common/ranges.hpp"
 
 namespace tw::plan::detail {
 
 namespace {
-Status check_band(const std::string& field, const Band& b, double lo, double hi, const char* unit, double ceiling) {
-  if (auto s = check_range(field + ".target", b.target, lo, hi, unit); !s) return s;
+Status check_band(const std::string& field, const Band& b, const ranges::Range& accepted, double ceiling) {
+  const double lo = accepted.lo, hi = accepted.hi;
+  const char* unit = accepted.unit;
+  if (auto s = ranges::check(field + ".target", b.target, accepted); !s) return s;
   if (auto s = check_range(field + ".low", b.low, lo, b.target, unit); !s) return s;
   if (auto s = check_range(field + ".high", b.high, b.target, hi, unit); !s) return s;
   if (b.high > ceiling) {
@@ -24,26 +27,28 @@ Status check_band(const std::string& field, const Band& b, double lo, double hi,
 
 Status validate_input(const PlanInput& in) {
   const SystemState& s = in.system;
-  if (auto r = check_range("system.volume_l", s.volume_l, 1.0, 1.0e6, "L"); !r) return r;
-  if (auto r = check_range("system.salinity", s.salinity, 20.0, 42.0, ""); !r) return r;
-  if (auto r = check_range("system.temperature_c", s.temperature_c, 10.0, 35.0, "C"); !r) return r;
-  if (auto r = check_range("system.alkalinity_dkh", s.alkalinity_dkh, 2.0, 20.0, "dKH"); !r) return r;
-  if (auto r = check_range("system.calcium_mg_l", s.calcium_mg_l, 200.0, 700.0, "mg/L"); !r) return r;
-  if (auto r = check_range("system.magnesium_mg_l", s.magnesium_mg_l, 800.0, 2000.0, "mg/L"); !r) return r;
+  // The water as measured: the same ranges as the journal and the app (a tank that has crashed
+  // to 1 dKH needs a plan more than any other); the carbonate chemistry needs salinity >= 1.
+  if (auto r = ranges::check("system.volume_l", s.volume_l, ranges::kSystemVolumeL); !r) return r;
+  if (auto r = ranges::check("system.salinity", s.salinity, ranges::kSalinityForCarbonateChemistry); !r) return r;
+  if (auto r = ranges::check("system.temperature_c", s.temperature_c, ranges::kTemperatureC); !r) return r;
+  if (auto r = ranges::check("system.alkalinity_dkh", s.alkalinity_dkh, ranges::kAlkalinityDkh); !r) return r;
+  if (auto r = ranges::check("system.calcium_mg_l", s.calcium_mg_l, ranges::kCalciumMgL); !r) return r;
+  if (auto r = ranges::check("system.magnesium_mg_l", s.magnesium_mg_l, ranges::kMagnesiumMgL); !r) return r;
   if (s.ph_total) {
-    if (auto r = check_range("system.ph_total", *s.ph_total, 7.0, 8.8, "(total scale)"); !r) return r;
+    if (auto r = ranges::check("system.ph_total", *s.ph_total, ranges::kPh); !r) return r;
   }
-  if (auto r = check_range("system.air_co2_ppm", s.air_co2_ppm, 200.0, 5000.0, "ppm"); !r) return r;
+  if (auto r = ranges::check("system.air_co2_ppm", s.air_co2_ppm, ranges::kRoomCo2Ppm); !r) return r;
   const Limits& l = in.limits;
-  if (auto r = check_band("targets.alkalinity_dkh", in.targets.alkalinity_dkh, 2.0, 20.0, "dKH",
+  if (auto r = check_band("targets.alkalinity_dkh", in.targets.alkalinity_dkh, ranges::kAlkalinityTargetDkh,
                           l.get(LimitId::AlkalinityCeiling));
       !r)
     return r;
-  if (auto r = check_band("targets.calcium_mg_l", in.targets.calcium_mg_l, 200.0, 700.0, "mg/L",
+  if (auto r = check_band("targets.calcium_mg_l", in.targets.calcium_mg_l, ranges::kCalciumTargetMgL,
                           l.get(LimitId::CalciumCeiling));
       !r)
     return r;
-  if (auto r = check_band("targets.magnesium_mg_l", in.targets.magnesium_mg_l, 800.0, 2000.0, "mg/L",
+  if (auto r = check_band("targets.magnesium_mg_l", in.targets.magnesium_mg_l, ranges::kMagnesiumTargetMgL,
                           l.get(LimitId::MagnesiumCeiling));
       !r)
     return r;
@@ -57,8 +62,9 @@ Status validate_input(const PlanInput& in) {
       !r)
     return r;
   if (auto r = check_range("evaporation_l_per_day", in.evaporation_l_per_day, 0.0, 0.2 * v, "L/day"); !r) return r;
-  if (in.horizon_days < 1 || in.horizon_days > 365) {
-    return Error{"horizon_days", fmt::format("horizon_days {} is outside the accepted range 1 to 365", in.horizon_days)};
+  if (in.horizon_days < ranges::kPlanHorizonDays.lo || in.horizon_days > ranges::kPlanHorizonDays.hi) {
+    return Error{"horizon_days", fmt::format("horizon_days {} is outside the accepted range {:g} to {:g}", in.horizon_days,
+                                             ranges::kPlanHorizonDays.lo, ranges::kPlanHorizonDays.hi)};
   }
   if (auto r = check_range("gas_exchange_hours", in.gas_exchange_hours, 0.0, 72.0, "h"); !r) return r;
   if (auto r = check_range("salinity_tolerance", in.salinity_tolerance, 0.01, 5.0, ""); !r) return r;
@@ -77,9 +83,9 @@ Status validate_input(const PlanInput& in) {
     if (p.alkalinity_eq < 0 || p.calcium_mol < 0 || p.magnesium_mol < 0 || p.dic_mol < 0) {
       return Error{f + ".additive", f + ".additive removes a parameter; the planner only adds (accepted: additions)"};
     }
-    if (d.doses_per_day < 1 || d.doses_per_day > 288) {
-      return Error{f + ".doses_per_day",
-                   fmt::format("{}.doses_per_day {} is outside the accepted range 1 to 288", f, d.doses_per_day)};
+    if (d.doses_per_day < ranges::kDosesPerDay.lo || d.doses_per_day > ranges::kDosesPerDay.hi) {
+      return Error{f + ".doses_per_day", fmt::format("{}.doses_per_day {} is outside the accepted range {:g} to {:g}", f,
+                                                     d.doses_per_day, ranges::kDosesPerDay.lo, ranges::kDosesPerDay.hi)};
     }
     if (d.first_hour < 0 || d.first_hour > 23 || d.last_hour < d.first_hour || d.last_hour > 23) {
       return Error{f + ".first_hour", fmt::format("{}.first_hour {} and last_hour {} must satisfy 0 <= first_hour <= "

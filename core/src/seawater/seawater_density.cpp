@@ -11,7 +11,14 @@
 #include <cmath>
 
 #include "seawater_internal.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/seawater/seawater.hpp"
+
+// Every water the product accepts (common/ranges.hpp) has a density from EOS-80.
+static_assert(tw::ranges::kTemperatureC.lo >= tw::seawater::kEos80Validity.temperature_min_c &&
+              tw::ranges::kTemperatureC.hi <= tw::seawater::kEos80Validity.temperature_max_c);
+static_assert(tw::ranges::kSalinity.lo >= tw::seawater::kEos80Validity.salinity_min &&
+              tw::ranges::kSalinity.hi <= tw::seawater::kEos80Validity.salinity_max);
 
 namespace tw::seawater {
 namespace eos80 {

@@ -180,7 +180,7 @@ TEST_CASE("constants: accepted ranges and calibration warnings") {
   auto k = tc::compute_constants(c);
   REQUIRE_FALSE(k.ok());
   CHECK(k.error().field == "salinity");
-  CHECK(k.error().message.find("1 to 50") != std::string::npos);
+  CHECK(k.error().message.find("1 to 42") != std::string::npos);
   c.salinity = 35;
   c.temperature_c = 60;
   k = tc::compute_constants(c);

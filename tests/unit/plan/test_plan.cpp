@@ -185,7 +185,7 @@ TEST_CASE("plan: bad input is refused naming the field and the range") {
   auto a = make_plan(in);
   REQUIRE(!a.ok());
   CHECK(a.error().field == "system.volume_l");
-  CHECK(a.error().message.find("1 to 1e+06") != std::string::npos);
+  CHECK(a.error().message.find("0.1 to 1e+07") != std::string::npos);
   in = reef();
   in.targets.alkalinity_dkh = {13.0, 12.5, 13.5};  // above the 12 dKH ceiling
   auto b = make_plan(in);

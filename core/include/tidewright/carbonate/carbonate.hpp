@@ -21,6 +21,7 @@
 
 #include "tidewright/carbonate/carbonate_formulas.hpp"
 #include "tidewright/common/result.hpp"
+#include "tidewright/common/ranges.hpp"
 
 namespace tw::carbonate {
 
@@ -62,16 +63,17 @@ Result<PhScale> ph_scale_from_string(const std::string& text);
 
 // ---------------------------------------------------------------- 2. Conditions
 // Accepted ranges (compute_constants refuses values outside them with a typed Error).
-// Salinity starts at 1, not 0: below that the seawater ratios for boron, sulfate, fluoride
-// and calcium, and every constant fitted in seawater, have no meaning left.
-inline constexpr double kSalinityMin = 1.0, kSalinityMax = 50.0;
-inline constexpr double kTemperatureMinC = -2.0, kTemperatureMaxC = 50.0;
+// Salinity and temperature: the product's one table (common/ranges.hpp); salinity starts at 1.
+inline constexpr double kSalinityMin = ranges::kSalinityForCarbonateChemistry.lo;
+inline constexpr double kSalinityMax = ranges::kSalinityForCarbonateChemistry.hi;
+inline constexpr double kTemperatureMinC = ranges::kTemperatureC.lo;
+inline constexpr double kTemperatureMaxC = ranges::kTemperatureC.hi;
 inline constexpr double kCalciumMaxUmolKg = 50000.0;    // 2000 mg/kg; reef tanks hold ~10000
 inline constexpr double kNutrientMaxUmolKg = 1000.0;    // phosphate and silicate each
 
 struct Conditions {
-  double salinity = 35.0;        // practical salinity, accepted 1..50 (constants warn outside fits)
-  double temperature_c = 25.0;   // accepted -2..50 C (constants warn outside their fit ranges)
+  double salinity = 35.0;        // practical salinity, accepted 1..42 (constants warn outside fits)
+  double temperature_c = 25.0;   // accepted -2..40 C (constants warn outside their fit ranges)
   K1K2Option k1k2 = K1K2Option::Lueker2000;
   BoronOption boron = BoronOption::Uppstrom1974;
   std::optional<double> calcium_umol_kg;  // measured calcium overrides Riley & Tongudai 1967, 0..50000

@@ -20,6 +20,7 @@
 
 #include "tidewright/carbonate/carbonate.hpp"
 #include "tidewright/common/parameter.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/common/result.hpp"
 #include "tidewright/common/units.hpp"
 
@@ -189,34 +190,8 @@ struct Event {
 };
 
 // ---------------------------------------------------------------- 4. Ranges and units
-// Plausible ranges for validation [common practice: no single source]. They are wide on
-// purpose (hatchery intake water, low-salinity culture, heavy dosing) and only refuse values
-// that are impossible or certainly misread, e.g. pH 3 or alkalinity 40 dKH.
-struct Range {
-  double lo, hi;
-  const char* unit;
-};
-inline constexpr Range kAlkalinityDkhRange{0.0, 25.0, "dKH"};
-inline constexpr Range kCalciumMgLRange{0.0, 1000.0, "mg/L"};
-inline constexpr Range kMagnesiumMgLRange{0.0, 2500.0, "mg/L"};
-inline constexpr Range kPhRange{6.0, 10.0, ""};
-inline constexpr Range kSalinityRange{0.0, 45.0, "psu"};
-inline constexpr Range kSpecificGravityRange{0.990, 1.040, ""};
-inline constexpr Range kTemperatureCRange{-2.0, 40.0, "C"};
-inline constexpr Range kNitrateMgLRange{0.0, 500.0, "mg/L"};
-inline constexpr Range kPhosphateMgLRange{0.0, 50.0, "mg/L"};
-inline constexpr Range kOtherValueRange{-1e9, 1e9, ""};
-inline constexpr Range kSystemVolumeLRange{0.1, 1e7, "L"};
-inline constexpr Range kEventVolumeLRange{0.0, 1e7, "L"};  // also at most the system volume
-inline constexpr Range kDoseAmountRange{0.0, 1e6, "g or mL"};  // > 0
-inline constexpr Range kStockGPerLRange{0.0, 1500.0, "g/L"};   // > 0
-inline constexpr Range kLimewaterGPerLRange{0.0, 1.9, "g/L"};  // > 0
-// A pump's calibration, delivered per set amount [our choice: a pump further off than 50 %
-// is broken or mis-set, not calibrated].
-inline constexpr Range kCalibrationRange{0.5, 1.5, "delivered per set amount"};
-// 1970-01-01 to 2200-01-01 UTC.
-inline constexpr std::int64_t kEarliestTimeS = 0;
-inline constexpr std::int64_t kLatestTimeS = 7258118400;
+// The accepted ranges live in tidewright/common/ranges.hpp (one table for every front end).
+using Range = ranges::Range;
 
 // Nominal seawater density (S 35, 25 C: 1.02334 kg/L, UNESCO 1983 EOS-80, facts.md 4) used
 // only to convert per-kg units for range checks and canonical values when the caller has

@@ -1,0 +1,89 @@
+// The accepted range of every quantity a keeper types or logs, in one table.
+//
+// Every front end (the command line, the app's fields and their keyboard hints) and every check
+// in the core (the journal, the chemistry's inputs, the plan, the dosing calculators) reads its
+// range from here, so a value the app accepts is one the command line accepts, and an error
+// names the same range everywhere.
+//
+// Water measurements are bounded by the narrowest model every answer passes through: the
+// EOS-80 density (UNESCO 1983; salinity 0-42, -2..40 C), which converts between per-litre and
+// per-kilogram units in every calculation (seawater_density.cpp asserts these bounds fit inside
+// its validity). The other bounds are wide on purpose (hatchery intakes, low-salinity culture,
+// heavy dosing, a crashed tank that needs a plan back) and refuse only values that are
+// impossible or certainly misread, e.g. pH 3 or alkalinity 40 dKH [common practice: no single
+// source].
+#pragma once
+
+#include <cstdint>
+#include <string>
+
+#include "tidewright/common/parameter.hpp"
+#include "tidewright/common/result.hpp"
+
+namespace tw::ranges {
+
+struct Range {
+  double lo, hi;
+  const char* unit;
+};
+
+// lo <= value <= hi, else an Error naming `field` and the accepted range in `r.unit`.
+Status check(const std::string& field, double value, const Range& r);
+
+// ------------------------------------------------------------ the water
+inline constexpr Range kTemperatureC{-2.0, 40.0, "C"};   // EOS-80 validity
+inline constexpr Range kSalinity{0.0, 42.0, ""};         // practical salinity; EOS-80 validity
+inline constexpr Range kSpecificGravity{0.990, 1.040, ""};
+inline constexpr Range kPh{6.0, 10.0, ""};
+inline constexpr Range kAlkalinityDkh{0.0, 25.0, "dKH"};
+inline constexpr Range kCalciumMgL{0.0, 1000.0, "mg/L"};
+inline constexpr Range kMagnesiumMgL{0.0, 2500.0, "mg/L"};
+inline constexpr Range kNitrateMgL{0.0, 500.0, "mg/L"};
+inline constexpr Range kPhosphateMgL{0.0, 50.0, "mg/L"};
+inline constexpr Range kOtherValue{-1e9, 1e9, ""};
+// The carbonate constants need some salt: below salinity 1 the seawater ratios for boron,
+// sulfate, fluoride and calcium, and every constant fitted in seawater, have no meaning left.
+inline constexpr Range kSalinityForCarbonateChemistry{1.0, kSalinity.hi, ""};
+
+// The range of a logged test of parameter p (kOtherValue for Other).
+const Range& of_measurement(Parameter p);
+
+// ------------------------------------------------------------ the room
+// CO2 in the air the water settles with: outdoor air is ~425 ppm, closed rooms reach several
+// thousand [common practice].
+inline constexpr Range kRoomCo2Ppm{150.0, 10000.0, "ppm"};
+
+// ------------------------------------------------------------ systems, doses, stocks
+inline constexpr Range kSystemVolumeL{0.1, 1e7, "L"};
+inline constexpr Range kEventVolumeL{0.0, 1e7, "L"};          // also at most the system volume
+inline constexpr Range kDoseAmount{0.0, 1e6, "g or mL"};      // > 0
+inline constexpr Range kStockGPerL{0.0, 1500.0, "g/L"};       // > 0
+inline constexpr Range kLimewaterGPerL{0.0, 1.9, "g/L"};      // > 0
+// A pump's calibration, delivered per set amount [our choice: a pump further off than 50 %
+// is broken or mis-set, not calibrated].
+inline constexpr Range kPumpCalibration{0.5, 1.5, "delivered per set amount"};
+
+// ------------------------------------------------------------ targets a plan doses toward
+// Narrower than what can be measured: a target outside these is a typo or a mistake, not a
+// reef [common practice].
+inline constexpr Range kAlkalinityTargetDkh{2.0, 20.0, "dKH"};
+inline constexpr Range kCalciumTargetMgL{200.0, 700.0, "mg/L"};
+inline constexpr Range kMagnesiumTargetMgL{800.0, 2000.0, "mg/L"};
+
+// ------------------------------------------------------------ a plan
+inline constexpr Range kPlanHorizonDays{1.0, 365.0, "days"};
+inline constexpr Range kDosesPerDay{1.0, 288.0, ""};  // every 5 minutes at most
+
+// ------------------------------------------------------------ hatchery treatment of intake water
+// [our choice: the span of shellfish hatchery practice, and of the carbonate constants' fits]
+inline constexpr Range kHatcheryTargetOmega{0.5, 8.0, ""};
+inline constexpr Range kHatcheryTargetPh{6.5, 9.3, ""};
+inline constexpr Range kHatcheryPhCeiling{7.0, 9.3, ""};
+inline constexpr Range kIntakeFlowLPerMin{0.01, 100000.0, "L/min"};
+
+// ------------------------------------------------------------ time
+// 1970-01-01 to 2200-01-01 UTC.
+inline constexpr std::int64_t kEarliestTimeS = 0;
+inline constexpr std::int64_t kLatestTimeS = 7258118400;
+
+}  // namespace tw::ranges

@@ -1,0 +1,25 @@
+#include "tidewright/common/ranges.hpp"
+
+namespace tw::ranges {
+
+Status check(const std::string& field, double value, const Range& r) {
+  return check_range(field, value, r.lo, r.hi, r.unit);
+}
+
+const Range& of_measurement(Parameter p) {
+  switch (p) {
+    case Parameter::Alkalinity: return kAlkalinityDkh;
+    case Parameter::Calcium: return kCalciumMgL;
+    case Parameter::Magnesium: return kMagnesiumMgL;
+    case Parameter::PH: return kPh;
+    case Parameter::Salinity: return kSalinity;
+    case Parameter::SpecificGravity: return kSpecificGravity;
+    case Parameter::Temperature: return kTemperatureC;
+    case Parameter::Nitrate: return kNitrateMgL;
+    case Parameter::Phosphate: return kPhosphateMgL;
+    case Parameter::Other: return kOtherValue;
+  }
+  return kOtherValue;
+}
+
+}  // namespace tw::ranges
