@@ -1,6 +1,7 @@
 // `chem` with uncertainty (chem_uncertainty.hpp): precision options -> input uncertainties ->
 // carbonate::solve_with_uncertainty -> the u and 95 % range lines of the text and JSON output.
 #include "chem_uncertainty.hpp"
+#include "option_rules.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -18,19 +19,14 @@ namespace {
 namespace tc = carbonate;
 using P = journal::Parameter;
 
-// The precision option that sets a core uncertainty field ("u(ph)" -> "--ph-precision").
-std::string option_for(const std::string& field) {
-  static const std::pair<const char*, const char*> names[] = {
-      {"u(alkalinity)", "--alkalinity-precision"}, {"u(dic)", "--dic-precision"},
-      {"u(ph)", "--ph-precision"},                 {"u(pco2)", "--pco2-precision"},
-      {"u(fco2)", "--fco2-precision"},             {"u(co3)", "--carbonate-precision"},
-      {"u(ph_scale_conversion)", "--ph-conversion-precision"},
-      {"u(salinity)", "--salinity-precision"},     {"u(temperature_c)", "--temperature-precision"},
-      {"u(calcium_umol_kg)", "--calcium-precision"}};
-  for (const auto& [f, option] : names)
-    if (field == f) return option;
-  return field;
-}
+// The precision options that set the core's uncertainty fields ("u(ph)" -> "--ph-precision").
+const FieldOptions kPrecisionOptions = {
+    {"u(alkalinity)", "--alkalinity-precision"}, {"u(dic)", "--dic-precision"},
+    {"u(ph)", "--ph-precision"},                 {"u(pco2)", "--pco2-precision"},
+    {"u(fco2)", "--fco2-precision"},             {"u(co3)", "--carbonate-precision"},
+    {"u(ph_scale_conversion)", "--ph-conversion-precision"},
+    {"u(salinity)", "--salinity-precision"},     {"u(temperature_c)", "--temperature-precision"},
+    {"u(calcium_umol_kg)", "--calcium-precision"}};
 
 // Checks a precision given in the user's unit against the table's range (canonical unit),
 // wording a refusal in the user's unit. to_canonical: factor from the user's unit.
@@ -140,13 +136,7 @@ tc::InputUncertainties input_uncertainties(const ChemPrecisionOptions& o, const 
 
 tc::UncertainState solve_uncertain(const tc::Conditions& conditions, const tc::InputPair& pair,
                                    const tc::InputUncertainties& u) {
-  auto r = tc::solve_with_uncertainty(conditions, pair, u);
-  if (!r) {
-    const std::string option = option_for(r.error().field);
-    if (option != r.error().field) throw CommandError(option + ": " + r.error().message);
-    throw CommandError(r.error().message);
-  }
-  return std::move(r).value();
+  return or_fail(tc::solve_with_uncertainty(conditions, pair, u), kPrecisionOptions);
 }
 
 std::string uncertainty_text(const tc::UncertainState& s, const ChemUnits& un) {

@@ -12,6 +12,8 @@
 
 #include "chem_uncertainty.hpp"
 #include "commands.hpp"
+#include "option_rules.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
 #include "tidewright/hatchery/hatchery_line.hpp"
 #include "tidewright/seawater/seawater.hpp"
@@ -57,7 +59,7 @@ struct BufferOptions {
 };
 
 // Core field names -> command-line options, so that every one-line reason names the option.
-const std::vector<std::pair<std::string, std::string>> kFieldOptions = {
+const FieldOptions kFieldOptions = {
     {"target_alkalinity_rise", "--target-alkalinity-rise"}, {"target_omega", "--target-omega"},
     {"target_ph", "--target-ph"}, {"ph_ceiling", "--ph-ceiling"},
     {"mixing_omega_ceiling", "--omega-ceiling"}, {"degas_fraction", "--degas-fraction"},
@@ -68,25 +70,11 @@ const std::vector<std::pair<std::string, std::string>> kFieldOptions = {
     {"alkalinity_umol_kg", "--alkalinity"}, {"flow", "--flow"}, {"step", "--step"}, {"to", "--to"},
     {"ph", "--ph"}, {"calcium_umol_kg", "--calcium"}, {"confidence", "--confidence"}};
 
-[[noreturn]] void fail(const Error& e) {
-  std::string msg = e.message;
-  for (const auto& [field, option] : kFieldOptions) {
-    const bool plain = field.find('_') == std::string::npos;  // short names: only at the start
-    if (plain) {
-      if (msg.rfind(field + " ", 0) == 0) msg = option + msg.substr(field.size());
-      continue;
-    }
-    for (size_t at = msg.find(field); at != std::string::npos; at = msg.find(field, at + option.size())) {
-      msg.replace(at, field.size(), option);
-    }
-  }
-  throw CommandError(msg);
-}
+[[noreturn]] void fail(const Error& e) { shell::fail(e, kFieldOptions); }
 
 template <class T>
 T or_fail(Result<T> r) {
-  if (!r) fail(r.error());
-  return std::move(r).value();
+  return shell::or_fail(std::move(r), kFieldOptions);
 }
 
 cb::PhScale scale_of(const std::string& text, const char* option) {
@@ -116,8 +104,8 @@ hy::Water water_of(const BufferOptions& o, bool table) {
   auto k1k2 = cb::k1k2_from_string(o.k1k2, "--k1k2");
   if (!k1k2) throw CommandError(k1k2.error().message);
   w.k1k2 = *k1k2;
-  if (auto r = check_range("salinity", o.salinity, 2.0, 45.0, ""); !r) fail(r.error());
-  if (auto r = check_range("temperature_c", o.temperature_c, -2.0, 40.0, "C"); !r) fail(r.error());
+  if (auto r = ranges::check("salinity", o.salinity, ranges::kSalinityForCarbonateChemistry); !r) fail(r.error());
+  if (auto r = ranges::check("temperature_c", o.temperature_c, ranges::kTemperatureC); !r) fail(r.error());
   const double density = seawater::density_kg_per_l(o.salinity, o.temperature_c);
   if (o.calcium) {
     auto unit = units::concentration_unit_from_string(o.calcium_unit);

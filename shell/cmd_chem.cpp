@@ -12,6 +12,8 @@
 
 #include "chem_uncertainty.hpp"
 #include "commands.hpp"
+#include "option_rules.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "batch_stream.hpp"
 #include "file_io.hpp"
 #include "tidewright/carbonate/carbonate.hpp"
@@ -39,37 +41,28 @@ struct ChemOptions {
   ChemPrecisionOptions precision;
 };
 
-template <class T>
-T or_fail(Result<T> r) {
-  if (!r) throw CommandError(r.error().message);
-  return std::move(r).value();
+ConstantChoices parse_choices(const ChemOptions& o) { return constant_choices({o.k1k2, o.boron, o.fluoride, o.conventions}); }
+
+TemperatureGiven temperature_given(const ChemOptions& o) {
+  return temperature_from_options(o.temperature_c, o.temperature_f, "--temperature", "--temperature-f", 25.0);
 }
 
-// The choices of constants, named as the core names them (carbonate.hpp, one table each).
-struct ConstantChoices {
-  carbonate::K1K2Option k1k2;
-  carbonate::BoronOption boron;
-  carbonate::FluorideOption fluoride;
-  carbonate::ConstantsConvention convention;
-};
-ConstantChoices parse_choices(const ChemOptions& o) {
-  return {or_fail(carbonate::k1k2_from_string(o.k1k2, "--k1k2")),
-          or_fail(carbonate::boron_from_string(o.boron, "--boron")),
-          or_fail(carbonate::fluoride_from_string(o.fluoride, "--fluoride")),
-          or_fail(carbonate::convention_from_string(o.conventions, "--conventions"))};
+// The core's field names -> chem's options (errors name what the user typed).
+FieldOptions chem_fields(const ChemOptions& o) {
+  return {{"salinity", o.specific_gravity ? "--specific-gravity" : "--salinity"},
+          {"specific_gravity", "--specific-gravity"},
+          {"temperature_c", o.temperature_f ? "--temperature-f" : "--temperature"},
+          {"calcium_umol_kg", "--calcium"},
+          {"phosphate_umol_kg", "--phosphate"},
+          {"silicate_umol_kg", "--silicate"},
+          {"air_co2_ppm", "--air-co2"}};
 }
 
-double temperature_c(const ChemOptions& o) {
-  if (o.temperature_c && o.temperature_f) throw CommandError("give --temperature or --temperature-f, not both");
-  if (o.temperature_f) return units::fahrenheit_to_celsius(*o.temperature_f);
-  return o.temperature_c.value_or(25.0);
-}
-
-double salinity(const ChemOptions& o, double t_c) {
+double salinity(const ChemOptions& o) {
   if (o.salinity && o.specific_gravity) throw CommandError("give --salinity or --specific-gravity, not both");
   if (o.specific_gravity) {
-    (void)t_c;  // specific gravity is read at its own reference temperatures (25/25 C)
-    return or_fail(seawater::salinity_from_specific_gravity(*o.specific_gravity));
+    // specific gravity is read at its own reference temperatures (25/25 C)
+    return or_fail(seawater::salinity_from_specific_gravity(*o.specific_gravity), chem_fields(o));
   }
   return o.salinity.value_or(35.0);
 }
@@ -132,7 +125,7 @@ ChemUnits chem_units(const ChemOptions& o, double density) {
   ChemUnits units_used;
   units_used.alkalinity = or_fail(units::alkalinity_unit_from_string(o.alkalinity_unit));
   units_used.calcium = or_fail(units::concentration_unit_from_string(o.calcium_unit));
-  units_used.fahrenheit = o.temperature_f.has_value();
+  units_used.fahrenheit = temperature_given(o).in_fahrenheit;
   units_used.density_kg_l = density;
   return units_used;
 }
@@ -173,8 +166,13 @@ void run_batch(const ChemOptions& o) {
 
 void run_single(const ChemOptions& o) {
   carbonate::Conditions conditions;
-  conditions.temperature_c = temperature_c(o);
-  conditions.salinity = salinity(o, conditions.temperature_c);
+  const FieldOptions fields = chem_fields(o);
+  const TemperatureGiven temperature = temperature_given(o);
+  conditions.temperature_c = temperature.celsius;
+  conditions.salinity = salinity(o);
+  // The water's range first (common/ranges.hpp): the density below needs it (EOS-80).
+  check_temperature(temperature, ranges::kTemperatureC);
+  if (auto r = ranges::check("salinity", conditions.salinity, ranges::kSalinityForCarbonateChemistry); !r) fail(r.error(), fields);
   const ConstantChoices choices = parse_choices(o);
   conditions.k1k2 = choices.k1k2;
   conditions.boron = choices.boron;
@@ -182,15 +180,12 @@ void run_single(const ChemOptions& o) {
   conditions.convention = choices.convention;
   conditions.phosphate_umol_kg = o.phosphate;
   conditions.silicate_umol_kg = o.silicate;
-  if (conditions.salinity <= 0 || conditions.salinity > 50) {
-    throw CommandError(fmt::format("--salinity {:g} is outside the accepted range 1 to 50", conditions.salinity));
-  }
   const double density = seawater::density_kg_per_l(conditions.salinity, conditions.temperature_c);
   if (o.calcium) {
     auto unit = or_fail(units::concentration_unit_from_string(o.calcium_unit));
     conditions.calcium_umol_kg = units::ion_to_umol_kg(*o.calcium, unit, units::Ion::Calcium, density);
   }
-  auto constants = or_fail(carbonate::compute_constants(conditions));
+  auto constants = or_fail(carbonate::compute_constants(conditions), fields);
 
   std::vector<carbonate::Measurement> given;
   if (o.alkalinity) {
@@ -222,7 +217,7 @@ void run_single(const ChemOptions& o) {
       write_uncertain(o, conditions, density, *s, units_used);
       return;
     }
-    state = or_fail(carbonate::equilibrate_with_air(constants, given[0].value, *o.air_co2_ppm));
+    state = or_fail(carbonate::equilibrate_with_air(constants, given[0].value, *o.air_co2_ppm), fields);
   } else {
     if (given.size() != 2) {
       throw CommandError(fmt::format(

@@ -15,6 +15,7 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
+#include "option_rules.hpp"
 #include "batch_stream.hpp"
 #include "file_io.hpp"
 #include "tidewright/seawater/salinity_convert.hpp"
@@ -35,36 +36,21 @@ struct SalinityOptions {
 };
 
 // Core error fields -> the option the user typed, so the one-line reason names it.
-std::string option_for(const std::string& field, const SalinityOptions& o) {
-  if (field == "salinity") return "--salinity";
-  if (field == "specific_gravity") return "--specific-gravity";
-  if (field == "conductivity_ms_cm") return "--conductivity";
-  if (field == "conductivity_ratio") return "--conductivity-ratio";
-  if (field == "density_kg_m3") return "--density";
-  if (field == "pressure_dbar") return "--pressure";
-  if (field == "sample_temperature_c") return o.sample_f ? "--sample-temp-f" : "--sample-temp";
-  if (field == "reference_temperature_c") {
-    return o.reference_f ? "--reference-temp-f" : "--reference-temp";
-  }
-  return field;
+FieldOptions salinity_fields(const SalinityOptions& o) {
+  return {{"salinity", "--salinity"},
+          {"specific_gravity", "--specific-gravity"},
+          {"conductivity_ms_cm", "--conductivity"},
+          {"conductivity_ratio", "--conductivity-ratio"},
+          {"density_kg_m3", "--density"},
+          {"pressure_dbar", "--pressure"},
+          {"sample_temperature_c", o.sample_f ? "--sample-temp-f" : "--sample-temp"},
+          {"reference_temperature_c", o.reference_f ? "--reference-temp-f" : "--reference-temp"}};
 }
 
-[[noreturn]] void fail(const Error& e, const SalinityOptions& o) {
-  const std::string option = option_for(e.field, o);
-  const bool fahrenheit = option.size() > 2 && option.compare(option.size() - 2, 2, "-f") == 0;
-  // "specific_gravity 1.04 is outside ..." -> "--specific-gravity 1.04 is outside ...";
-  // a temperature given in F keeps the core's C wording behind the option name.
-  if (!fahrenheit && e.message.compare(0, e.field.size(), e.field) == 0) {
-    throw CommandError(option + e.message.substr(e.field.size()));
-  }
-  throw CommandError(option + ": " + e.message);
-}
+[[noreturn]] void fail(const Error& e, const SalinityOptions& o) { shell::fail(e, salinity_fields(o)); }
 
-double temperature_c(const std::optional<double>& c, const std::optional<double>& f,
-                     const char* name) {
-  if (c && f) throw CommandError(fmt::format("give --{0} or --{0}-f, not both", name));
-  if (f) return units::fahrenheit_to_celsius(*f);
-  return c.value_or(25.0);
+double temperature_c(const std::optional<double>& c, const std::optional<double>& f, const char* name) {
+  return temperature_from_options(c, f, fmt::format("--{}", name), fmt::format("--{}-f", name), 25.0).celsius;
 }
 
 sw::SalinitySample conditions(const SalinityOptions& o) {
