@@ -62,8 +62,8 @@ void draw_water_form(AppState& app, HatcheryForm& f) {
   ui::number_field(app, "hatchery.ph", {"pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.0, 10.0}, &f.ph);
   // Measured calcium (empty: the core scales it from salinity and says how far that can be off).
   ui::optional_number_field(app, "hatchery.calcium",
-                            {"Calcium (measured)", jn::kCalciumMgLRange.unit, 0, 10, jn::kCalciumMgLRange.lo,
-                             jn::kCalciumMgLRange.hi},
+                            {"Calcium (measured)", tw::ranges::kCalciumMgL.unit, 0, 10, tw::ranges::kCalciumMgL.lo,
+                             tw::ranges::kCalciumMgL.hi},
                             &f.calcium_mg_l);
   if (f.calcium_mg_l && ui::button(app, "hatchery.calcium.clear", "Scale calcium from salinity instead", -1, ui::Tone::Quiet)) {
     f.calcium_mg_l.reset();
