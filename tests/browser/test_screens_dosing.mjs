@@ -370,7 +370,11 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     // (plan::keep_room_for_uncertainty), never more than half of it.
     check(s.plan.limits[key] <= 0.4 + 1e-12 && s.plan.limits[key] >= 0.2, `plan used ${s.plan.limits[key]}`);
     check(s.plan.max_alkalinity_rise_dkh <= 0.4 + 1e-9, `plan raises alkalinity ${s.plan.max_alkalinity_rise_dkh} dKH in a day`);
-    check(s.plan.check_ok, 'the independent check of the tightened plan failed');
+    // The slower rise may leave a floor (raised for the forecast's band) unreachable in time: then
+    // the plan says so first, and the independent check finds nothing but that floor or a fall.
+    check(s.plan.check_ok || s.plan.check_explained,
+          `the independent check of the tightened plan found more than its verdict says: ${s.plan.check_problems}; ` +
+          `verdict ${JSON.stringify(s.plan.verdict)}`);
     await found(page, 'plan.limit.alkalinity_rise_dkh_per_day');
     await shot(page, `${label}-plan-tightened`);
     await flushed(page);

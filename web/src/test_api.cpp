@@ -112,6 +112,13 @@ std::string state_json() {
     double max_alk = pc.plan->start.alkalinity_dkh;
     for (const auto& d : pc.plan->doses) max_alk = std::max(max_alk, d.after.alkalinity_dkh);
     j["plan"]["max_alkalinity_dkh"] = max_alk;
+    // What the independent checker found (a failing test prints it).
+    json problems = json::array();
+    if (pc.check) {
+      for (const auto& vi : pc.check->violations) problems.push_back(vi.message);
+      for (const auto& o : pc.check->other) problems.push_back(o);
+    }
+    j["plan"]["check_problems"] = problems;
     j["plan"]["test_again"] = pc.plan->uncertainty && pc.plan->uncertainty->retest
                                   ? nlohmann::json{{"day", pc.plan->uncertainty->retest->day},
                                                    {"minute", pc.plan->uncertainty->retest->minute},

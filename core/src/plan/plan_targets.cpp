@@ -82,11 +82,14 @@ Result<std::vector<TargetConflict>> check_targets_at_air(const PlanInput& in) {
   const SystemState& sys = in.system;
   const double alk_target = in.targets.alkalinity_dkh.target;
   const double ca_target = in.targets.calcium_mg_l.target;
+  // A conflict is with the limits the keeper set: the room kept inside them for the levels' bands
+  // (keep_room_for_uncertainty) is the planner's business, not a different target to fit.
+  const Limits& limits = in.limits_as_set ? *in.limits_as_set : in.limits;
   AirModel m;
   m.rho = seawater::density_kg_per_l(sys.salinity, sys.temperature_c);
   m.air_co2_ppm = sys.air_co2_ppm;
-  m.lowest_dkh = in.limits.get(LimitId::AlkalinityFloor);
-  m.highest_dkh = in.limits.get(LimitId::AlkalinityCeiling);
+  m.lowest_dkh = limits.get(LimitId::AlkalinityFloor);
+  m.highest_dkh = limits.get(LimitId::AlkalinityCeiling);
   cb::Conditions cond;
   cond.salinity = sys.salinity;
   cond.temperature_c = sys.temperature_c;
@@ -107,7 +110,7 @@ Result<std::vector<TargetConflict>> check_targets_at_air(const PlanInput& in) {
                           {LimitId::OmegaAragoniteFloor, false}};
   std::vector<TargetConflict> out;
   for (const Check& c : checks) {
-    const double allowed = in.limits.get(c.id);
+    const double allowed = limits.get(c.id);
     const double value = is_ph(c.id) ? rest->ph_total : rest->omega_aragonite;
     if (c.ceiling ? value <= allowed : value >= allowed) continue;
     TargetConflict t{};
@@ -124,7 +127,7 @@ Result<std::vector<TargetConflict>> check_targets_at_air(const PlanInput& in) {
       // Offered only between the calcium floor and ceiling (a fit outside them is no fit).
       const double ca = ca_target * allowed / value;
       const double fit_ca = c.ceiling ? std::floor(ca) : std::ceil(ca);
-      if (fit_ca >= in.limits.get(LimitId::CalciumFloor) && fit_ca <= in.limits.get(LimitId::CalciumCeiling)) {
+      if (fit_ca >= limits.get(LimitId::CalciumFloor) && fit_ca <= limits.get(LimitId::CalciumCeiling)) {
         t.calcium_fit_mg_l = fit_ca;
       }
     }

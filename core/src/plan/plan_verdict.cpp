@@ -30,6 +30,25 @@ std::string when(double t) {
   return fmt::format("day {} at {:02d}:{:02d}", day, minute / 60, minute % 60);
 }
 
+// "2.2119 against 2.2125": the value and the limit at the fewest significant digits (3 to 6)
+// that tell them apart, with the unit once (none for the unitless Omega).
+std::string value_against(double value, double allowed, const std::string& unit) {
+  int digits = 3;
+  while (digits < 6 && fmt::format("{:.{}g}", value, digits) == fmt::format("{:.{}g}", allowed, digits)) ++digits;
+  const std::string u = unit.empty() ? "" : " " + unit;
+  return fmt::format("{:.{}g}{} against {:.{}g}{}", value, digits, u, allowed, digits, u);
+}
+
+// When the plan keeps room inside a limit for the forecast's band, the limit as the keeper set it
+// and why the planned one differs; empty when they are the same.
+std::string room_note(const PlanInput& in, LimitId id, const std::string& unit) {
+  if (!in.limits_as_set) return {};
+  const double set = in.limits_as_set->get(id);
+  if (std::abs(set - in.limits.get(id)) <= 1e-12 * std::max(1.0, std::abs(set))) return {};
+  return fmt::format("; set at {:g}{}, planned with room for the 95 % band of the forecast", set,
+                     unit.empty() ? "" : " " + unit);
+}
+
 struct Crossing {
   LimitId limit;
   double t = 0, value = 0, allowed = 0;
@@ -195,11 +214,13 @@ void judge(const PlanInput& in, Plan& plan) {
                        spec.description, spec.key, crossing->allowed, spec.unit, in.horizon_days, crossing->value);
   } else if (spec.side == LimitSide::Floor) {
     // The description first, in plain words; the key after it is the name to change it by.
-    what = fmt::format("the water falls below its floor on {}: {} {:.3g} {} against {:g} (limit {})",
-                       when(crossing->t), spec.description, crossing->value, spec.unit, crossing->allowed, spec.key);
+    what = fmt::format("the water falls below its floor on {}: {} {} (limit {}{})", when(crossing->t),
+                       spec.description, value_against(crossing->value, crossing->allowed, spec.unit), spec.key,
+                       room_note(in, crossing->limit, spec.unit));
   } else {
-    what = fmt::format("{} is crossed on {}: {:.3g} {} against {:g}", spec.description, when(crossing->t),
-                       crossing->value, spec.unit, crossing->allowed);
+    what = fmt::format("{} is crossed on {}: {}{}", spec.description, when(crossing->t),
+                       value_against(crossing->value, crossing->allowed, spec.unit),
+                       room_note(in, crossing->limit, spec.unit));
   }
   for (std::size_t k = 0; k < v.shortfalls.size(); ++k) {
     const Shortfall& s = v.shortfalls[k];
