@@ -7,6 +7,7 @@
 
 #include "actions.hpp"
 #include "platform.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/plan/plan.hpp"
 #include "tidewright/plan/plan_adopt.hpp"
@@ -201,7 +202,8 @@ bool export_pump_table(AppState& app, bool csv) {
   return true;
 }
 
-// Plan export: format 0 CSV (RFC 4180), 1 iCalendar (RFC 5545), 2 plain text.
+// Plan export: format 0 CSV (RFC 4180), 1 iCalendar (RFC 5545), 2 plain text, 3 JSON (the
+// command line's `plan --json`, the same core writer).
 bool export_plan(AppState& app, int format) {
   const PlanCache& c = app.ui.dosing.plan_cache;
   if (!c.plan || !c.input) {
@@ -225,6 +227,10 @@ bool export_plan(AppState& app, int format) {
     text = std::move(ics).value();
     name = "tidewright-schedule.ics";
     mime = "text/calendar";
+  } else if (format == 3) {
+    text = pl::plan_to_json(*c.input, *c.plan);
+    name = "tidewright-schedule.json";
+    mime = "application/json";
   } else {
     text = pl::plan_to_text(*c.input, *c.plan);
     name = "tidewright-schedule.txt";
@@ -306,12 +312,10 @@ namespace pl = tw::plan;
 // A stock of one compound as an additive dosed by the mL (the core checks the solubility).
 tw::Result<add::Additive> stock_additive(add::CompoundId id, double g_per_l, const std::string& name) {
   add::StockRecipe r;
-  r.name = name;
+  r.name = name + " " + fmtx_g_per_l(g_per_l);  // the recipe's name is the additive's (and its file's)
   r.ingredients.push_back({id, g_per_l});
   r.temperature_c = 25;
-  auto a = add::additive_from_stock(r);
-  if (a) a->name = name + " " + fmtx_g_per_l(g_per_l);
-  return a;
+  return add::additive_from_stock(r);
 }
 
 }  // namespace
@@ -402,7 +406,8 @@ void refresh_plan(AppState& app) {
     pl::Delivery d;
     d.additive = std::move(a);
     d.device = device;
-    d.doses_per_day = std::clamp(f.doses_per_day, 1, 24);
+    d.doses_per_day = std::clamp(f.doses_per_day, static_cast<int>(tw::ranges::kDosesPerDay.lo),
+                                 static_cast<int>(tw::ranges::kDosesPerDay.hi));
     d.max_dose = f.max_dose_ml;
     return d;
   };
@@ -428,7 +433,7 @@ void refresh_plan(AppState& app) {
         return;
       }
       pl::Delivery d = pump(std::move(a).value(), "top-off");
-      d.max_dose = 1e6;
+      d.max_dose = tw::ranges::kPlannedDoseMax.hi;  // bounded by the evaporation it replaces
       in.deliveries.push_back(std::move(d));
       in.evaporation_l_per_day = f.evaporation_l_per_day;
       break;
@@ -444,7 +449,8 @@ void refresh_plan(AppState& app) {
     }
     in.deliveries.push_back(pump(std::move(a).value(), "pump 2"));
   }
-  in.horizon_days = std::clamp(f.horizon_days, 1, 60);
+  in.horizon_days = std::clamp(f.horizon_days, static_cast<int>(tw::ranges::kPlanHorizonDays.lo),
+                               static_cast<int>(tw::ranges::kPlanHorizonDays.hi));
   const std::int64_t local_s = platform::now_unix_seconds() + 60LL * platform::utc_offset_minutes();
   const std::int64_t tomorrow = (local_s / 86400 + 1) * 86400;
   in.start_date = tw::datetime::format_date_utc(tomorrow);

@@ -166,7 +166,7 @@ struct PlanForm {
   double alkalinity_demand_dkh_per_day = 1.0;  // when not from the estimate
   double calcium_demand_mg_l_per_day = 7.0;
   bool show_all_days = false;
-  int export_index = 0;               // 0 CSV, 1 iCalendar, 2 text
+  int export_index = 0;               // 0 CSV, 1 iCalendar, 2 text, 3 JSON
   bool operator==(const PlanForm&) const = default;
 };
 

@@ -375,8 +375,8 @@ void draw_plan(AppState& app) {
     ui::record(app, "plan.cautions");
   }
   ui::heading(app, "Download");
-  const char* const formats[] = {"CSV", "iCalendar", "Text"};
-  ui::choice(app, "plan.export_format", "", &f.export_index, formats, 3);
+  const char* const formats[] = {"CSV", "iCalendar", "Text", "JSON"};
+  ui::choice(app, "plan.export_format", "", &f.export_index, formats, 4);
   if (ui::button(app, "plan.export", "Download the schedule", 0, ui::Tone::Primary)) export_plan(app, f.export_index);
 }
 

@@ -89,6 +89,7 @@ Additive additive_from_compound(CompoundId id) {
   a.per_unit = c.per_mole.scaled(1.0 / c.molar_mass_g_mol());
   a.caustic = c.caustic;
   a.compounds = {id};
+  a.origin.compound = id;
   return a;
 }
 
@@ -104,6 +105,7 @@ Result<Additive> additive_from_stock(const StockRecipe& recipe) {
   for (const auto& ing : recipe.ingredients) a.compounds.push_back(ing.compound);
   a.limewater = recipe.ingredients.size() == 1 &&
                 recipe.ingredients.front().compound == CompoundId::CalciumHydroxide;
+  a.origin.stock = recipe;
   return a;
 }
 
@@ -116,6 +118,7 @@ Result<Additive> additive_from_label(const LabelClaim& claim) {
   a.unit = DoseUnit::Millilitre;
   a.per_unit = strength->per_ml;
   a.caustic = claim.caustic;
+  a.origin.label = claim;
   return a;
 }
 
@@ -137,6 +140,7 @@ Result<Additive> limewater_additive(double temperature_c, double fraction_of_sat
   a.caustic = true;
   a.limewater = true;
   a.compounds = {CompoundId::CalciumHydroxide};
+  a.origin.limewater = LimewaterSpec{temperature_c, fraction_of_saturation};
   return a;
 }
 

@@ -251,10 +251,112 @@ Result<PlanInput> plan_input_from_json(const std::string& text, std::vector<std:
   return in;
 }
 
+namespace {
+Result<json> additive_to_json(const additives::Additive& a, const std::string& where) {
+  namespace ad = additives;
+  const ad::AdditiveOrigin& o = a.origin;
+  if (o.compound) return json{{"compound", ad::compound(*o.compound).key}};
+  if (o.stock) {
+    json ingredients = json::array();
+    for (const ad::Ingredient& g : o.stock->ingredients) {
+      ingredients.push_back({{"compound", ad::compound(g.compound).key}, {"grams_per_l", g.grams_per_l}});
+    }
+    return json{{"stock", {{"name", o.stock->name}, {"temperature_c", o.stock->temperature_c},
+                           {"ingredients", ingredients}}}};
+  }
+  if (o.limewater) {
+    return json{{"limewater", {{"temperature_c", o.limewater->temperature_c},
+                               {"fraction_of_saturation", o.limewater->fraction_of_saturation}}}};
+  }
+  if (o.label) {
+    const ad::LabelClaim& c = *o.label;
+    return json{{"label", {{"name", c.name}, {"parameter", parameter_name(c.parameter)}, {"dose_ml", c.dose_ml},
+                           {"tank_volume_l", c.tank_volume_l}, {"rise", c.rise},
+                           {"dic_per_alkalinity_eq", c.dic_per_alkalinity_eq}, {"caustic", c.caustic}}}};
+  }
+  return Error{where, where + " (" + a.name + ") has no description a plan input file can hold"};
+}
+
+json band_to_json(const Band& b) { return {{"target", b.target}, {"low", b.low}, {"high", b.high}}; }
+
+Result<json> plan_input_object(const PlanInput& in) {
+  json j;
+  json sys = {{"name", in.system.name},
+              {"volume_l", in.system.volume_l},
+              {"salinity", in.system.salinity},
+              {"temperature_c", in.system.temperature_c},
+              {"alkalinity_dkh", in.system.alkalinity_dkh},
+              {"calcium_mg_l", in.system.calcium_mg_l},
+              {"magnesium_mg_l", in.system.magnesium_mg_l},
+              {"air_co2_ppm", in.system.air_co2_ppm}};
+  if (in.system.ph_total) sys["ph_total"] = *in.system.ph_total;
+  j["system"] = sys;
+  j["targets"] = {{"alkalinity_dkh", band_to_json(in.targets.alkalinity_dkh)},
+                  {"calcium_mg_l", band_to_json(in.targets.calcium_mg_l)},
+                  {"magnesium_mg_l", band_to_json(in.targets.magnesium_mg_l)}};
+  j["demand"] = {{"alkalinity_meq_per_day", in.demand.alkalinity_meq_per_day},
+                 {"calcium_mg_per_day", in.demand.calcium_mg_per_day},
+                 {"magnesium_mg_per_day", in.demand.magnesium_mg_per_day}};
+  j["additives"] = json::array();
+  for (std::size_t i = 0; i < in.deliveries.size(); ++i) {
+    const Delivery& d = in.deliveries[i];
+    auto a = additive_to_json(d.additive, fmt::format("additives[{}]", i));
+    if (!a) return a.error();
+    json x = *a;
+    x["device"] = d.device;
+    x["manual"] = d.manual;
+    x["doses_per_day"] = d.doses_per_day;
+    x["min_dose"] = d.min_dose;
+    x["max_dose"] = d.max_dose;
+    x["max_per_day"] = d.max_per_day;
+    x["first_hour"] = d.first_hour;
+    x["last_hour"] = d.last_hour;
+    x["reservoir"] = d.reservoir;
+    j["additives"].push_back(std::move(x));
+  }
+  // The limits as the keeper set them (the room kept for a journal's estimates is the planner's,
+  // made again from the journal when there is one); past a hard bound only as an override.
+  const Limits& set = in.limits_as_set ? *in.limits_as_set : in.limits;
+  j["limits"] = json::object();
+  j["overrides"] = json::array();
+  for (const LimitSpec& spec : limit_specs()) {
+    const double v = set.get(spec.id);
+    if (v == spec.default_value) continue;
+    if (spec.past_hard_bound(v)) {
+      j["overrides"].push_back({{"limit", spec.key}, {"value", v}, {"reason", "as in the plan this file was written from"}});
+    } else {
+      j["limits"][spec.key] = v;
+    }
+  }
+  j["evaporation_l_per_day"] = in.evaporation_l_per_day;
+  j["horizon_days"] = in.horizon_days;
+  j["gas_exchange_hours"] = in.gas_exchange_hours;
+  j["salinity_tolerance"] = in.salinity_tolerance;
+  j["start_date"] = in.start_date;
+  return j;
+}
+}  // namespace
+
+Result<std::string> plan_input_to_json(const PlanInput& in) {
+  auto j = plan_input_object(in);
+  if (!j) return j.error();
+  return j->dump(2);
+}
+
 std::string plan_to_json(const PlanInput& in, const Plan& plan) {
   json j;
   j["system"] = in.system.name;
   j["ph_scale"] = plan.ph_scale;
+  if (auto input = plan_input_object(in)) j["input"] = std::move(input).value();
+  // The water and the demand the plan was made for (from the input, or the journal's basis).
+  j["water"] = {{"volume_l", in.system.volume_l},
+                {"salinity", in.system.salinity},
+                {"temperature_c", in.system.temperature_c},
+                {"room_co2_ppm", in.system.air_co2_ppm},
+                {"ph_total", in.system.ph_total ? json(*in.system.ph_total) : json(nullptr)}};
+  j["demand_per_day"] = {{"alkalinity_meq", in.demand.alkalinity_meq_per_day},
+                         {"calcium_mg", in.demand.calcium_mg_per_day},
+                         {"magnesium_mg", in.demand.magnesium_mg_per_day}};
   auto ws = [](const WaterState& w) {
     return json{{"alkalinity_dkh", w.alkalinity_dkh}, {"calcium_mg_l", w.calcium_mg_l},
                 {"magnesium_mg_l", w.magnesium_mg_l}, {"ph_total", w.ph_total},
@@ -265,6 +367,8 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
     limits[s.key] = {{"value", plan.limits.get(s.id)}, {"default", s.default_value}, {"unit", s.unit},
                      {"side", s.side == LimitSide::Floor ? "floor" : "upper"}, {"hard_bound", s.hard_bound},
                      {"source", s.source}};
+    // The value as the keeper set it, when the plan kept room inside it for the forecast's band.
+    limits[s.key]["as_set"] = in.limits_as_set ? json(in.limits_as_set->get(s.id)) : json(plan.limits.get(s.id));
   }
   j["limits"] = limits;
   j["limit_record"] = plan.limits.record;

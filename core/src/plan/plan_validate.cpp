@@ -93,7 +93,7 @@ Status validate_input(const PlanInput& in) {
                                                   f, d.first_hour, d.last_hour)};
     }
     const char* u = additives::to_string(d.additive.unit);
-    if (auto r = check_range(f + ".max_dose", d.max_dose, 1e-3, 1e5, u); !r) return r;
+    if (auto r = check_range(f + ".max_dose", d.max_dose, ranges::kPlannedDoseMax.lo, ranges::kPlannedDoseMax.hi, u); !r) return r;
     if (auto r = check_range(f + ".min_dose", d.min_dose, 0.0, d.max_dose, u); !r) return r;
     if (auto r = check_range(f + ".max_per_day", d.max_per_day, 1e-3, 1e9, u); !r) return r;
     if (auto r = check_range(f + ".reservoir", d.reservoir, 0.0, 1e9, u); !r) return r;

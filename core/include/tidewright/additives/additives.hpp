@@ -246,6 +246,19 @@ Result<StockStrength> strength_from_label(const LabelClaim& claim);
 enum class DoseUnit { Millilitre, Gram };
 const char* to_string(DoseUnit unit);  // "mL", "g"
 
+// How an additive was described, so a plan input file can be written back the way it was read
+// (plan_input_to_json): exactly one is set by the constructors below.
+struct LimewaterSpec {
+  double temperature_c = 25;
+  double fraction_of_saturation = 1;
+};
+struct AdditiveOrigin {
+  std::optional<CompoundId> compound;
+  std::optional<StockRecipe> stock;
+  std::optional<LimewaterSpec> limewater;
+  std::optional<LabelClaim> label;
+};
+
 struct Additive {
   std::string key;   // identifier, e.g. "sodium_carbonate" or a stock's name
   std::string name;  // shown to the user
@@ -254,6 +267,7 @@ struct Additive {
   bool caustic = false;
   bool limewater = false;   // planner: volume bounded by evaporation
   std::vector<CompoundId> compounds;  // for cautions (empty for label-only products)
+  AdditiveOrigin origin;
 };
 // A dry compound dosed by the gram.
 Additive additive_from_compound(CompoundId id);

@@ -57,6 +57,8 @@ inline constexpr Range kRoomCo2Ppm{150.0, 10000.0, "ppm"};
 inline constexpr Range kSystemVolumeL{0.1, 1e7, "L"};
 inline constexpr Range kEventVolumeL{0.0, 1e7, "L"};          // also at most the system volume
 inline constexpr Range kDoseAmount{0.0, 1e6, "g or mL"};      // > 0
+// A plan's largest single dose (mL or g): 100 L of limewater top-off at most.
+inline constexpr Range kPlannedDoseMax{1e-3, 1e5, "g or mL"};
 inline constexpr Range kStockGPerL{0.0, 1500.0, "g/L"};       // > 0
 inline constexpr Range kLimewaterGPerL{0.0, 1.9, "g/L"};      // > 0
 // A pump's calibration, delivered per set amount [our choice: a pump further off than 50 %

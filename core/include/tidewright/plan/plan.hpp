@@ -108,16 +108,18 @@ Result<Limits> make_limits(const std::vector<LimitSetting>& settings);
 
 // ---------------------------------------------------------------- 2. Inputs
 struct SystemState {
+  // Accepted ranges: common/ranges.hpp (kSystemVolumeL, kSalinityForCarbonateChemistry,
+  // kTemperatureC, the levels' of_measurement, kPh, kRoomCo2Ppm), checked by validate_input.
   std::string name = "system";
-  double volume_l = 380;         // water volume, accepted 1..1e6 L
-  double salinity = 35;          // practical salinity, accepted 20..42
-  double temperature_c = 25.5;   // accepted 10..35 C
-  double alkalinity_dkh = 8.0;   // accepted 2..20 dKH
-  double calcium_mg_l = 420;     // accepted 200..700 mg/L
-  double magnesium_mg_l = 1300;  // accepted 800..2000 mg/L
-  std::optional<double> ph_total;  // measured pH on the TOTAL scale (7.0..8.8); absent = in
-                                   // equilibrium with room air
-  double air_co2_ppm = 424.6;    // room air, accepted 200..5000 ppm (facts.md 10 default)
+  double volume_l = 380;         // water volume, L (a plan input file must give it)
+  double salinity = 35;          // practical salinity
+  double temperature_c = 25.5;
+  double alkalinity_dkh = 8.0;
+  double calcium_mg_l = 420;
+  double magnesium_mg_l = 1300;
+  std::optional<double> ph_total;  // measured pH on the TOTAL scale; absent = in equilibrium
+                                   // with room air
+  double air_co2_ppm = 424.6;    // room air, ppm (facts.md 10 default)
 };
 
 using Band = TargetBand;  // low <= target <= high (common/parameter.hpp)
@@ -413,6 +415,12 @@ std::vector<WorstMishap> mishap_summary(const PlanInput& input, const Plan& plan
 // not an error but listed there, for the caller to fill from a journal and say so.
 Result<PlanInput> plan_input_from_json(const std::string& json_text,
                                        std::vector<std::string>* left_to_journal = nullptr);
+// The plan input file that plan_input_from_json reads back to the same input (the water, the
+// targets, the demand, every additive as it was described, the limits as the keeper set them,
+// the horizon and dates), so a plan made in the app can be made again with `tidewright plan`.
+// Error (field "additives[i]") for an additive with no description a file can hold.
+Result<std::string> plan_input_to_json(const PlanInput& input);
+// The whole plan; "input" is plan_input_to_json's object (absent when it has none).
 std::string plan_to_json(const PlanInput& input, const Plan& plan);
 // RFC 4180 CSV, one row per dose, CRLF line ends, formula-safe cells.
 std::string plan_to_csv(const PlanInput& input, const Plan& plan);
