@@ -244,9 +244,10 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await found(page, 'plan.limit.ph_after_dose_total');
     await found(page, 'plan.check');
     await shot(page, `${label}-plan-limits`);
-    // The schedule through the browser's download, in each of the three formats.
-    const wanted = [['csv', /^day,|\nday,|,day,/i], ['ics', /BEGIN:VCALENDAR[\s\S]*BEGIN:VEVENT[\s\S]*END:VCALENDAR/], ['txt', /Dose plan for[\s\S]*Limits:[\s\S]*Day /]];
-    for (let i = 0; i < 3; i++) {
+    // The schedule through the browser's download, in each of the four formats.
+    const wanted = [['csv', /^day,|\nday,|,day,/i], ['ics', /BEGIN:VCALENDAR[\s\S]*BEGIN:VEVENT[\s\S]*END:VCALENDAR/], ['txt', /Dose plan for[\s\S]*Limits:[\s\S]*Day /],
+                    ['json', /^\{(?=[\s\S]*"input": \{)(?=[\s\S]*"doses": \[)/]];
+    for (let i = 0; i < 4; i++) {
       await tap(page, `plan.export_format.${i}`);
       const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }), tap(page, 'plan.export')]);
       const name = download.suggestedFilename();
@@ -255,6 +256,13 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
       check(wanted[i][1].test(text), `plan download ${name} does not look right: ${text.slice(0, 200)}`);
     }
     await shot(page, `${label}-plan-downloaded`);
+    // Limewater on the top-off: a plan (its pump is bounded by the evaporation, not by a dose cap).
+    await reveal(page, 'plan.alkalinity.2');
+    await tap(page, 'plan.alkalinity.2');
+    await frames(page, 3);
+    const lw = await state(page);
+    check(lw.plan && lw.plan.check_problems !== undefined && (lw.plan.check_ok || lw.plan.check_explained),
+          `limewater: ${JSON.stringify(lw.plan_basis)} ${JSON.stringify(lw.plan && lw.plan.verdict)}`);
     await context.close();
     const real = errors.filter((e) => !benign(e));
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
