@@ -68,7 +68,10 @@ const FieldOptions kFieldOptions = {
     {"stock_g_per_l", "--stock-g-per-l"}, {"stock_fraction_of_saturation", "--stock-saturation-fraction"},
     {"volume_l", "--volume"}, {"temperature_c", "--temperature"}, {"salinity", "--salinity"},
     {"alkalinity_umol_kg", "--alkalinity"}, {"flow", "--flow"}, {"step", "--step"}, {"to", "--to"},
-    {"ph", "--ph"}, {"calcium_umol_kg", "--calcium"}, {"confidence", "--confidence"}};
+    {"ph", "--ph"}, {"calcium_umol_kg", "--calcium"}, {"confidence", "--confidence"},
+    {"mix_fraction", "--mix-fraction"}, {"mix_salinity", "--mix-salinity"},
+    {"mix_temperature_c", "--mix-temperature"}, {"mix_alkalinity", "--mix-alkalinity"}, {"mix_dic", "--mix-dic"},
+    {"mix_calcium", "--mix-calcium"}, {"tank_temperature_c", "--tank-temperature"}};
 
 [[noreturn]] void fail(const Error& e) { shell::fail(e, kFieldOptions); }
 
@@ -530,12 +533,17 @@ void register_buffer(CLI::App& app) {
   CLI::App* l = cmd->add_subcommand("line", "The water through the line: intake, after mixing or heating, after the dose");
   add_common(l, *line);
   l->add_option("--mix-fraction", line->mix_fraction, "Volume fraction 0..1 of other (fresh) water mixed into the intake");
-  l->add_option("--mix-salinity", line->mix_salinity, "Salinity of that water (0..50)")->default_str("0");
-  l->add_option("--mix-temperature", line->mix_temperature, "Its temperature [C]")->default_str("20");
+  l->add_option("--mix-salinity", line->mix_salinity,
+                fmt::format("Salinity of that water ({:g}..{:g})", ranges::kSalinity.lo, ranges::kSalinity.hi))
+      ->default_str("0");
+  l->add_option("--mix-temperature", line->mix_temperature,
+                fmt::format("Its temperature [C] ({:g}..{:g})", ranges::kTemperatureC.lo, ranges::kTemperatureC.hi))
+      ->default_str("20");
   l->add_option("--mix-alkalinity", line->mix_alkalinity, "Its alkalinity [umol/kg] (0..10000)")->default_str("0");
   l->add_option("--mix-dic", line->mix_dic, "Its DIC [umol/kg] (0..10000)")->default_str("0");
   l->add_option("--mix-calcium", line->mix_calcium, "Its calcium [umol/kg] (0..50000)")->default_str("0");
-  l->add_option("--tank-temperature", line->tank_temperature, "Temperature at the tanks after heating or cooling [C]");
+  l->add_option("--tank-temperature", line->tank_temperature, fmt::format("Temperature at the tanks after heating or cooling [C] ({:g}..{:g})",
+                            ranges::kTemperatureC.lo, ranges::kTemperatureC.hi));
   l->callback([line] { run_line(*line); });
 }
 

@@ -1,5 +1,7 @@
 #include "option_rules.hpp"
 
+#include <cctype>
+
 #include <fmt/format.h>
 
 #include "tidewright/common/units.hpp"
@@ -11,6 +13,14 @@ std::string option_for(const std::string& field, const FieldOptions& options) {
     if (f == field) return option;
   return field;
 }
+
+namespace {
+bool name_char(char c) { return std::isalnum(static_cast<unsigned char>(c)) || c == '_' || c == '-'; }
+// The name at msg[at, at + n) stands alone: not part of a longer name (or an option already put in).
+bool whole_name_at(const std::string& msg, size_t at, size_t n) {
+  return (at == 0 || !name_char(msg[at - 1])) && (at + n >= msg.size() || !name_char(msg[at + n]));
+}
+}  // namespace
 
 std::string message_for_user(const Error& e, const FieldOptions& options) {
   std::string msg = e.message;
@@ -29,9 +39,14 @@ std::string message_for_user(const Error& e, const FieldOptions& options) {
       }
       continue;
     }
-    for (size_t at = msg.find(field); at != std::string::npos; at = msg.find(field, at + option.size())) {
+    for (size_t at = msg.find(field); at != std::string::npos;) {
+      if (!whole_name_at(msg, at, field.size())) {  // "temperature_c" inside "tank_temperature_c"
+        at = msg.find(field, at + 1);
+        continue;
+      }
       msg.replace(at, field.size(), option);
       named |= field == e.field;
+      at = msg.find(field, at + option.size());
     }
   }
   if (!named && own_option != e.field) msg = own_option + ": " + msg;

@@ -35,7 +35,8 @@ def refused(name, args, *words, cwd=None):
         check(f"{name}: says {w!r}", w in err, repr(err))
 
 
-for sub in [[], ["chem"], ["salinity"], ["log"], ["log", "add", "test"], ["demand"], ["plan"], ["mix"], ["buffer"]]:
+for sub in [[], ["chem"], ["salinity"], ["log"], ["log", "add", "test"], ["demand"], ["plan"], ["mix"], ["buffer"],
+            ["buffer", "line"]]:
     r = run(*sub, "--help")
     check(f"{' '.join(sub) or 'tidewright'} --help", r.returncode == 0 and b"Usage" in r.stdout, r.stderr)
 
@@ -52,6 +53,21 @@ refused("calcium with carbonate precipitates", ["mix", "--compound", "CaCl2.2H2O
         "ingredients[1]", "separate stocks")
 refused("--out into a missing directory", ["chem", "--alkalinity", "8", "--ph", "8.1", "--ph-scale", "nbs", "--json", "--out",
                                           "/nonexistent/dir/state.json"], "--out", "/nonexistent/dir/state.json")
+
+# The hatchery line: intake -> 20 % fresh water, heated to 22 C -> dosed; each point printed.
+# The other water and the tank temperature are bounded by the water's ranges (EOS-80's validity).
+line = ["buffer", "line", "--salinity", "28", "--temperature", "14", "--alkalinity", "1900", "--ph", "7.7",
+        "--ph-scale", "nbs", "--target-omega", "2.5"]
+r = run(*line, "--mix-fraction", "0.2", "--tank-temperature", "22")
+out = r.stdout.decode()
+check("buffer line runs", r.returncode == 0, r.stderr)
+for point in ["intake", "conditioned", "dosed", "at the tanks"]:
+    check(f"buffer line shows {point!r}", point in out, out[:400])
+refused("line: other water's salinity", [*line, "--mix-fraction", "0.2", "--mix-salinity", "45"], "--mix-salinity 45", "0 to 42")
+refused("line: tank temperature", [*line, "--tank-temperature", "45"], "--tank-temperature 45", "-2 to 40")
+refused("line: mix fraction", [*line, "--mix-fraction", "1.5"], "--mix-fraction 1.5", "0 to 1")
+r = run(*line, "--tank-temperature", "45")
+check("line: an option name is not put inside another", "tank_--" not in r.stderr.decode(), r.stderr)
 
 # 150 g/L CaCl2.2H2O + 100 g/L MgCl2.6H2O: per mL 150 x 40.078/147.01 = 40.89 mg Ca and
 # 100 x 24.305/203.30 = 11.96 mg Mg (standard atomic weights, IUPAC 2021; computed here).

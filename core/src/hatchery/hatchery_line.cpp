@@ -7,6 +7,7 @@
 #include <fmt/format.h>
 
 #include "hatchery_internal.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/seawater/seawater.hpp"
 
 namespace tw::hatchery {
@@ -16,8 +17,9 @@ namespace cb = tw::carbonate;
 Result<MixResult> mix_waters(double salinity, double temperature_c, double alkalinity_umol_kg, double dic_umol_kg,
                              double calcium_umol_kg, const OtherWater& o) {
   if (auto r = check_range("mix_fraction", o.volume_fraction, 0.0, 1.0, ""); !r) return r.error();
-  if (auto r = check_range("mix_salinity", o.salinity, 0.0, 50.0, ""); !r) return r.error();
-  if (auto r = check_range("mix_temperature_c", o.temperature_c, -2.0, 50.0, "C"); !r) return r.error();
+  // The other water's density is EOS-80's too: the water's ranges (common/ranges.hpp).
+  if (auto r = ranges::check("mix_salinity", o.salinity, ranges::kSalinity); !r) return r.error();
+  if (auto r = ranges::check("mix_temperature_c", o.temperature_c, ranges::kTemperatureC); !r) return r.error();
   if (auto r = check_range("mix_alkalinity", o.alkalinity_umol_kg, 0.0, 10000.0, "umol/kg"); !r) return r.error();
   if (auto r = check_range("mix_dic", o.dic_umol_kg, 0.0, 10000.0, "umol/kg"); !r) return r.error();
   if (auto r = check_range("mix_calcium", o.calcium_umol_kg, 0.0, cb::kCalciumMaxUmolKg, "umol/kg"); !r)
@@ -58,7 +60,7 @@ Result<HatcheryLine> plan_line(const Water& intake, const Conditioning& c, const
                                     m.salinity));
   }
   if (c.tank_temperature_c) {
-    if (auto r = check_range("tank_temperature_c", *c.tank_temperature_c, -2.0, 50.0, "C"); !r) return r.error();
+    if (auto r = ranges::check("tank_temperature_c", *c.tank_temperature_c, ranges::kTemperatureC); !r) return r.error();
     m.temperature_c = *c.tank_temperature_c;
   }
   if (m.salinity < cb::kSalinityMin) {
