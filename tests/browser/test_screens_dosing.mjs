@@ -157,6 +157,12 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     let s = await state(page);
     check(s.message_is_error && /Calcium/.test(s.message) && /0 to 1000 mg\/L/.test(s.message), `no clear refusal of 5000 mg/L: "${s.message}"`);
     check(s.hatchery.calcium_mg_l === null, 'a refused calcium was kept');
+    // Salinity past EOS-80's validity (the core's one range): refused, salinity 8 kept.
+    await tap(page, 'hatchery.salinity');
+    await enter(page, '45');
+    s = await state(page);
+    check(s.message_is_error && /Salinity/.test(s.message) && /1\.0 to 42\.0 psu/.test(s.message), `no clear refusal of salinity 45: "${s.message}"`);
+    check(s.hatchery.salinity === 8, `a refused salinity changed the form: ${s.hatchery.salinity}`);
     // Measured calcium: the saturation uses it (twice the scaled calcium, twice Omega: Omega is
     // proportional to calcium at a fixed carbonate ion).
     await tap(page, 'hatchery.calcium');

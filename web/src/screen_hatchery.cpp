@@ -11,6 +11,7 @@
 #include "format.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "ui.hpp"
 
 namespace twapp {
@@ -44,12 +45,16 @@ void draw_water_form(AppState& app, HatcheryForm& f) {
   const auto u = units_of(app);
   ui::card_begin(app);
   ui::heading(app, f.mode == HatcheryMode::FlowThrough ? "Intake water" : "Tank water");
-  ui::number_field(app, "hatchery.salinity", {"Salinity", "psu", 1, 0.5, 0.0, 45.0}, &f.salinity);
-  temperature_field(app, "hatchery.temperature", "Temperature", &f.temperature_c, -2, 40);
+  namespace rg = tw::ranges;
+  ui::number_field(app, "hatchery.salinity",
+                   {"Salinity", "psu", 1, 0.5, rg::kSalinityForCarbonateChemistry.lo, rg::kSalinityForCarbonateChemistry.hi},
+                   &f.salinity);
+  temperature_field(app, "hatchery.temperature", "Temperature", &f.temperature_c, rg::kTemperatureC.lo, rg::kTemperatureC.hi);
   const fmtx::UnitShown au = fmtx::alkalinity_shown(u.alkalinity);
   double alk = fmtx::alkalinity_from_dkh(f.alkalinity_dkh, u.alkalinity);
   if (ui::number_field(app, "hatchery.alkalinity",
-                       {"Alkalinity", au.unit, au.decimals, au.step, 0.0, fmtx::alkalinity_from_dkh(25.0, u.alkalinity)},
+                       {"Alkalinity", au.unit, au.decimals, au.step, 0.0,
+                        fmtx::alkalinity_from_dkh(rg::kAlkalinityDkh.hi, u.alkalinity)},
                        &alk)) {
     f.alkalinity_dkh = fmtx::alkalinity_to_dkh(alk, u.alkalinity);
   }
@@ -59,7 +64,7 @@ void draw_water_form(AppState& app, HatcheryForm& f) {
   if (ui::choice(app, "hatchery.ph_scale", "pH scale of your meter (used for every pH here)", &scale, scales, 4)) {
     f.ph_scale = kScales[scale];
   }
-  ui::number_field(app, "hatchery.ph", {"pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.0, 10.0}, &f.ph);
+  ui::number_field(app, "hatchery.ph", {"pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, rg::kPh.lo, rg::kPh.hi}, &f.ph);
   // Measured calcium (empty: the core scales it from salinity and says how far that can be off).
   ui::optional_number_field(app, "hatchery.calcium",
                             {"Calcium (measured)", tw::ranges::kCalciumMgL.unit, 0, 10, tw::ranges::kCalciumMgL.lo,
@@ -94,10 +99,11 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
   }
   switch (f.target_kind) {
     case hat::TargetKind::OmegaAragonite:
-      ui::number_field(app, "hatchery.target", {"Target \u03a9 aragonite", "", 2, 0.1, 0.5, 8.0}, &f.target_omega);
+      ui::number_field(app, "hatchery.target", {"Target \u03a9 aragonite", "", 2, 0.1, tw::ranges::kHatcheryTargetOmega.lo, tw::ranges::kHatcheryTargetOmega.hi}, &f.target_omega);
       break;
     case hat::TargetKind::PH:
-      ui::number_field(app, "hatchery.target", {"Target pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.5, 9.3},
+      ui::number_field(app, "hatchery.target", {"Target pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, tw::ranges::kHatcheryTargetPh.lo,
+                                                 tw::ranges::kHatcheryTargetPh.hi},
                        &f.target_ph);
       break;
     case hat::TargetKind::AlkalinityRise: {
@@ -125,7 +131,8 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
                  buffers, 4)) {
     f.buffer = static_cast<hat::Buffer>(buffer);
   }
-  ui::number_field(app, "hatchery.ph_ceiling", {"pH ceiling", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 7.0, 9.3},
+  ui::number_field(app, "hatchery.ph_ceiling", {"pH ceiling", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, tw::ranges::kHatcheryPhCeiling.lo,
+                                                    tw::ranges::kHatcheryPhCeiling.hi},
                    &f.ph_ceiling);
   // Dosing to a confidence: the target reached, and the ceiling kept, with this probability
   // given how precisely the intake was read (the core propagates it, Orr et al. 2018).
@@ -148,7 +155,7 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
                      &f.ph_precision);
   }
   if (f.mode == HatcheryMode::FlowThrough) {
-    ui::number_field(app, "hatchery.flow", {"Intake flow", "L/min", 1, 5, 0.01, 100000}, &f.flow_l_per_min);
+    ui::number_field(app, "hatchery.flow", {"Intake flow", "L/min", 1, 5, tw::ranges::kIntakeFlowLPerMin.lo, tw::ranges::kIntakeFlowLPerMin.hi}, &f.flow_l_per_min);
     ui::optional_number_field(app, "hatchery.residence",
                               {"Time from injection to the tanks (optional)", "min", 0, 5, 0, 1440},
                               &f.residence_time_min);
@@ -288,9 +295,9 @@ void draw_pump_table(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
     return;
   }
   const float half = (ImGui::GetContentRegionAvail().x - ImGui::GetStyle().ItemSpacing.x) / 2;
-  ui::number_field(app, "hatchery.table.from", {"From intake pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.0, 10.0},
+  ui::number_field(app, "hatchery.table.from", {"From intake pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, tw::ranges::kPh.lo, tw::ranges::kPh.hi},
                    &f.table_from_ph);
-  ui::number_field(app, "hatchery.table.to", {"To intake pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, 6.0, 10.0},
+  ui::number_field(app, "hatchery.table.to", {"To intake pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, tw::ranges::kPh.lo, tw::ranges::kPh.hi},
                    &f.table_to_ph);
   ui::number_field(app, "hatchery.table.step", {"Step", "pH", 2, 0.01, 0.01, 1.0}, &f.table_step_ph);
   if (!c.table_error.empty()) ui::colored_wrapped(theme::kError, c.table_error.c_str());
