@@ -19,8 +19,8 @@ namespace tw::hatchery {
 // The other end-member: fresh water (salinity 0) or another supply.
 struct OtherWater {
   double volume_fraction = 0;     // of the mixed water, 0..1 (option "mix_fraction")
-  double salinity = 0;            // practical salinity, 0..50
-  double temperature_c = 20;      // -2..50 C
+  double salinity = 0;            // practical salinity (ranges::kSalinity: EOS-80's 0..42)
+  double temperature_c = 20;      // C (ranges::kTemperatureC: EOS-80's -2..40)
   double alkalinity_umol_kg = 0;  // 0..10000
   double dic_umol_kg = 0;         // 0..10000
   double calcium_umol_kg = 0;     // 0..50000 (fresh water: its hardness; 0 = none)
@@ -28,7 +28,7 @@ struct OtherWater {
 
 struct Conditioning {
   std::optional<OtherWater> mix;
-  std::optional<double> tank_temperature_c;  // after heating or cooling, -2..50 C; absent = as mixed
+  std::optional<double> tank_temperature_c;  // after heating or cooling (ranges::kTemperatureC); absent = as mixed
 };
 
 // One point of the line: where it is, and the water's state there.
