@@ -84,6 +84,17 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(s.events === beforeFuture, 'a future entry was stored');
     await shot(page, `${label}-future-refused`);
 
+    // A negative alkalinity is refused in the field with the core's range in the unit shown
+    // (ranges.hpp: 0 to 25 dKH), not saved as 0; nothing is stored.
+    await tap(page, 'log.kind.0');
+    await tap(page, 'log.parameter.0');
+    const storedBefore = (await state(page)).events;
+    await tap(page, 'log.value');
+    await enter(page, '-3');
+    s = await state(page);
+    check(s.message_is_error && /0(\.0+)? to 25(\.0+)? dKH/.test(s.message), `no refusal of -3 dKH with the range: "${s.message}"`);
+    check(s.events === storedBefore, `events ${storedBefore} -> ${s.events} after a refused value`);
+
     // A refractometer reading: specific gravity 1.0264 is kept as read, and the Water screen
     // takes salinity 35.04 from it (EOS-80 at 25/25 C; the CLI `tidewright salinity --sg 1.0264`
     // gives the same figure).

@@ -119,8 +119,14 @@ void draw_test(AppState& app, const jn::System& sys, LogForm& f) {
   const std::string label = f.parameter == jn::Parameter::SpecificGravity ? std::string("Specific gravity")
                                                                           : std::string(kParams[param]) + " result";
   const double step = dec == 0 ? 1 : dec == 1 ? 0.1 : dec == 2 ? 0.01 : 0.001;
-  // The core checks the range when the result is saved (its message names the range).
-  if (ui::optional_number_field(app, "log.value", {label.c_str(), units[static_cast<size_t>(unit)].shown, dec, step, -1e6, 1e6}, &value) && value) {
+  // The field's bounds are the core's range in the unit shown (the core checks it again on save).
+  double lo = -1e9, hi = 1e9;
+  if (auto b = jn::accepted_in_unit(f.parameter, f.unit)) {
+    lo = b->lo;
+    hi = b->hi;
+  }
+  if (ui::optional_number_field(app, "log.value", {label.c_str(), units[static_cast<size_t>(unit)].shown, dec, step, lo, hi},
+                                &value) && value) {
     f.value_text = fmtx::fixed(*value, dec + 1);
   }
   if (f.parameter == jn::Parameter::SpecificGravity && value) {

@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "tidewright/journal/journal.hpp"
+#include "tidewright/common/ranges.hpp"
 
 namespace tw::journal {
 
@@ -207,6 +208,18 @@ std::optional<double> canonical_precision(const TestResult& test, double density
   auto one = canonical_value(test.parameter, 1.0, test.unit, density_kg_per_l);
   if (!one) return std::nullopt;
   return *test.precision * std::fabs(*one);
+}
+
+Result<UnitBounds> accepted_in_unit(Parameter p, const std::string& unit, double density_kg_per_l) {
+  // Every conversion to the canonical unit is v -> a v + b with a > 0 (a scale, or C from F):
+  // read a and b off two points and invert at the canonical range's ends.
+  auto at0 = canonical_value(p, 0.0, unit, density_kg_per_l);
+  if (!at0) return at0.error();
+  auto at1 = canonical_value(p, 1.0, unit, density_kg_per_l);
+  if (!at1) return at1.error();
+  const double a = *at1 - *at0, b = *at0;
+  const ranges::Range& r = ranges::of_measurement(p);
+  return UnitBounds{(r.lo - b) / a, (r.hi - b) / a};
 }
 
 }  // namespace tw::journal

@@ -1,6 +1,7 @@
 // Journal model: validation with typed errors, editing by id, canonical units.
 #include <doctest/doctest.h>
 
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/journal/journal.hpp"
 
 using namespace tw::journal;
@@ -256,4 +257,22 @@ TEST_CASE("journal: an entry may be dated up to ten minutes after now, not later
   CHECK(late.error().field == "time");
   CHECK(late.error().message.find("2026-12-01T00:10:01Z is in the future") != std::string::npos);
   CHECK(late.error().message.find("10 minutes") != std::string::npos);
+}
+
+TEST_CASE("journal: the accepted range in the unit a keeper types") {
+  // 0..25 dKH (ranges::kAlkalinityDkh) in meq/L: 25 x 0.35665 = 8.916 (facts.md 5).
+  auto alk = accepted_in_unit(Parameter::Alkalinity, "meq/L");
+  REQUIRE(alk.ok());
+  CHECK(alk->lo == doctest::Approx(0.0));
+  CHECK(alk->hi == doctest::Approx(25 * 0.35665).epsilon(1e-4));
+  // -2..40 C (EOS-80's validity) in F: 28.4..104 (definition of the Fahrenheit scale).
+  auto t = accepted_in_unit(Parameter::Temperature, "F");
+  REQUIRE(t.ok());
+  CHECK(t->lo == doctest::Approx(28.4));
+  CHECK(t->hi == doctest::Approx(104.0));
+  // The canonical unit gives the table's range unchanged.
+  auto ca = accepted_in_unit(Parameter::Calcium, "mg/L");
+  REQUIRE(ca.ok());
+  CHECK(ca->hi == doctest::Approx(tw::ranges::kCalciumMgL.hi));
+  CHECK_FALSE(accepted_in_unit(Parameter::Alkalinity, "furlongs").ok());
 }

@@ -216,6 +216,14 @@ Result<double> canonical_value(const TestResult& test,
 std::optional<double> canonical_precision(const TestResult& test,
                                           double density_kg_per_l = kNominalDensityKgPerL);
 
+// The accepted range of a parameter's value (ranges::of_measurement, canonical unit) in `unit`,
+// for a field's bounds and hint (the app's Log screen): 0 to 25 dKH is 0 to 8.916 meq/L.
+struct UnitBounds {
+  double lo = 0, hi = 0;
+};
+Result<UnitBounds> accepted_in_unit(Parameter p, const std::string& unit,
+                                    double density_kg_per_l = kNominalDensityKgPerL);
+
 // Typical kit precision of each parameter: info_of(p).typical_precision (common/parameter.hpp).
 
 // ---------------------------------------------------------------- 5. The journal
