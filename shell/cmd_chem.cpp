@@ -171,7 +171,7 @@ void run_single(const ChemOptions& o) {
   conditions.temperature_c = temperature.celsius;
   conditions.salinity = salinity(o);
   // The water's range first (common/ranges.hpp): the density below needs it (EOS-80).
-  check_temperature(temperature, ranges::kTemperatureC);
+  check_temperature(temperature);
   if (auto r = ranges::check("salinity", conditions.salinity, ranges::kSalinityForCarbonateChemistry); !r) fail(r.error(), fields);
   const ConstantChoices choices = parse_choices(o);
   conditions.k1k2 = choices.k1k2;

@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 
 #include "tidewright/common/units.hpp"
+#include "tidewright/journal/journal.hpp"
 
 namespace tw::shell {
 
@@ -65,16 +66,16 @@ TemperatureGiven temperature_from_options(const std::optional<double>& celsius, 
   return {celsius.value_or(fallback_c), false, celsius_option};
 }
 
-void check_temperature(const TemperatureGiven& t, const ranges::Range& accepted) {
+void check_temperature(const TemperatureGiven& t) {
   if (!t.in_fahrenheit) {
-    if (auto r = ranges::check(t.option, t.celsius, accepted); !r) throw CommandError(r.error().message);
+    if (auto r = ranges::check(t.option, t.celsius, ranges::kTemperatureC); !r) throw CommandError(r.error().message);
     return;
   }
   const auto f = units::TemperatureUnit::Fahrenheit;
-  const ranges::Range in_f{units::temperature_from_celsius(accepted.lo, f), units::temperature_from_celsius(accepted.hi, f), "F"};
+  const journal::UnitBounds b = or_fail(journal::accepted_in_unit(journal::Parameter::Temperature, "F"));
   // The value as typed (rounded back from C only by the float conversion).
   const double typed = units::temperature_from_celsius(t.celsius, f);
-  if (auto r = ranges::check(t.option, typed, in_f); !r) throw CommandError(r.error().message);
+  if (auto r = ranges::check(t.option, typed, ranges::Range{b.lo, b.hi, "F"}); !r) throw CommandError(r.error().message);
 }
 
 ConstantChoices constant_choices(const ConstantChoiceTexts& t) {

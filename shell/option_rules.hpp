@@ -50,9 +50,10 @@ TemperatureGiven temperature_from_options(const std::optional<double>& celsius, 
                                           const std::string& celsius_option, const std::string& fahrenheit_option,
                                           double fallback_c);
 
-// Refuses a temperature outside `accepted` (a range in C) in the unit and option the user
-// typed: "--temperature-f 120 F is outside the accepted range 28.4 to 104 F".
-void check_temperature(const TemperatureGiven& t, const ranges::Range& accepted);
+// Refuses a water temperature outside the core's range (ranges::kTemperatureC) in the unit and
+// option the user typed: "--temperature-f 120 F is outside the accepted range 28.4 to 104 F"
+// (the range in F from the core's journal::accepted_in_unit).
+void check_temperature(const TemperatureGiven& t);
 
 // ------------------------------------------------------------ 3. constant choices
 struct ConstantChoices {

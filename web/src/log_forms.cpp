@@ -14,6 +14,7 @@
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/journal/schedule.hpp"
 #include "tidewright/seawater/seawater.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "ui.hpp"
 
 namespace twapp::log_forms {
@@ -120,7 +121,7 @@ void draw_test(AppState& app, const jn::System& sys, LogForm& f) {
                                                                           : std::string(kParams[param]) + " result";
   const double step = dec == 0 ? 1 : dec == 1 ? 0.1 : dec == 2 ? 0.01 : 0.001;
   // The field's bounds are the core's range in the unit shown (the core checks it again on save).
-  double lo = -1e9, hi = 1e9;
+  double lo = tw::ranges::kOtherValue.lo, hi = tw::ranges::kOtherValue.hi;  // unknown unit: the core refuses on save
   if (auto b = jn::accepted_in_unit(f.parameter, f.unit)) {
     lo = b->lo;
     hi = b->hi;
