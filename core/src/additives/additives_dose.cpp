@@ -70,7 +70,7 @@ double per_mole_of(Parameter p, const ChemicalChange& c) {
 Result<double> grams_for_rise(CompoundId id, Parameter p, double rise, double volume_l) {
   if (auto s = ranges::check("volume_l", volume_l, ranges::kSystemVolumeL); !s) return s.error();
   if (!is_dosed(p)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
-  if (auto s = check_range("rise", rise, 0.0, 1.0e4, parameter_unit(p)); !s) return s.error();
+  if (auto s = ranges::check("rise", rise, ranges::of_rise(p)); !s) return s.error();
   const Compound& c = compound(id);
   const double per_mole = per_mole_of(p, c.per_mole);
   if (per_mole <= 0) {

@@ -85,10 +85,10 @@ Result<StockStrength> stock_strength(const StockRecipe& recipe) {
   if (recipe.ingredients.empty()) {
     return Error{"ingredients", "a stock needs at least one ingredient (accepted: 1 or more)"};
   }
-  if (auto s = check_range("temperature_c", recipe.temperature_c, 0.0, 40.0, "C"); !s) return s.error();
+  if (auto s = ranges::check("temperature_c", recipe.temperature_c, ranges::kStockTemperatureC); !s) return s.error();
   for (std::size_t i = 0; i < recipe.ingredients.size(); ++i) {
     const auto& ing = recipe.ingredients[i];
-    if (auto s = check_range(ingredient_field(i), ing.grams_per_l, 0.0, 2000.0, "g/L"); !s) return s.error();
+    if (auto s = ranges::check(ingredient_field(i), ing.grams_per_l, ranges::kStockGPerL); !s) return s.error();
     if (compound(ing.compound).phase == Phase::Gas) {
       return Error{fmt::format("ingredients[{}].compound", i),
                    fmt::format("{} is a gas and cannot be weighed into a stock (accepted: solid compounds)",
@@ -143,8 +143,8 @@ Result<StockStrength> stock_strength(const StockRecipe& recipe) {
 
 Result<RecipeForEffect> recipe_for_effect(CompoundId id, const TargetEffect& target, double temperature_c) {
   if (!is_dosed(target.parameter)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
-  if (auto s = check_range("rise", target.rise, 1e-6, 1000.0, parameter_unit(target.parameter)); !s) return s.error();
-  if (auto s = check_range("dose_ml", target.dose_ml, 0.01, 10000.0, "mL"); !s) return s.error();
+  if (auto s = ranges::check("rise", target.rise, ranges::of_rise(target.parameter)); !s) return s.error();
+  if (auto s = ranges::check("dose_ml", target.dose_ml, ranges::kMixDoseMl); !s) return s.error();
   if (auto s = ranges::check("tank_volume_l", target.tank_volume_l, ranges::kSystemVolumeL); !s) return s.error();
   // Grams of compound per dose = grams for the rise in the tank; per litre of stock = /dose_ml*1000.
   auto grams = grams_for_rise(id, target.parameter, target.rise, target.tank_volume_l);
@@ -179,10 +179,10 @@ Result<RecipeForEffect> recipe_for_effect(CompoundId id, const TargetEffect& tar
 // is assumed: alkalinity products are sodium salts with the given DIC per equivalent, calcium
 // and magnesium products are chlorides. The notes say so.
 Result<StockStrength> strength_from_label(const LabelClaim& claim) {
-  if (auto s = check_range("dose_ml", claim.dose_ml, 0.01, 10000.0, "mL"); !s) return s.error();
+  if (auto s = ranges::check("dose_ml", claim.dose_ml, ranges::kMixDoseMl); !s) return s.error();
   if (auto s = ranges::check("tank_volume_l", claim.tank_volume_l, ranges::kSystemVolumeL); !s) return s.error();
   if (!is_dosed(claim.parameter)) return Error{"parameter", "only alkalinity, calcium and magnesium are dosed"};
-  if (auto s = check_range("rise", claim.rise, 1e-6, 1000.0, parameter_unit(claim.parameter)); !s) return s.error();
+  if (auto s = ranges::check("rise", claim.rise, ranges::of_rise(claim.parameter)); !s) return s.error();
   if (auto s = check_range("dic_per_alkalinity_eq", claim.dic_per_alkalinity_eq, 0.0, 1.0, "mol/eq"); !s) {
     return s.error();
   }

@@ -22,4 +22,8 @@ const Range& of_measurement(Parameter p) {
   return kOtherValue;
 }
 
+Range of_rise(Parameter p) {
+  return Range{1e-6, of_measurement(p).hi, parameter_unit(p)};
+}
+
 }  // namespace tw::ranges

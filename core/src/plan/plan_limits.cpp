@@ -150,4 +150,16 @@ std::string nearest(const std::string& word, const std::vector<std::string>& kno
 }
 }  // namespace detail
 
+std::string cap_in_words(const std::string& capped_by) {
+  for (const LimitSpec& spec : limit_specs()) {
+    if (capped_by == spec.key) return std::string("the ") + spec.description;
+  }
+  if (capped_by == "max_dose") return "the pump's largest single dose";
+  if (capped_by == "max_dose x doses_per_day") return "the pump's largest dose times its doses per day";
+  if (capped_by == "max_per_day") return "the pump's largest amount per day";
+  if (capped_by == "reservoir") return "what is left in the reservoir";
+  if (capped_by == "evaporation_l_per_day") return "the evaporation the top-off replaces";
+  return capped_by;
+}
+
 }  // namespace tw::plan

@@ -436,7 +436,7 @@ Result<Plan> make_plan(const PlanInput& in) {
                           in.limits.get(rise_id[p]), punit[p], std::ceil(days_needed));
         for (const auto& [key, count] : cap_count) {
           why += fmt::format("; {} doses of {} held back by {}", count, key.substr(key.find('|') + 1),
-                             key.substr(0, key.find('|')));
+                             cap_in_words(key.substr(0, key.find('|'))));
         }
         why += "; daily amounts are also bounded by each pump's largest dose, volume per day, reservoir and "
                "(limewater) evaporation";

@@ -52,22 +52,32 @@ Status validate_input(const PlanInput& in) {
                           l.get(LimitId::MagnesiumCeiling));
       !r)
     return r;
-  const double v = s.volume_l;
-  if (auto r = check_range("demand.alkalinity_meq_per_day", in.demand.alkalinity_meq_per_day, 0.0, 5.0 * v, "meq/day");
+  // Demand and evaporation scale with the system: the table holds them per litre.
+  const auto per_system = [v = s.volume_l](const ranges::Range& r, const char* unit) {
+    return ranges::Range{r.lo * v, r.hi * v, unit};
+  };
+  if (auto r = ranges::check("demand.alkalinity_meq_per_day", in.demand.alkalinity_meq_per_day,
+                             per_system(ranges::kAlkalinityDemandMeqPerLDay, "meq/day"));
       !r)
     return r;
-  if (auto r = check_range("demand.calcium_mg_per_day", in.demand.calcium_mg_per_day, 0.0, 100.0 * v, "mg/day"); !r)
-    return r;
-  if (auto r = check_range("demand.magnesium_mg_per_day", in.demand.magnesium_mg_per_day, 0.0, 100.0 * v, "mg/day");
+  if (auto r = ranges::check("demand.calcium_mg_per_day", in.demand.calcium_mg_per_day,
+                             per_system(ranges::kCalciumDemandMgPerLDay, "mg/day"));
       !r)
     return r;
-  if (auto r = check_range("evaporation_l_per_day", in.evaporation_l_per_day, 0.0, 0.2 * v, "L/day"); !r) return r;
+  if (auto r = ranges::check("demand.magnesium_mg_per_day", in.demand.magnesium_mg_per_day,
+                             per_system(ranges::kMagnesiumDemandMgPerLDay, "mg/day"));
+      !r)
+    return r;
+  if (auto r = ranges::check("evaporation_l_per_day", in.evaporation_l_per_day,
+                             per_system(ranges::kEvaporationFractionPerDay, "L/day"));
+      !r)
+    return r;
   if (in.horizon_days < ranges::kPlanHorizonDays.lo || in.horizon_days > ranges::kPlanHorizonDays.hi) {
     return Error{"horizon_days", fmt::format("horizon_days {} is outside the accepted range {:g} to {:g}", in.horizon_days,
                                              ranges::kPlanHorizonDays.lo, ranges::kPlanHorizonDays.hi)};
   }
-  if (auto r = check_range("gas_exchange_hours", in.gas_exchange_hours, 0.0, 72.0, "h"); !r) return r;
-  if (auto r = check_range("salinity_tolerance", in.salinity_tolerance, 0.01, 5.0, ""); !r) return r;
+  if (auto r = ranges::check("gas_exchange_hours", in.gas_exchange_hours, ranges::kGasExchangeHours); !r) return r;
+  if (auto r = ranges::check("salinity_tolerance", in.salinity_tolerance, ranges::kSalinityTolerance); !r) return r;
   if (in.deliveries.empty()) return Error{"additives", "a plan needs at least one additive (accepted: 1 to 16)"};
   if (in.deliveries.size() > 16) return Error{"additives", "a plan takes at most 16 additives (accepted: 1 to 16)"};
   if (auto r = check_start_date(in.start_date); !r) return r;

@@ -241,7 +241,9 @@ void judge(const PlanInput& in, Plan& plan) {
       if (!d.cap.empty()) caps[d.cap]++;
     }
     std::string held;
-    for (const auto& [key, n] : caps) held += fmt::format("{}{} doses by {}", held.empty() ? "" : ", ", n, key);
+    for (const auto& [key, n] : caps) {
+      held += fmt::format("{}{} doses by {}", held.empty() ? "" : ", ", n, cap_in_words(key));
+    }
     v.reasons.push_back(held.empty() ? "the additives could deliver the demand, but not at the times it is needed"
                                      : "the additives could deliver the demand, but doses were held back: " + held);
     if (crossing->never_reached) {

@@ -47,6 +47,10 @@ inline constexpr Range kSalinityForCarbonateChemistry{1.0, kSalinity.hi, ""};
 
 // The range of a logged test of parameter p (kOtherValue for Other).
 const Range& of_measurement(Parameter p);
+// The rise one dose or one mix is asked for, in parameter_unit(p): more than zero and at most
+// the parameter's whole measurable range (a dose that raises alkalinity by more than 25 dKH is
+// a typo, not a dose).
+Range of_rise(Parameter p);
 
 // ------------------------------------------------------------ the room
 // CO2 in the air the water settles with: outdoor air is ~425 ppm, closed rooms reach several
@@ -59,11 +63,17 @@ inline constexpr Range kEventVolumeL{0.0, 1e7, "L"};          // also at most th
 inline constexpr Range kDoseAmount{0.0, 1e6, "g or mL"};      // > 0
 // A plan's largest single dose (mL or g): 100 L of limewater top-off at most.
 inline constexpr Range kPlannedDoseMax{1e-3, 1e5, "g or mL"};
-inline constexpr Range kStockGPerL{0.0, 1500.0, "g/L"};       // > 0
+inline constexpr Range kStockGPerL{0.0, 1500.0, "g/L"};       // > 0; each compound's solubility narrows it
 inline constexpr Range kLimewaterGPerL{0.0, 1.9, "g/L"};      // > 0
 // A pump's calibration, delivered per set amount [our choice: a pump further off than 50 %
 // is broken or mis-set, not calibrated].
 inline constexpr Range kPumpCalibration{0.5, 1.5, "delivered per set amount"};
+
+// A stock solution as kept, from a cold store room to a warm fish room [our choice]; each
+// compound's solubility table may narrow it.
+inline constexpr Range kStockTemperatureC{0.0, 40.0, "C"};
+// One dose of a mix (the Mixes screen, `mix`): the effect it has on a volume of water.
+inline constexpr Range kMixDoseMl{0.01, 10000.0, "mL"};
 
 // ------------------------------------------------------------ targets a plan doses toward
 // Narrower than what can be measured: a target outside these is a typo or a mistake, not a
@@ -75,6 +85,19 @@ inline constexpr Range kMagnesiumTargetMgL{800.0, 2000.0, "mg/L"};
 // ------------------------------------------------------------ a plan
 inline constexpr Range kPlanHorizonDays{1.0, 365.0, "days"};
 inline constexpr Range kDosesPerDay{1.0, 288.0, ""};  // every 5 minutes at most
+// Consumption a plan doses against, per litre of the system per day: wide on purpose, far above
+// a heavily stocked stony-coral tank's (about 0.3-1 meq/L, 10-20 mg/L of calcium a day)
+// [common practice].
+inline constexpr Range kAlkalinityDemandMeqPerLDay{0.0, 5.0, "meq/L/day"};
+inline constexpr Range kCalciumDemandMgPerLDay{0.0, 100.0, "mg/L/day"};
+inline constexpr Range kMagnesiumDemandMgPerLDay{0.0, 100.0, "mg/L/day"};
+// Water evaporated (and topped off) per day, as a fraction of the system's volume [our choice:
+// a fifth of the tank a day is a leak, not evaporation].
+inline constexpr Range kEvaporationFractionPerDay{0.0, 0.2, "of the volume per day"};
+// How fast the water settles with the room air (e-folding time of the gas exchange model).
+inline constexpr Range kGasExchangeHours{0.0, 72.0, "h"};
+// How far the salinity may sit from its target before the plan flags it.
+inline constexpr Range kSalinityTolerance{0.01, 5.0, ""};
 
 // ------------------------------------------------------------ hatchery treatment of intake water
 // [our choice: the span of shellfish hatchery practice, and of the carbonate constants' fits]

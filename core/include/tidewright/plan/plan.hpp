@@ -85,6 +85,9 @@ struct LimitSpec {
 };
 const std::array<LimitSpec, kLimitCount>& limit_specs();
 const LimitSpec& limit_spec(LimitId id);
+// What held a dose back (DoseRecord::cap, a limit key or a pump setting, as the plan file
+// writes it) in words for a keeper: "the largest rise of alkalinity in any 24 hours".
+std::string cap_in_words(const std::string& capped_by);
 // Unknown keys are refused naming the nearest known key.
 Result<LimitId> limit_from_key(const std::string& key);
 
