@@ -1,6 +1,6 @@
 // The app's actions: the only code that changes AppState's saved parts. Each asks the core to
 // validate (tw::journal::add_system, add_event, ...), changes nothing when refused, saves the
-// store after a change and marks the Water results stale.
+// store after a change and bumps AppState::revision, so that results recompute.
 #include "actions.hpp"
 
 #include "tidewright/common/ranges.hpp"
@@ -44,7 +44,7 @@ void notify(AppState& app, const std::string& message, bool is_error) {
 namespace {
 
 void changed(AppState& app) {
-  app.water_stale = true;
+  ++app.revision;
   save(app);
 }
 
@@ -59,7 +59,7 @@ void adopt(AppState& app, StoredApp stored) {
     app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
   }
   app.water.what_if = false;
-  app.water_stale = true;
+  ++app.revision;
 }
 
 }  // namespace
@@ -106,7 +106,7 @@ void apply_store_update(AppState& app, const platform::StoreUpdate& update) {
     if (!changes) return;
     jn::apply_changes(app.journal, *changes);
     if (!current_system(app)) app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
-    app.water_stale = true;
+    ++app.revision;
   }
   app.store.saved_journal = app.journal;
 }
@@ -130,7 +130,7 @@ void start_app(AppState& app) {
                         (kept ? "A copy was kept as " + copy + " in " + platform::storage_location() +
                                     "; the app started empty. Import a backup in Settings."
                               : "Keeping a copy failed too (" + error + ").");
-    app.water_stale = true;
+    ++app.revision;
     return;
   }
   adopt(app, std::move(stored).value());
@@ -424,17 +424,17 @@ void set_water_inputs(AppState& app, const WaterInputs& inputs) {
   app.water = inputs;
   app.water.what_if = true;
   app.water.source = "What-if: your own numbers, not saved to the log.";
-  app.water_stale = true;
+  ++app.revision;
 }
 
 void set_water_precision(AppState& app, const WaterPrecision& precision) {
   app.water_precision = precision;
-  app.water_stale = true;
+  ++app.revision;
 }
 
 void use_latest_readings(AppState& app) {
   app.water.what_if = false;
-  app.water_stale = true;
+  ++app.revision;
 }
 
 // ---------------------------------------------------------------- demo, export, import

@@ -34,12 +34,12 @@ void refresh_demand(AppState& app) {
   const std::int64_t now_s = platform::now_unix_seconds();
   const std::int64_t hour = now_s / 3600;
   if (c.valid && c.system == app.current_system && c.now_hour == hour && c.forecast_days == view.forecast_days &&
-      c.journal == app.journal) {
+      c.revision == app.revision) {
     return;
   }
   DemandCache out;
   out.valid = true;
-  out.journal = app.journal;
+  out.revision = app.revision;
   out.system = app.current_system;
   out.now_hour = hour;
   out.forecast_days = view.forecast_days;
@@ -494,7 +494,7 @@ bool adopt_current_plan(AppState& app) {
     return false;
   }
   app.journal = std::move(next);
-  app.water_stale = true;
+  ++app.revision;
   notify(app, "Adopted: " + std::to_string(ids->size()) + " schedule" + (ids->size() == 1 ? "" : "s") +
                   " from tomorrow, shown on the Log screen");
   save(app);

@@ -82,6 +82,7 @@ struct SpeciesCurve {
 };
 
 struct WaterResult {
+  std::uint64_t revision = 0;              // key: AppState::revision it was computed at
   bool ok = false;
   std::string error;                       // why there is no result (core's message)
   tw::carbonate::CarbonateState state;     // at the inputs
@@ -211,7 +212,11 @@ struct AppState {
   WaterInputs water;
   WaterPrecision water_precision;
   WaterResult water_result;
-  bool water_stale = true;  // inputs or journal changed: recompute before the next draw
+  // Bumped by every action that changes the journal, the settings, the current system or the
+  // Water inputs. Every screen's cached result keeps the revision (and the form) it was computed
+  // from and is recomputed when its key differs: one pattern for all screens, and no cache holds
+  // a copy of the journal as its key.
+  std::uint64_t revision = 1;
   UiState ui;
   StoreStatus store;
 };

@@ -57,7 +57,7 @@ struct ParameterEstimate {
 struct DemandCache {
   bool valid = false;
   // key
-  tw::journal::Journal journal;
+  std::uint64_t revision = 0;  // AppState::revision
   tw::journal::SystemId system = 0;
   std::int64_t now_hour = 0;
   int forecast_days = 0;

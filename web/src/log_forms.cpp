@@ -10,6 +10,7 @@
 
 #include "actions.hpp"
 #include "actions_dosing.hpp"
+#include "fields.hpp"
 #include "format.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/journal/schedule.hpp"
@@ -48,8 +49,6 @@ const jn::Parameter kParamValues[] = {jn::Parameter::Alkalinity, jn::Parameter::
                                       jn::Parameter::PH, jn::Parameter::Salinity, jn::Parameter::SpecificGravity,
                                       jn::Parameter::Temperature, jn::Parameter::Nitrate, jn::Parameter::Phosphate};
 constexpr int kParamCount = static_cast<int>(sizeof kParams / sizeof kParams[0]);
-const char* const kScales[] = {"NBS", "Total", "Seawater", "Free"};
-const cb::PhScale kScaleValues[] = {cb::PhScale::NBS, cb::PhScale::Total, cb::PhScale::Seawater, cb::PhScale::Free};
 
 struct UnitChoice {
   const char* journal_unit;  // spelling the journal accepts (normalize_unit)
@@ -109,10 +108,8 @@ void draw_test(AppState& app, const jn::System& sys, LogForm& f) {
   }
   f.unit = units[static_cast<size_t>(unit)].journal_unit;
   if (f.parameter == jn::Parameter::PH) {
-    int scale = 0;
     if (f.value_text.empty() && f.editing == 0 && f.ph_scale != sys.units.ph_scale) f.ph_scale = sys.units.ph_scale;
-    for (int i = 0; i < 4; ++i) if (kScaleValues[i] == f.ph_scale) scale = i;
-    if (ui::choice(app, "log.ph_scale", "pH scale of the meter or kit", &scale, kScales, 4)) f.ph_scale = kScaleValues[scale];
+    fields::ph_scale(app, "log.ph_scale", "pH scale of the meter or kit", &f.ph_scale);
   }
   std::optional<double> value;
   if (!f.value_text.empty()) value = std::strtod(f.value_text.c_str(), nullptr);

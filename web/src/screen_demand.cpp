@@ -16,6 +16,7 @@
 #include "platform.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
+#include "tidewright/carbonate/uncertainty.hpp"
 #include "ui.hpp"
 
 namespace twapp {
@@ -213,20 +214,25 @@ void draw_summary(AppState& app, const ParameterEstimate& pe, const Shown& s) {
                               : "One usable test so far: log another a day or more later to see the consumption.");
   } else {
     ui::dim_text("Consumption now (95% range)");
+    // Digits the estimate supports: set by its own uncertainty, not by the unit.
+    const int dd = tw::carbonate::decimals_for_uncertainty(e.demand_sd * s.factor);
     ImGui::PushFont(app.ui.fonts.big);
-    ImGui::TextUnformatted(fmtx::fixed(e.demand_per_day * s.factor, s.decimals + 1).c_str());
+    ImGui::TextUnformatted(fmtx::fixed(e.demand_per_day * s.factor, dd).c_str());
     ImGui::PopFont();
     ImGui::SameLine(0, 0.4f * ui::em(app));
     ImGui::PushFont(app.ui.fonts.bold);
     ImGui::TextUnformatted((s.unit + " per day").c_str());
     ImGui::PopFont();
     ui::record(app, "demand.consumption");
-    const std::string range = fmtx::fixed(e.demand_low95 * s.factor, s.decimals + 1) + " to " +
-                              fmtx::fixed(e.demand_high95 * s.factor, s.decimals + 1) + " " + s.unit + " per day";
+    const std::string range = fmtx::fixed(e.demand_low95 * s.factor, dd) + " to " +
+                              fmtx::fixed(e.demand_high95 * s.factor, dd) + " " + s.unit + " per day";
     ui::wrapped(range.c_str());
   }
   if (e.tests > 0) {
-    ui::label_value(app, ("Level " + chart::day_label(e.time_days, platform::utc_offset_minutes()) + " (estimate)").c_str(), val(s, e.level) + " \u00b1 " + val(s, 1.96 * e.level_sd) + " " + s.unit);
+    const int ld = tw::carbonate::decimals_for_uncertainty(1.96 * e.level_sd * s.factor);
+    ui::label_value(app, ("Level " + chart::day_label(e.time_days, platform::utc_offset_minutes()) + " (estimate)").c_str(),
+                    fmtx::fixed(e.level * s.factor, ld) + " \u00b1 " + fmtx::fixed(1.96 * e.level_sd * s.factor, ld) + " " +
+                        s.unit);
     ui::label_value(app, "Tests used", std::to_string(e.tests_used) + " of " + std::to_string(e.tests));
     ui::label_value(app, "Flagged tests", std::to_string(e.outliers.size()),
                     e.outliers.empty() ? 0 : theme::kWarning);

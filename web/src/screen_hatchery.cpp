@@ -8,6 +8,7 @@
 
 #include "actions.hpp"
 #include "actions_dosing.hpp"
+#include "fields.hpp"
 #include "format.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
@@ -22,48 +23,18 @@ namespace hat = tw::hatchery;
 namespace cb = tw::carbonate;
 namespace jn = tw::journal;
 
-jn::UnitPreferences units_of(const AppState& app) {
-  const auto* sys = current_system(app);
-  return sys ? sys->units : app.settings.units;
-}
-
-const cb::PhScale kScales[] = {cb::PhScale::Total, cb::PhScale::NBS, cb::PhScale::Seawater, cb::PhScale::Free};
-
 // ---------------------------------------------------------------- 1. Form
-void temperature_field(AppState& app, const std::string& name, const char* label, double* celsius, double lo_c,
-                       double hi_c) {
-  const auto tu = units_of(app).temperature;
-  double t = fmtx::temperature_shown(*celsius, tu);
-  if (ui::number_field(app, name, {label, fmtx::temperature_unit_text(tu), 1, 0.5, fmtx::temperature_shown(lo_c, tu),
-                                   fmtx::temperature_shown(hi_c, tu)},
-                       &t)) {
-    *celsius = fmtx::temperature_from_shown(t, tu);
-  }
-}
-
 void draw_water_form(AppState& app, HatcheryForm& f) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   ui::card_begin(app);
   ui::heading(app, f.mode == HatcheryMode::FlowThrough ? "Intake water" : "Tank water");
   namespace rg = tw::ranges;
   ui::number_field(app, "hatchery.salinity",
                    {"Salinity", "psu", 1, 0.5, rg::kSalinityForCarbonateChemistry.lo, rg::kSalinityForCarbonateChemistry.hi},
                    &f.salinity);
-  temperature_field(app, "hatchery.temperature", "Temperature", &f.temperature_c, rg::kTemperatureC.lo, rg::kTemperatureC.hi);
-  const fmtx::UnitShown au = fmtx::alkalinity_shown(u.alkalinity);
-  double alk = fmtx::alkalinity_from_dkh(f.alkalinity_dkh, u.alkalinity);
-  if (ui::number_field(app, "hatchery.alkalinity",
-                       {"Alkalinity", au.unit, au.decimals, au.step, 0.0,
-                        fmtx::alkalinity_from_dkh(rg::kAlkalinityDkh.hi, u.alkalinity)},
-                       &alk)) {
-    f.alkalinity_dkh = fmtx::alkalinity_to_dkh(alk, u.alkalinity);
-  }
-  int scale = 0;
-  for (int i = 0; i < 4; ++i) if (kScales[i] == f.ph_scale) scale = i;
-  const char* const scales[] = {"Total", "NBS", "Seawater", "Free"};
-  if (ui::choice(app, "hatchery.ph_scale", "pH scale of your meter (used for every pH here)", &scale, scales, 4)) {
-    f.ph_scale = kScales[scale];
-  }
+  fields::temperature(app, "hatchery.temperature", "Temperature", &f.temperature_c, u.temperature);
+  fields::alkalinity(app, "hatchery.alkalinity", "Alkalinity", &f.alkalinity_dkh, u.alkalinity);
+  fields::ph_scale(app, "hatchery.ph_scale", "pH scale of your meter (used for every pH here)", &f.ph_scale);
   ui::number_field(app, "hatchery.ph", {"pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, rg::kPh.lo, rg::kPh.hi}, &f.ph);
   // Measured calcium (empty: the core scales it from salinity and says how far that can be off).
   ui::optional_number_field(app, "hatchery.calcium",
@@ -89,7 +60,7 @@ void draw_water_form(AppState& app, HatcheryForm& f) {
 }
 
 void draw_target_form(AppState& app, HatcheryForm& f) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   ui::card_begin(app);
   ui::heading(app, "Target and buffer");
   int kind = static_cast<int>(f.target_kind);
@@ -159,7 +130,8 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
     ui::optional_number_field(app, "hatchery.residence",
                               {"Time from injection to the tanks (optional)", "min", 0, 5, 0, 1440},
                               &f.residence_time_min);
-    temperature_field(app, "hatchery.stock_temperature", "Stock tank temperature", &f.stock_temperature_c, 0, 60);
+    fields::temperature(app, "hatchery.stock_temperature", "Stock tank temperature", &f.stock_temperature_c,
+                        fields::units(app).temperature, tw::ranges::kStockTemperatureC);
   } else {
     const auto vu = u.volume;
     double v = tw::units::volume_from_litres(f.volume_l, vu);
@@ -178,7 +150,7 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
 
 // ---------------------------------------------------------------- 2. Results
 void water_table(AppState& app, const hat::Treatment& t, bool batch) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   if (!ImGui::BeginTable("##through", 4, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) return;
   ImGui::TableSetupColumn("");
   ImGui::TableSetupColumn(batch ? "Before" : "Intake");

@@ -8,6 +8,7 @@
 #include "tidewright/common/ranges.hpp"
 #include "actions.hpp"
 #include "actions_dosing.hpp"
+#include "fields.hpp"
 #include "format.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
@@ -20,34 +21,29 @@ namespace {
 namespace add = tw::additives;
 namespace jn = tw::journal;
 
-jn::UnitPreferences units_of(const AppState& app) {
-  const auto* sys = current_system(app);
-  return sys ? sys->units : app.settings.units;
-}
-
 // A rise of `p` shown in the user's unit, and back (core: dKH, mg/L).
 double rise_shown(const AppState& app, int p, double core) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   if (p == 0) return fmtx::alkalinity_from_dkh(core, u.alkalinity);
   return ion_shown(core, u.calcium_magnesium, p == 1 ? tw::units::Ion::Calcium : tw::units::Ion::Magnesium);
 }
 double rise_core(const AppState& app, int p, double shown) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   if (p == 0) return fmtx::alkalinity_to_dkh(shown, u.alkalinity);
   return ion_from_shown(shown, u.calcium_magnesium, p == 1 ? tw::units::Ion::Calcium : tw::units::Ion::Magnesium);
 }
 std::string rise_unit(const AppState& app, int p) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   return p == 0 ? fmtx::alkalinity_shown(u.alkalinity).unit : tw::units::to_string(u.calcium_magnesium);
 }
 int rise_decimals(const AppState& app, int p) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   return p == 0 ? fmtx::alkalinity_shown(u.alkalinity).decimals + 1 : ion_decimals(u.calcium_magnesium) + 1;
 }
 
 // ---------------------------------------------------------------- 1. Form
 void draw_form(AppState& app, MixesForm& f) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   const auto& list = mix_compounds();
   ui::card_begin(app);
   std::vector<std::string> formulas;
@@ -59,14 +55,8 @@ void draw_form(AppState& app, MixesForm& f) {
   ImGui::PushFont(app.ui.fonts.bold);
   ui::wrapped(add::compound(list[static_cast<size_t>(f.compound)]).name.c_str());
   ImGui::PopFont();
-  const auto tu = u.temperature;
-  double t = fmtx::temperature_shown(f.temperature_c, tu);
-  if (ui::number_field(app, "mixes.temperature",
-                       {"Where the stock is kept", fmtx::temperature_unit_text(tu), 1, 1, fmtx::temperature_shown(0, tu),
-                        fmtx::temperature_shown(60, tu)},
-                       &t)) {
-    f.temperature_c = fmtx::temperature_from_shown(t, tu);
-  }
+  fields::temperature(app, "mixes.temperature", "Where the stock is kept", &f.temperature_c, u.temperature,
+                      tw::ranges::kStockTemperatureC);
   if (f.direction == MixDirection::RecipeToStrength) {
     ui::number_field(app, "mixes.grams", {"Grams per litre of finished solution", "g/L", 1, 5, 0.1, tw::ranges::kStockGPerL.hi},
                      &f.grams_per_l);
@@ -79,12 +69,15 @@ void draw_form(AppState& app, MixesForm& f) {
     const int dec = rise_decimals(app, f.parameter);
     double r = rise_shown(app, f.parameter, f.rise);
     const std::string unit = rise_unit(app, f.parameter);
-    if (ui::number_field(app, "mixes.rise", {"Raises by", unit.c_str(), dec, f.parameter == 0 ? 0.01 : 0.1, 0.001,
-                                             rise_shown(app, f.parameter, f.parameter == 0 ? 5.0 : 100.0)},
+    const tw::ranges::Range rise = tw::ranges::of_rise(static_cast<tw::Parameter>(std::clamp(f.parameter, 0, 2)));
+    if (ui::number_field(app, "mixes.rise", {"Raises by", unit.c_str(), dec, f.parameter == 0 ? 0.01 : 0.1,
+                                             rise_shown(app, f.parameter, rise.lo), rise_shown(app, f.parameter, rise.hi)},
                          &r)) {
       f.rise = rise_core(app, f.parameter, r);
     }
-    ui::number_field(app, "mixes.dose_ml", {"For a dose of", "mL", 1, 0.5, 0.1, 1000}, &f.dose_ml);
+    ui::number_field(app, "mixes.dose_ml", {"For a dose of", "mL", 1, 0.5, tw::ranges::kMixDoseMl.lo,
+                                                 tw::ranges::kMixDoseMl.hi},
+                     &f.dose_ml);
     double v = tw::units::volume_from_litres(f.tank_volume_l, u.volume);
     if (ui::number_field(app, "mixes.tank_volume",
                          {"In a water volume of", fmtx::volume_unit_text(u.volume), 0, 10,
@@ -98,7 +91,7 @@ void draw_form(AppState& app, MixesForm& f) {
 
 // ---------------------------------------------------------------- 2. Strength
 void draw_strength(AppState& app, const MixesForm& f, const MixesCache& c) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   const add::StockStrength& s = *c.strength;
   ui::card_begin(app);
   if (c.recipe) {
@@ -173,7 +166,7 @@ void draw_strength(AppState& app, const MixesForm& f, const MixesCache& c) {
 
 // ---------------------------------------------------------------- 3. Solubility
 void draw_solubility(AppState& app, const MixesCache& c) {
-  const auto u = units_of(app);
+  const auto u = fields::units(app);
   const auto& list = mix_compounds();
   const add::Compound& k = add::compound(list[static_cast<size_t>(std::clamp(c.key.compound, 0, static_cast<int>(list.size()) - 1))]);
   if (c.solubility) {

@@ -26,27 +26,32 @@ namespace pl = tw::plan;
 
 // ---------------------------------------------------------------- 1. Form
 void draw_form(AppState& app, PlanForm& f) {
+  namespace rg = tw::ranges;
+  const tw::journal::System* sys = tw::journal::find_system(app.journal, app.current_system);
+  const double volume_l = sys ? sys->volume_l : 100.0;  // the bounds only; no system, no plan
   ui::card_begin(app);
   int alk = static_cast<int>(f.alkalinity);
   const char* const alks[] = {"Na\u2082CO\u2083 stock", "NaHCO\u2083 stock", "Limewater", "None"};
   if (ui::choice(app, "plan.alkalinity", "Alkalinity from", &alk, alks, 4)) f.alkalinity = static_cast<PlanAlkalinity>(alk);
   if (f.alkalinity == PlanAlkalinity::SodiumCarbonate || f.alkalinity == PlanAlkalinity::SodiumBicarbonate) {
-    ui::number_field(app, "plan.alk_strength", {"Stock strength", "g/L", 0, 5, 1, 400}, &f.alkalinity_g_per_l);
+    ui::number_field(app, "plan.alk_strength", {"Stock strength", "g/L", 0, 5, 1, rg::kStockGPerL.hi}, &f.alkalinity_g_per_l);
   } else if (f.alkalinity == PlanAlkalinity::Limewater) {
-    ui::number_field(app, "plan.evaporation", {"Evaporation (top-off per day)", "L/day", 1, 0.5, 0, 1000},
+    ui::number_field(app, "plan.evaporation", {"Evaporation (top-off per day)", "L/day", 1, 0.5,
+                                               rg::kEvaporationFractionPerDay.lo * volume_l,
+                                               rg::kEvaporationFractionPerDay.hi * volume_l},
                      &f.evaporation_l_per_day);
   }
   int ca = static_cast<int>(f.calcium);
   const char* const cas[] = {"CaCl\u2082\u00b72H\u2082O stock", "None"};
   if (ui::choice(app, "plan.calcium", "Calcium from", &ca, cas, 2)) f.calcium = static_cast<PlanCalcium>(ca);
   if (f.calcium == PlanCalcium::CalciumChloride) {
-    ui::number_field(app, "plan.ca_strength", {"Stock strength", "g/L", 0, 10, 1, 800}, &f.calcium_g_per_l);
+    ui::number_field(app, "plan.ca_strength", {"Stock strength", "g/L", 0, 10, 1, rg::kStockGPerL.hi}, &f.calcium_g_per_l);
   }
   double n = f.doses_per_day;
-  if (ui::number_field(app, "plan.doses_per_day", {"Doses per day per pump", "", 0, 1, tw::ranges::kDosesPerDay.lo, tw::ranges::kDosesPerDay.hi}, &n)) f.doses_per_day = static_cast<int>(n);
-  ui::number_field(app, "plan.max_dose", {"Largest single dose", "mL", 0, 5, 1, 1000}, &f.max_dose_ml);
+  if (ui::number_field(app, "plan.doses_per_day", {"Doses per day per pump", "", 0, 1, rg::kDosesPerDay.lo, rg::kDosesPerDay.hi}, &n)) f.doses_per_day = static_cast<int>(n);
+  ui::number_field(app, "plan.max_dose", {"Largest single dose", "mL", 0, 5, 1, rg::kPlannedDoseMax.hi}, &f.max_dose_ml);
   double h = f.horizon_days;
-  if (ui::number_field(app, "plan.horizon", {"Days to plan", "days", 0, 1, tw::ranges::kPlanHorizonDays.lo, tw::ranges::kPlanHorizonDays.hi}, &h)) f.horizon_days = static_cast<int>(h);
+  if (ui::number_field(app, "plan.horizon", {"Days to plan", "days", 0, 1, rg::kPlanHorizonDays.lo, rg::kPlanHorizonDays.hi}, &h)) f.horizon_days = static_cast<int>(h);
   int src = f.use_estimate ? 0 : 1;
   const char* const srcs[] = {"From the log", "Typed here"};
   if (ui::choice(app, "plan.demand_source", "Consumption", &src, srcs, 2)) f.use_estimate = src == 0;
@@ -55,8 +60,13 @@ void draw_form(AppState& app, PlanForm& f) {
     if (ui::button(app, "plan.refuse_stale", "Plan only from recent tests", 0, ui::Tone::Quiet)) f.accept_stale = false;
   }
   if (!f.use_estimate) {
-    ui::number_field(app, "plan.alk_demand", {"Alkalinity consumption", "dKH/day", 2, 0.1, 0, 5}, &f.alkalinity_demand_dkh_per_day);
-    ui::number_field(app, "plan.ca_demand", {"Calcium consumption", "mg/L/day", 1, 1, 0, 50}, &f.calcium_demand_mg_l_per_day);
+    ui::number_field(app, "plan.alk_demand", {"Alkalinity consumption", "dKH/day", 2, 0.1,
+                                                rg::kAlkalinityDemandMeqPerLDay.lo / tw::units::kMeqPerLPerDKH,
+                                                rg::kAlkalinityDemandMeqPerLDay.hi / tw::units::kMeqPerLPerDKH},
+                     &f.alkalinity_demand_dkh_per_day);
+    ui::number_field(app, "plan.ca_demand", {"Calcium consumption", "mg/L/day", 1, 1, rg::kCalciumDemandMgPerLDay.lo,
+                                                rg::kCalciumDemandMgPerLDay.hi},
+                     &f.calcium_demand_mg_l_per_day);
   }
   ui::card_end(app);
 }
@@ -153,6 +163,10 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   const pl::Plan& plan = *c.plan;
   const auto& del = c.input->deliveries;
   const int cols = 3 + static_cast<int>(del.size());
+  // The columns are named by pump; say what each pump doses.
+  std::string legend;
+  for (const auto& d : del) legend += (legend.empty() ? "" : "; ") + d.device + ": " + d.additive.name;
+  ui::dim_text(legend.c_str());
   if (ImGui::BeginTable("##days", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
     ImGui::TableSetupColumn("Day");
     for (const auto& d : del) ImGui::TableSetupColumn((d.device + ", " + tw::additives::to_string(d.additive.unit)).c_str());
@@ -190,11 +204,11 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
     const pl::Delivery& dv = del[d.delivery];
     char hm[24];
     std::snprintf(hm, sizeof hm, "%02d:%02d", d.minute / 60, d.minute % 60);
-    ui::label_value(app, (std::string(hm) + "  " + dv.device).c_str(),
+    ui::label_value(app, (std::string(hm) + "  " + dv.device + " (" + dv.additive.name + ")").c_str(),
                     fmtx::fixed(d.amount, 1) + " " + tw::additives::to_string(dv.additive.unit));
     ui::dim_text(("after: " + fmtx::fixed(d.after.alkalinity_dkh, 2) + " dKH, " + fmtx::fixed(d.after.calcium_mg_l, 0) +
                   " mg/L Ca, pH " + fmtx::fixed(d.after.ph_total, 2) + " total, \u03a9 arag. " +
-                  fmtx::fixed(d.after.omega_aragonite, 2) + (d.cap.empty() ? "" : "; held back by " + d.cap))
+                  fmtx::fixed(d.after.omega_aragonite, 2) + (d.cap.empty() ? "" : "; held back by " + pl::cap_in_words(d.cap)))
                      .c_str());
     if (++count >= 24) break;
   }

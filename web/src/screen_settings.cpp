@@ -7,6 +7,7 @@
 
 #include "tidewright/common/ranges.hpp"
 #include "actions.hpp"
+#include "fields.hpp"
 #include "format.hpp"
 #include "platform.hpp"
 #include "screens.hpp"
@@ -25,8 +26,6 @@ const char* const kAlkUnits[] = {"dKH", "meq/L", "mg/L CaCO\u2083"};
 const au::AlkalinityUnit kAlkValues[] = {au::AlkalinityUnit::DKH, au::AlkalinityUnit::MeqPerL, au::AlkalinityUnit::MgPerLCaCO3};
 const char* const kVolumeUnits[] = {"Litres", "US gallons"};
 const char* const kTempUnits[] = {"\u00b0C", "\u00b0F"};
-const char* const kScales[] = {"NBS", "Total", "Seawater", "Free"};
-const cb::PhScale kScaleValues[] = {cb::PhScale::NBS, cb::PhScale::Total, cb::PhScale::Seawater, cb::PhScale::Free};
 const char* const kConventions[] = {"CO2SYS / PyCO2SYS", "2007 Guide"};
 const char* const kTextSizes[] = {"Small", "Normal", "Large", "Huge"};
 const float kTextSizeValues[] = {0.85f, 1.0f, 1.2f, 1.45f};
@@ -123,11 +122,7 @@ void draw_settings(AppState& app) {
     u.temperature = temp ? jn::TemperatureUnit::Fahrenheit : jn::TemperatureUnit::Celsius;
     units_changed = true;
   }
-  int scale = index_of(kScaleValues, u.ph_scale);
-  if (ui::choice(app, "settings.ph_scale", "pH scale of your meter or kit", &scale, kScales, 4)) {
-    u.ph_scale = kScaleValues[scale];
-    units_changed = true;
-  }
+  units_changed |= fields::ph_scale(app, "settings.ph_scale", "pH scale of your meter or kit", &u.ph_scale);
   ui::dim_text("Hobby pH meters calibrated with NBS buffers (pH 7 and 10) read on the NBS scale. Laboratories and hatcheries measuring with dye or TRIS buffers in seawater usually report the total scale.");
   if (units_changed) set_units(app, u);
 

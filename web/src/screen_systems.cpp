@@ -2,6 +2,7 @@
 #include <string>
 
 #include "actions.hpp"
+#include "fields.hpp"
 #include "format.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
@@ -39,14 +40,7 @@ void draw_editor(AppState& app) {
   }
   ui::number_field(app, "system.salinity", {"Usual salinity", "psu", 1, 0.5, tw::ranges::kSalinity.lo, tw::ranges::kSalinity.hi},
                    &s.default_salinity);
-  double t = fmtx::temperature_shown(s.default_temperature_c, u.temperature);
-  if (ui::number_field(app, "system.temperature",
-                       {"Usual temperature", fmtx::temperature_unit_text(u.temperature), 1, 0.5,
-                        fmtx::temperature_shown(tw::ranges::kTemperatureC.lo, u.temperature),
-                        fmtx::temperature_shown(tw::ranges::kTemperatureC.hi, u.temperature)},
-                       &t)) {
-    s.default_temperature_c = fmtx::temperature_from_shown(t, u.temperature);
-  }
+  fields::temperature(app, "system.temperature", "Usual temperature", &s.default_temperature_c, u.temperature);
   const fmtx::UnitShown au = fmtx::alkalinity_shown(u.alkalinity);
   std::optional<double> target;
   if (s.targets.alkalinity_dkh) target = fmtx::alkalinity_from_dkh(*s.targets.alkalinity_dkh, u.alkalinity);

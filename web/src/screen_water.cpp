@@ -3,6 +3,7 @@
 #include <string>
 
 #include "actions.hpp"
+#include "fields.hpp"
 #include "format.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
@@ -16,8 +17,6 @@ namespace jn = tw::journal;
 namespace cb = tw::carbonate;
 
 const char* const kPairs[] = {"Alk + pH", "Alk + pCO\u2082", "Alk + DIC", "Alk + room air"};
-const char* const kScales[] = {"NBS", "Total", "Seawater", "Free"};
-const cb::PhScale kScaleValues[] = {cb::PhScale::NBS, cb::PhScale::Total, cb::PhScale::Seawater, cb::PhScale::Free};
 
 // A plain reading of aragonite saturation for reef and shellfish keepers [common practice:
 // rough bands, no single source; below 1 aragonite dissolves by definition of Omega].
@@ -57,25 +56,11 @@ void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
     w.pair = static_cast<WaterPair>(pair);
     changed = true;
   }
-  const fmtx::UnitShown au = fmtx::alkalinity_shown(u.alkalinity);
-  double alk = fmtx::alkalinity_from_dkh(w.alkalinity_dkh, u.alkalinity);
-  if (ui::number_field(app, "water.alkalinity",
-                       {"Alkalinity", au.unit, au.decimals, au.step,
-                        fmtx::alkalinity_from_dkh(tw::ranges::kAlkalinityDkh.lo, u.alkalinity),
-                        fmtx::alkalinity_from_dkh(tw::ranges::kAlkalinityDkh.hi, u.alkalinity)},
-                       &alk)) {
-    w.alkalinity_dkh = fmtx::alkalinity_to_dkh(alk, u.alkalinity);
-    changed = true;
-  }
+  changed |= fields::alkalinity(app, "water.alkalinity", "Alkalinity", &w.alkalinity_dkh, u.alkalinity);
   if (w.pair == WaterPair::AlkalinityPH) {
-    int scale = 0;
-    for (int i = 0; i < 4; ++i) if (kScaleValues[i] == w.ph_scale) scale = i;
     const std::string label = std::string("pH (") + fmtx::ph_scale_label(w.ph_scale) + " scale)";
     changed |= ui::number_field(app, "water.ph", {label.c_str(), "", 2, 0.01, tw::ranges::kPh.lo, tw::ranges::kPh.hi}, &w.ph);
-    if (ui::choice(app, "water.ph_scale", "pH scale of that reading", &scale, kScales, 4)) {
-      w.ph_scale = kScaleValues[scale];
-      changed = true;
-    }
+    changed |= fields::ph_scale(app, "water.ph_scale", "pH scale of that reading", &w.ph_scale);
   } else if (w.pair == WaterPair::AlkalinityPCO2) {
     changed |= ui::number_field(app, "water.pco2", {"pCO\u2082 of the water", "\u03bcatm", 0, 20, 10, 20000}, &w.pco2_uatm);
   } else if (w.pair == WaterPair::AlkalinityDIC) {
@@ -94,15 +79,7 @@ void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
     changed = true;
   }
   changed |= ui::number_field(app, "water.salinity", {"Salinity", "psu", 1, 0.5, tw::ranges::kSalinity.lo, tw::ranges::kSalinity.hi}, &w.salinity);
-  double t = fmtx::temperature_shown(w.temperature_c, u.temperature);
-  if (ui::number_field(app, "water.temperature",
-                       {"Temperature", fmtx::temperature_unit_text(u.temperature), 1, 0.5,
-                        fmtx::temperature_shown(tw::ranges::kTemperatureC.lo, u.temperature),
-                        fmtx::temperature_shown(tw::ranges::kTemperatureC.hi, u.temperature)},
-                       &t)) {
-    w.temperature_c = fmtx::temperature_from_shown(t, u.temperature);
-    changed = true;
-  }
+  changed |= fields::temperature(app, "water.temperature", "Temperature", &w.temperature_c, u.temperature);
   if (changed) set_water_inputs(app, w);
 }
 
@@ -211,7 +188,7 @@ void draw_results(AppState& app, const jn::UnitPreferences& u) {
   const cb::PhScale meter = u.ph_scale;
   ui::label_value(app, (std::string("pH, ") + fmtx::ph_scale_label(meter) + " scale (your meter)").c_str(),
                   shown(fmtx::ph_on_scale(s, meter), ph_u(meter), 2, ""), theme::kAccent);
-  for (cb::PhScale sc : kScaleValues) {
+  for (cb::PhScale sc : fields::kPhScales) {
     if (sc == meter) continue;
     ui::label_value(app, (std::string("pH, ") + fmtx::ph_scale_label(sc) + " scale").c_str(),
                     shown(fmtx::ph_on_scale(s, sc), ph_u(sc), 2, ""));

@@ -140,11 +140,11 @@ void add_uncertainty(const AppState& app, const cb::Conditions& cond, double alk
 }  // namespace
 
 void refresh_water(AppState& app) {
-  if (!app.water_stale) return;
-  app.water_stale = false;
+  if (app.water_result.revision == app.revision) return;
   if (!app.water.what_if) fill_from_journal(app);
   const WaterInputs& w = app.water;
   WaterResult out;
+  out.revision = app.revision;
   out.computed_count = app.water_result.computed_count + 1;
   cb::Conditions cond;
   cond.salinity = w.salinity;

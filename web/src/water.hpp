@@ -19,7 +19,7 @@ struct LatestReadings {
 LatestReadings latest_readings(const AppState& app);
 
 // Fills app.water from the latest readings (if not a what-if) and recomputes app.water_result
-// when app.water_stale is set. Cheap to call every frame: does nothing unless stale.
+// when app.revision moved since the last result. Cheap to call every frame.
 void refresh_water(AppState& app);
 
 }  // namespace twapp
