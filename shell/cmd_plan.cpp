@@ -11,6 +11,7 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "time_zone.hpp"
 #include "file_io.hpp"
 #include "journal_access.hpp"
 #include "tidewright/journal/journal_file.hpp"
@@ -33,7 +34,7 @@ struct PlanOptions {
   std::string journal, system;  // --journal FILE --system NAME|ID
   bool accept_stale = false;     // --accept-stale: plan from levels the journal cannot vouch for today
   bool adopt = false;            // --adopt: the plan becomes the system's standing schedules
-  int utc_offset_min = 0;        // for --adopt: the keeper's time zone, minutes east of UTC
+  std::string utc_offset, time_zone;  // for --adopt: the keeper's zone (time_zone.hpp)
 };
 
 
@@ -71,8 +72,6 @@ std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in
 // earlier schedules stop where the plan starts), saved atomically like `tidewright log`.
 void adopt(const PlanOptions& o, const plan::PlanInput& in, const plan::Plan& p) {
   if (o.journal.empty() || o.system.empty()) throw CommandError("--adopt: needs --journal FILE and --system NAME or ID");
-  if (o.utc_offset_min < -14 * 60 || o.utc_offset_min > 14 * 60)
-    throw CommandError(fmt::format("--utc-offset {} is outside the accepted range -840 to 840 minutes", o.utc_offset_min));
   auto st = open_journal_or_fail(o.journal, store::Access::Write);
   const journal::System sys = system_or_fail(*st, o.system);
   auto before = st->system_journal(sys.id);
@@ -80,7 +79,7 @@ void adopt(const PlanOptions& o, const plan::PlanInput& in, const plan::Plan& p)
   auto day1 = datetime::parse_datetime(in.start_date + "T00:00:00Z");
   if (!day1) throw CommandError("start_date: " + day1.error().message);
   journal::Journal after = *before;
-  auto ids = plan::adopt_plan(after, sys.id, in, p, *day1 - 60LL * o.utc_offset_min);
+  auto ids = plan::adopt_plan(after, sys.id, in, p, *day1 - 60LL * offset_minutes_at(*day1, o.utc_offset, o.time_zone));
   if (!ids) throw CommandError(fmt::format("--adopt: {}", ids.error().message));
   // Checked whole by the core above; now the stopped schedules, the removed ones (later runs of
   // an earlier plan, not begun), then the new ones.
@@ -197,7 +196,8 @@ void register_plan(CLI::App& app) {
                 "with --journal: plan from a level whose last test is too old, or with unlogged dosing since (flagged)");
   sub->add_flag("--adopt", opts->adopt,
                 "make the plan the system's standing dose schedules in --journal (its pumps' earlier schedules stop)");
-  sub->add_option("--utc-offset", opts->utc_offset_min, "with --adopt: minutes east of UTC of the plan's days (default 0)");
+  sub->add_option("--utc-offset", opts->utc_offset, std::string("with --adopt: the plan's days start at local midnight; ") + kUtcOffsetHelp);
+  sub->add_option("--time-zone", opts->time_zone, std::string("with --adopt: ") + kTimeZoneHelp);
   sub->callback([opts] { run(*opts); });
 }
 
