@@ -19,6 +19,7 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
+#include "path_options.hpp"
 #include "file_io.hpp"
 #include "journal_access.hpp"
 #include "log_common.hpp"
@@ -607,7 +608,7 @@ void register_log(CLI::App& app) {
   };
   CLI::App* exp = log->add_subcommand("export", "Export events as CSV, or the whole journal as JSON");
   exp->add_option("--format", o->format, "csv or json")->default_str("csv");
-  exp->add_option("--output,-o", o->output, "File to write (- for standard output)")->default_str("-");
+  exp->add_option("--output,-o", o->output, "File to write (- for standard output)")->default_str("-")->check(non_empty_path());
   add_filters(exp);
   exp->callback([o] { run_export(*o); });
 

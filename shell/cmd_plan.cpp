@@ -11,6 +11,8 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "path_options.hpp"
+#include "option_rules.hpp"
 #include "time_zone.hpp"
 #include "file_io.hpp"
 #include "journal_access.hpp"
@@ -142,7 +144,7 @@ void run(const PlanOptions& o) {
     text = plan::plan_to_csv(*in, *plan);
   } else if (o.ics) {
     auto ics = plan::plan_to_icalendar(*in, *plan, o.dtstamp.empty() ? now_dtstamp() : o.dtstamp);
-    if (!ics) throw CommandError(ics.error().message);
+    if (!ics) fail(ics.error(), {{"dtstamp_utc", "--dtstamp"}});
     text = *ics;
   } else {
     text = plan::plan_to_text(*in, *plan);
@@ -191,7 +193,7 @@ void register_plan(CLI::App& app) {
   sub->add_option("--dtstamp", opts->dtstamp, "DTSTAMP for --ics as YYYYMMDDTHHMMSSZ (default: now)");
   sub->add_option("--journal", opts->journal, "take the system's state and demand from this journal (database, or JSON journal)");
   sub->add_option("--system", opts->system, "the journal's system, by name or id (with --journal)");
-  sub->add_option("--out", opts->out, "write to this file instead of stdout");
+  sub->add_option("--out", opts->out, "write to this file instead of stdout")->check(non_empty_path());
   sub->add_flag("--accept-stale", opts->accept_stale,
                 "with --journal: plan from a level whose last test is too old, or with unlogged dosing since (flagged)");
   sub->add_flag("--adopt", opts->adopt,

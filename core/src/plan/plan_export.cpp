@@ -1,6 +1,7 @@
 // Plan exports as text: CSV (RFC 4180, via csv.hpp), plain text for print, and iCalendar
 // (RFC 5545: CRLF line ends, lines folded at 75 octets, UID and DTSTAMP on every event, a
 // VALARM reminder on every manual dose). The core returns text; the shell writes files.
+#include <algorithm>
 #include <cstdint>
 
 #include <fmt/format.h>
@@ -126,8 +127,20 @@ std::string plan_to_text(const PlanInput& in, const Plan& plan) {
 }
 
 Result<std::string> plan_to_icalendar(const PlanInput& in, const Plan& plan, const std::string& dtstamp_utc) {
-  if (dtstamp_utc.size() != 16 || dtstamp_utc[8] != 'T' || dtstamp_utc[15] != 'Z') {
-    return Error{"dtstamp_utc", "dtstamp_utc must look like 20261201T120000Z (UTC date-time)"};
+  // The shape, then a real date and time of day (month 1 to 12, day in its month, 00:00:00 to
+  // 23:59:59) by the one date rule of datetime.hpp.
+  const bool digits = dtstamp_utc.size() == 16 &&
+                      std::all_of(dtstamp_utc.begin(), dtstamp_utc.begin() + 8, ::isdigit) &&
+                      std::all_of(dtstamp_utc.begin() + 9, dtstamp_utc.begin() + 15, ::isdigit);
+  if (!digits || dtstamp_utc[8] != 'T' || dtstamp_utc[15] != 'Z') {
+    return Error{"dtstamp_utc", "dtstamp_utc '" + dtstamp_utc + "' must look like 20261201T120000Z (UTC date-time)"};
+  }
+  const std::string iso = dtstamp_utc.substr(0, 4) + "-" + dtstamp_utc.substr(4, 2) + "-" + dtstamp_utc.substr(6, 2) +
+                          "T" + dtstamp_utc.substr(9, 2) + ":" + dtstamp_utc.substr(11, 2) + ":" +
+                          dtstamp_utc.substr(13, 2) + "Z";
+  if (!datetime::parse_datetime(iso) || dtstamp_utc.substr(9, 2) == "24") {
+    return Error{"dtstamp_utc", "dtstamp_utc '" + dtstamp_utc + "' is not a real UTC date-time; accepted: month 01 to "
+                                    "12, a day of that month, time 000000 to 235959"};
   }
   auto start = datetime::parse_datetime(in.start_date + "T00:00:00Z");
   if (!start) return Error{"start_date", "start_date must be a date YYYY-MM-DD (" + start.error().message + ")"};
