@@ -31,6 +31,7 @@ struct PlanOptions {
   std::string input;
   std::string out;
   bool json = false, csv = false, ics = false, text = false;
+  bool ics_all_doses = false;  // --ics-all-doses: pumps' doses in the calendar too
   int horizon_days = 0;
   std::string dtstamp;
   std::string journal, system;  // --journal FILE --system NAME|ID
@@ -143,7 +144,8 @@ void run(const PlanOptions& o) {
   } else if (o.csv) {
     text = plan::plan_to_csv(*in, *plan);
   } else if (o.ics) {
-    auto ics = plan::plan_to_icalendar(*in, *plan, o.dtstamp.empty() ? now_dtstamp() : o.dtstamp);
+    auto ics = plan::plan_to_icalendar(*in, *plan, o.dtstamp.empty() ? now_dtstamp() : o.dtstamp,
+                                       o.ics_all_doses ? plan::IcsDoses::All : plan::IcsDoses::HandOnly);
     if (!ics) fail(ics.error(), {{"dtstamp_utc", "--dtstamp"}});
     text = *ics;
   } else {
@@ -187,7 +189,8 @@ void register_plan(CLI::App& app) {
   auto* fmt_group = sub->add_option_group("format");
   fmt_group->add_flag("--json", opts->json, "the whole plan as JSON");
   fmt_group->add_flag("--csv", opts->csv, "one row per dose (RFC 4180)");
-  fmt_group->add_flag("--ics", opts->ics, "iCalendar (RFC 5545), reminders for hand doses");
+  fmt_group->add_flag("--ics", opts->ics, "iCalendar (RFC 5545): the doses given by hand, each with a reminder");
+  sub->add_flag("--ics-all-doses", opts->ics_all_doses, "with --ics: every dose, the pumps' too (pumps get no reminder)");
   fmt_group->add_flag("--text", opts->text, "plain text for print");
   fmt_group->require_option(0, 1);
   sub->add_option("--dtstamp", opts->dtstamp, "DTSTAMP for --ics as YYYYMMDDTHHMMSSZ (default: now)");
