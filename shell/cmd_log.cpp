@@ -298,7 +298,8 @@ void print_import_report(const LogOptions& o, const Store::ImportReport& rep, co
   if (!rep.unused_columns.empty()) {
     std::string names_list;
     for (const auto& u : rep.unused_columns) names_list += (names_list.empty() ? "'" : ", '") + u.name + "'";
-    std::cout << fmt::format("columns not imported: {}\n", names_list);
+    std::cout << fmt::format("columns not imported: {} (reasons on stderr; read one your way with --map "
+                             "'HEADER=MEANING', or leave it out with --map 'HEADER=skip')\n", names_list);
     for (const auto& u : rep.unused_columns) std::cerr << fmt::format("{}: not imported: {}\n", o.file, u.reason);
   }
   if (o.date_order.empty() && *date_order_name(rep.date_order)) {

@@ -133,6 +133,18 @@ check("--delimiter comma on a semicolon file: no time column, says comma", rc ==
 rc, out, err = run("log", "--journal", j, "import", "--delimiter", "pipe", fixture("semicolon_decimal_comma.csv"))
 check("--delimiter pipe refused with the choices", rc != 0 and "--delimiter" in err and "semicolon" in err, err)
 
+# Times without a zone in a file: the machine's zone (Berlin in November: UTC+1), or --time-zone.
+j = fresh()
+rc, out, err = run("log", "--journal", j, "import", fixture("bom_crlf_units.csv"), env={"TZ": "Europe/Berlin"})
+check("import: bare times read in the machine's zone", rc == 0 and tests_of(j)[0][0] == "2026-11-01T08:00:00Z", tests_of(j))
+j = fresh()
+rc, out, err = run("log", "--journal", j, "import", "--time-zone", "Asia/Kolkata", fixture("bom_crlf_units.csv"))
+check("import: --time-zone Asia/Kolkata (UTC+5:30)", rc == 0 and tests_of(j)[0][0] == "2026-11-01T03:30:00Z", tests_of(j))
+rc, out, err = run("log", "--journal", j, "import", "--utc-offset", "99999", fixture("bom_crlf_units.csv"))
+check("import: --utc-offset 99999 refused, nothing added", rc == 1 and "--utc-offset" in err and len(tests_of(j)) == 8, err)
+rc, out, err = run("log", "import", "--help")
+check("import help says which zone a bare time is read in", "machine's time zone" in out, out)
+
 # Time: the machine's zone by default, --time-zone NAME, --utc-offset validated.
 j = fresh()
 add = ["log", "--journal", j, "--json", "add", "test", "--parameter", "alkalinity", "--value", "8"]
