@@ -12,7 +12,7 @@ SUDO=""
 if [ "$(id -u)" != 0 ]; then SUDO="sudo"; fi
 
 native_pkgs=(cmake ninja-build g++ clang libclang-rt-14-dev doctest-dev nlohmann-json3-dev
-  libcli11-dev libfmt-dev libsqlite3-dev python3-gsw python3-icalendar)
+  libcli11-dev libfmt-dev libsqlite3-dev python3-gsw python3-icalendar tzdata)  # tzdata: /usr/share/zoneinfo for --time-zone
 web_pkgs=(emscripten libglfw3-dev fonts-dejavu-core chromium xvfb xauth dpkg-dev)
 
 want=("${native_pkgs[@]}")

@@ -12,6 +12,7 @@
 
 #include "chem_uncertainty.hpp"
 #include "commands.hpp"
+#include "path_options.hpp"
 #include "option_rules.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "batch_stream.hpp"
@@ -286,7 +287,7 @@ void register_chem(CLI::App& app) {
   add_precision_options(*cmd, o->precision);
   cmd->add_flag("--json", o->json, "Print JSON instead of text");
   cmd->add_option("--batch", o->batch, "CSV file of samples (- for stdin); see the README for its columns");
-  cmd->add_option("--out", o->out, "Write the result (text, JSON or the --batch CSV) here instead of stdout");
+  cmd->add_option("--out", o->out, "Write the result (text, JSON or the --batch CSV) here instead of stdout")->check(non_empty_path());
   cmd->callback([o] {
     if (!o->batch.empty()) {
       run_batch(*o);

@@ -19,10 +19,12 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
+#include "path_options.hpp"
 #include "file_io.hpp"
 #include "journal_access.hpp"
 #include "log_common.hpp"
 #include "log_format.hpp"
+#include "time_zone.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/journal/journal.hpp"
@@ -39,8 +41,7 @@ struct LogOptions {
   std::string journal = "tidewright-journal.db";
   bool json = false;
   // shared by add subcommands
-  std::string system, time, date_order;
-  int utc_offset_min = 0;
+  std::string system, time, date_order, utc_offset, time_zone;
   // test
   std::string parameter, unit, ph_scale, kit, other_name;
   std::optional<double> value, precision;
@@ -59,6 +60,10 @@ struct LogOptions {
       target_mg;
   // import / export / list / remove
   std::string file, format = "csv", output = "-", from, to;
+  // import
+  std::string delimiter;
+  std::vector<std::string> mappings;
+  bool dry_run = false;
   std::int64_t id = 0;
   std::int64_t last = 0;
 };
@@ -88,10 +93,7 @@ Journal systems_only(const Store& st) {
 }
 
 datetime::ParseOptions time_options(const LogOptions& o) {
-  datetime::ParseOptions p;
-  p.order = or_fail(datetime::date_order_from_string(o.date_order));
-  p.utc_offset_minutes = o.utc_offset_min;
-  return p;
+  return time_parse_options(o.date_order, o.utc_offset, o.time_zone);
 }
 
 // The event time: --time parsed, or now (the shell reads the clock; the core never does).
@@ -191,6 +193,9 @@ void run_add_dose(const LogOptions& o) {
   const System sys = system_or_fail(*st, o.system);
   if (!o.amount) throw CommandError("--amount is needed");
   Dose d{o.additive, *o.amount, or_fail(dose_unit_from_string(o.amount_unit)), o.stock_g_per_l};
+  auto [time_s, text] = event_time(o);
+  // Stored (or refused, with its one-line error) first; the compound's cautions follow.
+  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, d});
   auto compound = additives::find_compound(o.additive);
   if (!compound) {
     std::fprintf(stderr, "note: additive '%s' is not in the compound catalog; it is logged as "
@@ -198,8 +203,6 @@ void run_add_dose(const LogOptions& o) {
   } else {
     print_cautions(additives::cautions_for(additives::additive_from_compound((*compound)->id)));
   }
-  auto [time_s, text] = event_time(o);
-  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, d});
 }
 
 void run_add_water_change(const LogOptions& o) {
@@ -218,12 +221,12 @@ void run_add_top_off(const LogOptions& o) {
   if (!o.volume) throw CommandError("--volume is needed");
   TopOff t{to_litres(*o.volume, o.volume_unit, sys.units.volume),
            or_fail(top_off_kind_from_string(o.top_off_kind)), o.limewater_g_per_l};
+  auto [time_s, text] = event_time(o);
+  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, t});
   if (t.kind == TopOffKind::Limewater) {
     auto lw = additives::limewater_additive(sys.default_temperature_c);
     if (lw) print_cautions(additives::cautions_for(*lw));
   }
-  auto [time_s, text] = event_time(o);
-  add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, t});
 }
 
 void run_add_note(const LogOptions& o) {
@@ -255,46 +258,101 @@ bool looks_like_json(const std::string& path) {
   return c == '{';
 }
 
-void print_import_report(const LogOptions& o, const Store::ImportReport& rep) {
+const char* delimiter_name(char c) { return c == ';' ? "semicolon" : c == '\t' ? "tab" : "comma"; }
+
+const char* date_order_name(datetime::DateOrder d) {
+  return d == datetime::DateOrder::DayMonthYear   ? "day/month/year"
+         : d == datetime::DateOrder::MonthDayYear ? "month/day/year"
+                                                  : "";
+}
+
+void print_import_report(const LogOptions& o, const Store::ImportReport& rep, const Journal& names) {
   if (o.json) {
     nlohmann::json rej = nlohmann::json::array();
     for (const auto& r : rep.rejected) rej.push_back({{"line", r.line}, {"field", r.field}, {"reason", r.reason}});
-    std::cout << nlohmann::json{{"added", rep.events_added},
-                                {"systems_added", rep.systems_added},
-                                {"duplicates_skipped", rep.duplicates_skipped},
-                                {"rejected", rej}}.dump(2) << "\n";
-  } else {
-    std::cout << fmt::format("imported {} events{}, skipped {} duplicates, rejected {} rows\n", rep.events_added,
-                             rep.systems_added ? fmt::format(" and {} systems", rep.systems_added) : "",
-                             rep.duplicates_skipped, rep.rejected.size());
-    for (const auto& r : rep.rejected) std::cerr << fmt::format("{}: line {}: {}\n", o.file, r.line, r.reason);
+    nlohmann::json unused = nlohmann::json::array();
+    for (const auto& u : rep.unused_columns) unused.push_back({{"column", u.name}, {"reason", u.reason}});
+    nlohmann::json out{{o.dry_run ? "would_add" : "added", rep.events_added},
+                       {"systems_added", rep.systems_added},
+                       {"duplicates_skipped", rep.duplicates_skipped},
+                       {"blank_rows_skipped", rep.blank_rows_skipped},
+                       {"unused_columns", unused},
+                       {"rejected", rej},
+                       {"dry_run", o.dry_run}};
+    if (o.dry_run) {
+      nlohmann::json events = nlohmann::json::array();
+      for (const Event& e : rep.would_add) events.push_back(event_to_json(e));
+      out["events"] = events;
+    }
+    std::cout << out.dump(2) << "\n";
+    return;
   }
+  if (o.dry_run) {
+    for (const Event& e : rep.would_add) std::cout << "would add " << describe_event_line(names, e) << "\n";
+  }
+  std::cout << fmt::format("{} {} events{}, skipped {} duplicates and {} blank rows, rejected {} rows{}\n",
+                           o.dry_run ? "dry run: would import" : "imported", rep.events_added,
+                           rep.systems_added ? fmt::format(" and {} systems", rep.systems_added) : "",
+                           rep.duplicates_skipped, rep.blank_rows_skipped, rep.rejected.size(),
+                           o.dry_run ? "; nothing was stored" : "");
+  if (!rep.unused_columns.empty()) {
+    std::string names_list;
+    for (const auto& u : rep.unused_columns) names_list += (names_list.empty() ? "'" : ", '") + u.name + "'";
+    std::cout << fmt::format("columns not imported: {} (reasons on stderr; read one your way with --map "
+                             "'HEADER=MEANING', or leave it out with --map 'HEADER=skip')\n", names_list);
+    for (const auto& u : rep.unused_columns) std::cerr << fmt::format("{}: not imported: {}\n", o.file, u.reason);
+  }
+  if (o.date_order.empty() && *date_order_name(rep.date_order)) {
+    std::cout << fmt::format("dates read as {} (the file's own dates show it; --date-order sets it)\n",
+                             date_order_name(rep.date_order));
+  }
+  for (const auto& r : rep.rejected) std::cerr << fmt::format("{}: line {}: {}\n", o.file, r.line, r.reason);
+}
+
+char delimiter_from_option(const std::string& text) {
+  if (text.empty() || text == "auto") return 0;
+  if (text == "comma" || text == ",") return ',';
+  if (text == "semicolon" || text == ";") return ';';
+  if (text == "tab" || text == "\\t" || text == "\t") return '\t';
+  throw CommandError("--delimiter '" + text + "' is not known; accepted: auto, comma, semicolon, tab");
 }
 
 // CSV rows (streamed, one transaction: the accepted rows together, every refused row
 // reported), or a whole JSON journal (an export or backup) merged in, all or nothing.
+// --dry-run does the same work and checks and rolls back.
 void run_import(const LogOptions& o) {
   const bool json_file = o.file != "-" && looks_like_json(o.file);
   auto st = open_for(o, json_file ? Access::WriteOrCreate : Access::Write);
+  const auto mode = o.dry_run ? Store::ImportMode::DryRun : Store::ImportMode::Commit;
   Store::ImportReport rep;
   if (json_file) {
     auto j = parse_journal(read_text_file(o.file));
     if (!j) throw CommandError(o.file + ": " + j.error().message + " (nothing was imported)");
-    rep = stored_or_fail(st->import_journal(*j));
+    rep = stored_or_fail(st->import_journal(*j, mode));
   } else {
     CsvImportOptions opt;
     opt.time = time_options(o);
+    opt.now_s = static_cast<std::int64_t>(std::time(nullptr));  // future rows refused like log add
+    opt.delimiter = delimiter_from_option(o.delimiter);
+    for (const auto& m : o.mappings) {
+      auto parsed = parse_column_mapping(m);
+      if (!parsed) throw CommandError("--map: " + parsed.error().message);
+      opt.mappings.push_back(*parsed);
+    }
     if (!o.system.empty()) opt.default_system = system_or_fail(*st, o.system).id;
     std::ifstream file;
     if (o.file != "-") {
       file.open(o.file, std::ios::binary);
       if (!file) throw CommandError("cannot read " + o.file + ": " + std::strerror(errno));
     }
-    auto r = st->import_csv(o.file == "-" ? std::cin : file, opt);
-    if (!r) throw CommandError(o.file + ": " + r.error().message + " (nothing was imported)");
+    auto r = st->import_csv(o.file == "-" ? std::cin : file, opt, mode);
+    if (!r) {
+      const std::string where = r.error().field == "column mapping" ? "--map: " : o.file + ": ";
+      throw CommandError(where + r.error().message + " (nothing was imported)");
+    }
     rep = std::move(r).value();
   }
-  print_import_report(o, rep);
+  print_import_report(o, rep, systems_only(*st));
   if (!rep.rejected.empty()) {
     std::cout << std::flush;
     std::exit(3);  // documented: some rows were rejected (the accepted ones are saved)
@@ -445,11 +503,17 @@ void run_check(const LogOptions& o) {
   }
 }
 
+void add_zone_options(CLI::App* c, LogOptions& o) {
+  c->add_option("--date-order", o.date_order, "dmy or mdy, for dates like 03/04/2026 (default: as the dates show)");
+  c->add_option("--utc-offset", o.utc_offset, kUtcOffsetHelp);
+  c->add_option("--time-zone", o.time_zone, kTimeZoneHelp);
+}
+
 void add_time_options(CLI::App* c, LogOptions& o) {
   c->add_option("--system", o.system, "System name or id (may be left out if there is only one)");
-  c->add_option("--time", o.time, "When: 2026-11-01T08:00Z, '2026-11-01 08:00', 01/11/2026 ... (default: now)");
-  c->add_option("--date-order", o.date_order, "dmy or mdy, for dates like 03/04/2026");
-  c->add_option("--utc-offset", o.utc_offset_min, "Minutes east of UTC for times without a zone (default 0)");
+  c->add_option("--time", o.time, "When: 2026-11-01T08:00Z, '2026-11-01 08:00', 01/11/2026 ... (default: now); "
+                                  "a time without a zone is local time: the machine's time zone, or --time-zone/--utc-offset");
+  add_zone_options(c, o);
 }
 
 }  // namespace
@@ -530,8 +594,10 @@ void register_log(CLI::App& app) {
   CLI::App* imp = log->add_subcommand("import", "Import test results and doses from CSV, or a whole JSON journal (an export or backup), in one transaction (see docs/journal-format.md); exit 3 if rows were rejected");
   imp->add_option("file", o->file, "CSV file (- for standard input) or JSON journal")->required();
   imp->add_option("--system", o->system, "System for rows without a system column");
-  imp->add_option("--date-order", o->date_order, "dmy or mdy, for dates like 03/04/2026");
-  imp->add_option("--utc-offset", o->utc_offset_min, "Minutes east of UTC for times without a zone");
+  add_zone_options(imp, *o);
+  imp->add_option("--delimiter", o->delimiter, "Separator: auto (from the header), comma, semicolon or tab")->default_str("auto");
+  imp->add_option("--map", o->mappings, "Read a column your way: 'HEADER=MEANING', e.g. 'Reading 1=alkalinity dKH', 'Tank=system', 'Extra=skip' (repeatable)");
+  imp->add_flag("--dry-run", o->dry_run, "Show what would be imported, check every row, store nothing");
   imp->callback([o] { run_import(*o); });
 
   auto add_filters = [&o](CLI::App* c) {
@@ -539,11 +605,11 @@ void register_log(CLI::App& app) {
     c->add_option("--parameter", o->parameter, "Only test results of this parameter");
     c->add_option("--from", o->from, "From this date or time");
     c->add_option("--to", o->to, "Up to this date (whole day) or time");
-    c->add_option("--date-order", o->date_order, "dmy or mdy");
+    add_zone_options(c, *o);
   };
   CLI::App* exp = log->add_subcommand("export", "Export events as CSV, or the whole journal as JSON");
   exp->add_option("--format", o->format, "csv or json")->default_str("csv");
-  exp->add_option("--output,-o", o->output, "File to write (- for standard output)")->default_str("-");
+  exp->add_option("--output,-o", o->output, "File to write (- for standard output)")->default_str("-")->check(non_empty_path());
   add_filters(exp);
   exp->callback([o] { run_export(*o); });
 
@@ -574,11 +640,13 @@ void register_log(CLI::App& app) {
 }
 
 // ---------------------------------------------------------------- shared with cmd_log_schedule
-std::int64_t when_or_now(const std::string& text, const std::string& date_order, int utc_offset_min) {
+std::int64_t when_or_now(const std::string& text, const std::string& date_order, const std::string& utc_offset,
+                         const std::string& time_zone) {
   LogOptions o;
   o.time = text;
   o.date_order = date_order;
-  o.utc_offset_min = utc_offset_min;
+  o.utc_offset = utc_offset;
+  o.time_zone = time_zone;
   return event_time(o).first;
 }
 

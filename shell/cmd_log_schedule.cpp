@@ -18,6 +18,7 @@
 
 #include "commands.hpp"
 #include "log_common.hpp"
+#include "time_zone.hpp"
 #include "log_format.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/journal/journal_file.hpp"
@@ -33,7 +34,7 @@ struct ScheduleOptions {
   const std::string* journal = nullptr;
   const bool* json = nullptr;
   std::string system, time, date_order, device, additive, unit, stock_name;
-  int utc_offset_min = 0;
+  std::string utc_offset, time_zone;
   std::int64_t id = 0;
   std::optional<double> amount, stock_g_per_l, calibration;
   std::optional<int> per_day;
@@ -112,7 +113,7 @@ void run_start(const ScheduleOptions& o) {
   s.calibration = o.calibration.value_or(1.0);
   Event e;
   e.system_id = sys.id;
-  e.time_s = when_or_now(o.time, o.date_order, o.utc_offset_min);
+  e.time_s = when_or_now(o.time, o.date_order, o.utc_offset, o.time_zone);
   e.data = s;
   report(o, *st, "started", or_fail(st->add_event(e)));
 }
@@ -129,7 +130,7 @@ void run_change(const ScheduleOptions& o) {
   if (o.calibration) s.calibration = *o.calibration;
   if (o.stock_g_per_l) s.stock_g_per_l = *o.stock_g_per_l;
   if (!o.stock_name.empty()) s.stock_name = o.stock_name;
-  const std::int64_t at = when_or_now(o.time, o.date_order, o.utc_offset_min);
+  const std::int64_t at = when_or_now(o.time, o.date_order, o.utc_offset, o.time_zone);
   // Checked whole by the core first, so the store gets either both changes or a refusal.
   const EventId trial_id = or_fail(change_schedule(c.journal, o.id, at, s));
   or_fail(st->update_event(*find_event(c.journal, o.id)));
@@ -141,7 +142,7 @@ void run_change(const ScheduleOptions& o) {
 void run_stop(const ScheduleOptions& o) {
   auto st = open_store(o, store::Access::Write);
   ScheduleContext c = schedule_context(*st, o.id);
-  or_fail(stop_schedule(c.journal, o.id, when_or_now(o.time, o.date_order, o.utc_offset_min)));
+  or_fail(stop_schedule(c.journal, o.id, when_or_now(o.time, o.date_order, o.utc_offset, o.time_zone)));
   or_fail(st->update_event(*find_event(c.journal, o.id)));
   report(o, *st, "stopped", o.id);
 }
@@ -153,7 +154,7 @@ void run_mark(const ScheduleOptions& o, ScheduleMark mark) {
   if (mark == ScheduleMark::Extra && !o.amount) throw CommandError("--amount is needed: how much the pump gave on top");
   Event e;
   e.system_id = c.schedule.system_id;
-  e.time_s = when_or_now(o.time, o.date_order, o.utc_offset_min);
+  e.time_s = when_or_now(o.time, o.date_order, o.utc_offset, o.time_zone);
   e.data = Dose{s.additive_id, o.amount.value_or(s.amount), s.unit, s.stock_g_per_l, mark, c.schedule.id};
   report(o, *st, "added", or_fail(st->add_event(e)));
 }
@@ -183,7 +184,8 @@ void run_list(const ScheduleOptions& o) {
 void add_when(CLI::App* c, ScheduleOptions& o, const char* what) {
   c->add_option("--time", o.time, std::string(what) + ": 2026-11-01T08:00Z, '2026-11-01 08:00' ... (default: now)");
   c->add_option("--date-order", o.date_order, "dmy or mdy, for dates like 03/04/2026");
-  c->add_option("--utc-offset", o.utc_offset_min, "Minutes east of UTC for times without a zone (default 0)");
+  c->add_option("--utc-offset", o.utc_offset, kUtcOffsetHelp);
+  c->add_option("--time-zone", o.time_zone, kTimeZoneHelp);
 }
 
 }  // namespace

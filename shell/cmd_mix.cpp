@@ -6,12 +6,14 @@
 //                                                                           -> grams per litre
 #include <cstdio>
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "option_rules.hpp"
 #include "tidewright/additives/additives.hpp"
 
 namespace tw::shell {
@@ -20,7 +22,8 @@ namespace {
 struct MixOptions {
   std::vector<std::string> compounds;  // --compound, repeatable
   std::vector<double> grams_per_l;     // --grams-per-l, one per --compound, in the same order
-  double raise = 0, per_ml = 1, in_l = 100;
+  std::optional<double> raise;  // --raise: a recipe for an effect (then no --grams-per-l)
+  double per_ml = 1, in_l = 100;
   std::string parameter = "alkalinity";
   double temperature_c = 25;
 };
@@ -72,18 +75,23 @@ void run_strength(const MixOptions& o, const std::vector<const additives::Compou
 
 void run(const MixOptions& o) {
   const auto compounds = find_all(o.compounds);
-  if (o.raise <= 0) {
+  if (!o.raise) {
     run_strength(o, compounds);
     return;
+  }
+  // Two questions at once would leave one unanswered: refuse the pair instead of dropping one.
+  if (!o.grams_per_l.empty()) {
+    throw CommandError("give --grams-per-l (the strength of a recipe) or --raise (a recipe for an effect), not both");
   }
   if (compounds.size() != 1) throw CommandError("--raise: a recipe for an effect takes exactly one --compound");
   const additives::Compound* c = compounds.front();
   auto p = tw::dosed_parameter_from_name(o.parameter);
   if (!p) throw CommandError(p.error().message);
-  auto r = additives::recipe_for_effect(c->id, {*p, o.raise, o.per_ml, o.in_l}, o.temperature_c);
-  if (!r) throw CommandError(r.error().message);
+  auto r = additives::recipe_for_effect(c->id, {*p, *o.raise, o.per_ml, o.in_l}, o.temperature_c);
+  if (!r) fail(r.error(), {{"rise", "--raise"},
+                           {"dose_ml", "--per-ml"}, {"tank_volume_l", "--in-l"}, {"temperature_c", "--temperature-c"}});
   std::printf("%s: dissolve %.2f g per litre of finished solution (%s), so that %g mL raises %g L by %g %s\n",
-              c->name.c_str(), r->grams_per_l, c->formula.c_str(), o.per_ml, o.in_l, o.raise,
+              c->name.c_str(), r->grams_per_l, c->formula.c_str(), o.per_ml, o.in_l, *o.raise,
               tw::parameter_unit(*p));
   print_strength(r->strength);
   additives::Additive a = additives::additive_from_compound(c->id);

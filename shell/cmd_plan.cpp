@@ -11,6 +11,9 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "path_options.hpp"
+#include "option_rules.hpp"
+#include "time_zone.hpp"
 #include "file_io.hpp"
 #include "journal_access.hpp"
 #include "tidewright/journal/journal_file.hpp"
@@ -28,12 +31,13 @@ struct PlanOptions {
   std::string input;
   std::string out;
   bool json = false, csv = false, ics = false, text = false;
+  bool ics_all_doses = false;  // --ics-all-doses: pumps' doses in the calendar too
   int horizon_days = 0;
   std::string dtstamp;
   std::string journal, system;  // --journal FILE --system NAME|ID
   bool accept_stale = false;     // --accept-stale: plan from levels the journal cannot vouch for today
   bool adopt = false;            // --adopt: the plan becomes the system's standing schedules
-  int utc_offset_min = 0;        // for --adopt: the keeper's time zone, minutes east of UTC
+  std::string utc_offset, time_zone;  // for --adopt: the keeper's zone (time_zone.hpp)
 };
 
 
@@ -71,8 +75,6 @@ std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in
 // earlier schedules stop where the plan starts), saved atomically like `tidewright log`.
 void adopt(const PlanOptions& o, const plan::PlanInput& in, const plan::Plan& p) {
   if (o.journal.empty() || o.system.empty()) throw CommandError("--adopt: needs --journal FILE and --system NAME or ID");
-  if (o.utc_offset_min < -14 * 60 || o.utc_offset_min > 14 * 60)
-    throw CommandError(fmt::format("--utc-offset {} is outside the accepted range -840 to 840 minutes", o.utc_offset_min));
   auto st = open_journal_or_fail(o.journal, store::Access::Write);
   const journal::System sys = system_or_fail(*st, o.system);
   auto before = st->system_journal(sys.id);
@@ -80,7 +82,7 @@ void adopt(const PlanOptions& o, const plan::PlanInput& in, const plan::Plan& p)
   auto day1 = datetime::parse_datetime(in.start_date + "T00:00:00Z");
   if (!day1) throw CommandError("start_date: " + day1.error().message);
   journal::Journal after = *before;
-  auto ids = plan::adopt_plan(after, sys.id, in, p, *day1 - 60LL * o.utc_offset_min);
+  auto ids = plan::adopt_plan(after, sys.id, in, p, *day1 - 60LL * offset_minutes_at(*day1, o.utc_offset, o.time_zone));
   if (!ids) throw CommandError(fmt::format("--adopt: {}", ids.error().message));
   // Checked whole by the core above; now the stopped schedules, the removed ones (later runs of
   // an earlier plan, not begun), then the new ones.
@@ -142,8 +144,9 @@ void run(const PlanOptions& o) {
   } else if (o.csv) {
     text = plan::plan_to_csv(*in, *plan);
   } else if (o.ics) {
-    auto ics = plan::plan_to_icalendar(*in, *plan, o.dtstamp.empty() ? now_dtstamp() : o.dtstamp);
-    if (!ics) throw CommandError(ics.error().message);
+    auto ics = plan::plan_to_icalendar(*in, *plan, o.dtstamp.empty() ? now_dtstamp() : o.dtstamp,
+                                       o.ics_all_doses ? plan::IcsDoses::All : plan::IcsDoses::HandOnly);
+    if (!ics) fail(ics.error(), {{"dtstamp_utc", "--dtstamp"}});
     text = *ics;
   } else {
     text = plan::plan_to_text(*in, *plan);
@@ -186,18 +189,20 @@ void register_plan(CLI::App& app) {
   auto* fmt_group = sub->add_option_group("format");
   fmt_group->add_flag("--json", opts->json, "the whole plan as JSON");
   fmt_group->add_flag("--csv", opts->csv, "one row per dose (RFC 4180)");
-  fmt_group->add_flag("--ics", opts->ics, "iCalendar (RFC 5545), reminders for hand doses");
+  fmt_group->add_flag("--ics", opts->ics, "iCalendar (RFC 5545): the doses given by hand, each with a reminder");
+  sub->add_flag("--ics-all-doses", opts->ics_all_doses, "with --ics: every dose, the pumps' too (pumps get no reminder)");
   fmt_group->add_flag("--text", opts->text, "plain text for print");
   fmt_group->require_option(0, 1);
   sub->add_option("--dtstamp", opts->dtstamp, "DTSTAMP for --ics as YYYYMMDDTHHMMSSZ (default: now)");
   sub->add_option("--journal", opts->journal, "take the system's state and demand from this journal (database, or JSON journal)");
   sub->add_option("--system", opts->system, "the journal's system, by name or id (with --journal)");
-  sub->add_option("--out", opts->out, "write to this file instead of stdout");
+  sub->add_option("--out", opts->out, "write to this file instead of stdout")->check(non_empty_path());
   sub->add_flag("--accept-stale", opts->accept_stale,
                 "with --journal: plan from a level whose last test is too old, or with unlogged dosing since (flagged)");
   sub->add_flag("--adopt", opts->adopt,
                 "make the plan the system's standing dose schedules in --journal (its pumps' earlier schedules stop)");
-  sub->add_option("--utc-offset", opts->utc_offset_min, "with --adopt: minutes east of UTC of the plan's days (default 0)");
+  sub->add_option("--utc-offset", opts->utc_offset, std::string("with --adopt: the plan's days start at local midnight; ") + kUtcOffsetHelp);
+  sub->add_option("--time-zone", opts->time_zone, std::string("with --adopt: ") + kTimeZoneHelp);
   sub->callback([opts] { run(*opts); });
 }
 

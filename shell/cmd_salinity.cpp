@@ -15,6 +15,7 @@
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
+#include "path_options.hpp"
 #include "option_rules.hpp"
 #include "batch_stream.hpp"
 #include "file_io.hpp"
@@ -207,7 +208,7 @@ void register_salinity(CLI::App& app) {
       ->default_str("0");
   cmd->add_flag("--json", o->json, "Print JSON instead of text");
   cmd->add_option("--batch", o->batch, "CSV file of samples (- for stdin); columns below");
-  cmd->add_option("--out", o->out, "With --batch: write the output here instead of stdout");
+  cmd->add_option("--out", o->out, "With --batch: write the output here instead of stdout")->check(non_empty_path());
   cmd->callback([o] {
     if (!o->batch.empty()) {
       run_batch(*o);

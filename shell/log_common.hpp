@@ -10,7 +10,9 @@
 namespace tw::shell {
 
 // --time parsed (refused in the future), or now when empty.
-std::int64_t when_or_now(const std::string& text, const std::string& date_order, int utc_offset_min);
+// A time without a zone is local time (time_zone.hpp: --utc-offset, --time-zone, else the machine's).
+std::int64_t when_or_now(const std::string& text, const std::string& date_order, const std::string& utc_offset,
+                         const std::string& time_zone);
 
 // `log schedule ...` under the log command; journal_path and json are the log command's options.
 void register_log_schedule(CLI::App& log, const std::string* journal_path, const bool* json);

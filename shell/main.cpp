@@ -3,6 +3,7 @@
 #include <exception>
 
 #include "commands.hpp"
+#include "number_options.hpp"
 
 int main(int argc, char** argv) {
   CLI::App app{"Tidewright: seawater chemistry and dosing advisor for reef and aquaculture systems."};
@@ -15,6 +16,7 @@ int main(int argc, char** argv) {
   tw::shell::register_demand(app);
   tw::shell::register_plan(app);
   tw::shell::register_mix(app);
+  tw::shell::require_plain_numbers(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {

@@ -219,7 +219,8 @@ bool export_plan(AppState& app, int format) {
     const std::string iso = tw::datetime::format_iso8601_utc(platform::now_unix_seconds());  // 2026-12-01T20:00:00Z
     std::string stamp;
     for (char ch : iso) if (ch != '-' && ch != ':') stamp += ch;
-    auto ics = pl::plan_to_icalendar(*c.input, *c.plan, stamp);
+    // Every dose, as this export has always written (the screen offers no hand-only choice yet).
+    auto ics = pl::plan_to_icalendar(*c.input, *c.plan, stamp, pl::IcsDoses::All);
     if (!ics) {
       notify(app, "Calendar not made: " + ics.error().message, true);
       return false;

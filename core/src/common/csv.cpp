@@ -5,7 +5,25 @@
 
 namespace tw::csv {
 
-Result<std::vector<Row>> parse(const std::string& text) {
+Result<std::vector<Row>> parse(const std::string& text) { return parse(text, ','); }
+
+char detect_delimiter(const std::string& text) {
+  int comma = 0, semicolon = 0, tab = 0;
+  bool in_quotes = false;
+  for (char c : text) {
+    if (c == '"') in_quotes = !in_quotes;
+    if (in_quotes) continue;
+    if (c == '\n' || c == '\r') break;
+    if (c == ',') ++comma;
+    else if (c == ';') ++semicolon;
+    else if (c == '\t') ++tab;
+  }
+  if (semicolon > comma && semicolon >= tab) return ';';
+  if (tab > comma && tab > semicolon) return '\t';
+  return ',';
+}
+
+Result<std::vector<Row>> parse(const std::string& text, char delimiter) {
   std::vector<Row> rows;
   size_t i = 0;
   if (text.size() >= 3 && text.compare(0, 3, "\xEF\xBB\xBF") == 0) i = 3;
@@ -54,10 +72,6 @@ Result<std::vector<Row>> parse(const std::string& text) {
           cell += c;  // a stray quote inside an unquoted field is kept as text
         }
         break;
-      case ',':
-        any_content = true;
-        end_cell();
-        break;
       case '\r':
         if (i + 1 < text.size() && text[i + 1] == '\n') ++i;
         [[fallthrough]];
@@ -68,7 +82,8 @@ Result<std::vector<Row>> parse(const std::string& text) {
         break;
       default:
         any_content = true;
-        cell += c;
+        if (c == delimiter) end_cell();
+        else cell += c;
     }
   }
   if (in_quotes) {

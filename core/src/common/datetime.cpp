@@ -1,4 +1,5 @@
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/common/ranges.hpp"
 
 #include <cctype>
 #include <vector>
@@ -99,7 +100,7 @@ Result<std::int64_t> to_seconds(const std::string& text, std::int64_t y, std::in
 
 // Parses "[T| ]HH:MM[:SS[.fff]][zone]" from the scanner; fills h, mi, sec, offset.
 Status parse_time_of_day(Scanner& sc, const std::string& text, bool allow_zone, std::int64_t& h,
-                         std::int64_t& mi, std::int64_t& sec, int& offset) {
+                         std::int64_t& mi, std::int64_t& sec, int& offset, bool& zoned) {
   if (sc.done()) return Ok{};
   if (sc.peek() != 'T' && sc.peek() != 't' && sc.peek() != ' ') {
     return time_error(text, std::string("has unexpected text after the date") + kForms);
@@ -125,6 +126,7 @@ Status parse_time_of_day(Scanner& sc, const std::string& text, bool allow_zone, 
   if (sc.done()) return Ok{};
   if (!allow_zone) return time_error(text, "has unexpected text after the time");
   const char z = sc.peek();
+  zoned = true;
   if (z == 'Z' || z == 'z') {
     ++sc.i;
     offset = 0;
@@ -213,9 +215,68 @@ Result<std::int64_t> parse_datetime(const std::string& raw, const ParseOptions& 
       d = bnum;
     }
   }
-  Status st = parse_time_of_day(sc, text, year_first && sep == '-', h, mi, sec, offset);
+  bool zoned = false;
+  Status st = parse_time_of_day(sc, text, year_first && sep == '-', h, mi, sec, offset, zoned);
   if (!st) return st.error();
+  if (!zoned && options.zone_offset_minutes) {
+    auto local = to_seconds(text, y, mo, d, h, mi, sec, 0);
+    if (!local) return local.error();
+    offset = options.zone_offset_minutes(*local);
+  }
   return to_seconds(text, y, mo, d, h, mi, sec, offset);
+}
+
+Result<int> parse_utc_offset(const std::string& raw) {
+  const size_t b = raw.find_first_not_of(" \t");
+  const size_t e = raw.find_last_not_of(" \t");
+  const std::string text = b == std::string::npos ? "" : raw.substr(b, e - b + 1);
+  const ranges::Range& r = ranges::kUtcOffsetMinutes;
+  auto refuse = [&] {
+    return Error{"utc_offset", "utc_offset '" + raw + "' is not a UTC offset; accepted: -12:00 to +14:00, " +
+                                   "written like +05:30, -08:00, +0530, +5 or Z"};
+  };
+  if (text == "Z" || text == "z" || text == "0") return 0;
+  Scanner sc{text};
+  int sign = 1;
+  if (sc.peek() == '+' || sc.peek() == '-') {
+    sign = sc.peek() == '-' ? -1 : 1;
+    ++sc.i;
+  }
+  size_t n = 0;
+  const std::int64_t first = sc.digits(4, &n);
+  if (first < 0) return refuse();
+  std::int64_t hours = first, minutes = 0;
+  if (n == 4 || n == 3) {
+    if (!sc.done()) return refuse();
+    hours = first / 100;
+    minutes = first % 100;
+  } else if (sc.peek() == ':') {
+    ++sc.i;
+    size_t m = 0;
+    minutes = sc.digits(2, &m);
+    if (minutes < 0 || m != 2 || !sc.done()) return refuse();
+  } else if (!sc.done()) {
+    return refuse();
+  }
+  if (minutes > 59) return refuse();
+  const std::int64_t total = sign * (hours * 60 + minutes);
+  if (total < r.lo || total > r.hi) return refuse();
+  return static_cast<int>(total);
+}
+
+DateOrder infer_date_order(const std::vector<std::string>& texts) {
+  bool only_dmy = false, only_mdy = false;
+  ParseOptions dmy, mdy;
+  dmy.order = DateOrder::DayMonthYear;
+  mdy.order = DateOrder::MonthDayYear;
+  for (const std::string& t : texts) {
+    const bool d = parse_datetime(t, dmy).ok();
+    const bool m = parse_datetime(t, mdy).ok();
+    if (d && !m) only_dmy = true;
+    if (m && !d) only_mdy = true;
+  }
+  if (only_dmy == only_mdy) return DateOrder::Unspecified;
+  return only_dmy ? DateOrder::DayMonthYear : DateOrder::MonthDayYear;
 }
 
 std::string format_iso8601_utc(std::int64_t seconds) {

@@ -3,40 +3,17 @@
 #include <cctype>
 #include <cmath>
 #include <cstdlib>
+#include <map>
 
 #include <fmt/format.h>
 
 #include "tidewright/common/csv.hpp"
+#include "tidewright/common/number_text.hpp"
 #include "tidewright/journal/journal_csv.hpp"
 
 namespace tw::journal {
 
 namespace {
-
-struct WideColumn {
-  const char* name;
-  Parameter parameter;
-  const char* unit;
-  std::optional<carbonate::PhScale> scale;
-};
-
-const WideColumn kWide[] = {
-    {"alkalinity_dkh", Parameter::Alkalinity, "dKH", {}},
-    {"alkalinity_meq_l", Parameter::Alkalinity, "meq/L", {}},
-    {"alkalinity_mg_l_caco3", Parameter::Alkalinity, "mg/L CaCO3", {}},
-    {"calcium_mg_l", Parameter::Calcium, "mg/L", {}},
-    {"magnesium_mg_l", Parameter::Magnesium, "mg/L", {}},
-    {"ph_nbs", Parameter::PH, "pH", carbonate::PhScale::NBS},
-    {"ph_total", Parameter::PH, "pH", carbonate::PhScale::Total},
-    {"ph_sws", Parameter::PH, "pH", carbonate::PhScale::Seawater},
-    {"ph_free", Parameter::PH, "pH", carbonate::PhScale::Free},
-    {"salinity_psu", Parameter::Salinity, "psu", {}},
-    {"specific_gravity", Parameter::SpecificGravity, "sg", {}},
-    {"temperature_c", Parameter::Temperature, "C", {}},
-    {"temperature_f", Parameter::Temperature, "F", {}},
-    {"nitrate_mg_l", Parameter::Nitrate, "mg/L", {}},
-    {"phosphate_mg_l", Parameter::Phosphate, "mg/L", {}},
-};
 
 // A cell that our export defused ("'=..." etc.) gets its apostrophe back off.
 std::string undefuse(const std::string& s) {
@@ -47,34 +24,27 @@ std::string undefuse(const std::string& s) {
   return s;
 }
 
-// Strict number: the whole cell, finite; a single decimal comma is accepted ("8,2").
-std::optional<double> parse_number(std::string s) {
-  if (s.find(',') != std::string::npos && s.find('.') == std::string::npos &&
-      s.find(',') == s.rfind(',')) {
-    s[s.find(',')] = '.';
-  }
-  if (s.empty() || std::isspace(static_cast<unsigned char>(s[0]))) return std::nullopt;
-  char* end = nullptr;
-  const double v = std::strtod(s.c_str(), &end);
-  if (end != s.c_str() + s.size() || !std::isfinite(v)) return std::nullopt;
-  if (s.find_first_of("xXpP") != std::string::npos) return std::nullopt;  // no hex floats
-  return v;
+// The shared rule for numbers people type (number_text.hpp); a decimal comma is fine.
+std::optional<double> parse_number(const std::string& s) {
+  return number_text::read_decimal(s, number_text::DecimalMark::PointOrComma);
 }
 
 class RowReader {
  public:
-  RowReader(const std::vector<std::string>& header, const csv::Row& row)
-      : header_(header), row_(row) {}
+  RowReader(const std::map<std::string, size_t>& columns, const csv::Row& row)
+      : columns_(columns), row_(row) {}
   std::string get(const char* name) const {
-    const int i = csv::find_column(header_, name);
-    if (i < 0 || static_cast<size_t>(i) >= row_.cells.size()) return "";
+    auto it = columns_.find(name);
+    if (it == columns_.end()) return "";
+    const size_t i = it->second;
+    if (i >= row_.cells.size()) return "";
     return undefuse(csv::trim(row_.cells[static_cast<size_t>(i)]));
   }
   Result<std::optional<double>> number(const char* name) const {
     const std::string s = get(name);
     if (s.empty()) return std::optional<double>{};
     auto v = parse_number(s);
-    if (!v) return Error{name, fmt::format("{} '{}' is not a number", name, s)};
+    if (!v) return number_text::read_decimal_or_error(name, s, number_text::DecimalMark::PointOrComma).error();
     return std::optional<double>{*v};
   }
   Result<double> required_number(const char* name) const {
@@ -85,7 +55,7 @@ class RowReader {
   }
 
  private:
-  const std::vector<std::string>& header_;
+  const std::map<std::string, size_t>& columns_;
   const csv::Row& row_;
 };
 
@@ -204,20 +174,30 @@ bool is_duplicate(const Journal& j, const Event& e) {
 
 Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
                                    const CsvImportOptions& options) {
-  auto parsed = csv::parse(text);
+  const char delimiter = options.delimiter ? options.delimiter : csv::detect_delimiter(text);
+  auto parsed = csv::parse(text, delimiter);
   if (!parsed) return parsed.error();
   const auto& rows = *parsed;
   if (rows.empty()) return Error{"csv", "the CSV text is empty; a header row is needed"};
   const std::vector<std::string>& header = rows[0].cells;
-  if (csv::find_column(header, "time") < 0) {
-    return Error{"time", "the header has no 'time' column (columns are matched without case)"};
+  auto matched = match_csv_header(header, options.mappings);
+  if (!matched) return matched.error();
+  CsvImportReport report;
+  report.delimiter = delimiter;
+  std::map<std::string, size_t> long_columns;  // long-form name -> cell index
+  std::vector<std::pair<size_t, const CsvColumn*>> readings;
+  for (size_t i = 0; i < matched->size(); ++i) {
+    const CsvColumn& c = (*matched)[i];
+    if (c.kind == CsvColumn::Kind::Long) long_columns[c.long_name] = i;
+    else if (c.kind == CsvColumn::Kind::Reading) readings.emplace_back(i, &c);
+    else report.unused_columns.push_back(UnusedColumn{header[i], c.reason});
   }
-  // Which columns are understood: long-form names and wide-form names.
-  std::vector<const WideColumn*> wide;
-  for (const auto& w : kWide) {
-    if (csv::find_column(header, w.name) >= 0) wide.push_back(&w);
+  if (!long_columns.count("time")) {
+    const char* sep = delimiter == ';' ? "semicolon" : delimiter == '\t' ? "tab" : "comma";
+    return Error{"time", fmt::format("the header has no time column (read with the {} as separator; a column "
+                                     "named time, date or timestamp, or one mapped to time, is needed)", sep)};
   }
-  const bool has_system_col = csv::find_column(header, "system") >= 0;
+  const bool has_system_col = long_columns.count("system") > 0;
   const System* fixed_system = nullptr;
   if (!has_system_col) {
     if (options.default_system) {
@@ -231,11 +211,22 @@ Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
                                  std::to_string(journal.systems.size()) + " systems"};
     }
   }
+  // Dates like 03/04/2026: the order given, or the one the file's own dates show.
+  datetime::ParseOptions time_options = options.time;
+  if (time_options.order == datetime::DateOrder::Unspecified) {
+    std::vector<std::string> times;
+    for (size_t ri = 1; ri < rows.size(); ++ri) times.push_back(RowReader(long_columns, rows[ri]).get("time"));
+    time_options.order = datetime::infer_date_order(times);
+  }
+  report.date_order = time_options.order;
 
-  CsvImportReport report;
   for (size_t ri = 1; ri < rows.size(); ++ri) {
     const csv::Row& row = rows[ri];
-    const RowReader r(header, row);
+    const RowReader r(long_columns, row);
+    if (std::all_of(row.cells.begin(), row.cells.end(), [](const std::string& c) { return csv::trim(c).empty(); })) {
+      ++report.blank_rows_skipped;
+      continue;
+    }
     auto reject = [&](const std::string& field, const std::string& why) {
       report.rejected.push_back(RejectedRow{row.line, field, why});
     };
@@ -268,10 +259,17 @@ Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
     }
     // Time
     const std::string time_text = r.get("time");
-    auto time = datetime::parse_datetime(time_text, options.time);
+    auto time = datetime::parse_datetime(time_text, time_options);
     if (!time) {
       reject("time", time.error().message);
       continue;
+    }
+    if (options.now_s) {
+      Status st = check_not_in_future(*time, *options.now_s);
+      if (!st) {
+        reject("time", st.error().message);
+        continue;
+      }
     }
     // Events of the row
     std::vector<EventData> data;
@@ -281,7 +279,7 @@ Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
     if (type.empty()) {
       if (!r.get("parameter").empty()) type = "test";
       else if (!r.get("additive").empty()) type = "dose";
-      else if (wide.empty() && !note.empty()) type = "note";
+      else if (readings.empty() && !note.empty()) type = "note";
     }
     Result<EventData> main = Error{"", ""};
     bool has_main = true;
@@ -302,20 +300,20 @@ Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
     }
     if (has_main) data.push_back(std::move(main).value());
     bool bad = false;
-    for (const WideColumn* w : wide) {
-      const std::string cell = r.get(w->name);
+    for (const auto& [index, column] : readings) {
+      const std::string cell = index < row.cells.size() ? undefuse(csv::trim(row.cells[index])) : "";
       if (cell.empty()) continue;
-      auto v = parse_number(cell);
+      auto v = number_text::read_decimal_or_error(header[index], cell, number_text::DecimalMark::PointOrComma);
       if (!v) {
-        reject(w->name, fmt::format("{} '{}' is not a number", w->name, cell));
+        reject(header[index], v.error().message);
         bad = true;
         break;
       }
       TestResult t;
-      t.parameter = w->parameter;
+      t.parameter = column->parameter;
       t.value = *v;
-      t.unit = w->unit;
-      t.ph_scale = w->scale;
+      t.unit = column->unit.empty() ? default_unit(*sys, column->parameter) : column->unit;
+      if (column->parameter == Parameter::PH) t.ph_scale = column->ph_scale ? column->ph_scale : sys->units.ph_scale;
       data.push_back(t);
     }
     if (bad) continue;

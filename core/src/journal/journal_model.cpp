@@ -89,8 +89,9 @@ Status validate_test(const TestResult& t) {
   if (*unit != t.unit) {
     return Error{"unit", "unit '" + t.unit + "' must be written '" + *unit + "'"};
   }
-  if (!std::isfinite(t.value)) return out_of_range_error("value", t.value, 0, 0, "");
   const Range& r = range_of(t.parameter);
+  // Not a number: said so, with the parameter's own range (not a range of 0 to 0).
+  if (!std::isfinite(t.value)) return out_of_range_error("value", t.value, r.lo, r.hi, r.unit);
   const double canon = *canonical_value(t);
   if (!std::isfinite(canon) || canon < r.lo || canon > r.hi) {
     const std::string shown =

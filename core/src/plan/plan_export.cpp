@@ -1,6 +1,7 @@
 // Plan exports as text: CSV (RFC 4180, via csv.hpp), plain text for print, and iCalendar
 // (RFC 5545: CRLF line ends, lines folded at 75 octets, UID and DTSTAMP on every event, a
 // VALARM reminder on every manual dose). The core returns text; the shell writes files.
+#include <algorithm>
 #include <cstdint>
 
 #include <fmt/format.h>
@@ -38,7 +39,10 @@ std::string ical_line(const std::string& line) {
   for (std::size_t i = 0; i < line.size(); ++i) {
     const auto c = static_cast<unsigned char>(line[i]);
     const bool continuation = (c & 0xC0) == 0x80;
-    if (col >= 75 && !continuation) {
+    // A character's octets stay on one line: fold before a lead octet whose whole sequence
+    // would pass the 75th octet (a 2-byte character at octet 75 made a 76-octet line).
+    const std::size_t octets = c >= 0xF0 ? 4 : c >= 0xE0 ? 3 : c >= 0xC0 ? 2 : 1;
+    if (!continuation && col + octets > 75) {
       out += "\r\n ";
       col = 1;
     }
@@ -125,9 +129,32 @@ std::string plan_to_text(const PlanInput& in, const Plan& plan) {
   return o;
 }
 
-Result<std::string> plan_to_icalendar(const PlanInput& in, const Plan& plan, const std::string& dtstamp_utc) {
-  if (dtstamp_utc.size() != 16 || dtstamp_utc[8] != 'T' || dtstamp_utc[15] != 'Z') {
-    return Error{"dtstamp_utc", "dtstamp_utc must look like 20261201T120000Z (UTC date-time)"};
+// FNV-1a, 64 bits (Fowler, Noll, Vo): a short stable key of a system's name for UIDs.
+static std::uint64_t fnv1a64(const std::string& text) {
+  std::uint64_t h = 14695981039346656037ULL;
+  for (unsigned char c : text) {
+    h ^= c;
+    h *= 1099511628211ULL;
+  }
+  return h;
+}
+
+Result<std::string> plan_to_icalendar(const PlanInput& in, const Plan& plan, const std::string& dtstamp_utc,
+                                      IcsDoses doses) {
+  // The shape, then a real date and time of day (month 1 to 12, day in its month, 00:00:00 to
+  // 23:59:59) by the one date rule of datetime.hpp.
+  const bool digits = dtstamp_utc.size() == 16 &&
+                      std::all_of(dtstamp_utc.begin(), dtstamp_utc.begin() + 8, ::isdigit) &&
+                      std::all_of(dtstamp_utc.begin() + 9, dtstamp_utc.begin() + 15, ::isdigit);
+  if (!digits || dtstamp_utc[8] != 'T' || dtstamp_utc[15] != 'Z') {
+    return Error{"dtstamp_utc", "dtstamp_utc '" + dtstamp_utc + "' must look like 20261201T120000Z (UTC date-time)"};
+  }
+  const std::string iso = dtstamp_utc.substr(0, 4) + "-" + dtstamp_utc.substr(4, 2) + "-" + dtstamp_utc.substr(6, 2) +
+                          "T" + dtstamp_utc.substr(9, 2) + ":" + dtstamp_utc.substr(11, 2) + ":" +
+                          dtstamp_utc.substr(13, 2) + "Z";
+  if (!datetime::parse_datetime(iso) || dtstamp_utc.substr(9, 2) == "24") {
+    return Error{"dtstamp_utc", "dtstamp_utc '" + dtstamp_utc + "' is not a real UTC date-time; accepted: month 01 to "
+                                    "12, a day of that month, time 000000 to 235959"};
   }
   auto start = datetime::parse_datetime(in.start_date + "T00:00:00Z");
   if (!start) return Error{"start_date", "start_date must be a date YYYY-MM-DD (" + start.error().message + ")"};
@@ -140,12 +167,14 @@ Result<std::string> plan_to_icalendar(const PlanInput& in, const Plan& plan, con
   for (std::size_t i = 0; i < plan.doses.size(); ++i) {
     const DoseRecord& d = plan.doses[i];
     const Delivery& dv = in.deliveries[d.delivery];
+    if (doses == IcsDoses::HandOnly && !dv.manual) continue;
     const auto date = datetime::civil_from_days(day0 + d.day - 1);
     const std::string when = fmt::format("{:04d}{:02d}{:02d}T{:02d}{:02d}00", date.year, date.month, date.day,
                                          d.minute / 60, d.minute % 60);
     const std::string what = fmt::format("{:.2f} {} {}", d.amount, additives::to_string(dv.additive.unit), dv.additive.name);
     o += ical_line("BEGIN:VEVENT");
-    o += ical_line(fmt::format("UID:{}-{}-{}@tidewright.plan", in.start_date, i, d.delivery));
+    o += ical_line(fmt::format("UID:{:016x}-{}-{}-{}@tidewright.plan", fnv1a64(in.system.name), in.start_date, i,
+                               d.delivery));
     o += ical_line("DTSTAMP:" + dtstamp_utc);
     o += ical_line("DTSTART:" + when);  // floating local time (RFC 5545 3.3.5 form 1)
     o += ical_line("DURATION:PT5M");

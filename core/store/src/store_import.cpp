@@ -32,7 +32,7 @@ bool database_empty(sqlite3* db) {
 // Adds one validated event (id assigned here) unless an equal one is stored; the scratch
 // journal holds the stored systems for the core's validation.
 void add_checked(sqlite3* db, Statement& insert, const Journal& scratch, Event e, std::int64_t& next_id,
-                 JournalStore::ImportReport& report, const std::string& where) {
+                 JournalStore::ImportReport& report, const std::string& where, bool report_events) {
   if (has_equal_event(db, e)) {
     ++report.duplicates_skipped;
     return;
@@ -43,6 +43,7 @@ void add_checked(sqlite3* db, Statement& insert, const Journal& scratch, Event e
   insert_event(insert, e);
   ++next_id;
   ++report.events_added;
+  if (report_events) report.would_add.push_back(std::move(e));
 }
 
 // Splits CSV text read line by line into records (a quoted cell may hold line breaks).
@@ -76,7 +77,8 @@ class CsvRecordReader {
 
 }  // namespace
 
-Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& journal) {
+Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& journal, ImportMode mode) {
+  const bool dry = mode == ImportMode::DryRun;
   return guarded(path_, [&]() -> Result<ImportReport> {
     WriteTransaction tx(db_);
     ImportReport report;
@@ -84,7 +86,8 @@ Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& j
       insert_journal_keeping_ids(db_, journal);
       report.systems_added = static_cast<std::int64_t>(journal.systems.size());
       report.events_added = static_cast<std::int64_t>(journal.events.size());
-      tx.commit();
+      if (dry) report.would_add = journal.events;
+      else tx.commit();
       return report;
     }
     // Merge: systems by name, new ids for everything added.
@@ -110,15 +113,18 @@ Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& j
     for (const Event& e : journal.events) {
       Event copy = e;
       copy.system_id = system_of.at(e.system_id);
-      add_checked(db_, insert, scratch, std::move(copy), next_id, report, fmt::format("event {}", e.id));
+      add_checked(db_, insert, scratch, std::move(copy), next_id, report, fmt::format("event {}", e.id), dry);
     }
     write_next_id(db_, next_id);
-    tx.commit();
+    if (!dry) tx.commit();
     return report;
   });
 }
 
-Result<JournalStore::ImportReport> JournalStore::import_csv(std::istream& in, const CsvImportOptions& options) {
+Result<JournalStore::ImportReport> JournalStore::import_csv(std::istream& in, const CsvImportOptions& given,
+                                                           ImportMode mode) {
+  const bool dry = mode == ImportMode::DryRun;
+  CsvImportOptions options = given;
   return guarded(path_, [&]() -> Result<ImportReport> {
     constexpr int kRowsPerChunk = 2000;  // memory stays flat: one chunk of rows at a time
     WriteTransaction tx(db_);
@@ -155,6 +161,12 @@ Result<JournalStore::ImportReport> JournalStore::import_csv(std::istream& in, co
       for (const System& s : scratch.systems) scratch.next_id = std::max(scratch.next_id, s.id + 1);
       auto chunk = journal::import_csv(scratch, text, options);
       if (!chunk) return chunk.error();  // file-level: nothing of the file is added
+      report.unused_columns = chunk->unused_columns;  // the same header in every chunk
+      report.delimiter = chunk->delimiter;
+      report.blank_rows_skipped += chunk->blank_rows_skipped;
+      // The date order the first chunk's dates show holds for the rest of the file.
+      options.time.order = chunk->date_order;
+      report.date_order = chunk->date_order;
       for (RejectedRow r : chunk->rejected) {
         if (r.line > header_lines) r.line = r.line - header_lines - 1 + chunk_first_line;
         report.rejected.push_back(std::move(r));
@@ -164,11 +176,11 @@ Result<JournalStore::ImportReport> JournalStore::import_csv(std::istream& in, co
       for (const Event& e : scratch.events) by_id[e.id] = &e;
       for (EventId id : chunk->added) {
         Event e = *by_id.at(id);
-        add_checked(db_, insert, scratch, std::move(e), next_id, report, "CSV row");
+        add_checked(db_, insert, scratch, std::move(e), next_id, report, "CSV row", dry);
       }
     }
     write_next_id(db_, next_id);
-    tx.commit();
+    if (!dry) tx.commit();
     return report;
   });
 }

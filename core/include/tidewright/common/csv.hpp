@@ -20,6 +20,12 @@ struct Row {
 // mark at the start is skipped. Blank lines are skipped. An unterminated quote is an error
 // naming its line.
 Result<std::vector<Row>> parse(const std::string& text);
+// The same with another field separator (';' or '\t' as spreadsheets in many locales write).
+Result<std::vector<Row>> parse(const std::string& text, char delimiter);
+
+// The separator a spreadsheet most likely used, read from the first record (the header):
+// whichever of ',' ';' and TAB occurs most often outside quotes; ',' when none does.
+char detect_delimiter(const std::string& text);
 
 // Quotes a cell when it holds a comma, quote, CR or LF (RFC 4180 section 2.6-2.7).
 std::string escape_cell(const std::string& cell);

@@ -5,7 +5,9 @@
 #pragma once
 
 #include <cstdint>
+#include <functional>
 #include <string>
+#include <vector>
 
 #include "tidewright/common/result.hpp"
 
@@ -38,7 +40,22 @@ struct ParseOptions {
   DateOrder order = DateOrder::Unspecified;
   // Offset of local time from UTC in minutes for texts without a zone (e.g. +60 for UTC+1).
   int utc_offset_minutes = 0;
+  // When set, it decides the offset of a text without a zone instead: given the local civil
+  // time written as if it were UTC (seconds since the epoch), the offset of that zone then in
+  // minutes. The shell passes the machine's or a named IANA zone (daylight saving included);
+  // the core never reads zone data itself.
+  std::function<int(std::int64_t local_as_utc_s)> zone_offset_minutes;
 };
+
+// A UTC offset as people write it: +05:30, -08:00, +0530, +5, -8, Z or 0. Accepted range
+// -12:00 to +14:00 (ranges::kUtcOffsetMinutes, the offsets in use on Earth). Errors name the
+// field "utc_offset" and the range.
+Result<int> parse_utc_offset(const std::string& text);
+
+// The date order a column of times shows: DayMonthYear when some text reads only as
+// day/month/year and none only as month/day/year, MonthDayYear the other way round,
+// Unspecified when no text decides it or when the texts disagree.
+DateOrder infer_date_order(const std::vector<std::string>& texts);
 
 // Parses one date-time into seconds since 1970-01-01T00:00:00Z. Accepted forms:
 //   ISO 8601: YYYY-MM-DD, YYYY-MM-DDTHH:MM[:SS[.fff]] with 'T' or a space, optional zone

@@ -55,6 +55,9 @@ Range of_rise(Parameter p);
 // ------------------------------------------------------------ the room
 // CO2 in the air the water settles with: outdoor air is ~425 ppm, closed rooms reach several
 // thousand [common practice].
+// Offsets of local time from UTC in use on Earth (UTC-12:00 Baker Island to UTC+14:00 Line
+// Islands; IANA time zone database).
+inline constexpr Range kUtcOffsetMinutes{-720.0, 840.0, "minutes"};
 inline constexpr Range kRoomCo2Ppm{150.0, 10000.0, "ppm"};
 
 // ------------------------------------------------------------ systems, doses, stocks

@@ -15,7 +15,13 @@
 //   alkalinity_dkh, alkalinity_meq_l, alkalinity_mg_l_caco3, calcium_mg_l, magnesium_mg_l,
 //   ph_nbs, ph_total, ph_sws, ph_free, salinity_psu, specific_gravity, temperature_c,
 //   temperature_f, nitrate_mg_l, phosphate_mg_l. Every non-empty cell becomes a test result.
-//   Wide and long columns may be mixed in one file.
+//   Wide and long columns may be mixed in one file. Headers are read flexibly
+//   (journal_csv_columns.hpp): "Calcium (mg/L)", "Ca_mg_l", "Alkalinity [dKH]", "alk meq/L",
+//   "Date", "Notes"; the user may map a column with CsvImportOptions::mappings. Every column
+//   that is not read is listed in the report with its reason.
+// Spreadsheet habits: the separator (',' ';' TAB) is detected from the header or given;
+// numbers may use a decimal comma ("8,2", a quoted cell in a comma file); blank rows and rows
+// of bare separators are skipped and counted; a UTF-8 BOM and CRLF line ends are fine.
 #pragma once
 
 #include <string>
@@ -23,13 +29,24 @@
 
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/journal/journal.hpp"
+#include "tidewright/journal/journal_csv_columns.hpp"
 #include "tidewright/common/result.hpp"
 
 namespace tw::journal {
 
 struct CsvImportOptions {
-  datetime::ParseOptions time;             // date order (dmy/mdy) and local UTC offset
+  datetime::ParseOptions time;             // date order (dmy/mdy) and local UTC offset or zone
   std::optional<SystemId> default_system;  // for rows without a system cell
+  char delimiter = 0;                      // ',' ';' '\t', or 0: detected from the header
+  std::vector<CsvColumnMapping> mappings;  // the user's reading of some columns
+  // The time now: a row later than this (beyond check_not_in_future's slack) is refused with
+  // the same rule as a new entry. Unset: no check (a file of old data is read as it is).
+  std::optional<std::int64_t> now_s;
+};
+
+struct UnusedColumn {
+  std::string name;    // the header cell as written
+  std::string reason;  // why it is not read
 };
 
 struct RejectedRow {
@@ -42,6 +59,12 @@ struct CsvImportReport {
   std::vector<EventId> added;       // ids of the new events, in file order
   int duplicates_skipped = 0;       // rows equal to an event already in the journal
   std::vector<RejectedRow> rejected;
+  std::vector<UnusedColumn> unused_columns;  // every header cell that is not read, in file order
+  int blank_rows_skipped = 0;                // rows with no text in any cell (bare separators)
+  char delimiter = ',';                      // the separator used
+  // The date order used for dates like 03/04/2026: the one given, or the one the file's own
+  // dates show (a 25/03/2026 anywhere makes it day/month/year), or Unspecified.
+  datetime::DateOrder date_order = datetime::DateOrder::Unspecified;
 };
 
 // Adds every valid row to the journal and reports every other row with its line and reason.

@@ -427,9 +427,14 @@ Result<std::string> plan_input_to_json(const PlanInput& input);
 std::string plan_to_json(const PlanInput& input, const Plan& plan);
 // RFC 4180 CSV, one row per dose, CRLF line ends, formula-safe cells.
 std::string plan_to_csv(const PlanInput& input, const Plan& plan);
-// RFC 5545 iCalendar: one VEVENT per dose (manual doses get a VALARM reminder), CRLF, lines
-// folded at 75 octets. dtstamp_utc: "YYYYMMDDTHHMMSSZ" (the caller's clock; the core has none).
-Result<std::string> plan_to_icalendar(const PlanInput& input, const Plan& plan, const std::string& dtstamp_utc);
+// RFC 5545 iCalendar: one VEVENT per dose given by hand (each with a VALARM reminder), or per
+// dose of every device with IcsDoses::All (pumps dose by themselves: no reminder). CRLF, lines
+// folded at 75 octets (never inside a UTF-8 sequence). Each UID names the system (a hash of its
+// name), the plan's start, the dose and its delivery, so calendars of two systems never share
+// one. dtstamp_utc: "YYYYMMDDTHHMMSSZ", a real UTC date-time (the caller's clock; the core has none).
+enum class IcsDoses { HandOnly, All };
+Result<std::string> plan_to_icalendar(const PlanInput& input, const Plan& plan, const std::string& dtstamp_utc,
+                                      IcsDoses doses = IcsDoses::HandOnly);
 // Plain text for print: the verdict first, then limits with sources, day table, findings, cautions.
 std::string plan_to_text(const PlanInput& input, const Plan& plan);
 // The verdict alone: its headline, then (when it cannot hold) what is short and what would fix

@@ -101,16 +101,25 @@ class JournalStore {
     std::int64_t events_added = 0;
     std::int64_t duplicates_skipped = 0;  // events already in the journal (same system, time, content)
     std::vector<journal::RejectedRow> rejected;  // CSV rows refused (with line and reason)
+    std::vector<journal::UnusedColumn> unused_columns;  // CSV columns not read, with the reason
+    std::int64_t blank_rows_skipped = 0;                // CSV rows with no text in any cell
+    char delimiter = ',';                               // the CSV separator used
+    datetime::DateOrder date_order = datetime::DateOrder::Unspecified;  // as CsvImportReport
+    std::vector<journal::Event> would_add;  // a dry run: the events that would be stored
   };
+  // Commit stores the import; DryRun does all the same work and checks in the transaction,
+  // fills would_add, and rolls back: nothing is stored.
+  enum class ImportMode { Commit, DryRun };
   // A whole journal (parsed and validated by journal_file.hpp) in one transaction. Into an
   // empty database the ids, description and next id are kept exactly (opening an old JSON
   // journal); otherwise systems are matched by name (new ones added) and events get new ids,
   // skipping duplicates. All or nothing.
-  Result<ImportReport> import_journal(const journal::Journal& journal);
+  Result<ImportReport> import_journal(const journal::Journal& journal, ImportMode mode = ImportMode::Commit);
   // CSV (journal_csv.hpp) read from the stream in chunks of rows, in one transaction: the
   // accepted rows are committed together, every refused row is reported with its line. A
   // file-level error (no header, unclosed quote...) adds nothing.
-  Result<ImportReport> import_csv(std::istream& in, const journal::CsvImportOptions& options);
+  Result<ImportReport> import_csv(std::istream& in, const journal::CsvImportOptions& options,
+                                  ImportMode mode = ImportMode::Commit);
 
   // ---------------------------------------------------------------- 5. Exports
   // The whole journal in the documented JSON format (docs/journal-format.md), written event

@@ -1,0 +1,65 @@
+// The one rule for numbers people type (number_text.hpp) and UTC offsets (datetime.hpp).
+#include <doctest/doctest.h>
+
+#include "tidewright/common/datetime.hpp"
+#include "tidewright/common/number_text.hpp"
+
+using tw::number_text::DecimalMark;
+using tw::number_text::read_decimal;
+
+TEST_CASE("number_text: plain decimals, signs and exponents are read") {
+  CHECK(*read_decimal("8.2") == doctest::Approx(8.2));
+  CHECK(*read_decimal("-3") == -3.0);
+  CHECK(*read_decimal("+.5") == 0.5);
+  CHECK(*read_decimal("5.") == 5.0);
+  CHECK(*read_decimal("1e-3") == doctest::Approx(0.001));
+  CHECK(*read_decimal("8,2", DecimalMark::PointOrComma) == doctest::Approx(8.2));
+}
+
+TEST_CASE("number_text: hex, inf, nan, spaces, a second mark and a comma where none is allowed are refused") {
+  for (const char* bad : {"0x10", "0X1p3", "inf", "-inf", "nan", "NaN", "infinity", "", " 8", "8 ", "8.2.1", "1,2.3",
+                          "e5", "1e", "--1", "1e999", "8,2", "abc", "."}) {
+    CAPTURE(bad);
+    CHECK_FALSE(read_decimal(bad).has_value());
+  }
+  CHECK_FALSE(read_decimal("8,2,1", DecimalMark::PointOrComma).has_value());
+  auto e = tw::number_text::read_decimal_or_error("value", "nan");
+  REQUIRE_FALSE(e.ok());
+  CHECK(e.error().field == "value");
+  CHECK(e.error().message.find("is not a number") != std::string::npos);
+}
+
+TEST_CASE("datetime: UTC offsets -12:00 to +14:00 in the ways people write them") {
+  using tw::datetime::parse_utc_offset;
+  CHECK(*parse_utc_offset("+05:30") == 330);
+  CHECK(*parse_utc_offset("-08:00") == -480);
+  CHECK(*parse_utc_offset("+0545") == 345);
+  CHECK(*parse_utc_offset("-8") == -480);
+  CHECK(*parse_utc_offset("Z") == 0);
+  CHECK(*parse_utc_offset("+14:00") == 840);
+  CHECK(*parse_utc_offset("-12:00") == -720);
+  for (const char* bad : {"99999", "+14:01", "-12:30", "15", "+05:60", "abc", "", "+5:3", "60"}) {
+    CAPTURE(bad);
+    auto r = parse_utc_offset(bad);
+    REQUIRE_FALSE(r.ok());
+    CHECK(r.error().field == "utc_offset");
+    CHECK(r.error().message.find("-12:00 to +14:00") != std::string::npos);
+  }
+}
+
+TEST_CASE("datetime: a zone callback decides times without a zone; a written zone still wins") {
+  tw::datetime::ParseOptions p;
+  p.zone_offset_minutes = [](std::int64_t) { return 120; };
+  CHECK(*tw::datetime::parse_datetime("2026-07-01 08:00", p) == *tw::datetime::parse_datetime("2026-07-01T06:00Z"));
+  CHECK(*tw::datetime::parse_datetime("2026-07-01T08:00Z", p) == *tw::datetime::parse_datetime("2026-07-01T08:00Z"));
+}
+
+TEST_CASE("datetime: a column of dates shows its order when one date can be read only one way") {
+  using tw::datetime::DateOrder;
+  using tw::datetime::infer_date_order;
+  CHECK(infer_date_order({"03/04/2026", "25/03/2026"}) == DateOrder::DayMonthYear);
+  CHECK(infer_date_order({"03/04/2026", "03/25/2026"}) == DateOrder::MonthDayYear);
+  CHECK(infer_date_order({"03/04/2026", "05/06/2026"}) == DateOrder::Unspecified);
+  CHECK(infer_date_order({"25/03/2026", "03/25/2026"}) == DateOrder::Unspecified);
+  CHECK(infer_date_order({"2026-03-25"}) == DateOrder::Unspecified);
+}
