@@ -427,10 +427,13 @@ void run_check(const LogOptions& o) {
   const auto r = st->check_integrity();
   if (o.json) {
     std::cout << nlohmann::json{{"ok", r.ok}, {"schema_version", r.schema_version}, {"systems", r.systems},
-                                {"events", r.events}, {"problems", r.problems}}.dump(2) << "\n";
+                                {"events", r.events}, {"problems", r.problems}, {"notes", r.notes}}.dump(2) << "\n";
   } else {
     std::cout << fmt::format("{}: schema version {}, {} systems, {} events\n", st->path(), r.schema_version,
                              r.systems, r.events);
+    for (const auto& n : r.notes) {
+      std::cout << "note: " << n << " (kept from before the rule; rename it with tidewright log edit system --id N --name NEW)\n";
+    }
     if (r.ok) {
       std::cout << "ok: the database file is sound, every event belongs to a system, and every record "
                    "passes the same checks as a new entry\n";

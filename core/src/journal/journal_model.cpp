@@ -8,6 +8,7 @@
 
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/journal/journal.hpp"
+#include "tidewright/journal/system_name.hpp"
 
 namespace tw::journal {
 
@@ -327,6 +328,8 @@ Result<SystemId> add_system(Journal& journal, System system) {
   if (system.id < 0 || (system.id != 0 && id_in_use(journal, system.id))) {
     return Error{"id", fmt::format("id {} is already in use or negative", system.id)};
   }
+  system.name = trim_system_name(system.name);
+  if (Status n = check_system_name(system.name); !n) return n.error();
   Status s = validate_system(journal, system);
   if (!s) return s.error();
   if (system.id == 0) system.id = journal.next_id;
@@ -348,10 +351,18 @@ Result<EventId> add_event(Journal& journal, Event event) {
   return id;
 }
 
-Status update_system(Journal& journal, const System& system) {
-  auto it = find_by_id(journal.systems, system.id);
+Status update_system(Journal& journal, const System& changed) {
+  auto it = find_by_id(journal.systems, changed.id);
   if (it == journal.systems.end()) {
-    return Error{"id", fmt::format("no system with id {}", system.id)};
+    return Error{"id", fmt::format("no system with id {}", changed.id)};
+  }
+  // A new name meets today's rule; a name kept as it was (perhaps from before the rule) stays.
+  System system = changed;
+  if (system.name != it->name) {
+    system.name = trim_system_name(system.name);
+    if (system.name != it->name) {
+      if (Status n = check_system_name(system.name); !n) return n;
+    }
   }
   Status s = validate_system(journal, system);
   if (!s) return s;

@@ -383,7 +383,7 @@ Status JournalStore::update_system(const System& system) {
     while (st.step()) scratch.events.push_back(read_event(st));
     Status s = journal::update_system(scratch, system);
     if (!s) return s;
-    update_system_row(db_, system);
+    update_system_row(db_, *journal::find_system(scratch, system.id));  // as the core stored it (name trimmed)
     tx.commit();
     return Ok{};
   });

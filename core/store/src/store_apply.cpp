@@ -5,6 +5,7 @@
 
 #include "store_internal.hpp"
 #include "store_rows.hpp"
+#include "tidewright/journal/system_name.hpp"
 
 namespace tw::store {
 
@@ -53,6 +54,9 @@ Result<JournalStore::ApplyReport> JournalStore::apply(const JournalChanges& c) {
       auto it = std::find_if(scratch.systems.begin(), scratch.systems.end(), [&](const System& x) { return x.id == s.id; });
       if (it != scratch.systems.end()) *it = s;
       else scratch.systems.push_back(s);
+      if (!update) {  // a new system's name meets today's rule (the core's add_system trims it)
+        if (Status ok = check_system_name(s.name); !ok) return ok.error();
+      }
       if (Status ok = validate_system(scratch, s); !ok) return ok.error();
       if (update) update_system_row(db_, s);
       else insert_system(db_, s);

@@ -8,6 +8,7 @@
 
 #include "store_internal.hpp"
 #include "store_rows.hpp"
+#include "tidewright/journal/system_name.hpp"
 #include "store_schema.hpp"
 
 namespace tw::store {
@@ -114,6 +115,7 @@ JournalStore::IntegrityReport JournalStore::check_integrity() const {
     for (const System& s : all.systems) {
       max_id = std::max(max_id, s.id);
       if (Status st = validate_system(all, s); !st) problem(fmt::format("system {}: {}", s.id, st.error().message));
+      else if (Status n = check_system_name(s.name); !n && r.notes.size() < 50) r.notes.push_back(fmt::format("system {}: {}", s.id, n.error().message));
     }
     // In id order: a schedule always has a lower id than the doses marked against it, and is
     // kept in `all` so that their marks can be checked.

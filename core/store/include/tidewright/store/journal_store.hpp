@@ -131,6 +131,9 @@ class JournalStore {
   struct IntegrityReport {
     bool ok = true;
     std::vector<std::string> problems;  // one line each, plain words
+    // Not problems: records from before a newer rule (a system name that reads as an id, has
+    // spaces around it or control characters), kept and usable, best renamed.
+    std::vector<std::string> notes;
     std::int64_t systems = 0, events = 0;
     int schema_version = 0;
   };
