@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/common/one_line.hpp"
 #include "tidewright/journal/schedule.hpp"
 
 namespace tw::shell {
@@ -14,7 +15,7 @@ std::string describe_system_line(const System& s) {
                         ? fmt::format("{:.1f} gal", units::litres_to_us_gallons(s.volume_l))
                         : fmt::format("{:g} L", s.volume_l);
   const double t = units::temperature_from_celsius(s.default_temperature_c, s.units.temperature);
-  std::string out = fmt::format("{} ({}, {} net, S {:g}, {:g} {}", s.name, to_string(s.kind), vol,
+  std::string out = fmt::format("{} ({}, {} net, S {:g}, {:g} {}", text::one_line(s.name), to_string(s.kind), vol,
                                 s.default_salinity, t, to_string(s.units.temperature));
   std::string targets;
   auto add = [&](const char* what, const std::optional<double>& v, const char* unit) {
@@ -77,7 +78,8 @@ std::string describe_event_line(const Journal& j, const Event& e) {
   const System* s = find_system(j, e.system_id);
   std::string t = datetime::format_iso8601_utc(e.time_s);  // 2026-11-01T08:00:00Z
   t = t.substr(0, 10) + " " + t.substr(11, 5) + "Z";
-  return fmt::format("{:>5}  {}  {:<20}  {}", e.id, t, s ? s->name : "?", what(e.data));
+  // Free text (a note, a kit, an older system name) may hold line breaks: escaped, one line.
+  return fmt::format("{:>5}  {}  {:<20}  {}", e.id, t, s ? text::one_line(s->name) : "?", text::one_line(what(e.data)));
 }
 
 }  // namespace tw::shell
