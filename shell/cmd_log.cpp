@@ -308,7 +308,7 @@ void run_export(const LogOptions& o) {
   }
   const EventFilter f = filter_from(o, *st);
   write_stream_atomic(o.output, [&](std::ostream& out) {
-    Status done = o.format == "json" ? st->export_json(out) : st->export_csv(out, f);
+    Status done = o.format == "json" ? st->export_json(out, f) : st->export_csv(out, f);
     if (!done) throw CommandError(done.error().message);
   });
 }
@@ -544,7 +544,7 @@ void register_log(CLI::App& app) {
     c->add_option("--to", o->to, "Up to this date (whole day) or time");
     c->add_option("--date-order", o->date_order, "dmy or mdy");
   };
-  CLI::App* exp = log->add_subcommand("export", "Export events as CSV, or the whole journal as JSON");
+  CLI::App* exp = log->add_subcommand("export", "Export events as CSV, or as a JSON journal; both keep only what the filters select (JSON adds any schedule a kept dose is marked against)");
   exp->add_option("--format", o->format, "csv or json")->default_str("csv");
   exp->add_option("--output,-o", o->output, "File to write (- for standard output)")->default_str("-");
   add_filters(exp);

@@ -113,9 +113,11 @@ class JournalStore {
   Result<ImportReport> import_csv(std::istream& in, const journal::CsvImportOptions& options);
 
   // ---------------------------------------------------------------- 5. Exports
-  // The whole journal in the documented JSON format (docs/journal-format.md), written event
-  // by event; parse_journal reads it back to the same journal.
-  Status export_json(std::ostream& out) const;
+  // The journal in the documented JSON format (docs/journal-format.md), written event by
+  // event; parse_journal reads it back to the same journal. A filter keeps the events the CSV
+  // export of the same filter keeps (with --system, only that system), plus any schedule a
+  // kept dose is marked against, so that the file is still a valid journal.
+  Status export_json(std::ostream& out, const journal::EventFilter& filter = {}) const;
   // Long-form CSV of the filter's events (journal_csv.hpp columns), in chunks.
   Status export_csv(std::ostream& out, const journal::EventFilter& filter = {}) const;
 
