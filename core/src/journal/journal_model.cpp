@@ -9,6 +9,7 @@
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/journal/system_name.hpp"
+#include "journal_tidy_internal.hpp"
 
 namespace tw::journal {
 
@@ -329,6 +330,7 @@ Result<SystemId> add_system(Journal& journal, System system) {
     return Error{"id", fmt::format("id {} is already in use or negative", system.id)};
   }
   system.name = trim_system_name(system.name);
+  tidy_numbers(system);
   if (Status n = check_system_name(system.name); !n) return n.error();
   Status s = validate_system(journal, system);
   if (!s) return s.error();
@@ -342,6 +344,7 @@ Result<EventId> add_event(Journal& journal, Event event) {
   if (event.id < 0 || (event.id != 0 && id_in_use(journal, event.id))) {
     return Error{"id", fmt::format("id {} is already in use or negative", event.id)};
   }
+  tidy_numbers(event);
   Status s = validate_event(journal, event);
   if (!s) return s.error();
   if (event.id == 0) event.id = journal.next_id;
@@ -358,6 +361,7 @@ Status update_system(Journal& journal, const System& changed) {
   }
   // A new name meets today's rule; a name kept as it was (perhaps from before the rule) stays.
   System system = changed;
+  tidy_numbers(system);
   if (system.name != it->name) {
     system.name = trim_system_name(system.name);
     if (system.name != it->name) {
@@ -381,7 +385,9 @@ Status update_system(Journal& journal, const System& changed) {
   return Ok{};
 }
 
-Status update_event(Journal& journal, const Event& event) {
+Status update_event(Journal& journal, const Event& changed) {
+  Event event = changed;
+  tidy_numbers(event);
   auto it = find_by_id(journal.events, event.id);
   if (it == journal.events.end()) return Error{"id", fmt::format("no event with id {}", event.id)};
   Status s = validate_event(journal, event);

@@ -400,7 +400,7 @@ Status JournalStore::update_event(const Event& event) {
     add_schedule_context(scratch, event);
     Status s = journal::update_event(scratch, event);
     if (!s) return s;
-    update_event_row(db_, event);
+    update_event_row(db_, *journal::find_event(scratch, event.id));  // as the core stored it (numbers rounded)
     tx.commit();
     return Ok{};
   });
