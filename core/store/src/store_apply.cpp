@@ -5,6 +5,7 @@
 
 #include "store_internal.hpp"
 #include "store_rows.hpp"
+#include "store_changes.hpp"
 #include "tidewright/journal/system_name.hpp"
 
 namespace tw::store {
@@ -78,6 +79,7 @@ Result<JournalStore::ApplyReport> JournalStore::apply(const JournalChanges& c) {
     }
     if (c.description) write_meta(db_, "description", *c.description);
     write_next_id(db_, next_id);
+    log_bulk(db_, "a save of the app's changes");
     tx.commit();
     return report;
   });

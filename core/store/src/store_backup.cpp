@@ -8,6 +8,7 @@
 
 #include "store_internal.hpp"
 #include "store_rows.hpp"
+#include "store_changes.hpp"
 #include "tidewright/journal/system_name.hpp"
 #include "store_schema.hpp"
 
@@ -73,6 +74,7 @@ Status JournalStore::restore_from_database(const std::string& backup_path) {
     write_next_id(db_, read_next_id(src));
     const std::string description = read_meta(src, "description");
     if (!description.empty()) write_meta(db_, "description", description);
+    log_bulk(db_, "a restore from " + backup_path);
     tx.commit();
     return Ok{};
   });
@@ -83,6 +85,7 @@ Status JournalStore::restore_from_journal(const Journal& journal) {
     WriteTransaction tx(db_);
     clear_all(db_);
     insert_journal_keeping_ids(db_, journal);
+    log_bulk(db_, "a restore from a JSON journal");
     tx.commit();
     return Ok{};
   });

@@ -84,6 +84,12 @@ class JournalStore {
   Status remove_system(journal::SystemId id, bool with_events = false);
   Status remove_event(journal::EventId id);
   Status set_description(const std::string& text);
+  // Each add, update and remove above is recorded (schema version 4, table changes) in its
+  // own transaction; undo_last puts the journal back as it was before the last one and
+  // returns what it undid ("added test 12"). Restores and apply() (the app's saves) are
+  // recorded as a stop: undo refuses to reach past them (Error field "undo"). Imports are not
+  // recorded yet.
+  Result<std::string> undo_last();
 
   // Several changes at once (journal_diff.hpp: what an app changed since it last saved), in one
   // transaction, each record validated by the core. A record the change created whose id
