@@ -1,7 +1,8 @@
 // `tidewright log`: the tank journal from the command line.
 //   log add system|test|dose|water-change|top-off|note ...   log import FILE (CSV or JSON)
 //   log export [--format csv|json]   log list [filters] [--last N]   log systems
-//   log remove --id N   log backup FILE   log restore FILE   log check
+//   log remove --id N   log edit event|system --id N ...   log undo (cmd_log_edit.cpp)
+//   log backup FILE   log restore FILE   log check
 //   log schedule start|change|stop|missed|extra|list   (cmd_log_schedule.cpp)
 // The journal is a database (core/store, SQLite; --journal rules in journal_location.hpp).
 // Every change is one transaction validated by the core: a refused change prints one line
@@ -18,6 +19,7 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
+#include "backup_finder.hpp"
 #include "commands.hpp"
 #include "file_io.hpp"
 #include "journal_access.hpp"
@@ -412,16 +414,13 @@ void run_restore(const LogOptions& o) {
   std::cout << "\n";
 }
 
-const char* kRestoreAdvice =
-    "restore a backup (tidewright log restore FILE) or export what can be read "
-    "(tidewright log export --format json)\n";
 
 void run_check(const LogOptions& o) {
   std::unique_ptr<Store> st;
   try {
     st = open_for(o, Access::Read);
   } catch (const CommandError& e) {  // a file too damaged to open is a finding, not a usage error
-    std::cout << "problem: " << e.what() << "\n" << kRestoreAdvice << std::flush;
+    std::cout << "problem: " << e.what() << "\n" << damaged_journal_advice(o.journal) << std::flush;
     std::exit(4);
   }
   const auto r = st->check_integrity();
@@ -439,7 +438,7 @@ void run_check(const LogOptions& o) {
                    "passes the same checks as a new entry\n";
     } else {
       for (const auto& p : r.problems) std::cout << "problem: " << p << "\n";
-      std::cout << kRestoreAdvice;
+      std::cout << damaged_journal_advice(st->path());
     }
   }
   if (!r.ok) {
@@ -574,6 +573,7 @@ void register_log(CLI::App& app) {
   chk->callback([o] { run_check(*o); });
 
   register_log_schedule(*log, &o->journal, &o->json);
+  register_log_edit(*log, &o->journal, &o->json);
 }
 
 // ---------------------------------------------------------------- shared with cmd_log_schedule

@@ -96,7 +96,7 @@ Result<std::string> JournalStore::undo_last() {
     const std::string before = last.is_null(4) ? "" : last.text(4);
     if (action == "bulk") {
       return Error{"undo", "the last change was " + summary + "; undo reverts single adds, edits and removals, "
-                           "not that (restore the copy kept beside the journal, if there is one)"};
+                           "not that"};
     }
     Journal scratch;
     scratch.systems = all_systems(db_);
