@@ -85,6 +85,17 @@ with tempfile.TemporaryDirectory() as tmp:
         check(f"undo: {expect}", r.returncode == 0 and expect in r.stdout.decode(), r.stdout + r.stderr)
     refused("nothing left to undo", [*log, "undo"], "undo", "no change to undo")
 
+    # An import is not recorded: undo refuses to reach past what it added.
+    run(*log, "add", "system", "--name", "Reef", "--volume", "300")
+    run(*log, "add", "note", "--text", "before the import", "--time", "2026-02-01T00:00Z")
+    rows = os.path.join(tmp, "rows.csv")
+    with open(rows, "w") as f:
+        f.write("time,type,parameter,value,unit\n2026-02-02T08:00Z,test,calcium,420,mg/L\n")
+    r = run(*log, "import", rows, "--system", "Reef")
+    check("import runs", r.returncode == 0, r.stderr)
+    now = run(*log, "export", "--format", "json").stdout
+    refused("undo after an import", [*log, "undo"], "undo", "import", same_as=now, log=log)
+
     # A database written by a build with schema version 2 migrates, keeps its records, and
     # records changes from then on.
     old = os.path.join(tmp, "old.db")

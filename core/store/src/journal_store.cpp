@@ -328,8 +328,8 @@ Result<SystemId> JournalStore::add_system(const System& system) {
     auto id = journal::add_system(scratch, system);
     if (!id) return id.error();
     insert_system(db_, *journal::find_system(scratch, *id));
-    log_added(db_, *journal::find_system(scratch, *id));
     write_next_id(db_, scratch.next_id);
+    log_added(db_, *journal::find_system(scratch, *id));
     tx.commit();
     return *id;
   });
@@ -369,8 +369,8 @@ Result<EventId> JournalStore::add_event(const Event& event) {
     if (!id) return id.error();
     Statement ins(db_, event_insert_sql());
     insert_event(ins, *journal::find_event(scratch, *id));
-    log_added(db_, *journal::find_event(scratch, *id));
     write_next_id(db_, scratch.next_id);
+    log_added(db_, *journal::find_event(scratch, *id));
     tx.commit();
     return *id;
   });

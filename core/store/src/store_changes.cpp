@@ -21,7 +21,8 @@ namespace {
 
 void log_row(sqlite3* db, const char* action, const char* record, std::int64_t id, const std::string* before,
              const std::string& summary) {
-  Statement st(db, "INSERT INTO changes (action, record, record_id, before, summary) VALUES (?, ?, ?, ?, ?)");
+  Statement st(db, "INSERT INTO changes (action, record, record_id, before, summary, next_id) VALUES (?, ?, ?, ?, ?, ?)");
+  st.bind(6, read_next_id(db));
   st.bind(1, std::string(action));
   if (record) st.bind(2, std::string(record)).bind(3, id);
   else st.bind_null(2).bind_null(3);
@@ -88,12 +89,18 @@ void check_or_throw(Status s, const std::string& what) {
 Result<std::string> JournalStore::undo_last() {
   return guarded(path_, [&]() -> Result<std::string> {
     WriteTransaction tx(db_);
-    Statement last(db_, "SELECT seq, action, record, record_id, before, summary FROM changes ORDER BY seq DESC LIMIT 1");
+    Statement last(db_, "SELECT seq, action, record, record_id, before, summary, next_id FROM changes ORDER BY seq DESC LIMIT 1");
     if (!last.step()) return Error{"undo", "there is no change to undo (changes are recorded from schema version 4 on)"};
     const std::int64_t seq = last.integer(0);
     const std::string action = last.text(1), record = last.text(2), summary = last.text(5);
     const std::int64_t id = last.integer(3);
     const std::string before = last.is_null(4) ? "" : last.text(4);
+    Statement newer(db_, "SELECT 1 FROM systems WHERE id >= ?1 UNION ALL SELECT 1 FROM events WHERE id >= ?1 LIMIT 1");
+    newer.bind(1, last.integer(6));
+    if (newer.step()) {
+      return Error{"undo", "records were added after the last recorded change (" + summary +
+                           "), by an import; undo does not reach past them (remove them with log remove --id N)"};
+    }
     if (action == "bulk") {
       return Error{"undo", "the last change was " + summary + "; undo reverts single adds, edits and removals, "
                            "not that"};

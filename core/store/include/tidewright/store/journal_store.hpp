@@ -88,7 +88,7 @@ class JournalStore {
   // own transaction; undo_last puts the journal back as it was before the last one and
   // returns what it undid ("added test 12"). Restores and apply() (the app's saves) are
   // recorded as a stop: undo refuses to reach past them (Error field "undo"). Imports are not
-  // recorded yet.
+  // recorded; undo refuses to reach past records an import added since the last change.
   Result<std::string> undo_last();
 
   // Several changes at once (journal_diff.hpp: what an app changed since it last saved), in one
