@@ -41,3 +41,22 @@ TEST_CASE("journal: what is added is stored rounded, so its JSON shows no float 
   CHECK(text.find("000000000") == std::string::npos);
   CHECK(text.find("999999999") == std::string::npos);
 }
+
+TEST_CASE("journal JSON: a record stored before rounding is written without noise and reads back exactly") {
+  using namespace tw::journal;
+  Journal old;  // put in directly, as an older program stored it
+  System s;
+  s.id = 1;
+  s.name = "Old reef";
+  s.volume_l = 2300.000000000001;
+  old.systems = {s};
+  old.next_id = 2;
+  const std::string text = serialize_journal(old);
+  CHECK(text.find("2300.000000000001") == std::string::npos);
+  CHECK(text.find("2300.0") != std::string::npos);
+  auto back = parse_journal(text);
+  REQUIRE(back.ok());
+  CHECK(back->systems[0].volume_l == 2300.0);
+  CHECK(serialize_journal(*back) == text);
+  CHECK(system_to_json(s).dump().find("000000000") == std::string::npos);
+}
