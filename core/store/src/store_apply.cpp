@@ -79,7 +79,9 @@ Result<JournalStore::ApplyReport> JournalStore::apply(const JournalChanges& c) {
     }
     if (c.description) write_meta(db_, "description", *c.description);
     write_next_id(db_, next_id);
-    log_bulk(db_, "a save of the app's changes");
+    if (!c.events_removed.empty() || !c.systems_removed.empty() || !c.systems_put.empty() || !c.events_put.empty()) {
+      log_bulk(db_, "a save of the app's changes");
+    }
     tx.commit();
     return report;
   });
