@@ -1,7 +1,8 @@
 // `tidewright log`: the tank journal from the command line.
 //   log add system|test|dose|water-change|top-off|note ...   log import FILE (CSV or JSON)
 //   log export [--format csv|json]   log list [filters] [--last N]   log systems
-//   log remove --id N   log backup FILE   log restore FILE   log check
+//   log remove --id N   log edit event|system --id N ...   log undo (cmd_log_edit.cpp)
+//   log backup FILE   log restore FILE   log check
 //   log schedule start|change|stop|missed|extra|list   (cmd_log_schedule.cpp)
 // The journal is a database (core/store, SQLite; --journal rules in journal_location.hpp).
 // Every change is one transaction validated by the core: a refused change prints one line
@@ -18,6 +19,7 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
+#include "backup_finder.hpp"
 #include "commands.hpp"
 #include "path_options.hpp"
 #include "file_io.hpp"
@@ -366,7 +368,7 @@ void run_export(const LogOptions& o) {
   }
   const EventFilter f = filter_from(o, *st);
   write_stream_atomic(o.output, [&](std::ostream& out) {
-    Status done = o.format == "json" ? st->export_json(out) : st->export_csv(out, f);
+    Status done = o.format == "json" ? st->export_json(out, f) : st->export_csv(out, f);
     if (!done) throw CommandError(done.error().message);
   });
 }
@@ -470,31 +472,31 @@ void run_restore(const LogOptions& o) {
   std::cout << "\n";
 }
 
-const char* kRestoreAdvice =
-    "restore a backup (tidewright log restore FILE) or export what can be read "
-    "(tidewright log export --format json)\n";
 
 void run_check(const LogOptions& o) {
   std::unique_ptr<Store> st;
   try {
     st = open_for(o, Access::Read);
   } catch (const CommandError& e) {  // a file too damaged to open is a finding, not a usage error
-    std::cout << "problem: " << e.what() << "\n" << kRestoreAdvice << std::flush;
+    std::cout << "problem: " << e.what() << "\n" << damaged_journal_advice(o.journal) << std::flush;
     std::exit(4);
   }
   const auto r = st->check_integrity();
   if (o.json) {
     std::cout << nlohmann::json{{"ok", r.ok}, {"schema_version", r.schema_version}, {"systems", r.systems},
-                                {"events", r.events}, {"problems", r.problems}}.dump(2) << "\n";
+                                {"events", r.events}, {"problems", r.problems}, {"notes", r.notes}}.dump(2) << "\n";
   } else {
     std::cout << fmt::format("{}: schema version {}, {} systems, {} events\n", st->path(), r.schema_version,
                              r.systems, r.events);
+    for (const auto& n : r.notes) {
+      std::cout << "note: " << n << " (kept from before the rule; rename it with tidewright log edit system --id N --name NEW)\n";
+    }
     if (r.ok) {
       std::cout << "ok: the database file is sound, every event belongs to a system, and every record "
                    "passes the same checks as a new entry\n";
     } else {
       for (const auto& p : r.problems) std::cout << "problem: " << p << "\n";
-      std::cout << kRestoreAdvice;
+      std::cout << damaged_journal_advice(st->path());
     }
   }
   if (!r.ok) {
@@ -607,7 +609,7 @@ void register_log(CLI::App& app) {
     c->add_option("--to", o->to, "Up to this date (whole day) or time");
     add_zone_options(c, *o);
   };
-  CLI::App* exp = log->add_subcommand("export", "Export events as CSV, or the whole journal as JSON");
+  CLI::App* exp = log->add_subcommand("export", "Export events as CSV, or as a JSON journal; both keep only what the filters select (JSON adds any schedule a kept dose is marked against)");
   exp->add_option("--format", o->format, "csv or json")->default_str("csv");
   exp->add_option("--output,-o", o->output, "File to write (- for standard output)")->default_str("-")->check(non_empty_path());
   add_filters(exp);
@@ -637,6 +639,7 @@ void register_log(CLI::App& app) {
   chk->callback([o] { run_check(*o); });
 
   register_log_schedule(*log, &o->journal, &o->json);
+  register_log_edit(*log, &o->journal, &o->json);
 }
 
 // ---------------------------------------------------------------- shared with cmd_log_schedule

@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "tidewright/journal/system_name.hpp"
 
 namespace tw::shell {
 
@@ -21,15 +22,13 @@ journal::System system_or_fail(const store::JournalStore& store, const std::stri
     if (all.size() == 1) return all[0];
     throw CommandError(fmt::format("{} is needed: the journal has {} systems", option, all.size()));
   }
-  if (auto s = store.system_by_name(key)) return *s;
-  try {
-    size_t used = 0;
-    const long long id = std::stoll(key, &used);
-    if (used == key.size()) {
-      if (auto s = store.system(id)) return *s;
-    }
-  } catch (const std::exception&) {
+  // An id wins over a name: a name that reads as an id is refused today (system_name.hpp),
+  // and one stored before the rule is still reached by its own id or by a name that is not
+  // someone else's id.
+  if (auto id = journal::id_from_text(key)) {
+    if (auto s = store.system(*id)) return *s;
   }
+  if (auto s = store.system_by_name(journal::trim_system_name(key))) return *s;
   std::string names;
   for (const auto& s : store.systems()) names += fmt::format("{}'{}' (id {})", names.empty() ? "" : ", ", s.name, s.id);
   throw CommandError(fmt::format("{} '{}' is not a system of this journal; it has: {}", option, key,

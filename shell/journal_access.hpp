@@ -13,7 +13,7 @@ namespace tw::shell {
 
 std::unique_ptr<store::JournalStore> open_journal_or_fail(const std::string& given, store::Access access);
 
-// A system by name (no case) or id; with an empty key the only system, if there is one.
+// A system by id (journal::id_from_text: "2", "#2") or else by name (no case, trimmed); with an empty key the only system, if there is one.
 // option is what the user typed ("--system"), used in the error.
 journal::System system_or_fail(const store::JournalStore& store, const std::string& key,
                                const std::string& option = "--system");

@@ -17,4 +17,7 @@ std::int64_t when_or_now(const std::string& text, const std::string& date_order,
 // `log schedule ...` under the log command; journal_path and json are the log command's options.
 void register_log_schedule(CLI::App& log, const std::string* journal_path, const bool* json);
 
+// `log edit event|system` and `log undo` (cmd_log_edit.cpp).
+void register_log_edit(CLI::App& log, const std::string* journal_path, const bool* json);
+
 }  // namespace tw::shell

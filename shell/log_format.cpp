@@ -3,6 +3,8 @@
 #include <fmt/format.h>
 
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/common/one_line.hpp"
+#include "tidewright/common/stored_number.hpp"
 #include "tidewright/journal/schedule.hpp"
 
 namespace tw::shell {
@@ -10,11 +12,9 @@ namespace tw::shell {
 using namespace tw::journal;
 
 std::string describe_system_line(const System& s) {
-  std::string vol = s.units.volume == units::VolumeUnit::UsGallon
-                        ? fmt::format("{:.1f} gal", units::litres_to_us_gallons(s.volume_l))
-                        : fmt::format("{:g} L", s.volume_l);
+  const std::string vol = volume_text(s.volume_l, s.units.volume);
   const double t = units::temperature_from_celsius(s.default_temperature_c, s.units.temperature);
-  std::string out = fmt::format("{} ({}, {} net, S {:g}, {:g} {}", s.name, to_string(s.kind), vol,
+  std::string out = fmt::format("{} ({}, {} net, S {:g}, {:g} {}", text::one_line(s.name), to_string(s.kind), vol,
                                 s.default_salinity, t, to_string(s.units.temperature));
   std::string targets;
   auto add = [&](const char* what, const std::optional<double>& v, const char* unit) {
@@ -29,7 +29,7 @@ std::string describe_system_line(const System& s) {
 }
 
 namespace {
-std::string what(const EventData& data) {
+std::string what(const EventData& data, units::VolumeUnit shown) {
   if (const auto* t = std::get_if<TestResult>(&data)) {
     std::string name = t->parameter == Parameter::Other ? t->other_name : tw::parameter_name(t->parameter);
     std::string s = fmt::format("test {} {:g} {}", name, t->value, t->unit);
@@ -52,7 +52,7 @@ std::string what(const EventData& data) {
     return s;
   }
   if (const auto* w = std::get_if<WaterChange>(&data)) {
-    std::string s = fmt::format("water change {:g} L", w->volume_l);
+    std::string s = "water change " + volume_text(w->volume_l, shown);
     std::string nw;
     auto add = [&](const char* k, const std::optional<double>& v, const char* unit) {
       if (v) nw += fmt::format("{}{} {:g}{}", nw.empty() ? "" : ", ", k, *v, unit);
@@ -65,7 +65,7 @@ std::string what(const EventData& data) {
     return s;
   }
   if (const auto* o = std::get_if<TopOff>(&data)) {
-    std::string s = fmt::format("top-off {:g} L {}", o->volume_l, to_string(o->kind));
+    std::string s = "top-off " + volume_text(o->volume_l, shown) + " " + to_string(o->kind);
     if (o->limewater_g_per_l) s += fmt::format(" ({:g} g/L)", *o->limewater_g_per_l);
     return s;
   }
@@ -77,7 +77,8 @@ std::string describe_event_line(const Journal& j, const Event& e) {
   const System* s = find_system(j, e.system_id);
   std::string t = datetime::format_iso8601_utc(e.time_s);  // 2026-11-01T08:00:00Z
   t = t.substr(0, 10) + " " + t.substr(11, 5) + "Z";
-  return fmt::format("{:>5}  {}  {:<20}  {}", e.id, t, s ? s->name : "?", what(e.data));
+  // Free text (a note, a kit, an older system name) may hold line breaks: escaped, one line.
+  return fmt::format("{:>5}  {}  {:<20}  {}", e.id, t, s ? text::one_line(s->name) : "?", text::one_line(what(e.data, s ? s->units.volume : units::VolumeUnit::Litre)));
 }
 
 }  // namespace tw::shell

@@ -128,7 +128,7 @@ void start_app(AppState& app) {
     app.store.problem = "Your saved data could not be read (" + stored.error().field + ": " +
                         stored.error().message + (loaded->notice.empty() ? "" : "; " + loaded->notice) + "). " +
                         (kept ? "A copy was kept as " + copy + " in " + platform::storage_location() +
-                                    "; the app started empty. Import a backup in Settings."
+                                    "; the app started empty. If you have a backup or an export, import it in Settings."
                               : "Keeping a copy failed too (" + error + ").");
     ++app.revision;
     return;

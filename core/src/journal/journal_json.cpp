@@ -8,7 +8,9 @@
 #include <fmt/format.h>
 
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/common/stored_number.hpp"
 #include "tidewright/journal/journal_file.hpp"
+#include "journal_tidy_internal.hpp"
 
 namespace tw::journal {
 
@@ -18,6 +20,15 @@ using nlohmann::json;
 namespace {
 void put_optional(json& j, const char* key, const std::optional<double>& v) {
   if (v) j[key] = *v;
+}
+// Every number written as the journal stores it (stored_number.hpp): no 2300.000000000001,
+// even from a record stored before numbers were rounded on entry.
+json tidy_json(json j) {
+  if (j.is_number_float()) return stored_number(j.get<double>());
+  if (j.is_structured()) {
+    for (auto& v : j) v = tidy_json(std::move(v));
+  }
+  return j;
 }
 }  // namespace
 
@@ -44,7 +55,7 @@ json system_to_json(const System& s) {
   put_optional(t, "calcium_mg_l", s.targets.calcium_mg_l);
   put_optional(t, "magnesium_mg_l", s.targets.magnesium_mg_l);
   j["targets"] = t;
-  return j;
+  return tidy_json(std::move(j));
 }
 
 json event_to_json(const Event& e) {
@@ -94,7 +105,7 @@ json event_to_json(const Event& e) {
   } else {
     j["text"] = std::get<Note>(e.data).text;
   }
-  return j;
+  return tidy_json(std::move(j));
 }
 
 std::string serialize_journal(const Journal& journal) {
@@ -356,8 +367,21 @@ Result<Event> read_event(const json& j, const std::string& path) {
 
 }  // namespace
 
-Result<System> system_from_json(const json& j) { return read_system(j, "system"); }
-Result<Event> event_from_json(const json& j) { return read_event(j, "event"); }
+// Read numbers are rounded as stored (stored_number.hpp), so writing and reading again is exact.
+Result<System> system_from_json(const json& j) {
+  auto read = read_system(j, "system");
+  if (!read) return read;
+  System s = std::move(read).value();
+  tidy_numbers(s);
+  return s;
+}
+Result<Event> event_from_json(const json& j) {
+  auto read = read_event(j, "event");
+  if (!read) return read;
+  Event e = std::move(read).value();
+  tidy_numbers(e);
+  return e;
+}
 
 // ---------------------------------------------------------------- 4. migration v1 -> v2
 Result<json> migrate_v1_to_v2(const json& v1) {
@@ -496,6 +520,7 @@ Result<Journal> parse_journal(const std::string& text, int* source_version) {
   for (size_t i = 0; i < systems->size(); ++i) {
     const std::string path = fmt::format("systems[{}]", i);
     TW_TRY(s, read_system((*systems)[i], path));
+    tidy_numbers(s);
     Status st = claim_id(s.id, path);
     if (!st) return st.error();
     st = validate_system(j, s);
@@ -506,6 +531,7 @@ Result<Journal> parse_journal(const std::string& text, int* source_version) {
   for (size_t i = 0; i < events->size(); ++i) {
     const std::string path = fmt::format("events[{}]", i);
     TW_TRY(e, read_event((*events)[i], path));
+    tidy_numbers(e);
     Status st = claim_id(e.id, path);
     if (!st) return st.error();
     st = validate_event(j, e);

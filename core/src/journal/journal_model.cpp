@@ -8,6 +8,8 @@
 
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/journal/journal.hpp"
+#include "tidewright/journal/system_name.hpp"
+#include "journal_tidy_internal.hpp"
 
 namespace tw::journal {
 
@@ -328,6 +330,9 @@ Result<SystemId> add_system(Journal& journal, System system) {
   if (system.id < 0 || (system.id != 0 && id_in_use(journal, system.id))) {
     return Error{"id", fmt::format("id {} is already in use or negative", system.id)};
   }
+  system.name = trim_system_name(system.name);
+  tidy_numbers(system);
+  if (Status n = check_system_name(system.name); !n) return n.error();
   Status s = validate_system(journal, system);
   if (!s) return s.error();
   if (system.id == 0) system.id = journal.next_id;
@@ -340,6 +345,7 @@ Result<EventId> add_event(Journal& journal, Event event) {
   if (event.id < 0 || (event.id != 0 && id_in_use(journal, event.id))) {
     return Error{"id", fmt::format("id {} is already in use or negative", event.id)};
   }
+  tidy_numbers(event);
   Status s = validate_event(journal, event);
   if (!s) return s.error();
   if (event.id == 0) event.id = journal.next_id;
@@ -349,10 +355,19 @@ Result<EventId> add_event(Journal& journal, Event event) {
   return id;
 }
 
-Status update_system(Journal& journal, const System& system) {
-  auto it = find_by_id(journal.systems, system.id);
+Status update_system(Journal& journal, const System& changed) {
+  auto it = find_by_id(journal.systems, changed.id);
   if (it == journal.systems.end()) {
-    return Error{"id", fmt::format("no system with id {}", system.id)};
+    return Error{"id", fmt::format("no system with id {}", changed.id)};
+  }
+  // A new name meets today's rule; a name kept as it was (perhaps from before the rule) stays.
+  System system = changed;
+  tidy_numbers(system);
+  if (system.name != it->name) {
+    system.name = trim_system_name(system.name);
+    if (system.name != it->name) {
+      if (Status n = check_system_name(system.name); !n) return n;
+    }
   }
   Status s = validate_system(journal, system);
   if (!s) return s;
@@ -371,7 +386,9 @@ Status update_system(Journal& journal, const System& system) {
   return Ok{};
 }
 
-Status update_event(Journal& journal, const Event& event) {
+Status update_event(Journal& journal, const Event& changed) {
+  Event event = changed;
+  tidy_numbers(event);
   auto it = find_by_id(journal.events, event.id);
   if (it == journal.events.end()) return Error{"id", fmt::format("no event with id {}", event.id)};
   Status s = validate_event(journal, event);

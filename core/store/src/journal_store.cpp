@@ -13,6 +13,7 @@
 #include "store_internal.hpp"
 #include "store_rows.hpp"
 #include "store_schema.hpp"
+#include "store_changes.hpp"
 
 namespace tw::store {
 
@@ -328,6 +329,7 @@ Result<SystemId> JournalStore::add_system(const System& system) {
     if (!id) return id.error();
     insert_system(db_, *journal::find_system(scratch, *id));
     write_next_id(db_, scratch.next_id);
+    log_added(db_, *journal::find_system(scratch, *id));
     tx.commit();
     return *id;
   });
@@ -368,6 +370,7 @@ Result<EventId> JournalStore::add_event(const Event& event) {
     Statement ins(db_, event_insert_sql());
     insert_event(ins, *journal::find_event(scratch, *id));
     write_next_id(db_, scratch.next_id);
+    log_added(db_, *journal::find_event(scratch, *id));
     tx.commit();
     return *id;
   });
@@ -381,9 +384,12 @@ Status JournalStore::update_system(const System& system) {
     Statement st(db_, (std::string("SELECT ") + kEventColumns + " FROM events WHERE system_id = ?").c_str());
     st.bind(1, system.id);
     while (st.step()) scratch.events.push_back(read_event(st));
+    const System* stored = journal::find_system(scratch, system.id);
+    const std::optional<System> before = stored ? std::optional<System>(*stored) : std::nullopt;
     Status s = journal::update_system(scratch, system);
     if (!s) return s;
-    update_system_row(db_, system);
+    if (before) log_edited(db_, *before);
+    update_system_row(db_, *journal::find_system(scratch, system.id));  // as the core stored it (name trimmed)
     tx.commit();
     return Ok{};
   });
@@ -396,11 +402,13 @@ Status JournalStore::update_event(const Event& event) {
     scratch.systems = all_systems(db_);
     auto old = this->event(event.id);
     if (!old) return Error{"id", fmt::format("no event with id {}", event.id)};
+    const Event before = *old;
     scratch.events.push_back(std::move(*old));
     add_schedule_context(scratch, event);
     Status s = journal::update_event(scratch, event);
     if (!s) return s;
-    update_event_row(db_, event);
+    log_edited(db_, before);
+    update_event_row(db_, *journal::find_event(scratch, event.id));  // as the core stored it (numbers rounded)
     tx.commit();
     return Ok{};
   });
@@ -409,13 +417,21 @@ Status JournalStore::update_event(const Event& event) {
 Status JournalStore::remove_system(SystemId id, bool with_events) {
   return guarded(path_, [&]() -> Status {
     WriteTransaction tx(db_);
-    if (!system(id)) return Error{"id", fmt::format("no system with id {}", id)};
+    const auto before = system(id);
+    if (!before) return Error{"id", fmt::format("no system with id {}", id)};
     EventFilter f;
     f.system_id = id;
     const std::int64_t n = event_count(f);
     if (n > 0 && !with_events) {
       return Error{"id", fmt::format("system {} still has {} events; remove them too to delete it", id, n)};
     }
+    std::vector<Event> removed;
+    if (n > 0) {
+      Statement all(db_, (std::string("SELECT ") + kEventColumns + " FROM events WHERE system_id = ? ORDER BY time_s, id").c_str());
+      all.bind(1, id);
+      while (all.step()) removed.push_back(read_event(all));
+    }
+    log_removed(db_, *before, removed);
     Statement ev(db_, "DELETE FROM events WHERE system_id = ?");
     ev.bind(1, id).run();
     Statement sy(db_, "DELETE FROM systems WHERE id = ?");
@@ -434,9 +450,11 @@ Status JournalStore::remove_event(EventId id) {
       return Error{"id", fmt::format("schedule {} has doses marked against it (event {}); remove those first", id,
                                      refs.integer(0))};
     }
+    const auto before = event(id);
+    if (!before) return Error{"id", fmt::format("no event with id {}", id)};
+    log_removed(db_, *before);
     Statement st(db_, "DELETE FROM events WHERE id = ?");
     st.bind(1, id).run();
-    if (sqlite3_changes(db_) == 0) return Error{"id", fmt::format("no event with id {}", id)};
     tx.commit();
     return Ok{};
   });

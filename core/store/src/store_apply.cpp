@@ -5,6 +5,8 @@
 
 #include "store_internal.hpp"
 #include "store_rows.hpp"
+#include "store_changes.hpp"
+#include "tidewright/journal/system_name.hpp"
 
 namespace tw::store {
 
@@ -53,6 +55,9 @@ Result<JournalStore::ApplyReport> JournalStore::apply(const JournalChanges& c) {
       auto it = std::find_if(scratch.systems.begin(), scratch.systems.end(), [&](const System& x) { return x.id == s.id; });
       if (it != scratch.systems.end()) *it = s;
       else scratch.systems.push_back(s);
+      if (!update) {  // a new system's name meets today's rule (the core's add_system trims it)
+        if (Status ok = check_system_name(s.name); !ok) return ok.error();
+      }
       if (Status ok = validate_system(scratch, s); !ok) return ok.error();
       if (update) update_system_row(db_, s);
       else insert_system(db_, s);
@@ -74,6 +79,9 @@ Result<JournalStore::ApplyReport> JournalStore::apply(const JournalChanges& c) {
     }
     if (c.description) write_meta(db_, "description", *c.description);
     write_next_id(db_, next_id);
+    if (!c.events_removed.empty() || !c.systems_removed.empty() || !c.systems_put.empty() || !c.events_put.empty()) {
+      log_bulk(db_, "a save of the app's changes");
+    }
     tx.commit();
     return report;
   });

@@ -8,6 +8,8 @@
 
 #include "store_internal.hpp"
 #include "store_rows.hpp"
+#include "store_changes.hpp"
+#include "tidewright/journal/system_name.hpp"
 #include "store_schema.hpp"
 
 namespace tw::store {
@@ -72,6 +74,7 @@ Status JournalStore::restore_from_database(const std::string& backup_path) {
     write_next_id(db_, read_next_id(src));
     const std::string description = read_meta(src, "description");
     if (!description.empty()) write_meta(db_, "description", description);
+    log_bulk(db_, "a restore from " + backup_path);
     tx.commit();
     return Ok{};
   });
@@ -82,6 +85,7 @@ Status JournalStore::restore_from_journal(const Journal& journal) {
     WriteTransaction tx(db_);
     clear_all(db_);
     insert_journal_keeping_ids(db_, journal);
+    log_bulk(db_, "a restore from a JSON journal");
     tx.commit();
     return Ok{};
   });
@@ -114,6 +118,7 @@ JournalStore::IntegrityReport JournalStore::check_integrity() const {
     for (const System& s : all.systems) {
       max_id = std::max(max_id, s.id);
       if (Status st = validate_system(all, s); !st) problem(fmt::format("system {}: {}", s.id, st.error().message));
+      else if (Status n = check_system_name(s.name); !n && r.notes.size() < 50) r.notes.push_back(fmt::format("system {}: {}", s.id, n.error().message));
     }
     // In id order: a schedule always has a lower id than the doses marked against it, and is
     // kept in `all` so that their marks can be checked.

@@ -2,7 +2,9 @@
 // serialize_journal writes it (members in the same order, 2-space indent), and long-form CSV
 // in chunks through the core's writer. One read transaction each: a consistent snapshot while
 // others write.
+#include <algorithm>
 #include <sstream>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
@@ -28,9 +30,35 @@ void write_nested(std::ostream& out, const json& record) {
   }
 }
 
+// The schedules that doses of the filter are marked against but the filter leaves out, in
+// (time, id) order: a filtered journal must still hold what its marks refer to.
+std::vector<Event> schedules_referred_to(sqlite3* db, const EventFilter& filter) {
+  std::vector<Event> out;
+  if (!filter.system_id && !filter.parameter && !filter.from_s && !filter.to_s) return out;
+  const WhereClause w = where_of(filter);
+  Statement ids(db, ("SELECT DISTINCT schedule_id FROM events" + w.sql +
+                     (w.sql.empty() ? " WHERE" : " AND") + " schedule_id IS NOT NULL").c_str());
+  w.bind(ids);
+  std::vector<std::int64_t> wanted;
+  while (ids.step()) wanted.push_back(ids.integer(0));
+  for (std::int64_t id : wanted) {
+    Statement one(db, (std::string("SELECT ") + kEventColumns + " FROM events WHERE id = ?").c_str());
+    one.bind(1, id);
+    if (!one.step()) continue;
+    Event e = read_event(one);
+    const bool selected = (!filter.system_id || e.system_id == *filter.system_id) && !filter.parameter &&
+                          (!filter.from_s || e.time_s >= *filter.from_s) && (!filter.to_s || e.time_s <= *filter.to_s);
+    if (!selected) out.push_back(std::move(e));
+  }
+  std::sort(out.begin(), out.end(), [](const Event& a, const Event& b) {
+    return a.time_s != b.time_s ? a.time_s < b.time_s : a.id < b.id;
+  });
+  return out;
+}
+
 }  // namespace
 
-Status JournalStore::export_json(std::ostream& out) const {
+Status JournalStore::export_json(std::ostream& out, const EventFilter& filter) const {
   return guarded(path_, [&]() -> Status {
     ReadTransaction snapshot(db_);
     // nlohmann::json keeps object members sorted by name: description, events, format,
@@ -41,13 +69,26 @@ Status JournalStore::export_json(std::ostream& out) const {
       out << "  \"description\": " << json(description).dump(-1, ' ', false, json::error_handler_t::replace) << ",\n";
     }
     out << "  \"events\": [";
-    Statement ev(db_, (std::string("SELECT ") + kEventColumns + " FROM events ORDER BY time_s, id").c_str());
+    const std::vector<Event> extra = schedules_referred_to(db_, filter);
+    std::size_t next_extra = 0;
+    const WhereClause w = where_of(filter);
+    Statement ev(db_, (std::string("SELECT ") + kEventColumns + " FROM events" + w.sql + " ORDER BY time_s, id").c_str());
+    w.bind(ev);
     bool first = true;
-    while (ev.step()) {
+    auto write = [&](const Event& e) {
       out << (first ? "\n" : ",\n");
-      write_nested(out, event_to_json(read_event(ev)));
+      write_nested(out, event_to_json(e));
       first = false;
+    };
+    while (ev.step()) {
+      const Event e = read_event(ev);
+      while (next_extra < extra.size() && (extra[next_extra].time_s < e.time_s ||
+                                           (extra[next_extra].time_s == e.time_s && extra[next_extra].id < e.id))) {
+        write(extra[next_extra++]);
+      }
+      write(e);
     }
+    while (next_extra < extra.size()) write(extra[next_extra++]);
     out << (first ? "],\n" : "\n  ],\n");
     out << "  \"format\": \"" << kFormatName << "\",\n";
     out << "  \"next_id\": " << read_next_id(db_) << ",\n";
@@ -55,6 +96,7 @@ Status JournalStore::export_json(std::ostream& out) const {
     out << "  \"systems\": [";
     first = true;
     for (const System& s : all_systems(db_)) {
+      if (filter.system_id && s.id != *filter.system_id) continue;
       out << (first ? "\n" : ",\n");
       write_nested(out, system_to_json(s));
       first = false;

@@ -238,10 +238,32 @@ CREATE INDEX events_by_time ON events (time_s, id);
 CREATE INDEX events_by_schedule ON events (schedule_id) WHERE schedule_id IS NOT NULL;
 )SQL";
 
+// Version 4: the change log, so that `log undo` can revert the last change (add, edit or
+// remove of one system or event). `before` is the record as it was, in the journal file's
+// JSON (system_to_json / event_to_json); a removed system carries its events too. A 'bulk'
+// row (an import, a restore, the app's save) marks where undo stops. Existing databases
+// start with an empty log. next_id is the journal's next id right after the change: a record
+// with an id from there on was added by something that is not logged (an import), and undo
+// refuses rather than skip past it.
+constexpr const char* kSchemaV4 = R"SQL(
+CREATE TABLE changes (
+  seq       INTEGER PRIMARY KEY AUTOINCREMENT,
+  action    TEXT NOT NULL CHECK (action IN ('add', 'edit', 'remove', 'bulk')),
+  record    TEXT CHECK (record IN ('system', 'event')),
+  record_id INTEGER,
+  before    TEXT,
+  summary   TEXT NOT NULL,
+  next_id   INTEGER NOT NULL,
+  CHECK ((action = 'bulk') = (record IS NULL)),
+  CHECK ((action IN ('edit', 'remove')) = (before IS NOT NULL))
+);
+)SQL";
+
 const Migration kMigrations[] = {
     {1, kSchemaV1},
     {2, kSchemaV2},
     {3, kSchemaV3},
+    {4, kSchemaV4},
 };
 
 }  // namespace

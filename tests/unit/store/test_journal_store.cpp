@@ -94,7 +94,7 @@ TEST_CASE("store: a journal imported into an empty database exports byte for byt
   auto back = parse_journal(json_of(*st));
   REQUIRE(back.ok());
   CHECK(*back == j);
-  CHECK(st->schema_version() == 3);
+  CHECK(st->schema_version() == 4);
 }
 
 TEST_CASE("store: changes are validated by the core and a refused one changes nothing") {

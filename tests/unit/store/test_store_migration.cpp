@@ -23,7 +23,7 @@ using tw::store::JournalStore;
 
 namespace {
 
-constexpr int kCurrentVersion = 3;
+constexpr int kCurrentVersion = 4;
 
 std::string fixture_sql() {
   const std::string here = __FILE__;  // .../tests/unit/store/test_store_migration.cpp

@@ -83,7 +83,8 @@ double net_volume_l(const VolumeParts& parts);  // display + sump - rock displac
 
 struct System {
   SystemId id = 0;  // 0 = "assign one" when adding
-  std::string name;  // unique within the journal (case-insensitive), 1..100 characters
+  std::string name;  // unique within the journal (case-insensitive), 1..100 characters;
+                     // new names follow check_system_name (system_name.hpp)
   SystemKind kind = SystemKind::ReefDisplay;
   double volume_l = 0;  // net water volume
   std::optional<VolumeParts> volume_parts;  // if set, volume_l must equal net_volume_l(parts)
@@ -248,6 +249,8 @@ inline constexpr std::int64_t kFutureSlackS = 10 * 60;
 Status check_not_in_future(std::int64_t time_s, std::int64_t now_s);
 
 // Adding: id 0 assigns the next id; a non-zero id must be unused. Returns the id.
+// A system's name is trimmed and must meet check_system_name (system_name.hpp); so must a
+// name changed by update_system (a name left as it was is kept, even from before the rule).
 Result<SystemId> add_system(Journal& journal, System system);
 Result<EventId> add_event(Journal& journal, Event event);
 // Replacing by id (the id must exist).

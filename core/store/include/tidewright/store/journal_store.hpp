@@ -84,6 +84,12 @@ class JournalStore {
   Status remove_system(journal::SystemId id, bool with_events = false);
   Status remove_event(journal::EventId id);
   Status set_description(const std::string& text);
+  // Each add, update and remove above is recorded (schema version 4, table changes) in its
+  // own transaction; undo_last puts the journal back as it was before the last one and
+  // returns what it undid ("added test 12"). Restores and apply() (the app's saves) are
+  // recorded as a stop: undo refuses to reach past them (Error field "undo"). Imports are not
+  // recorded; undo refuses to reach past records an import added since the last change.
+  Result<std::string> undo_last();
 
   // Several changes at once (journal_diff.hpp: what an app changed since it last saved), in one
   // transaction, each record validated by the core. A record the change created whose id
@@ -122,9 +128,11 @@ class JournalStore {
                                   ImportMode mode = ImportMode::Commit);
 
   // ---------------------------------------------------------------- 5. Exports
-  // The whole journal in the documented JSON format (docs/journal-format.md), written event
-  // by event; parse_journal reads it back to the same journal.
-  Status export_json(std::ostream& out) const;
+  // The journal in the documented JSON format (docs/journal-format.md), written event by
+  // event; parse_journal reads it back to the same journal. A filter keeps the events the CSV
+  // export of the same filter keeps (with --system, only that system), plus any schedule a
+  // kept dose is marked against, so that the file is still a valid journal.
+  Status export_json(std::ostream& out, const journal::EventFilter& filter = {}) const;
   // Long-form CSV of the filter's events (journal_csv.hpp columns), in chunks.
   Status export_csv(std::ostream& out, const journal::EventFilter& filter = {}) const;
 
@@ -140,6 +148,9 @@ class JournalStore {
   struct IntegrityReport {
     bool ok = true;
     std::vector<std::string> problems;  // one line each, plain words
+    // Not problems: records from before a newer rule (a system name that reads as an id, has
+    // spaces around it or control characters), kept and usable, best renamed.
+    std::vector<std::string> notes;
     std::int64_t systems = 0, events = 0;
     int schema_version = 0;
   };
