@@ -15,6 +15,7 @@
 #include "commands.hpp"
 #include "journal_access.hpp"
 #include "log_common.hpp"
+#include "time_zone.hpp"
 #include "log_format.hpp"
 #include "tidewright/common/units.hpp"
 #include "tidewright/journal/journal_file.hpp"
@@ -31,7 +32,7 @@ struct EditOptions {
   const bool* json = nullptr;
   std::int64_t id = 0;
   // event fields
-  std::string time, unit, kit, text, volume_unit;
+  std::string time, date_order, utc_offset, time_zone, unit, kit, text, volume_unit;
   std::optional<double> value, precision, amount, volume;
   // system fields
   std::string name, kind;
@@ -73,7 +74,7 @@ void run_edit_event(const EditOptions& o) {
   Event e = *stored;
   const System sys = *st->system(e.system_id);
   if (!o.time.empty()) {
-    e.time_s = when_or_now(o.time, "", 0);
+    e.time_s = when_or_now(o.time, o.date_order, o.utc_offset, o.time_zone);
     e.time_text = o.time;
   }
   auto* test = std::get_if<TestResult>(&e.data);
@@ -158,6 +159,9 @@ void register_log_edit(CLI::App& log, const std::string* journal_path, const boo
   CLI::App* ev = edit->add_subcommand("event", "Change fields of an event (only those given)");
   ev->add_option("--id", o->id, "Id of the event (log list shows it)")->required();
   ev->add_option("--time", o->time, "New time: 2026-11-01T08:00Z, '2026-11-01 08:00' ...");
+  ev->add_option("--date-order", o->date_order, "dmy or mdy, for dates like 03/04/2026");
+  ev->add_option("--utc-offset", o->utc_offset, kUtcOffsetHelp);
+  ev->add_option("--time-zone", o->time_zone, kTimeZoneHelp);
   ev->add_option("--value", o->value, "Test: new value");
   ev->add_option("--unit", o->unit, "Test: unit of the value");
   ev->add_option("--precision", o->precision, "Test: kit precision, one standard deviation");

@@ -40,6 +40,14 @@ class RowReader {
     if (i >= row_.cells.size()) return "";
     return undefuse(csv::trim(row_.cells[static_cast<size_t>(i)]));
   }
+  // Free text keeps its spaces (a note exported as " =1+2" comes back as " =1+2"); a cell of
+  // spaces only is empty.
+  std::string text(const char* name) const {
+    auto it = columns_.find(name);
+    if (it == columns_.end() || it->second >= row_.cells.size()) return "";
+    const std::string& cell = row_.cells[it->second];
+    return csv::trim(cell).empty() ? std::string() : undefuse(cell);
+  }
   Result<std::optional<double>> number(const char* name) const {
     const std::string s = get(name);
     if (s.empty()) return std::optional<double>{};
@@ -275,7 +283,7 @@ Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
     std::vector<EventData> data;
     std::string type = r.get("type");
     for (auto& ch : type) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
-    const std::string note = r.get("note");
+    const std::string note = r.text("note");
     if (type.empty()) {
       if (!r.get("parameter").empty()) type = "test";
       else if (!r.get("additive").empty()) type = "dose";
