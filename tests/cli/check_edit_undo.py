@@ -12,22 +12,8 @@ import subprocess
 import sys
 import tempfile
 
-binary = os.path.abspath(sys.argv[1])
+from cli_check import binary, check, finish, run
 here = os.path.dirname(os.path.abspath(__file__))
-passed = failed = 0
-
-
-def check(name, ok, detail=""):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {name} {detail}")
-
-
-def run(*args):
-    return subprocess.run([binary, *args], capture_output=True)
 
 
 def refused(name, args, *words, same_as=None, log=None):
@@ -136,5 +122,4 @@ with tempfile.TemporaryDirectory() as tmp:
     out = run(*klog, "check").stdout.decode()
     check("a backup exists: named", len(copies) == 1 and copies[0] in out and "restore" in out, (copies, out))
 
-print(f"{passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

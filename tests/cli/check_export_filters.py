@@ -11,21 +11,7 @@ import subprocess
 import sys
 import tempfile
 
-binary = os.path.abspath(sys.argv[1])
-passed = failed = 0
-
-
-def check(name, ok, detail=""):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {name} {detail}")
-
-
-def run(*args):
-    return subprocess.run([binary, *args], capture_output=True)
+from cli_check import binary, check, finish, run
 
 
 with tempfile.TemporaryDirectory() as tmp:
@@ -72,5 +58,4 @@ with tempfile.TemporaryDirectory() as tmp:
         r = run("log", "--journal", back, "import", path)
         check(f"{name}: reads back as a journal", r.returncode == 0, r.stderr)
 
-print(f"{passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

@@ -9,26 +9,15 @@ import subprocess
 import sys
 import tempfile
 
-binary = os.path.abspath(sys.argv[1])
+from cli_check import binary, check, finish, run_text
 fixtures = os.path.join(os.path.dirname(os.path.abspath(__file__)), "fixtures")
-passed = failed = 0
-
-
-def check(name, ok, detail=""):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {name} {detail}")
 
 
 def run(*args, env=None):
     e = dict(os.environ, TZ="UTC")
     if env:
         e.update(env)
-    r = subprocess.run([binary, *args], capture_output=True, env=e)
-    return r.returncode, r.stdout.decode(), r.stderr.decode()
+    return run_text(*args, env=e)
 
 
 def fresh():
@@ -165,5 +154,4 @@ rc, out, err = run("log", "add", "test", "--help")
 check("help says which zone a bare time is read in", "machine's time zone" in out, out)
 check("nothing stored by the refusals", len(tests_of(j)) == 4, tests_of(j))
 
-print(f"{passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

@@ -10,21 +10,7 @@ import subprocess
 import sys
 import tempfile
 
-binary = os.path.abspath(sys.argv[1])
-passed = failed = 0
-
-
-def check(name, ok, detail=""):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {name} {detail}")
-
-
-def run(*args):
-    return subprocess.run([binary, *args], capture_output=True)
+from cli_check import binary, check, finish, run
 
 
 with tempfile.TemporaryDirectory() as tmp:
@@ -62,5 +48,4 @@ with tempfile.TemporaryDirectory() as tmp:
     texts = [e["text"] for e in json.loads(run("log", "--journal", third, "--json", "list").stdout)]
     check("CSV export/import: texts as stored", texts == [" =1+2", "line one\nline two\tend"], texts)
 
-print(f"{passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

@@ -8,23 +8,11 @@ import subprocess
 import sys
 import tempfile
 
-binary = os.path.abspath(sys.argv[1])
+from cli_check import binary, check, finish, run_text
 demo_plan = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "..", "assets", "demo", "demo_plan.json")
-passed = failed = 0
 
 
-def check(name, ok, detail=""):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {name} {detail}")
-
-
-def run(*args, cwd=None):
-    r = subprocess.run([binary, *args], capture_output=True, cwd=cwd)
-    return r.returncode, r.stdout.decode(), r.stderr.decode()
+run = run_text
 
 
 def refused(name, args, *words, cwd=None):
@@ -76,5 +64,4 @@ check("refused dose: no caution lines", "caution" not in err, repr(err))
 rc, out, err = run("log", "--journal", j, "add", "dose", "--additive", "sodium_hydroxide", "--amount", "5", "--unit", "g")
 check("accepted caustic dose still warns after it is added", rc == 0 and "added" in out and "caution" in err, out + err)
 
-print(f"{passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

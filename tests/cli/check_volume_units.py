@@ -10,21 +10,7 @@ import subprocess
 import sys
 import tempfile
 
-binary = os.path.abspath(sys.argv[1])
-passed = failed = 0
-
-
-def check(name, ok, detail=""):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {name} {detail}")
-
-
-def run(*args):
-    return subprocess.run([binary, *args], capture_output=True)
+from cli_check import binary, check, finish, run
 
 
 noise = re.compile(r"\d\.\d*(0{8,}|9{8,})\d")
@@ -51,5 +37,4 @@ with tempfile.TemporaryDirectory() as tmp:
     doc = json.loads(run(*log, "export", "--format", "json").stdout)
     check("litres stored to 12 digits", doc["systems"][0]["volume_l"] == 2300.01619996, doc["systems"][0])
 
-print(f"{passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()
