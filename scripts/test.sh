@@ -25,7 +25,7 @@ stage "1/5 native build (g++) and tests"
 cmake -S . -B build/native -G Ninja -DCMAKE_BUILD_TYPE=Release -DCMAKE_CXX_COMPILER=g++ \
   -DTW_BUILD_WEB=ON -DTW_IMGUI_DIR="$ROOT/.cache/imgui" >/dev/null
 ninja -C build/native -j"$JOBS"
-ctest --test-dir build/native --output-on-failure
+ctest --test-dir build/native --output-on-failure -j"$JOBS"
 passed=$((passed + 1))
 
 stage "2/5 clang + AddressSanitizer + UndefinedBehaviorSanitizer"
@@ -36,7 +36,7 @@ cmake -S . -B build/asan -G Ninja "${SANITIZER_FLAGS[@]}" -DCMAKE_CXX_COMPILER=c
   -DTW_SANITIZE=ON >/dev/null
 ninja -C build/asan -j"$JOBS" tw_tests tidewright
 ASAN_OPTIONS=detect_leaks=1 UBSAN_OPTIONS=print_stacktrace=1 \
-  ctest --test-dir build/asan --output-on-failure
+  ctest --test-dir build/asan --output-on-failure -j"$JOBS"
 passed=$((passed + 1))
 
 stage "3/5 core tests compiled to WebAssembly, under Node.js"
