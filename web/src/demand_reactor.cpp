@@ -4,6 +4,7 @@
 // consumption, with the flow that would match it (the addition is proportional to the flow).
 #include <string>
 
+#include "tidewright/common/ranges.hpp"
 #include "actions.hpp"
 #include "actions_dosing.hpp"
 #include "format.hpp"
@@ -68,26 +69,31 @@ void draw_reactor_check(AppState& app) {
     return;
   }
   ui::dim_text("Measure the effluent where it drips into the tank, and its flow with a measuring cup and a clock.");
+  namespace rg = tw::ranges;
   const au::AlkalinityUnit alk_unit = sys->units.alkalinity;
   const fmtx::UnitShown alk = fmtx::alkalinity_shown(alk_unit);
   const au::ConcentrationUnit ion_unit = sys->units.calcium_magnesium;
   const std::string ion_text = au::to_string(ion_unit);
   const int ion_dec = ion_decimals(ion_unit);
-  ui::number_field(app, "demand.reactor.flow", {"Effluent flow", "mL/min", 0, 5, 0, 1000}, &v.reactor_flow_ml_per_min);
+  ui::number_field(app, "demand.reactor.flow", {"Effluent flow", "mL/min", 0, 5, rg::kReactorFlowMlPerMin.lo, rg::kReactorFlowMlPerMin.hi}, &v.reactor_flow_ml_per_min);
   double a = fmtx::alkalinity_from_dkh(v.reactor_alkalinity_dkh, alk_unit);
-  if (ui::number_field(app, "demand.reactor.alkalinity", {"Effluent alkalinity", alk.unit, alk.decimals, alk.step, 0,
-                                                          fmtx::alkalinity_from_dkh(100, alk_unit)}, &a)) {
+  if (ui::number_field(app, "demand.reactor.alkalinity", {"Effluent alkalinity", alk.unit, alk.decimals, alk.step,
+                                                          fmtx::alkalinity_from_dkh(rg::kReactorAlkalinityDkh.lo, alk_unit),
+                                                          fmtx::alkalinity_from_dkh(rg::kReactorAlkalinityDkh.hi, alk_unit)}, &a)) {
     v.reactor_alkalinity_dkh = fmtx::alkalinity_to_dkh(a, alk_unit);
   }
   double ca = ion_shown(v.reactor_calcium_mg_l, ion_unit, au::Ion::Calcium);
   if (ui::number_field(app, "demand.reactor.calcium", {"Effluent calcium", ion_text.c_str(), ion_dec, ion_dec ? 0.5 : 10,
-                                                       0, ion_shown(2000, ion_unit, au::Ion::Calcium)}, &ca)) {
+                                                       ion_shown(rg::kReactorCalciumMgL.lo, ion_unit, au::Ion::Calcium),
+                                                       ion_shown(rg::kReactorCalciumMgL.hi, ion_unit, au::Ion::Calcium)}, &ca)) {
     v.reactor_calcium_mg_l = ion_from_shown(ca, ion_unit, au::Ion::Calcium);
   }
   std::optional<double> mg;
   if (v.reactor_magnesium_mg_l) mg = ion_shown(*v.reactor_magnesium_mg_l, ion_unit, au::Ion::Magnesium);
   if (ui::optional_number_field(app, "demand.reactor.magnesium", {"Effluent magnesium (if measured)", ion_text.c_str(), ion_dec,
-                                                                  ion_dec ? 0.5 : 10, 0, ion_shown(3000, ion_unit, au::Ion::Magnesium)},
+                                                                  ion_dec ? 0.5 : 10,
+                                                                  ion_shown(rg::kReactorMagnesiumMgL.lo, ion_unit, au::Ion::Magnesium),
+                                                                  ion_shown(rg::kReactorMagnesiumMgL.hi, ion_unit, au::Ion::Magnesium)},
                                 &mg) && mg) {
     v.reactor_magnesium_mg_l = ion_from_shown(*mg, ion_unit, au::Ion::Magnesium);
   }

@@ -7,6 +7,7 @@
 
 #include <string>
 
+#include "tidewright/common/ranges.hpp"
 #include "actions.hpp"
 #include "format.hpp"
 #include "platform.hpp"
@@ -23,7 +24,7 @@ namespace jn = tw::journal;
 void draw_change_form(AppState& app, const jn::DoseSchedule& s, const std::string& id) {
   ScheduleEdit& ed = app.ui.schedule_edit;
   const char* unit = s.unit == jn::DoseUnit::Millilitres ? "mL" : "g";
-  ui::number_field(app, "log.schedule.amount." + id, {"Each dose, as set on the pump", unit, 1, 0.5, 0.1, 5000},
+  ui::number_field(app, "log.schedule.amount." + id, {"Each dose, as set on the pump", unit, 1, 0.5, 0.1, tw::ranges::kDoseAmount.hi},
                    &ed.amount);
   double n = ed.doses_per_day;
   if (ui::number_field(app, "log.schedule.per_day." + id,

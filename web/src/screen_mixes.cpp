@@ -47,7 +47,10 @@ void draw_form(AppState& app, MixesForm& f) {
   const auto& list = mix_compounds();
   ui::card_begin(app);
   std::vector<std::string> formulas;
-  for (add::CompoundId id : list) formulas.push_back(add::compound(id).formula);
+  for (add::CompoundId id : list) {
+    const add::Compound& k = add::compound(id);
+    formulas.push_back(k.label.empty() ? k.formula : k.label);  // soda ash and baked soda share Na2CO3
+  }
   std::vector<const char*> labels;
   for (const std::string& s : formulas) labels.push_back(s.c_str());
   f.compound = std::clamp(f.compound, 0, static_cast<int>(list.size()) - 1);
@@ -81,7 +84,8 @@ void draw_form(AppState& app, MixesForm& f) {
     double v = tw::units::volume_from_litres(f.tank_volume_l, u.volume);
     if (ui::number_field(app, "mixes.tank_volume",
                          {"In a water volume of", fmtx::volume_unit_text(u.volume), 0, 10,
-                          tw::units::volume_from_litres(1, u.volume), tw::units::volume_from_litres(1e6, u.volume)},
+                          tw::units::volume_from_litres(tw::ranges::kSystemVolumeL.lo, u.volume),
+                          tw::units::volume_from_litres(tw::ranges::kSystemVolumeL.hi, u.volume)},
                          &v)) {
       f.tank_volume_l = tw::units::volume_to_litres(v, u.volume);
     }

@@ -14,15 +14,19 @@ namespace tw::additives {
 // flow x (effluent - tank) for each parameter. Alkalinity: dKH x 0.35665 meq/L (facts.md 5).
 // Check: 100 mL/min, effluent 20 dKH vs tank 8 dKH -> 144 L/day x 12 dKH x 0.35665 = 616 meq/day.
 Result<DailyAddition> daily_addition(const ContinuousSource& source, const TankLevels& tank, double system_volume_l) {
-  if (auto s = check_range("flow_ml_per_min", source.flow_ml_per_min, 0.0, 1000.0, "mL/min"); !s) return s.error();
-  if (auto s = check_range("effluent_alkalinity_dkh", source.effluent_alkalinity_dkh, 0.0, 100.0, "dKH"); !s) {
+  if (auto s = ranges::check("flow_ml_per_min", source.flow_ml_per_min, ranges::kReactorFlowMlPerMin); !s) {
     return s.error();
   }
-  if (auto s = check_range("effluent_calcium_mg_l", source.effluent_calcium_mg_l, 0.0, 2000.0, "mg/L"); !s) {
+  if (auto s = ranges::check("effluent_alkalinity_dkh", source.effluent_alkalinity_dkh, ranges::kReactorAlkalinityDkh);
+      !s) {
+    return s.error();
+  }
+  if (auto s = ranges::check("effluent_calcium_mg_l", source.effluent_calcium_mg_l, ranges::kReactorCalciumMgL); !s) {
     return s.error();
   }
   if (source.effluent_magnesium_mg_l >= 0) {
-    if (auto s = check_range("effluent_magnesium_mg_l", source.effluent_magnesium_mg_l, 0.0, 3000.0, "mg/L"); !s) {
+    if (auto s = ranges::check("effluent_magnesium_mg_l", source.effluent_magnesium_mg_l, ranges::kReactorMagnesiumMgL);
+        !s) {
       return s.error();
     }
   }

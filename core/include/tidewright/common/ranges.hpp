@@ -78,6 +78,13 @@ inline constexpr Range kStockTemperatureC{0.0, 40.0, "C"};
 // One dose of a mix (the Mixes screen, `mix`): the effect it has on a volume of water.
 inline constexpr Range kMixDoseMl{0.01, 10000.0, "mL"};
 
+// A flow-through source (a calcium reactor) described by its measured effluent: far above any
+// reactor's (effluent of 20-40 dKH at tens of mL a minute) [common practice].
+inline constexpr Range kReactorFlowMlPerMin{0.0, 1000.0, "mL/min"};
+inline constexpr Range kReactorAlkalinityDkh{0.0, 100.0, "dKH"};
+inline constexpr Range kReactorCalciumMgL{0.0, 2000.0, "mg/L"};
+inline constexpr Range kReactorMagnesiumMgL{0.0, 3000.0, "mg/L"};
+
 // ------------------------------------------------------------ targets a plan doses toward
 // Narrower than what can be measured: a target outside these is a typo or a mistake, not a
 // reef [common practice].
