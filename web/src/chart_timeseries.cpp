@@ -42,15 +42,22 @@ double day_step(double range_days, float width_px, float min_gap_px) {
   return 730;
 }
 
-void dashed_line(ImDrawList* d, ImVec2 p, ImVec2 q, ImU32 col, float thick, float dash) {
+// A dashed segment. `phase` (0 .. 2 dash) carries the pattern from the previous segment of a
+// polyline: restarted on each segment, a line of many short segments (a daily forecast) drew
+// every one whole and looked solid. Returns the phase at q.
+float dashed_line(ImDrawList* d, ImVec2 p, ImVec2 q, ImU32 col, float thick, float dash, float phase = 0) {
   const float dx = q.x - p.x, dy = q.y - p.y;
   const float len = std::sqrt(dx * dx + dy * dy);
-  if (len <= 0) return;
-  for (float s = 0; s < len; s += 2 * dash) {
-    const float e = std::min(len, s + dash);
-    d->AddLine(ImVec2(p.x + dx * s / len, p.y + dy * s / len), ImVec2(p.x + dx * e / len, p.y + dy * e / len), col,
-               thick);
+  if (len <= 0) return phase;
+  float s = -phase;  // where the current period started, along this segment
+  for (; s < len; s += 2 * dash) {
+    const float a = std::max(0.0f, s), e = std::min(len, s + dash);
+    if (e > a) {
+      d->AddLine(ImVec2(p.x + dx * a / len, p.y + dy * a / len), ImVec2(p.x + dx * e / len, p.y + dy * e / len), col,
+                 thick);
+    }
   }
+  return len - (s - 2 * dash);
 }
 
 ImU32 with_alpha(ImU32 col, int alpha) { return (col & ~IM_COL32_A_MASK) | (static_cast<ImU32>(alpha) << IM_COL32_A_SHIFT); }
@@ -168,10 +175,11 @@ bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* 
                            ImVec2(sx(band.t[i]), sy(band.lo[i])), ImVec2(sx(band.t[i - 1]), sy(band.lo[i - 1]))};
       d->AddConvexPolyFilled(q, 4, with_alpha(band.color, 45));
     }
+    float phase = 0;
     for (size_t i = 1; i < band.t.size(); ++i) {
       const ImVec2 p(sx(band.t[i - 1]), sy(band.mid[i - 1])), q(sx(band.t[i]), sy(band.mid[i]));
       if (band.dashed) {
-        dashed_line(d, p, q, band.color, 1.6f * line, 0.35f * e);
+        phase = dashed_line(d, p, q, band.color, 1.6f * line, 0.35f * e, phase);
       } else {
         d->AddLine(p, q, band.color, 1.8f * line);
       }

@@ -6,6 +6,8 @@
 #include <algorithm>
 #include <cmath>
 #include <string>
+#include <utility>
+#include <vector>
 
 #include "tidewright/common/ranges.hpp"
 #include "actions.hpp"
@@ -368,20 +370,8 @@ void draw_plan(AppState& app) {
   for (const auto& r : plan.reservoirs_empty) {
     ui::colored_wrapped(theme::kWarning, (c.input->deliveries[r.delivery].device + " runs dry on day " + std::to_string(r.day)).c_str());
   }
-  if (plan.salinity.per_day > 0) {
-    // The core's split (plan_salinity.cpp): the weekly change from the holding days, the ramp once.
-    const auto& sd = plan.salinity;
-    std::string text = "Salts left behind raise salinity by about " + fmtx::fixed(sd.holding_per_day, 3) +
-                       " a day while the levels are held; a water change of " +
-                       fmtx::fixed(sd.water_change_percent_per_week, 1) + "% a week holds it.";
-    if (!sd.holding_seen) {
-      text += " The plan is still ramping at its end, so this includes ramp doses.";
-    } else if (sd.ramp_days > 0) {
-      text += " The ramp (days 1-" + std::to_string(sd.ramp_days) + ") adds " + fmtx::fixed(sd.ramp_extra, 2) +
-              " more, once.";
-    }
-    ui::dim_text(text.c_str());
-  }
+  // The salinity drift is among the core's findings above (plan_salinity.cpp); it was also
+  // paraphrased here, so the keeper read it twice.
   ui::card_end(app);
   draw_adopt(app, c);
   ui::heading(app, "Predicted water");
@@ -393,7 +383,24 @@ void draw_plan(AppState& app) {
   draw_limits(app, c);
   if (!plan.cautions.empty()) {
     ui::heading(app, "Cautions");
-    for (const std::string& s : plan.cautions) ui::colored_wrapped(theme::kWarning, ("\u2022 " + s).c_str());
+    // One paragraph per chemical ("Sodium carbonate (soda ash): ..."): a bullet per caution
+    // made nine lines for two stocks.
+    std::vector<std::pair<std::string, std::string>> by_chemical;
+    for (const std::string& s : plan.cautions) {
+      const size_t colon = s.find(": ");
+      const std::string who = colon == std::string::npos ? std::string() : s.substr(0, colon);
+      const std::string what = colon == std::string::npos ? s : s.substr(colon + 2);
+      auto it = std::find_if(by_chemical.begin(), by_chemical.end(), [&](const auto& g) { return g.first == who; });
+      if (it == by_chemical.end()) {
+        by_chemical.emplace_back(who, what);
+      } else {
+        it->second += "; " + what;
+      }
+    }
+    for (const auto& [who, what] : by_chemical) {
+      const std::string line = who.empty() ? what : who + ": " + what;
+      ui::colored_wrapped(theme::kWarning, ("\u2022 " + line + (line.ends_with('.') ? "" : ".")).c_str());
+    }
     ui::record(app, "plan.cautions");
   }
   ui::heading(app, "Download");

@@ -179,6 +179,7 @@ std::vector<Compound> build_catalog() {
     c.id = CompoundId::SodiumCarbonateFromBakedSoda;
     c.key = "baked_baking_soda";
     c.name = "Baking soda heated to constant mass (sodium carbonate)";
+    c.label = "Na2CO3 (baked)";
     c.note =
         "made by heating NaHCO3 until its mass stops falling: 2 NaHCO3 -> Na2CO3 + H2O + CO2, "
         "mass x 0.6308 (loss 36.9 %); decomposition runs over about 87-177 C (Wu & Shih 1993); "

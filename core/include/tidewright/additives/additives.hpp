@@ -88,6 +88,7 @@ struct Compound {
   std::string key;      // stable identifier for files and the command line, e.g. "sodium_bicarbonate"
   std::string name;     // e.g. "Sodium bicarbonate (baking soda)"
   std::string formula;  // e.g. "NaHCO3", "CaCl2.2H2O"
+  std::string label;    // short name for a choice when two compounds share a formula; empty: the formula
   std::vector<ElementCount> formula_unit;  // including water of hydration
   int waters_of_hydration = 0;
   Phase phase = Phase::Solid;
