@@ -260,7 +260,7 @@ Result<int> parse_utc_offset(const std::string& raw) {
   }
   if (minutes > 59) return refuse();
   const std::int64_t total = sign * (hours * 60 + minutes);
-  if (total < r.lo || total > r.hi) return refuse();
+  if (static_cast<double>(total) < r.lo || static_cast<double>(total) > r.hi) return refuse();
   return static_cast<int>(total);
 }
 
