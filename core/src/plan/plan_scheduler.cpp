@@ -454,7 +454,7 @@ Result<Plan> make_plan(const PlanInput& in) {
   }
   for (const auto& [key, count] : cap_count) {
     const std::string what = fmt::format("{} doses of {} were made smaller by {}", count,
-                                         key.substr(key.find('|') + 1), key.substr(0, key.find('|')));
+                                         key.substr(key.find('|') + 1), cap_in_words(key.substr(0, key.find('|'))));
     plan.findings.push_back(what);
     plan.limits.record.push_back("capped: " + what);
   }

@@ -76,7 +76,10 @@ TEST_CASE("plan input: errors use the file's names; caps and overrides are recor
   REQUIRE_FALSE(plan->doses.empty());
   for (const auto& d : plan->doses) CHECK_FALSE(d.cap.empty());
   bool recorded = false;
-  for (const auto& r : plan->limits.record) recorded = recorded || r.find("max_per_day") != std::string::npos;
+  // The record is read by keepers: the cap in words; the file keeps its key (capped_by below).
+  for (const auto& r : plan->limits.record) {
+    recorded = recorded || r.find("the pump's largest amount per day") != std::string::npos;
+  }
   CHECK(recorded);
   const std::string json = plan_to_json(*short_in, *plan);
   CHECK(json.find("\"capped_by\": \"max_per_day\"") != std::string::npos);
