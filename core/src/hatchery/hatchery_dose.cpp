@@ -128,10 +128,14 @@ Status validate_settings(const Settings& s) {
   if (auto r = check_range("mixing_omega_ceiling", s.limits.mixing_omega_ceiling, 1.0, 20.0, ""); !r) return r;
   if (auto r = degassing_fraction(s.gas); !r) return r.error();
   if (auto r = ranges::check("air_co2_ppm", s.gas.air_co2_ppm, ranges::kRoomCo2Ppm); !r) return r;
-  if (auto r = check_range("stock_temperature_c", s.stock.temperature_c, 0.0, 60.0, "C"); !r) return r;
+  if (auto r = ranges::check("stock_temperature_c", s.stock.temperature_c, ranges::kStockTemperatureC); !r) return r;
   if (auto r = check_range("stock_fraction_of_saturation", s.stock.fraction_of_saturation, 0.05, 1.0, ""); !r) return r;
   if (s.stock.strength_g_per_l) {
-    if (auto r = check_range("stock_g_per_l", *s.stock.strength_g_per_l, 0.1, 2000.0, "g/L"); !r) return r;
+    if (auto r = ranges::check("stock_g_per_l", *s.stock.strength_g_per_l, ranges::kStockGPerL); !r) return r;
+    if (!(*s.stock.strength_g_per_l > 0)) {
+      return Error{"stock_g_per_l", fmt::format("stock_g_per_l {:g} must be above 0 (accepted: above 0 to {:g} g/L)",
+                                                *s.stock.strength_g_per_l, ranges::kStockGPerL.hi)};
+    }
   }
   return Ok{};
 }

@@ -101,7 +101,7 @@ bool fits(ad::CompoundId id, double g_per_l, double temperature_c) {
 // The additive catalog's stock check (solid taking its crystal volume in the finished litre)
 // decides; the strength where it reaches saturation is found by bisection, 1e-3 g/L.
 Result<double> stock_saturation_g_per_l(Compound compound, double temperature_c) {
-  if (auto r = check_range("stock_temperature_c", temperature_c, 0.0, 60.0, "C"); !r) return r.error();
+  if (auto r = ranges::check("stock_temperature_c", temperature_c, ranges::kStockTemperatureC); !r) return r.error();
   const ad::CompoundId id = detail::catalog_id(compound);
   // The catalog tabulates NaOH only to 25 C (from memory); it is more soluble when warmer, so
   // the 25 C value is used above 25 C (the safe side).
