@@ -128,7 +128,8 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
   if (f.mode == HatcheryMode::FlowThrough) {
     ui::number_field(app, "hatchery.flow", {"Intake flow", "L/min", 1, 5, tw::ranges::kIntakeFlowLPerMin.lo, tw::ranges::kIntakeFlowLPerMin.hi}, &f.flow_l_per_min);
     ui::optional_number_field(app, "hatchery.residence",
-                              {"Time from injection to the tanks (optional)", "min", 0, 5, 0, 1440},
+                              {"Time from injection to the tanks (optional)", "min", 0, 5, tw::ranges::kResidenceTimeMin.lo,
+                               tw::ranges::kResidenceTimeMin.hi},
                               &f.residence_time_min);
     fields::temperature(app, "hatchery.stock_temperature", "Stock tank temperature", &f.stock_temperature_c,
                         fields::units(app).temperature, tw::ranges::kStockTemperatureC);
@@ -136,13 +137,14 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
     const auto vu = u.volume;
     double v = tw::units::volume_from_litres(f.volume_l, vu);
     if (ui::number_field(app, "hatchery.volume",
-                         {"Tank volume", fmtx::volume_unit_text(vu), 0, 50, tw::units::volume_from_litres(0.1, vu),
-                          tw::units::volume_from_litres(1e7, vu)},
+                         {"Tank volume", fmtx::volume_unit_text(vu), 0, 50, tw::units::volume_from_litres(tw::ranges::kSystemVolumeL.lo, vu),
+                          tw::units::volume_from_litres(tw::ranges::kSystemVolumeL.hi, vu)},
                          &v)) {
       f.volume_l = tw::units::volume_to_litres(v, vu);
     }
     ui::optional_number_field(app, "hatchery.residence",
-                              {"Time open to the air before use (optional)", "min", 0, 5, 0, 1440},
+                              {"Time open to the air before use (optional)", "min", 0, 5, tw::ranges::kResidenceTimeMin.lo,
+                               tw::ranges::kResidenceTimeMin.hi},
                               &f.residence_time_min);
   }
   ui::card_end(app);

@@ -296,7 +296,7 @@ Result<double> degassing_fraction(const GasExchange& gas) {
     return *gas.fraction;
   }
   if (!gas.residence_time_min) return 0.0;
-  if (auto r = check_range("residence_time_min", *gas.residence_time_min, 0.0, 1440.0, "min"); !r)
+  if (auto r = ranges::check("residence_time_min", *gas.residence_time_min, ranges::kResidenceTimeMin); !r)
     return r.error();
   if (auto r = check_range("exchange_time_constant_min", gas.exchange_time_constant_min, 0.1, 10000.0, "min"); !r)
     return r.error();

@@ -115,6 +115,8 @@ inline constexpr Range kHatcheryTargetOmega{0.5, 8.0, ""};
 inline constexpr Range kHatcheryTargetPh{6.5, 9.3, ""};
 inline constexpr Range kHatcheryPhCeiling{7.0, 9.3, ""};
 inline constexpr Range kIntakeFlowLPerMin{0.01, 100000.0, "L/min"};
+// Time the treated water spends open to the air before the animals (degassing): up to a day.
+inline constexpr Range kResidenceTimeMin{0.0, 1440.0, "min"};
 
 // ------------------------------------------------------------ time
 // 1970-01-01 to 2200-01-01 UTC.
