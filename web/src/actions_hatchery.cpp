@@ -2,26 +2,15 @@
 // pump-side table export.
 #include "actions_dosing.hpp"
 
-#include <algorithm>
-#include <cmath>
-
 #include "actions.hpp"
 #include "platform.hpp"
-#include "tidewright/common/ranges.hpp"
-#include "tidewright/common/datetime.hpp"
-#include "tidewright/plan/plan.hpp"
-#include "tidewright/plan/plan_adopt.hpp"
-#include "tidewright/plan/plan_from_journal.hpp"
-#include "tidewright/seawater/seawater.hpp"
 #include "tidewright/common/units.hpp"
+#include "tidewright/seawater/seawater.hpp"
 
 namespace twapp {
 
-namespace est = tw::estimate;
 namespace hat = tw::hatchery;
-namespace add = tw::additives;
 namespace cb = tw::carbonate;
-namespace pl = tw::plan;
 
 // ---------------------------------------------------------------- Hatchery
 void refresh_hatchery(AppState& app) {

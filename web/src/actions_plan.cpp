@@ -7,20 +7,15 @@
 
 #include "actions.hpp"
 #include "platform.hpp"
-#include "tidewright/common/ranges.hpp"
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/plan/plan.hpp"
 #include "tidewright/plan/plan_adopt.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
-#include "tidewright/seawater/seawater.hpp"
-#include "tidewright/common/units.hpp"
 
 namespace twapp {
 
-namespace est = tw::estimate;
-namespace hat = tw::hatchery;
 namespace add = tw::additives;
-namespace cb = tw::carbonate;
 namespace pl = tw::plan;
 
 namespace {
@@ -69,12 +64,8 @@ bool export_plan(AppState& app, int format) {
   return true;
 }
 
-
-
 // ---------------------------------------------------------------- Plan
 namespace {
-
-namespace pl = tw::plan;
 
 // A stock of one compound as an additive dosed by the mL (the core checks the solubility).
 tw::Result<add::Additive> stock_additive(add::CompoundId id, double g_per_l, const std::string& name) {
