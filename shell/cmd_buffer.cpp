@@ -179,7 +179,7 @@ hy::Settings settings_of(const BufferOptions& o) {
 void add_confidence(const BufferOptions& o, const hy::Water& w, hy::Settings& s) {
   if (!o.confidence_percent && !o.precision.wanted()) return;
   const double percent = o.confidence_percent.value_or(95.0);
-  if (auto r = check_range("--confidence", percent, 50.0, 99.9, "%"); !r) throw CommandError(r.error().message);
+  if (auto r = ranges::check("--confidence", percent, ranges::kDoseConfidencePercent); !r) throw CommandError(r.error().message);
   cb::Conditions c;
   c.salinity = w.salinity;
   c.temperature_c = w.temperature_c;
@@ -539,8 +539,10 @@ void register_buffer(CLI::App& app) {
   l->add_option("--mix-temperature", line->mix_temperature,
                 fmt::format("Its temperature [C] ({:g}..{:g})", ranges::kTemperatureC.lo, ranges::kTemperatureC.hi))
       ->default_str("20");
-  l->add_option("--mix-alkalinity", line->mix_alkalinity, "Its alkalinity [umol/kg] (0..10000)")->default_str("0");
-  l->add_option("--mix-dic", line->mix_dic, "Its DIC [umol/kg] (0..10000)")->default_str("0");
+  l->add_option("--mix-alkalinity", line->mix_alkalinity,
+                fmt::format("Its alkalinity [umol/kg] ({:g}..{:g})", ranges::kMixWaterCarbonUmolKg.lo, ranges::kMixWaterCarbonUmolKg.hi))->default_str("0");
+  l->add_option("--mix-dic", line->mix_dic,
+                fmt::format("Its DIC [umol/kg] ({:g}..{:g})", ranges::kMixWaterCarbonUmolKg.lo, ranges::kMixWaterCarbonUmolKg.hi))->default_str("0");
   l->add_option("--mix-calcium", line->mix_calcium, "Its calcium [umol/kg] (0..50000)")->default_str("0");
   l->add_option("--tank-temperature", line->tank_temperature, fmt::format("Temperature at the tanks after heating or cooling [C] ({:g}..{:g})",
                             ranges::kTemperatureC.lo, ranges::kTemperatureC.hi));

@@ -18,6 +18,7 @@
 #include <fmt/format.h>
 
 #include "hatchery_internal.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/common/result.hpp"
 
 namespace tw::hatchery {
@@ -25,7 +26,8 @@ namespace tw::hatchery {
 namespace cb = tw::carbonate;
 
 Result<double> one_sided_z(double probability) {
-  if (auto r = check_range("confidence", probability, 0.5, 0.999, ""); !r) return r.error();
+  // The range is in percent (common/ranges.hpp), as keepers say it.
+  if (auto r = ranges::check("confidence", probability * 100.0, ranges::kDoseConfidencePercent); !r) return r.error();
   // Phi(z) = erfc(-z / sqrt 2) / 2 is increasing: bisection on [0, 4].
   double lo = 0.0, hi = 4.0;
   for (int i = 0; i < 80; ++i) {

@@ -20,8 +20,8 @@ Result<MixResult> mix_waters(double salinity, double temperature_c, double alkal
   // The other water's density is EOS-80's too: the water's ranges (common/ranges.hpp).
   if (auto r = ranges::check("mix_salinity", o.salinity, ranges::kSalinity); !r) return r.error();
   if (auto r = ranges::check("mix_temperature_c", o.temperature_c, ranges::kTemperatureC); !r) return r.error();
-  if (auto r = check_range("mix_alkalinity", o.alkalinity_umol_kg, 0.0, 10000.0, "umol/kg"); !r) return r.error();
-  if (auto r = check_range("mix_dic", o.dic_umol_kg, 0.0, 10000.0, "umol/kg"); !r) return r.error();
+  if (auto r = ranges::check("mix_alkalinity", o.alkalinity_umol_kg, ranges::kMixWaterCarbonUmolKg); !r) return r.error();
+  if (auto r = ranges::check("mix_dic", o.dic_umol_kg, ranges::kMixWaterCarbonUmolKg); !r) return r.error();
   if (auto r = check_range("mix_calcium", o.calcium_umol_kg, 0.0, cb::kCalciumMaxUmolKg, "umol/kg"); !r)
     return r.error();
   // Volume fraction -> mass fraction with each water's own density (EOS-80).

@@ -105,8 +105,8 @@ Status validate_input(const PlanInput& in) {
     const char* u = additives::to_string(d.additive.unit);
     if (auto r = check_range(f + ".max_dose", d.max_dose, ranges::kPlannedDoseMax.lo, ranges::kPlannedDoseMax.hi, u); !r) return r;
     if (auto r = check_range(f + ".min_dose", d.min_dose, 0.0, d.max_dose, u); !r) return r;
-    if (auto r = check_range(f + ".max_per_day", d.max_per_day, 1e-3, 1e9, u); !r) return r;
-    if (auto r = check_range(f + ".reservoir", d.reservoir, 0.0, 1e9, u); !r) return r;
+    if (auto r = check_range(f + ".max_per_day", d.max_per_day, ranges::kPlannedDailyAmount.lo, ranges::kPlannedDailyAmount.hi, u); !r) return r;
+    if (auto r = check_range(f + ".reservoir", d.reservoir, ranges::kReservoirAmount.lo, ranges::kReservoirAmount.hi, u); !r) return r;
   }
   return Ok{};
 }

@@ -108,6 +108,15 @@ inline constexpr Range kEvaporationFractionPerDay{0.0, 0.2, "of the volume per d
 inline constexpr Range kGasExchangeHours{0.0, 72.0, "h"};
 // How far the salinity may sit from its target before the plan flags it.
 inline constexpr Range kSalinityTolerance{0.01, 5.0, ""};
+// A pump's daily volume and the stock on hand (mL or g): any real pump and reservoir [our choice].
+inline constexpr Range kPlannedDailyAmount{1e-3, 1e9, "g or mL"};
+inline constexpr Range kReservoirAmount{0.0, 1e9, "g or mL"};
+
+// ------------------------------------------------------------ estimates and forecasts
+// Days a consumption forecast looks ahead (`demand --days`; the app's chart shows up to 60).
+inline constexpr Range kForecastDays{1.0, 365.0, "days"};
+// The window of logged doses that stands for the current dosing (`demand --dose-window`).
+inline constexpr Range kDosingWindowDays{1.0, 90.0, "days"};
 
 // ------------------------------------------------------------ hatchery treatment of intake water
 // [our choice: the span of shellfish hatchery practice, and of the carbonate constants' fits]
@@ -117,6 +126,12 @@ inline constexpr Range kHatcheryPhCeiling{7.0, 9.3, ""};
 inline constexpr Range kIntakeFlowLPerMin{0.01, 100000.0, "L/min"};
 // Time the treated water spends open to the air before the animals (degassing): up to a day.
 inline constexpr Range kResidenceTimeMin{0.0, 1440.0, "min"};
+// Water mixed into the line (fresh or another seawater): its alkalinity and DIC, far above any
+// natural water's (seawater ~2300, hard river water ~5000 umol/kg) [our choice].
+inline constexpr Range kMixWaterCarbonUmolKg{0.0, 10000.0, "umol/kg"};
+// The probability a hatchery dose reaches its target with (and keeps its ceiling with): from
+// a coin toss to 1 in 1000 [our choice: beyond 99.9 % the normal tails are not to be trusted].
+inline constexpr Range kDoseConfidencePercent{50.0, 99.9, "%"};
 
 // ------------------------------------------------------------ time
 // 1970-01-01 to 2200-01-01 UTC.
