@@ -17,6 +17,7 @@
 #include "file_io.hpp"
 #include "journal_access.hpp"
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/estimate/estimate.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/journal/journal_file.hpp"
@@ -30,7 +31,7 @@ struct DemandOptions {
   std::string journal_path;
   std::string system;
   int days = 7;
-  double dose_window_days = 7.0;
+  double dose_window_days = est::kRecentDosingWindowDays;
   bool json = false;
   bool history = false;
   bool outliers = false;   // list every flagged test (default: a summary line)
@@ -90,12 +91,12 @@ SystemResult compute(const journal::Journal& j, const journal::System& sys, cons
     }
     r.params.push_back(std::move(pr));
   }
-  r.ratio = est::read_calcium_alkalinity(r.params[0].e, r.params[1].e);
+  r.ratio = est::read_calcium_alkalinity(r.params[0].e, r.params[1].e, r.now_days);
   return r;
 }
 
 // ------------------------------------------------------------ JSON
-nlohmann::json param_json(const ParamResult& pr) {
+nlohmann::json param_json(const ParamResult& pr, double now_days) {
   const est::SeriesEstimate& e = pr.e;
   nlohmann::json j{{"unit", tw::parameter_unit(pr.p)},
                    {"tests", e.tests},
@@ -116,7 +117,7 @@ nlohmann::json param_json(const ParamResult& pr) {
   j["daily_dose_effect"] = pr.dose_per_day;
   if (e.last_test_days) j["last_test"] = when(*e.last_test_days);
   j["stale"] = false;
-  if (e.last_test_days && e.time_days - *e.last_test_days > est::useful_horizon_days(pr.p)) {
+  if (est::is_stale(e, now_days)) {  // the text's rule: one function in the core
     j["stale"] = true;
     j.erase("level");
     j.erase("level_sd");
@@ -152,7 +153,7 @@ nlohmann::json param_json(const ParamResult& pr) {
 
 nlohmann::json system_json(const SystemResult& r) {
   nlohmann::json params = nlohmann::json::object();
-  for (const auto& pr : r.params) params[tw::parameter_name(pr.p)] = param_json(pr);
+  for (const auto& pr : r.params) params[tw::parameter_name(pr.p)] = param_json(pr, r.now_days);
   const auto& c = r.ratio;
   nlohmann::json ratio{{"verdict", est::to_string(c.verdict)},
                        {"expected_mg_l_per_dkh", c.expected_mg_l_per_dkh},
@@ -257,10 +258,9 @@ void print_system(const SystemResult& r, const DemandOptions& o) {
 }
 
 void run(const DemandOptions& o) {
-  if (o.days < 1 || o.days > 365)
-    throw CommandError(fmt::format("--days {} is outside the accepted range 1 to 365", o.days));
-  if (!(o.dose_window_days >= 1.0 && o.dose_window_days <= 90.0))
-    throw CommandError(fmt::format("--dose-window {:g} is outside the accepted range 1 to 90 days", o.dose_window_days));
+  if (auto r = ranges::check("--days", o.days, ranges::kForecastDays); !r) throw CommandError(r.error().message);
+  if (auto r = ranges::check("--dose-window", o.dose_window_days, ranges::kDosingWindowDays); !r)
+    throw CommandError(r.error().message);
   // One system's events at a time from the journal database (core/store): memory follows
   // the largest system, not the whole journal.
   auto st = open_journal_or_fail(o.journal_path, store::Access::Read);
@@ -297,9 +297,11 @@ void register_demand(CLI::App& app) {
                 "uncertainty, outliers, the Ca:alkalinity reading and a forecast");
   cmd->add_option("--journal", o->journal_path, "Journal: a database FILE.db or a JSON journal (see tidewright log --help)")->required();
   cmd->add_option("--system", o->system, "Only this system (name or id); default: every system");
-  cmd->add_option("--days", o->days, "Days to forecast, 1 to 365 (default 7)");
+  cmd->add_option("--days", o->days,
+                  fmt::format("Days to forecast, {:g} to {:g} (default 7)", ranges::kForecastDays.lo, ranges::kForecastDays.hi));
   cmd->add_option("--dose-window", o->dose_window_days,
-                  "Days of logged doses averaged as the current dosing, 1 to 90 (default 7)");
+                  fmt::format("Days of logged doses averaged as the current dosing, {:g} to {:g} (default {:g})",
+                              ranges::kDosingWindowDays.lo, ranges::kDosingWindowDays.hi, est::kRecentDosingWindowDays));
   cmd->add_flag("--history", o->history, "Also print the demand at every test (text output)");
   cmd->add_flag("--outliers", o->outliers, "List every test flagged as an outlier (text output; default: a summary)");
   cmd->add_option("--at", o->at, "Read the state at this time, e.g. 2026-12-03T08:00Z (default: now)");

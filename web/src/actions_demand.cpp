@@ -71,7 +71,7 @@ void refresh_demand(AppState& app) {
     pe.scheduled = series->scheduled[i];
     if (!pe.estimate.demand_known || pe.stale) continue;
     pe.daily_dose_effect = series->scheduled[i] ? series->scheduled_per_day[i]
-                                                : est::recent_daily_addition(s, 7.0, out.now_days);
+                                                : est::recent_daily_addition(s, est::kRecentDosingWindowDays, out.now_days);
     auto f = est::forecast_levels(pe.estimate, pe.daily_dose_effect, view.forecast_days, opts);
     if (f) {
       pe.forecast = std::move(f).value();
@@ -80,7 +80,7 @@ void refresh_demand(AppState& app) {
     }
   }
   if (out.per_parameter[0].ok && out.per_parameter[1].ok) {
-    out.ratio = est::read_calcium_alkalinity(out.per_parameter[0].estimate, out.per_parameter[1].estimate);
+    out.ratio = est::read_calcium_alkalinity(out.per_parameter[0].estimate, out.per_parameter[1].estimate, out.now_days);
   }
   c = std::move(out);
 }

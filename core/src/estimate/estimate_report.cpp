@@ -112,6 +112,21 @@ CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alk,
   return r;
 }
 
+CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alk, const SeriesEstimate& ca,
+                                                 double now_days) {
+  for (const SeriesEstimate* e : {&alk, &ca}) {
+    if (!is_stale(*e, now_days)) continue;
+    CalciumAlkalinityReading r;
+    r.expected_mg_l_per_dkh = calcium_mg_l_per_dkh_calcification_gazeau2015();
+    r.verdict = RatioVerdict::NotEnoughData;
+    r.reading = fmt::format("Not compared: the last {} test is {:.0f} days old; the comparison needs recent tests "
+                            "of both alkalinity and calcium.",
+                            e == &alk ? "alkalinity" : "calcium", now_days - *e->last_test_days);
+    return r;
+  }
+  return read_calcium_alkalinity(alk, ca);
+}
+
 double z95() { return kZ95; }
 
 LevelSpread spread_of(const SeriesEstimate& e, const FilterOptions& options) {

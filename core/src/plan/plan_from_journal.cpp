@@ -115,6 +115,7 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
     if (!e) return e.error();
     if (e->tests_used == 0 || e->history.empty()) continue;
     const int dp0 = info_of(p).decimals;
+    bool stale_accepted = false;
     if (now_days && e->last_test_days) {
       const double age = *now_days - *e->last_test_days;
       const std::string when = date_of_days(*e->last_test_days);
@@ -122,6 +123,7 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
       if (estimate::is_stale(*e, *now_days)) {
         why = fmt::format("its last test ({}, {:.0f} days ago) is older than the {:.0f}-day horizon", when, age,
                           estimate::useful_horizon_days(p));
+        stale_accepted = bo.accept_stale;
       } else if (e->unknown_dosing_level_sd > info_of(p).typical_precision.value_or(0.2)) {
         why = fmt::format("doses since its last test ({}) are not in the log and no schedule covers them, so today's "
                           "level could be {:.{}f} {} off either way",
@@ -142,6 +144,13 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
     JournalLevel l;
     l.level = e->level;
     l.level_sd = e->level_sd;
+    if (stale_accepted) {
+      // Beyond the horizon the consumption since is not known (a year of a 4 mg/L/day demand
+      // "carried forward" reads as no calcium at all): the old level is the level at its last
+      // test, as the keeper asked, not an extrapolation.
+      l.level = e->history.back().level;
+      l.level_sd = e->history.back().level_sd;
+    }
     l.demand_known = e->demand_known;
     l.demand_per_day = e->demand_per_day;
     l.demand_sd = e->demand_sd;
@@ -151,7 +160,10 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
     l.spread = estimate::spread_of(*e, estimate::default_filter_options(p));
     const int dp = info_of(p).decimals;
     b.provenance.push_back(fmt::format("{} {:.{}f} {}: estimated level {} (sd {:.{}f}), last test {}", name, l.level,
-                                       dp, unit, now_days ? "now, with the known doses since" : "at the last test",
+                                       dp, unit,
+                                       stale_accepted ? "at its last test, stale (not carried to now)"
+                                       : now_days     ? "now, with the known doses since"
+                                                      : "at the last test",
                                        l.level_sd, dp, l.last_test_date));
     if (!l.demand_known) {
       b.provenance.push_back(fmt::format("{} demand: unknown (fewer than two usable tests)", name));

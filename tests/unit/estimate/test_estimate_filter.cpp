@@ -261,6 +261,40 @@ TEST_CASE("estimate: Ca:alkalinity ratio against 7.147 mg/L per dKH (Gazeau et a
   CHECK(read_calcium_alkalinity(alk, ca).verdict == RatioVerdict::NotEnoughData);
 }
 
+TEST_CASE("estimate: the Ca:alkalinity reading is inconclusive when the data cannot tell, never 'fall together'") {
+  SeriesEstimate alk, ca;
+  alk.parameter = Parameter::Alkalinity;
+  ca.parameter = Parameter::Calcium;
+  alk.demand_known = ca.demand_known = true;
+  auto inconclusive = [&](const char* why) {
+    auto r = read_calcium_alkalinity(alk, ca);
+    CHECK_MESSAGE(r.verdict == RatioVerdict::Inconclusive, why);
+    CHECK(r.reading.rfind("Inconclusive", 0) == 0);
+    CHECK(r.reading.find("fall together") == std::string::npos);
+    return r;
+  };
+  // The case the keeper saw: a ratio of -0.54 +/- 7.31 mg/L per dKH (its interval covers zero).
+  alk.demand_per_day = 1.0;
+  alk.demand_sd = 0.05;
+  ca.demand_per_day = -0.54;
+  ca.demand_sd = 7.3;
+  auto r = inconclusive("interval covers zero");
+  CHECK(r.ratio_valid);
+  CHECK(r.reading.find("reaches zero") != std::string::npos);
+  // A positive ratio whose 95 % interval is wider than the ratio itself.
+  ca.demand_per_day = 7.0;
+  ca.demand_sd = 4.0;  // ratio 7.0 +/- 4.0: 1.96 x 4.0 = 7.84 > 7.0
+  inconclusive("interval wider than the ratio");
+  // No ratio: the alkalinity demand is not clearly above zero.
+  alk.demand_per_day = 0.05;
+  alk.demand_sd = 0.1;
+  ca.demand_per_day = 7.0;
+  ca.demand_sd = 0.5;
+  r = inconclusive("no ratio");
+  CHECK_FALSE(r.ratio_valid);
+  CHECK(r.reading.find("no ratio") != std::string::npos);
+}
+
 TEST_CASE("estimate: forecast under steady dosing, with a band that widens") {
   SeriesEstimate e;
   e.parameter = Parameter::Alkalinity;

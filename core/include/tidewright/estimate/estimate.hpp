@@ -222,6 +222,11 @@ struct CalciumAlkalinityReading {
 // The departure counts only when |excess| > 1.96 excess_sd (95 %).
 CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alkalinity,
                                                  const SeriesEstimate& calcium);
+// The same, read at now_days: when either parameter is stale (is_stale), the verdict is
+// NotEnoughData and the reading names the stale one with its age, as a demand from tests
+// months apart says nothing about today's ratio.
+CalciumAlkalinityReading read_calcium_alkalinity(const SeriesEstimate& alkalinity,
+                                                 const SeriesEstimate& calcium, double now_days);
 
 // How the uncertainty of an estimated level grows when it is carried forward with known
 // dosing: today's level sd, the level-demand covariance, the demand's sd, the filter's process
@@ -308,6 +313,9 @@ struct JournalSeriesOptions {
 Result<SystemSeries> series_from_journal(const journal::Journal& journal, journal::SystemId system,
                                          const JournalSeriesOptions& options = {});
 
+// The window over which logged doses stand for the current dosing when no schedule runs
+// (chosen here: a week, the usual rhythm of hand dosing), the app's and `demand`'s default.
+inline constexpr double kRecentDosingWindowDays = 7.0;
 // Average known addition per day over the window_days before the series' last event (or
 // before until_days if given): sum of Addition deltas / window_days. The "current dosing"
 // for a forecast when no schedule is given.
