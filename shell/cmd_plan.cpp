@@ -3,8 +3,11 @@
 // Every plan is replayed by the independent checker before it is printed; a plan the checker
 // refuses is not printed (exit 1). A plan that cannot hold the water inside its floors is
 // written in full with its verdict first and ends with exit status 3; one that holds, 0.
+#include <algorithm>
+#include <cctype>
 #include <cstdio>
 #include <cstdlib>
+#include <cstring>
 #include <ctime>
 #include <memory>
 
@@ -23,6 +26,7 @@
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/plan/plan_adopt.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
+#include "tidewright/plan/plan_starter.hpp"
 
 namespace tw::shell {
 namespace {
@@ -38,6 +42,7 @@ struct PlanOptions {
   bool accept_stale = false;     // --accept-stale: plan from levels the journal cannot vouch for today
   bool adopt = false;            // --adopt: the plan becomes the system's standing schedules
   std::string utc_offset, time_zone;  // for --adopt: the keeper's zone (time_zone.hpp)
+  std::string starter;           // --starter FILE: write a plan input from --journal/--system and stop
 };
 
 
@@ -68,7 +73,12 @@ std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in
     throw CommandError(fmt::format("--journal: {} (--accept-stale plans from it anyway)", basis.error().message));
   }
   if (!basis) throw CommandError(fmt::format("--journal: {}", basis.error().message));
-  return plan::apply_journal_basis(*basis, in);
+  std::vector<std::string> lines = plan::apply_journal_basis(*basis, in);
+  if (!not_in_file.empty()) {
+    lines.push_back(fmt::format("not in the plan input, so from the journal only: system.{}",
+                                fmt::join(not_in_file, ", system.")));
+  }
+  return lines;
 }
 
 // --adopt: the plan's doses become the system's standing schedules in the journal (the pumps'
@@ -103,7 +113,47 @@ void adopt(const PlanOptions& o, const plan::PlanInput& in, const plan::Plan& p)
   }
 }
 
+// --starter: a plan input built from the journal's system (plan_starter.hpp), with comment
+// lines saying where each number came from and how to make the plan from it.
+void write_starter(const PlanOptions& o) {
+  if (o.journal.empty() || o.system.empty()) throw CommandError("--starter: needs --journal FILE and --system NAME or ID");
+  if (!o.input.empty()) throw CommandError("--starter: writes a plan input; give no input file with it");
+  auto st = open_journal_or_fail(o.journal, store::Access::Read);
+  const journal::System sys = system_or_fail(*st, o.system);
+  auto j = st->system_journal(sys.id);
+  if (!j) throw CommandError(fmt::format("--journal: {}", j.error().message));
+  const auto now = static_cast<std::int64_t>(std::time(nullptr));
+  auto starter = plan::starter_plan_input(*j, sys.id, now);
+  if (!starter) throw CommandError(fmt::format("--starter: {}", starter.error().message));
+  auto body = plan::plan_input_to_json(starter->input);
+  if (!body) throw CommandError(fmt::format("--starter: {}", body.error().message));
+  // Paths quoted for a POSIX shell when they hold anything but plain characters.
+  auto quoted = [](const std::string& path) {
+    const bool plain = std::all_of(path.begin(), path.end(), [](unsigned char c) {
+      return std::isalnum(c) || std::strchr("/._-+,:@", c) != nullptr;
+    });
+    if (plain && !path.empty()) return path;
+    std::string q = "'";
+    for (char c : path) q += c == '\'' ? std::string("'\\''") : std::string(1, c);
+    return q + "'";
+  };
+  const std::string file = o.starter == "-" ? "FILE" : quoted(o.starter);
+  std::string text = fmt::format("// Plan input for \"{}\", written by `tidewright plan --starter` on {} (UTC) from {}.\n",
+                                 sys.name, datetime::format_date_utc(now), quoted(o.journal));
+  text += "// Lines starting with // are comments. Make the plan with the water and consumption read again\n";
+  text += fmt::format("// from the journal (room kept for their uncertainty):\n//   tidewright plan {} --journal {} --system {}\n",
+                      file, quoted(o.journal), sys.id);
+  text += fmt::format("// or from the numbers below as they stand:  tidewright plan {}\n", file);
+  text += "// The keys are listed in the README (`plan`); an unknown key is refused with the nearest known one.\n";
+  text += "// Where the numbers came from:\n";
+  for (const auto& n : starter->notes) text += "//   " + n + "\n";
+  write_output(o.starter, text + *body);
+  if (o.starter != "-") std::fprintf(stderr, "wrote %s: a plan input for \"%s\"\n", o.starter.c_str(), sys.name.c_str());
+}
+
 void run(const PlanOptions& o) {
+  if (!o.starter.empty()) return write_starter(o);
+  if (o.input.empty()) throw CommandError("input: the plan input file is required (--starter FILE writes one from --journal)");
   const bool from_journal = !o.journal.empty() || !o.system.empty();
   std::vector<std::string> not_in_file;
   auto in = plan::plan_input_from_json(read_text_file(o.input), from_journal ? &not_in_file : nullptr);
@@ -183,8 +233,8 @@ void register_plan(CLI::App& app) {
       "first: what is short and what would fix it); 1 refused input or a plan the checker refuses. Targets whose "
       "water, settled with the room air, already crosses a pH or saturation limit are flagged after the verdict "
       "with the target that fits");
-  sub->add_option("input", opts->input, "plan input file (JSON; - for stdin); see assets/demo/demo_plan.json")
-      ->required();
+  sub->add_option("input", opts->input, "plan input file (JSON, // comment lines allowed; - for stdin); see assets/demo/demo_plan.json, "
+                  "or write one with --starter");
   sub->add_option("--horizon-days", opts->horizon_days, "override the plan's horizon (1..365 days)");
   auto* fmt_group = sub->add_option_group("format");
   fmt_group->add_flag("--json", opts->json, "the whole plan as JSON");
@@ -199,6 +249,10 @@ void register_plan(CLI::App& app) {
   sub->add_option("--out", opts->out, "write to this file instead of stdout")->check(non_empty_path());
   sub->add_flag("--accept-stale", opts->accept_stale,
                 "with --journal: plan from a level whose last test is too old, or with unlogged dosing since (flagged)");
+  sub->add_option("--starter", opts->starter,
+                  "write a plan input for --system from --journal to this file (- for stdout), each number with where "
+                  "it came from, and stop")
+      ->check(non_empty_path());
   sub->add_flag("--adopt", opts->adopt,
                 "make the plan the system's standing dose schedules in --journal (its pumps' earlier schedules stop)");
   sub->add_option("--utc-offset", opts->utc_offset, std::string("with --adopt: the plan's days start at local midnight; ") + kUtcOffsetHelp);

@@ -22,6 +22,7 @@
 #include "tidewright/hatchery/hatchery.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/plan/plan.hpp"
+#include "tidewright/plan/plan_starter.hpp"
 
 namespace twapp {
 
@@ -154,9 +155,9 @@ enum class PlanCalcium { CalciumChloride, None };
 
 struct PlanForm {
   PlanAlkalinity alkalinity = PlanAlkalinity::SodiumCarbonate;
-  double alkalinity_g_per_l = 80.0;   // stock strength (as sold, per L of solution)
+  double alkalinity_g_per_l = tw::plan::kStarterSodaAshGPerL;  // stock strength (as sold, per L of solution)
   PlanCalcium calcium = PlanCalcium::CalciumChloride;
-  double calcium_g_per_l = 200.0;     // CaCl2.2H2O per L of solution
+  double calcium_g_per_l = tw::plan::kStarterCalciumChlorideGPerL;  // CaCl2.2H2O per L of solution
   int doses_per_day = 4;              // per pump, 1..24
   double max_dose_ml = 50.0;          // largest single dose of a pump
   double evaporation_l_per_day = 2.0; // bounds limewater

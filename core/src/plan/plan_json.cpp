@@ -1,7 +1,8 @@
 // Plan input as JSON (our own format) and the plan as JSON.
 //
 // Input format (strict: an unknown key is refused naming the key and the nearest known one;
-// fields optional unless marked, defaults as in plan.hpp):
+// fields optional unless marked, defaults as in plan.hpp; // and /* */ comments allowed, as in
+// the files `plan --starter` writes, plan_starter.hpp):
 // { "system": {"name", "volume_l"*, "salinity"*, "temperature_c"*, "alkalinity_dkh"*, "calcium_mg_l"*,
 //              "magnesium_mg_l"* (* required, or taken from a journal: see PlanInputSource),
 //              "ph_total" (total scale; absent = air equilibrium), "air_co2_ppm"},
@@ -136,7 +137,8 @@ Status read_band(const json& t, const char* key, Band& b) {
 }  // namespace
 
 Result<PlanInput> plan_input_from_json(const std::string& text, std::vector<std::string>* left_to_journal) {
-  json j = json::parse(text, nullptr, false);
+  // Comments (// and /* */) are allowed: the files `plan --starter` writes explain themselves.
+  json j = json::parse(text, nullptr, /*allow_exceptions=*/false, /*ignore_comments=*/true);
   if (j.is_discarded() || !j.is_object()) return Error{"plan", "the plan input is not a JSON object"};
   TW_TRY(known_keys(j, "", {"system", "targets", "demand", "additives", "limits", "overrides", "evaporation_l_per_day",
                             "horizon_days", "gas_exchange_hours", "salinity_tolerance", "start_date"}));
