@@ -278,6 +278,7 @@ void print_import_report(const LogOptions& o, const Store::ImportReport& rep, co
                        {"systems_added", rep.systems_added},
                        {"duplicates_skipped", rep.duplicates_skipped},
                        {"blank_rows_skipped", rep.blank_rows_skipped},
+                       {"delimiter", delimiter_name(rep.delimiter)},
                        {"unused_columns", unused},
                        {"rejected", rej},
                        {"dry_run", o.dry_run}};
@@ -303,6 +304,11 @@ void print_import_report(const LogOptions& o, const Store::ImportReport& rep, co
     std::cout << fmt::format("columns not imported: {} (reasons on stderr; read one your way with --map "
                              "'HEADER=MEANING', or leave it out with --map 'HEADER=skip')\n", names_list);
     for (const auto& u : rep.unused_columns) std::cerr << fmt::format("{}: not imported: {}\n", o.file, u.reason);
+  }
+  // A CSV's separator as detected, when it is not the comma (a JSON journal has none).
+  if ((o.delimiter.empty() || o.delimiter == "auto") && rep.delimiter != ',' && !looks_like_json(o.file)) {
+    std::cout << fmt::format("read as {}-separated (detected from the header; --delimiter sets it)\n",
+                             delimiter_name(rep.delimiter));
   }
   if (o.date_order.empty() && *date_order_name(rep.date_order)) {
     std::cout << fmt::format("dates read as {} (the file's own dates show it; --date-order sets it)\n",

@@ -44,6 +44,7 @@ def fixture(name):
 j = fresh()
 rc, out, err = run("log", "--journal", j, "import", fixture("semicolon_decimal_comma.csv"))
 check("semicolon file imports", rc == 0, err)
+check("says the separator it detected", "read as semicolon-separated" in out, out)
 t = tests_of(j)
 check("decimal comma 8,2 is 8.2 dKH", any(p == "alkalinity" and abs(v - 8.2) < 1e-9 and u == "dKH" for _, p, v, u in t), t)
 check("Calcium (mg/L) read", any(p == "calcium" and v == 430 for _, p, v, u in t), t)
