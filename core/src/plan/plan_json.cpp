@@ -310,10 +310,13 @@ Result<json> plan_input_object(const PlanInput& in) {
     x["doses_per_day"] = d.doses_per_day;
     x["min_dose"] = d.min_dose;
     x["max_dose"] = d.max_dose;
-    x["max_per_day"] = d.max_per_day;
+    // "No pump limit" and "reservoir not tracked" are the reader's defaults: left out rather
+    // than written as 1e9 and 0, which read as settings.
+    const Delivery unset;
+    if (d.max_per_day != unset.max_per_day) x["max_per_day"] = d.max_per_day;
     x["first_hour"] = d.first_hour;
     x["last_hour"] = d.last_hour;
-    x["reservoir"] = d.reservoir;
+    if (d.reservoir != unset.reservoir) x["reservoir"] = d.reservoir;
     j["additives"].push_back(std::move(x));
   }
   // The limits as the keeper set them (the room kept for a journal's estimates is the planner's,

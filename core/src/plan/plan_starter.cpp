@@ -65,34 +65,36 @@ Result<Delivery> delivery_of(const DosedAdditive& d, double temperature_c) {
   return out;
 }
 
-// The pumps' schedules running now, else the additives dosed in the last weeks (one each).
+// The pumps' schedules running now, and the additives dosed by hand or pump in the last weeks
+// that no schedule gives (a keeper's magnesium by hand beside two pumps), one each.
 std::vector<DosedAdditive> dosed_additives(const journal::Journal& j, journal::SystemId id, std::int64_t now_s,
-                                           std::string& source) {
+                                           std::vector<std::string>& sources) {
   std::vector<DosedAdditive> out;
+  auto add = [&out](const DosedAdditive& d) {
+    if (std::none_of(out.begin(), out.end(), [&](const DosedAdditive& o) { return o.same_as(d); })) out.push_back(d);
+  };
   for (const journal::Event* e : journal::schedules_running(j, id, now_s)) {
     const auto& s = std::get<journal::DoseSchedule>(e->data);
-    DosedAdditive d{s.additive_id, s.unit, s.stock_g_per_l, s.stock_name, s.device, s.doses_per_day};
-    if (std::none_of(out.begin(), out.end(), [&](const DosedAdditive& o) { return o.same_as(d); })) out.push_back(d);
+    add(DosedAdditive{s.additive_id, s.unit, s.stock_g_per_l, s.stock_name, s.device, s.doses_per_day});
   }
-  if (!out.empty()) {
-    source = "the schedules running now (device, recipe and doses per day)";
-    return out;
-  }
+  const std::size_t scheduled = out.size();
+  if (scheduled > 0) sources.push_back(fmt::format("{} from the schedules running now (device, recipe and doses per day)", scheduled));
   const auto since = now_s - static_cast<std::int64_t>(kStarterRecentDoseDays * 86400);
+  int pumps = 0;
   for (const journal::Event& e : j.events) {
     if (e.system_id != id || e.time_s < since || e.time_s > now_s) continue;
     const auto* dose = std::get_if<journal::Dose>(&e.data);
-    if (!dose) continue;
+    if (!dose || dose->mark != journal::ScheduleMark::None) continue;  // marks belong to a schedule
     const bool hand = dose->unit == journal::DoseUnit::Grams;
-    DosedAdditive d{dose->additive_id, dose->unit, dose->stock_g_per_l, "", hand ? "hand" : "pump", 1};
-    if (std::none_of(out.begin(), out.end(), [&](const DosedAdditive& o) { return o.same_as(d); })) out.push_back(d);
+    DosedAdditive d{dose->additive_id, dose->unit, dose->stock_g_per_l, "", "hand", 1};
+    if (std::any_of(out.begin(), out.end(), [&](const DosedAdditive& o) { return o.same_as(d); })) continue;
+    if (!hand) d.device = fmt::format("pump {}", scheduled + static_cast<std::size_t>(++pumps));
+    out.push_back(d);
   }
-  if (!out.empty()) {
-    source = fmt::format("the doses logged in the last {:g} days (one dose a day each: set the pump's own)",
-                         kStarterRecentDoseDays);
-    for (std::size_t i = 0; i < out.size(); ++i) {
-      if (out[i].device == "pump") out[i].device = fmt::format("pump {}", i + 1);
-    }
+  if (out.size() > scheduled) {
+    sources.push_back(fmt::format("{} from the doses logged in the last {:g} days that no schedule gives (one dose a "
+                                  "day each: set your own)",
+                                  out.size() - scheduled, kStarterRecentDoseDays));
   }
   return out;
 }
@@ -175,8 +177,8 @@ Result<StarterInput> starter_plan_input(const journal::Journal& journal, journal
   for (const auto& f : basis->flags) out.notes.push_back("Check: " + f);
   for (const auto& n : basis->notes) out.notes.push_back("Journal: " + n);
 
-  std::string source;
-  std::vector<DosedAdditive> dosed = dosed_additives(journal, system, now_s, source);
+  std::vector<std::string> sources;
+  std::vector<DosedAdditive> dosed = dosed_additives(journal, system, now_s, sources);
   for (const DosedAdditive& d : dosed) {
     auto delivery = delivery_of(d, in.system.temperature_c);
     if (!delivery) {
@@ -193,7 +195,8 @@ Result<StarterInput> starter_plan_input(const journal::Journal& journal, journal
         "what you dose.",
         kStarterRecentDoseDays, kStarterSodaAshGPerL, kStarterCalciumChlorideGPerL));
   } else {
-    out.notes.push_back("Additives: " + source + ". Check each pump's largest dose (max_dose) and daily volume.");
+    out.notes.push_back(fmt::format("Additives: {}. Check each pump's largest dose (max_dose) and daily volume.",
+                                    fmt::join(sources, "; ")));
   }
   const bool lime = std::any_of(dosed.begin(), dosed.end(), [](const DosedAdditive& d) { return d.additive_id == "limewater"; });
   if (lime) {
