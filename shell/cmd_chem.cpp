@@ -33,6 +33,9 @@ struct ChemOptions {
   std::optional<double> temperature_c, temperature_f;
   std::optional<double> calcium;
   std::string calcium_unit = "mg/L";
+  std::optional<double> total_boron, magnesium;  // salt mixes (issue 18)
+  std::string total_boron_unit = "umol/kg", magnesium_unit = "mg/L";
+  bool mg_ca_correction = false;
   double phosphate = 0, silicate = 0;
   std::string k1k2 = "lueker2000", boron = "uppstrom1974";
   std::string fluoride = "perezfraga1987", conventions = "co2sys";
@@ -54,6 +57,9 @@ FieldOptions chem_fields(const ChemOptions& o) {
           {"specific_gravity", "--specific-gravity"},
           {"temperature_c", o.temperature_f ? "--temperature-f" : "--temperature"},
           {"calcium_umol_kg", "--calcium"},
+          {"total_boron_umol_kg", "--total-boron"},
+          {"magnesium_umol_kg", "--magnesium"},
+          {"mg_ca_correction", "--mg-ca-correction"},
           {"phosphate_umol_kg", "--phosphate"},
           {"silicate_umol_kg", "--silicate"},
           {"air_co2_ppm", "--air-co2"}};
@@ -66,6 +72,19 @@ double salinity(const ChemOptions& o) {
     return or_fail(seawater::salinity_from_specific_gravity(*o.specific_gravity), chem_fields(o));
   }
   return o.salinity.value_or(35.0);
+}
+
+// The Mg/Ca correction as applied (null when not asked for): the factors and the note.
+nlohmann::json mg_ca_json(const carbonate::Conditions& c) {
+  if (!c.mg_ca_correction) return nullptr;
+  const auto k = carbonate::compute_constants(c);  // already computed once without error
+  if (!k || !k->mg_ca_correction) return nullptr;
+  const carbonate::MgCaCorrection& m = *k->mg_ca_correction;
+  return {{"magnesium_mol_kg_at_salinity_35", m.magnesium_mol_kg_s35},
+          {"calcium_mol_kg_at_salinity_35", m.calcium_mol_kg_s35},
+          {"factors", {{"k0", m.factors.k0}, {"k1", m.factors.k1}, {"k2", m.factors.k2}, {"kb", m.factors.kb},
+                       {"kw", m.factors.kw}, {"ks", m.factors.ks}, {"ksp", m.factors.ksp}}},
+          {"note", m.note}};
 }
 
 nlohmann::json state_json(const carbonate::CarbonateState& s, const carbonate::Conditions& c) {
@@ -90,6 +109,9 @@ nlohmann::json state_json(const carbonate::CarbonateState& s, const carbonate::C
           {"buffer_capacity_umol_kg_per_ph", s.buffer_capacity_umol_kg},
           {"iterations", s.iterations},
           {"calcium_source", carbonate::calcium_source(c).note},
+          {"total_boron_umol_kg", carbonate::boron_source(c).boron_umol_kg},
+          {"boron_source", carbonate::boron_source(c).note},
+          {"mg_ca_correction", mg_ca_json(c)},
           {"warnings", s.warnings}};
 }
 
@@ -111,6 +133,8 @@ std::string state_text(const carbonate::CarbonateState& s, const carbonate::Cond
   // Where calcium came from; at low salinity the same sentence is among the warnings.
   const carbonate::CalciumSource ca = carbonate::calcium_source(c);
   if (!ca.low_salinity) fmt::format_to(put, "Note    {}\n", ca.note);
+  // Measured boron is said where it was used; without it the output is as before.
+  if (const carbonate::BoronSource b = carbonate::boron_source(c); b.measured) fmt::format_to(put, "Note    {}\n", b.note);
   fmt::format_to(put, "Buffer  Revelle factor {:.2f}, buffer capacity {:.1f} umol/kg per pH unit\n",
              s.revelle_factor, s.buffer_capacity_umol_kg);
   for (const auto& w : s.warnings) {
@@ -154,6 +178,10 @@ void run_batch(const ChemOptions& o) {
                        "u_ph, u_salinity, ...; empty: the kit default), with --uncertainty");
   options.with_uncertainty = o.precision.wanted();
   options.constants_uncertainty = o.precision.constants;
+  options.mg_ca_correction = o.mg_ca_correction;
+  if (o.total_boron || o.magnesium)
+    throw CommandError("with --batch, give measured boron and magnesium per row in the total_boron_umol_kg and "
+                       "magnesium_umol_kg columns");
   if (o.threads < 0 || o.threads > 64) throw CommandError(fmt::format("--threads {} is outside the accepted range 0 to 64", o.threads));
   const int threads = o.threads == 0 ? static_cast<int>(std::max(1u, std::thread::hardware_concurrency())) : o.threads;
   const BatchCounts counts = run_chem_batch(o.batch, o.out, options, threads);
@@ -163,6 +191,20 @@ void run_batch(const ChemOptions& o) {
     throw CommandError(fmt::format("{} of {} rows could not be computed (see the warnings column)",
                                    counts.failed, counts.rows));
   }
+}
+
+// A measured ion in the user's unit to umol/kg, refused in that unit (so the message speaks it)
+// outside the range table's span (kept per kg there; per litre it converts with the density).
+double measured_ion(const char* option, double value, const std::string& unit_text, units::Ion ion,
+                    const ranges::Range& range_umol_kg, double density) {
+  const auto unit = or_fail(units::concentration_unit_from_string(unit_text));
+  const double hi = units::ion_from_umol_kg(range_umol_kg.hi, unit, ion, density);
+  const double shown_hi = unit == units::ConcentrationUnit::UmolPerKg ? hi : std::floor(hi * 10.0) / 10.0;
+  if (auto r = check_range(option, value, units::ion_from_umol_kg(range_umol_kg.lo, unit, ion, density), shown_hi,
+                           units::to_string(unit));
+      !r)
+    throw CommandError(r.error().message);
+  return units::ion_to_umol_kg(value, unit, ion, density);
 }
 
 void run_single(const ChemOptions& o) {
@@ -186,6 +228,13 @@ void run_single(const ChemOptions& o) {
     auto unit = or_fail(units::concentration_unit_from_string(o.calcium_unit));
     conditions.calcium_umol_kg = units::ion_to_umol_kg(*o.calcium, unit, units::Ion::Calcium, density);
   }
+  if (o.total_boron)
+    conditions.total_boron_umol_kg = measured_ion("--total-boron", *o.total_boron, o.total_boron_unit,
+                                                  units::Ion::Boron, ranges::kTotalBoronUmolKg, density);
+  if (o.magnesium)
+    conditions.magnesium_umol_kg = measured_ion("--magnesium", *o.magnesium, o.magnesium_unit,
+                                                units::Ion::Magnesium, ranges::kMagnesiumUmolKg, density);
+  conditions.mg_ca_correction = o.mg_ca_correction;
   auto constants = or_fail(carbonate::compute_constants(conditions), fields);
 
   std::vector<carbonate::Measurement> given;
@@ -256,7 +305,8 @@ void register_chem(CLI::App& app) {
       "  tidewright chem --alkalinity 8.2 --ph 8.15 --ph-scale nbs --uncertainty --ph-precision 0.1\n"
       "Batch CSV columns: id, salinity, temperature_c, two of alkalinity_umol_kg, dic_umol_kg,\n"
       "ph (with ph_scale), pco2_uatm, fco2_uatm; optional calcium_umol_kg, phosphate_umol_kg,\n"
-      "silicate_umol_kg, and per-row k1k2, boron, fluoride, conventions (empty: the options').\n"
+      "silicate_umol_kg, total_boron_umol_kg, magnesium_umol_kg, and per-row k1k2, boron, fluoride,\n"
+      "conventions (empty: the options').\n"
       "With --uncertainty: per-row precisions u_alkalinity_umol_kg, u_dic_umol_kg, u_ph, u_pco2_uatm,\n"
       "u_fco2_uatm, u_salinity, u_temperature_c, u_calcium_umol_kg, u_ph_scale_conversion (empty:\n"
       "the kit default) and u_<column> for every output number.");
@@ -275,6 +325,14 @@ void register_chem(CLI::App& app) {
   cmd->add_option("--temperature-f", o->temperature_f, "Temperature [F]");
   cmd->add_option("--calcium", o->calcium, "Measured calcium, in --calcium-unit (default: from salinity)");
   cmd->add_option("--calcium-unit", o->calcium_unit, "mg/L, mmol/kg or umol/kg")->default_str("mg/L");
+  cmd->add_option("--total-boron", o->total_boron,
+                  "Measured total boron, in --total-boron-unit, in place of the salinity-scaled value (salt mixes)");
+  cmd->add_option("--total-boron-unit", o->total_boron_unit, "umol/kg, mmol/kg or mg/L (of boron, B)")->default_str("umol/kg");
+  cmd->add_option("--magnesium", o->magnesium, "Measured magnesium, in --magnesium-unit (read by --mg-ca-correction)");
+  cmd->add_option("--magnesium-unit", o->magnesium_unit, "mg/L, mmol/kg or umol/kg")->default_str("mg/L");
+  cmd->add_flag("--mg-ca-correction", o->mg_ca_correction,
+                "Correct the constants for the water's Mg and Ca (Hain et al. 2015, MyAMI polynomial; needs "
+                "--magnesium and --calcium, salinity 30-40, 0-40 C). Off by default");
   cmd->add_option("--phosphate", o->phosphate, "Total phosphate [umol/kg]")->default_str("0");
   cmd->add_option("--silicate", o->silicate, "Total silicate [umol/kg]")->default_str("0");
   cmd->add_option("--k1k2", o->k1k2, "Carbonic acid constants: lueker2000 or millero2010")->default_str("lueker2000");

@@ -72,7 +72,9 @@ bool same_conditions(const Conditions& a, const Conditions& b) {
   return a.salinity == b.salinity && a.temperature_c == b.temperature_c && a.k1k2 == b.k1k2 &&
          a.boron == b.boron && a.calcium_umol_kg == b.calcium_umol_kg &&
          a.phosphate_umol_kg == b.phosphate_umol_kg && a.silicate_umol_kg == b.silicate_umol_kg &&
-         a.fluoride == b.fluoride && a.convention == b.convention;
+         a.fluoride == b.fluoride && a.convention == b.convention &&
+         a.total_boron_umol_kg == b.total_boron_umol_kg && a.magnesium_umol_kg == b.magnesium_umol_kg &&
+         a.mg_ca_correction == b.mg_ca_correction;
 }
 
 void append_warnings(std::string& out, const std::vector<std::string>& warnings) {
@@ -100,6 +102,8 @@ void CarbonateBatch::start(std::string_view header_record, std::string& out) {
               f("calcium_umol_kg"), f("phosphate_umol_kg"), f("silicate_umol_kg"),
               f("k1k2"),        f("boron"),             f("fluoride"),
               f("conventions")};
+  columns_.total_boron = f("total_boron_umol_kg");
+  columns_.magnesium = f("magnesium_umol_kg");
   std::vector<const char*> names(kBatchOutputColumns.begin(), kBatchOutputColumns.end());
   if (options_.with_uncertainty) {
     columns_.u_alkalinity = f("u_alkalinity_umol_kg");
@@ -138,7 +142,8 @@ Result<CarbonateBatch::Problem> CarbonateBatch::read_cells() {
       {c.alkalinity, "alkalinity_umol_kg", {}}, {c.dic, "dic_umol_kg", {}},
       {c.ph, "ph", {}},                       {c.pco2, "pco2_uatm", {}},
       {c.fco2, "fco2_uatm", {}},              {c.calcium, "calcium_umol_kg", {}},
-      {c.phosphate, "phosphate_umol_kg", {}}, {c.silicate, "silicate_umol_kg", {}}};
+      {c.phosphate, "phosphate_umol_kg", {}}, {c.silicate, "silicate_umol_kg", {}},
+      {c.total_boron, "total_boron_umol_kg", {}}, {c.magnesium, "magnesium_umol_kg", {}}};
   for (auto& n : numbers) {
     if (n.column < 0) continue;
     auto parsed = number_at(cells_, n.column, n.name);
@@ -166,6 +171,9 @@ Result<CarbonateBatch::Problem> CarbonateBatch::read_cells() {
   conditions.calcium_umol_kg = numbers[7].value;
   conditions.phosphate_umol_kg = numbers[8].value.value_or(0.0);
   conditions.silicate_umol_kg = numbers[9].value.value_or(0.0);
+  conditions.total_boron_umol_kg = numbers[10].value;
+  conditions.magnesium_umol_kg = numbers[11].value;
+  conditions.mg_ca_correction = options_.mg_ca_correction;
 
   static constexpr std::pair<int, Quantity> kCarbonateInputs[] = {{2, Quantity::Alkalinity},
                                                                   {3, Quantity::DIC},

@@ -17,7 +17,9 @@ double total_boron(BoronOption option, double salinity) {
 Totals compute_totals(const Conditions& conditions) {
   const double s = conditions.salinity;
   Totals t;
-  t.boron = total_boron(conditions.boron, s);
+  // A measured value replaces the salinity ratio (issue 18: salt mixes); boron_source() says which.
+  t.boron = conditions.total_boron_umol_kg ? *conditions.total_boron_umol_kg * 1e-6
+                                           : total_boron(conditions.boron, s);
   t.sulfate = total_sulfate_morris_riley1966(s);
   t.fluoride = total_fluoride_riley1965(s);
   t.calcium = conditions.calcium_umol_kg ? *conditions.calcium_umol_kg * 1e-6

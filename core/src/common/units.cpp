@@ -23,7 +23,14 @@ double alkalinity_umol_kg_per_unit(AlkalinityUnit unit, double density_kg_per_l)
   return 1.0;
 }
 
-double molar_mass(Ion ion) { return ion == Ion::Calcium ? kMolarMassCa : kMolarMassMg; }
+double molar_mass(Ion ion) {
+  switch (ion) {
+    case Ion::Calcium: return kMolarMassCa;
+    case Ion::Magnesium: return kMolarMassMg;
+    case Ion::Boron: return kMolarMassB;
+  }
+  return kMolarMassCa;
+}
 
 double ion_umol_kg_per_unit(ConcentrationUnit unit, Ion ion, double density_kg_per_l) {
   switch (unit) {

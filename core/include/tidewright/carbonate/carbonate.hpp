@@ -2,7 +2,8 @@
 //
 // Map of this header
 //   1. Options (enum class; one table in constants.cpp maps each option to its formula)
-//   2. Conditions and totals (salinity, temperature, boron, sulfate, fluoride, calcium, nutrients)
+//   2. Conditions and totals (salinity, temperature, boron, sulfate, fluoride, calcium, nutrients;
+//      measured boron, magnesium and the Mg/Ca correction of the constants for salt mixes)
 //   3. Constants at given conditions (all in mol/kg-soln, pH scale named per constant)
 //   4. Inputs: any two of alkalinity, DIC, pH (with scale), pCO2, fCO2, carbonate ion
 //   5. Output state (every pH names its scale) and the solver call
@@ -77,6 +78,16 @@ struct Conditions {
   K1K2Option k1k2 = K1K2Option::Lueker2000;
   BoronOption boron = BoronOption::Uppstrom1974;
   std::optional<double> calcium_umol_kg;  // measured calcium overrides Riley & Tongudai 1967, 0..50000
+  // Measured total boron (issue 18: artificial salt mixes) replaces the salinity-scaled value
+  // of the `boron` option; ranges::kTotalBoronUmolKg (0..2000). Absent: scaled, as before.
+  std::optional<double> total_boron_umol_kg;
+  // Measured magnesium, ranges::kMagnesiumUmolKg (0..100000); read only by mg_ca_correction.
+  std::optional<double> magnesium_umol_kg;
+  // Correct K0, K1, K2, KB, KW, KS and both Ksp for the water's magnesium and calcium (Hain et
+  // al. 2015, the MyAMI model, through its published polynomial; carbonate_formulas.hpp 6).
+  // Off by default; when on it needs measured magnesium and calcium, salinity 30..40 and
+  // 0..40 C (the polynomial's range) and refuses otherwise (field "mg_ca_correction").
+  bool mg_ca_correction = false;
   double phosphate_umol_kg = 0.0;         // 0..1000
   double silicate_umol_kg = 0.0;          // 0..1000
   FluorideOption fluoride = FluorideOption::PerezFraga1987;
@@ -109,11 +120,30 @@ CalciumSource calcium_source(const Conditions& conditions);
 // water of salinity S mixed from seawater (S 35) and fresh water holding fresh_calcium_mg_kg.
 double calcium_scaling_missed_share(double salinity, double fresh_calcium_mg_kg);
 
+// Where total boron comes from (boron_source.cpp): measured (Conditions::total_boron_umol_kg),
+// or scaled from salinity by the `boron` option's ratio. `note` is a sentence for the user.
+struct BoronSource {
+  bool measured = false;
+  double boron_umol_kg = 0;         // the value the equilibria use
+  double scaled_umol_kg = 0;        // what the option's salinity ratio gives at this salinity
+  std::string note;
+};
+BoronSource boron_source(const Conditions& conditions);
+
+// The Mg/Ca correction as applied (Conditions::mg_ca_correction): the water's magnesium and
+// calcium normalised to salinity 35 (as the MyAMI model takes them), the factor each constant
+// was multiplied by, and a sentence for the user that says it was applied and its range.
+struct MgCaCorrection {
+  double magnesium_mol_kg_s35 = 0, calcium_mol_kg_s35 = 0;
+  MyamiFactors factors;
+  std::string note;
+};
+
 // Total concentrations used by the equilibria, mol/kg-soln.
 struct Totals {
   double boron = 0, sulfate = 0, fluoride = 0, calcium = 0, phosphate = 0, silicate = 0;
 };
-// Totals at the conditions: boron by the chosen option, sulfate (Morris & Riley 1966),
+// Totals at the conditions: boron measured or by the chosen option, sulfate (Morris & Riley 1966),
 // fluoride (Riley 1965), calcium (Riley & Tongudai 1967, or the measured value), nutrients as
 // given. No range checks (compute_constants does them).
 Totals compute_totals(const Conditions& conditions);
@@ -145,6 +175,11 @@ struct Constants {
   double ph_nbs_minus_total = 0;    // ph_sws_minus_total - log10(fH)
   std::optional<K1K2Suggestion> k1k2_suggestion;  // suggest_k1k2(conditions); its reason is also a warning
   CalciumSource calcium;            // calcium_source(conditions); its note is a warning at low salinity
+  BoronSource boron;                // boron_source(conditions)
+  // Set when conditions.mg_ca_correction: the factors already applied to k0, k1, k2, kb, kw,
+  // ks_free, ksp_calcite and ksp_aragonite; its note is also among the warnings (the
+  // polynomial is an approximation, as its authors warn).
+  std::optional<MgCaCorrection> mg_ca_correction;
   std::vector<std::string> warnings;    // e.g. "temperature 38 C is outside the calibration range of Lueker et al. (2000), 2 to 35 C"
 };
 

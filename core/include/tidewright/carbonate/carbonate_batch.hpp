@@ -2,7 +2,8 @@
 // Input columns (header-driven, case-insensitive, other columns ignored, empty cell = absent):
 //   id, salinity, temperature_c, alkalinity_umol_kg, dic_umol_kg, ph, ph_scale
 //   (total|sws|free|nbs, default total), pco2_uatm, fco2_uatm, calcium_umol_kg,
-//   phosphate_umol_kg, silicate_umol_kg, and per-row choices of constants that override the
+//   phosphate_umol_kg, silicate_umol_kg, total_boron_umol_kg (measured; empty: from salinity),
+//   magnesium_umol_kg (read by BatchOptions::mg_ca_correction), and per-row choices of constants that override the
 //   BatchOptions: k1k2 (lueker2000|millero2010), boron (uppstrom1974|lee2010), fluoride
 //   (perezfraga1987|dicksonriley1979), conventions (co2sys|guide2007)
 // Each row must hold exactly two carbonate inputs (alkalinity, DIC, pH, pCO2, fCO2).
@@ -52,6 +53,9 @@ struct BatchOptions {
   double default_temperature_c = 25.0; // used when a row has no temperature_c cell
   bool with_uncertainty = false;       // write the u_ columns
   bool constants_uncertainty = false;  // ... counting the constants' (Orr et al. 2018)
+  // Conditions::mg_ca_correction for every row (each row then needs magnesium_umol_kg and
+  // calcium_umol_kg); the correction's note goes to the row's warnings.
+  bool mg_ca_correction = false;
 };
 
 // A batch solved record by record. Keeps the column map and the constants of the last row
@@ -68,7 +72,7 @@ class CarbonateBatch {
   struct Columns {
     int id = -1, salinity = -1, temperature = -1, alkalinity = -1, dic = -1, ph = -1,
         ph_scale = -1, pco2 = -1, fco2 = -1, calcium = -1, phosphate = -1, silicate = -1,
-        k1k2 = -1, boron = -1, fluoride = -1, convention = -1;
+        k1k2 = -1, boron = -1, fluoride = -1, convention = -1, total_boron = -1, magnesium = -1;
     // input uncertainties (with_uncertainty only)
     int u_alkalinity = -1, u_dic = -1, u_ph = -1, u_pco2 = -1, u_fco2 = -1, u_salinity = -1,
         u_temperature = -1, u_calcium = -1, u_ph_conversion = -1;

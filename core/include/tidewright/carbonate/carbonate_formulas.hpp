@@ -6,6 +6,7 @@
 //   3. Equilibrium constants, each named quantity_scale_source
 //   4. Gas phase: CO2 fugacity coefficient, water vapour pressure
 //   5. pH scales: NBS activity coefficient
+//   6. Seawater composition: the Mg/Ca correction factors of the MyAMI model (Hain et al. 2015)
 //
 // Conventions: temperature_k is the absolute temperature [K] (t/C + 273.15); salinity is
 // practical salinity (PSS-78); results in mol/kg-soln unless named otherwise. "ln" is the
@@ -178,5 +179,52 @@ double water_vapour_pressure_weiss_price1980_atm(double salinity, double tempera
 // pH_SWS = pH_NBS + log10(fH). Fit for S 20-40. Check: pH_NBS 8.000 -> pH_SWS 7.853336 at
 // S = 35, 25 C (seacarb pHnbs2sws documentation).
 double nbs_activity_coefficient_takahashi1982(double salinity, double temperature_k);
+
+// ---------------------------------------------------------------- 6. Mg/Ca correction
+// Hain, Sigman, Higgins & Haug (2015), Global Biogeochem. Cycles 29:517, doi:10.1002/2014GB004986,
+// "The effects of secular calcium and magnesium concentration changes on the thermodynamics of
+// seawater acid/base chemistry": the MyAMI specific-ion-interaction model (after Millero &
+// Pierrot 1998) gives, for water whose Mg and Ca depart from modern seawater, a factor F per
+// constant with K_corrected = K_empirical x F (F = 1 for modern seawater).
+//
+// This is the model's published polynomial approximation, as released with its Python port:
+// repository PalaeoCarb/MyAMI (package pymyami), file
+// pymyami/parameters/seawater_correction_approximated.json (commit 0432d78; 56 coefficients
+// per constant, transcribed unchanged into myami_polynomial.cpp), evaluated as that package's
+// approximate.py documents: the design matrix of [T, ln T, S, Mg, Ca] (T in K) expanded to a
+// full third-order polynomial with cross terms (scikit-learn PolynomialFeatures(degree=3):
+// 1, the five terms, then every product of two and of three of them in lexicographic order).
+// The same approximation serves the Kgen package (PalaeoCarb/Kgen, "MyAMI_Polynomial").
+//  - Mg and Ca are in mol/kg, normalised to salinity 35 (pymyami: "Assumes that the provided
+//    ionic concentrations are at Sal=35"; params.py calc_seawater_ions scales them by S/35).
+//    Modern seawater: Mg 0.0528171, Ca 0.0102821 mol/kg (Millero et al. 2008).
+//  - Validity (approximate.py check_limits): 0 to 40 C, salinity 30 to 40, Mg and Ca each 0 to
+//    0.06 mol/kg. Accuracy: "only accurate to within ~0.25%" of the full model (pymyami README
+//    and the warning approximate.py raises); its test allows 0.2 % over random draws.
+//  - Which constant each factor belongs to: K0, K1, K2, KB, KW (total scale), KS (bisulfate;
+//    Kgen applies it to the Dickson 1990 KS) and the calcite and aragonite Ksp (one factor for
+//    both: the file holds the same numbers under "KspC" and "KspA"). No factor for KF, the
+//    phosphate or the silicate constants.
+// Check values (computed here with this evaluation from the file's coefficients, and
+// independently in Python from the JSON; tests pin the transcription to 1e-9), at 35 C,
+// S 36.2, Mg 0.03, Ca 0.012 mol/kg:
+//   K0 1.0056580, K1 1.0005380, K2 0.7921878, KB 0.9365078, KW 0.7521933, KS 0.9538632,
+//   Ksp 0.7850957. The pymyami README prints an example at the same point (K0 1.00565919,
+//   K1 1.00238861, K2 0.78858314, KB 0.93815884, KW 0.74594823, KS 0.95738293, Ksp 0.78442705)
+//   that the current coefficient file reproduces to 1e-6 for K0 but only within 0.9 % for the
+//   others: the README example predates the file (the model was revised for typo corrections,
+//   README "Consistency with Hain et al. (2015)"). Tests check both.
+inline constexpr double kMyamiModernMagnesiumMolKg = 0.0528171;
+inline constexpr double kMyamiModernCalciumMolKg = 0.0102821;
+inline constexpr double kMyamiTemperatureMinC = 0.0, kMyamiTemperatureMaxC = 40.0;
+inline constexpr double kMyamiSalinityMin = 30.0, kMyamiSalinityMax = 40.0;
+inline constexpr double kMyamiIonMaxMolKg = 0.06;  // Mg and Ca each, 0 to this
+struct MyamiFactors {
+  double k0 = 1, k1 = 1, k2 = 1, kb = 1, kw = 1, ks = 1, ksp = 1;
+};
+// No range checks (the caller refuses values outside the range above).
+MyamiFactors myami_factors_polynomial_hain2015(double temperature_c, double salinity,
+                                               double magnesium_mol_kg_s35,
+                                               double calcium_mol_kg_s35);
 
 }  // namespace tw::carbonate

@@ -44,6 +44,14 @@ inline constexpr Range kOtherValue{-1e9, 1e9, ""};
 // The carbonate constants need some salt: below salinity 1 the seawater ratios for boron,
 // sulfate, fluoride and calcium, and every constant fitted in seawater, have no meaning left.
 inline constexpr Range kSalinityForCarbonateChemistry{1.0, kSalinity.hi, ""};
+// Measured total boron of the water (issue 18: artificial salt mixes), per kg of seawater.
+// Natural seawater at S 35 holds about 416 umol/kg (4.5 mg/kg, Uppstrom 1974); the bound takes
+// a mix or a borate-buffered product at several times that and refuses a typo such as the
+// value in ug/L [our choice].
+inline constexpr Range kTotalBoronUmolKg{0.0, 2000.0, "umol/kg"};
+// Measured magnesium for the carbonate chemistry (the Mg/Ca correction of the constants), per
+// kg of seawater: the same span as kMagnesiumMgL (2500 mg/L is about 100 mmol/kg).
+inline constexpr Range kMagnesiumUmolKg{0.0, 100000.0, "umol/kg"};
 
 // The range of a logged test of parameter p (kOtherValue for Other).
 const Range& of_measurement(Parameter p);

@@ -28,11 +28,13 @@ Result<AlkalinityUnit> alkalinity_unit_from_string(const std::string& text);
 double alkalinity_to_umol_kg(double value, AlkalinityUnit unit, double density_kg_per_l);
 double alkalinity_from_umol_kg(double umol_kg, AlkalinityUnit unit, double density_kg_per_l);
 
-// ------------------------------------------------------------ calcium and magnesium
+// ------------------------------------------------------------ calcium, magnesium, boron
 inline constexpr double kMolarMassCa = 40.078;  // g/mol, IUPAC
 inline constexpr double kMolarMassMg = 24.305;  // g/mol, IUPAC
+inline constexpr double kMolarMassB = 10.81;    // g/mol, IUPAC abridged atomic weight of boron
 enum class ConcentrationUnit { MgPerL, MmolPerKg, UmolPerKg };
-enum class Ion { Calcium, Magnesium };
+// Boron counts as the element: mg/L of boron (B), not of borate or boric acid.
+enum class Ion { Calcium, Magnesium, Boron };
 const char* to_string(ConcentrationUnit unit);  // "mg/L", "mmol/kg", "umol/kg"
 Result<ConcentrationUnit> concentration_unit_from_string(const std::string& text);
 double ion_to_umol_kg(double value, ConcentrationUnit unit, Ion ion, double density_kg_per_l);

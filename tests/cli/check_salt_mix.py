@@ -1,0 +1,75 @@
+#!/usr/bin/python3
+"""Salt mixes (issue 18): `chem --total-boron` replaces the salinity-scaled boron and says so
+(refused out of range, naming the option and the range in the unit typed); `--mg-ca-correction`
+is off by default, needs --magnesium and --calcium, and says when it is applied and where it
+holds; the batch reads total_boron_umol_kg and magnesium_umol_kg columns.
+Usage: check_salt_mix.py <tidewright>. Prints "N passed, M failed"."""
+import csv
+import io
+import json
+
+from cli_check import check, finish, run_text
+
+base = ["chem", "--alkalinity", "2300", "--alkalinity-unit", "umol/kg", "--dic", "2000"]
+
+# Without the new options: as before (no boron note, no correction).
+rc, out, err = run_text(*base)
+check("plain: runs", rc == 0, err)
+check("plain: no boron note", "total boron" not in out, out)
+check("plain: no correction", "Mg/Ca" not in out, out)
+rc, out, err = run_text(*base, "--json")
+plain = json.loads(out)
+check("plain json: boron from salinity", "from salinity" in plain["boron_source"], plain["boron_source"])
+check("plain json: no correction", plain["mg_ca_correction"] is None, plain["mg_ca_correction"])
+
+# Measured boron equal to the scaled value: the same numbers; doubled: lower pH.
+same = json.loads(run_text(*base, "--json", "--total-boron", str(plain["total_boron_umol_kg"]))[1])
+check("boron = scaled: same pH", abs(same["ph_total"] - plain["ph_total"]) < 1e-9, (same["ph_total"], plain["ph_total"]))
+rc, out, err = run_text(*base, "--total-boron", "831.4")
+check("doubled boron: runs", rc == 0, err)
+check("doubled boron: says so", "Note    total boron as measured, 831 umol/kg" in out, out)
+doubled = json.loads(run_text(*base, "--json", "--total-boron", "831.4")[1])
+check("doubled boron: pH lower", doubled["ph_total"] < plain["ph_total"] - 0.01, doubled["ph_total"])
+check("doubled boron json: source", "as measured" in doubled["boron_source"], doubled["boron_source"])
+# mg/L of boron: 9 mg/L / 10.81 g/mol / density 1.0233 kg/L = 813.6 umol/kg
+mgl = json.loads(run_text(*base, "--json", "--total-boron", "9", "--total-boron-unit", "mg/L")[1])
+check("boron in mg/L converted", abs(mgl["total_boron_umol_kg"] - 813.6) < 0.5, mgl["total_boron_umol_kg"])
+
+# Refusals name the option and the range, in the unit typed.
+rc, out, err = run_text(*base, "--total-boron", "5000")
+check("boron out of range: refused", rc != 0 and out == "", (rc, out))
+check("boron out of range: names option and range", "--total-boron" in err and "0 to 2000 umol/kg" in err, err)
+rc, out, err = run_text(*base, "--total-boron", "40", "--total-boron-unit", "mg/L")
+check("boron out of range in mg/L: range in mg/L", rc != 0 and "--total-boron" in err and "0 to 22.1 mg/L" in err, err)
+
+# The Mg/Ca correction: asked for, it needs both ions; given them, it is applied and said.
+rc, out, err = run_text(*base, "--mg-ca-correction", "--calcium", "480")
+check("correction without magnesium: refused", rc != 0 and "--mg-ca-correction" in err and "magnesium" in err, err)
+mix = ["--magnesium", "1100", "--calcium", "480"]
+rc, out, err = run_text(*base, *mix)
+check("magnesium alone: no correction", rc == 0 and "Mg/Ca" not in out, out + err)
+rc, out, err = run_text(*base, *mix, "--mg-ca-correction")
+check("correction: runs", rc == 0, err)
+check("correction: said, with its range", "Mg/Ca correction of the constants applied" in out
+      and "valid for salinity 30 to 40, 0 to 40 C" in out, out)
+j = json.loads(run_text(*base, *mix, "--mg-ca-correction", "--json")[1])
+check("correction json: factors", j["mg_ca_correction"] and 0.5 < j["mg_ca_correction"]["factors"]["k2"] < 1.5, j["mg_ca_correction"])
+rc, out, err = run_text(*base, *mix, "--mg-ca-correction", "--salinity", "20")
+check("correction below salinity 30: refused", rc != 0 and "--mg-ca-correction" in err and "salinity 30 to 40" in err, err)
+
+# Batch: per-row boron and magnesium columns; the correction for every row with the flag.
+table = ("id,alkalinity_umol_kg,dic_umol_kg,calcium_umol_kg,magnesium_umol_kg,total_boron_umol_kg\r\n"
+         "a,2300,2000,11700,44300,\r\n"
+         "b,2300,2000,11700,44300,831.4\r\n")
+rc, out, err = run_text("chem", "--batch", "-", input=table.encode())
+rows = list(csv.DictReader(io.StringIO(out)))
+check("batch: runs", rc == 0 and len(rows) == 2, err)
+check("batch: boron column used", rows and float(rows[1]["ph_total"]) < float(rows[0]["ph_total"]) - 0.01, rows)
+rc, out, err = run_text("chem", "--batch", "-", "--mg-ca-correction", input=table.encode())
+corrected = list(csv.DictReader(io.StringIO(out)))
+check("batch correction: runs", rc == 0 and len(corrected) == 2, err)
+check("batch correction: said in warnings", corrected and "Mg/Ca correction" in corrected[0]["warnings"], corrected)
+rc, out, err = run_text("chem", "--batch", "-", "--total-boron", "500", input=table.encode())
+check("batch with --total-boron: refused, pointing at the column", rc != 0 and "total_boron_umol_kg" in err, err)
+
+finish()
