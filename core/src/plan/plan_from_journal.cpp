@@ -267,12 +267,7 @@ void keep_room_for_uncertainty(const JournalPlanBasis& basis, PlanInput& input, 
   }
 }
 
-std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, PlanInput& input) {
-  std::vector<std::string> lines;
-  lines.push_back(fmt::format("state and demand from the journal, system \"{}\":", basis.system_name));
-  for (const auto& p : basis.provenance) lines.push_back(p);
-  input.system.name = basis.system_name;
-  input.system.volume_l = basis.volume_l;
+std::vector<KeptFromInput> put_basis_water(const JournalPlanBasis& basis, PlanInput& input) {
   input.system.salinity = basis.salinity;
   input.system.temperature_c = basis.temperature_c;
   // Demand in the input's volume is per system; convert the input's own demand only where kept.
@@ -291,18 +286,33 @@ std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, Plan
       {basis.magnesium_mg_l, input.system.magnesium_mg_l, input.demand.magnesium_mg_per_day,
        d.magnesium_mg_per_day, "magnesium"},
   };
+  std::vector<KeptFromInput> kept;
   for (auto& r : rows) {
     if (!r.est) {
-      lines.push_back(fmt::format("{}: no test in the journal; level {:g} and demand {:g} per day kept from the plan input",
-                                  r.name, r.level, r.demand));
+      kept.push_back({r.name, true, r.level, r.demand});
       continue;
     }
     r.level = r.est->level;
     if (r.est->demand_known) {
       r.demand = r.basis_demand;
     } else {
-      lines.push_back(fmt::format("{}: demand unknown; {:g} per day kept from the plan input", r.name, r.demand));
+      kept.push_back({r.name, false, r.level, r.demand});
     }
+  }
+  return kept;
+}
+
+std::vector<std::string> apply_journal_basis(const JournalPlanBasis& basis, PlanInput& input) {
+  std::vector<std::string> lines;
+  lines.push_back(fmt::format("state and demand from the journal, system \"{}\":", basis.system_name));
+  for (const auto& p : basis.provenance) lines.push_back(p);
+  input.system.name = basis.system_name;
+  input.system.volume_l = basis.volume_l;
+  for (const KeptFromInput& k : put_basis_water(basis, input)) {
+    lines.push_back(k.no_test ? fmt::format("{}: no test in the journal; level {:g} and demand {:g} per day kept from "
+                                            "the plan input", k.parameter, k.level, k.demand)
+                              : fmt::format("{}: demand unknown; {:g} per day kept from the plan input", k.parameter,
+                                            k.demand));
   }
   keep_room_for_uncertainty(basis, input, lines);
   for (const auto& f : basis.flags) lines.push_back("FLAG " + f);

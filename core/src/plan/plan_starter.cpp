@@ -147,32 +147,11 @@ Result<StarterInput> starter_plan_input(const journal::Journal& journal, journal
   bo.accept_stale = true;
   auto basis = plan_basis_from_journal(journal, system, bo);
   if (!basis) return basis.error();
-  in.system.salinity = basis->salinity;
-  in.system.temperature_c = basis->temperature_c;
   for (const auto& p : basis->provenance) out.notes.push_back(p);
-  struct Row {
-    const std::optional<JournalLevel>& est;
-    double& level;
-    double& demand;
-    double basis_demand;
-    const char* name;
-  } rows[3] = {
-      {basis->alkalinity_dkh, in.system.alkalinity_dkh, in.demand.alkalinity_meq_per_day,
-       basis->demand.alkalinity_meq_per_day, "alkalinity"},
-      {basis->calcium_mg_l, in.system.calcium_mg_l, in.demand.calcium_mg_per_day, basis->demand.calcium_mg_per_day,
-       "calcium"},
-      {basis->magnesium_mg_l, in.system.magnesium_mg_l, in.demand.magnesium_mg_per_day,
-       basis->demand.magnesium_mg_per_day, "magnesium"},
-  };
-  for (auto& r : rows) {
-    if (!r.est) {
-      out.notes.push_back(fmt::format("{}: no test in the journal; starts at its target {:g} with no consumption "
-                                      "(test it before dosing)", r.name, r.level));
-      continue;
-    }
-    r.level = r.est->level;
-    if (r.est->demand_known) r.demand = r.basis_demand;
-    else out.notes.push_back(fmt::format("{}: consumption unknown (fewer than two tests); 0 per day", r.name));
+  for (const KeptFromInput& k : put_basis_water(*basis, in)) {
+    out.notes.push_back(k.no_test ? fmt::format("{}: no test in the journal; starts at its target {:g} with no "
+                                                "consumption (test it before dosing)", k.parameter, k.level)
+                                  : fmt::format("{}: consumption unknown (fewer than two tests); 0 per day", k.parameter));
   }
   for (const auto& f : basis->flags) out.notes.push_back("Check: " + f);
   for (const auto& n : basis->notes) out.notes.push_back("Journal: " + n);

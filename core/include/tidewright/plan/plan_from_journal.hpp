@@ -83,6 +83,17 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
 // put the basis's levels into input.system.
 void keep_room_for_uncertainty(const JournalPlanBasis& basis, PlanInput& input, std::vector<std::string>& lines);
 
+// The basis's water into the input: salinity, temperature, and each parameter's estimated
+// level and (when known) demand. A parameter without an estimate keeps the input's level and
+// demand, one without a known demand its demand; the returned rows say which, with the values
+// kept, for the caller to word.
+struct KeptFromInput {
+  const char* parameter = "";
+  bool no_test = false;  // else: tested, demand unknown
+  double level = 0, demand = 0;  // as kept (demand per system per day)
+};
+std::vector<KeptFromInput> put_basis_water(const JournalPlanBasis& basis, PlanInput& input);
+
 // Overrides the input's system state and demand with the basis (and keeps room in the limits
 // for the estimates' uncertainty, keep_room_for_uncertainty; input.spread and
 // input.limits_as_set are set so the plan carries bands). A parameter without an
