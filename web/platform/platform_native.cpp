@@ -62,7 +62,18 @@ bool start(const StartOptions& options, std::string* error) {
   }
   glfwWindowHint(GLFW_CONTEXT_VERSION_MAJOR, 3);
   glfwWindowHint(GLFW_CONTEXT_VERSION_MINOR, 0);
-  g_window = glfwCreateWindow(480, 900, "Tidewright", nullptr, nullptr);
+  // A window that fits the screen it opens on (a fixed 480x900 put the tab bar below the edge of
+  // a 1280x800 laptop screen): 1100x820 at most, 90 % of the monitor's work area at least fits.
+  int width = 1100, height = 820;
+  if (GLFWmonitor* monitor = glfwGetPrimaryMonitor()) {
+    int x = 0, y = 0, work_w = 0, work_h = 0;
+    glfwGetMonitorWorkarea(monitor, &x, &y, &work_w, &work_h);
+    if (work_w > 0 && work_h > 0) {
+      width = std::min(width, work_w * 9 / 10);
+      height = std::min(height, work_h * 9 / 10);
+    }
+  }
+  g_window = glfwCreateWindow(width, height, "Tidewright", nullptr, nullptr);
   if (!g_window) {
     *error = "could not open an OpenGL 3.0 window";
     glfwTerminate();
