@@ -565,6 +565,30 @@ std::string line_column(const std::string& text, size_t byte) {
   }
   return fmt::format("line {}, column {}", line, col);
 }
+
+// Where nlohmann's parser stops on text it refuses. A number too large for a double ("1e400")
+// is refused with an out_of_range exception, which carries no position; the SAX parser says
+// where (as the streaming reader reports it).
+class ErrorLocator final : public nlohmann::json_sax<json> {
+ public:
+  std::size_t byte = 0;
+  bool null() override { return true; }
+  bool boolean(bool) override { return true; }
+  bool number_integer(number_integer_t) override { return true; }
+  bool number_unsigned(number_unsigned_t) override { return true; }
+  bool number_float(number_float_t, const string_t&) override { return true; }
+  bool string(string_t&) override { return true; }
+  bool binary(binary_t&) override { return true; }
+  bool start_object(std::size_t) override { return true; }
+  bool key(string_t&) override { return true; }
+  bool end_object() override { return true; }
+  bool start_array(std::size_t) override { return true; }
+  bool end_array() override { return true; }
+  bool parse_error(std::size_t position, const std::string&, const nlohmann::detail::exception&) override {
+    byte = position;
+    return false;
+  }
+};
 }  // namespace
 
 Result<Journal> parse_journal(const std::string& text, int* source_version) {
@@ -573,6 +597,10 @@ Result<Journal> parse_journal(const std::string& text, int* source_version) {
     doc = json::parse(text);
   } catch (const json::parse_error& e) {
     return detail::json_syntax_error(e.what(), line_column(text, e.byte ? e.byte - 1 : 0));
+  } catch (const json::exception& e) {
+    ErrorLocator where;
+    json::sax_parse(text, &where);
+    return detail::json_syntax_error(e.what(), line_column(text, where.byte ? where.byte - 1 : 0));
   }
   auto version = detail::check_format_and_version(doc);
   if (!version) return version.error();

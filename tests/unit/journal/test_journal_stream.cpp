@@ -200,6 +200,8 @@ TEST_CASE("journal stream: every refusal is parse_journal's, with the same text"
       with("\"type\": \"test\"", "\"type\": \"tset\""),
       with("\"name\": \"Rack\"", "\"name\": \"reef\""),
       with("\"events\": [", "\"events\": [7, "),
+      with("\"value\": 7.5", "\"value\": 1e400"),  // too large for a double: refused, not thrown
+      with("\"next_id\": ", "\"big\": -1e999,\n \"next_id\": "),
   };
   for (const auto& text : bad) {
     INFO(text.substr(0, 200));
