@@ -69,8 +69,8 @@ Journal generated(int events) {
     const std::int64_t t = t0 + 3600LL * i;
     switch (i % 4) {
       case 0: REQUIRE(add_event(j, Event{0, sid, t, "", TestResult{Parameter::Alkalinity, "", 7 + 0.01 * (i % 200), "dKH", std::nullopt, std::nullopt, ""}}).ok()); break;
-      case 1: REQUIRE(add_event(j, Event{0, sid, t, "", TestResult{Parameter::Calcium, "", 400 + i % 50, "mg/L", std::nullopt, std::nullopt, ""}}).ok()); break;
-      case 2: REQUIRE(add_event(j, Event{0, sid, t, "", Dose{"sodium_carbonate", 5 + i % 7, DoseUnit::Grams, std::nullopt}}).ok()); break;
+      case 1: REQUIRE(add_event(j, Event{0, sid, t, "", TestResult{Parameter::Calcium, "", 400.0 + i % 50, "mg/L", std::nullopt, std::nullopt, ""}}).ok()); break;
+      case 2: REQUIRE(add_event(j, Event{0, sid, t, "", Dose{"sodium_carbonate", 5.0 + i % 7, DoseUnit::Grams, std::nullopt}}).ok()); break;
       default: REQUIRE(add_event(j, Event{0, sid, t, "", Note{fmt::format("note {}", i)}}).ok()); break;
     }
   }
