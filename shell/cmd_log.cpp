@@ -8,7 +8,11 @@
 // Every change is one transaction validated by the core: a refused change prints one line
 // naming the field and the accepted range, exits non-zero and changes nothing. Reads stream
 // from the database: nothing loads the whole journal.
+#include <sys/stat.h>
+
 #include <algorithm>
+#include <cerrno>
+#include <cstring>
 #include <cstdio>
 #include <fstream>
 #include <ctime>
@@ -325,6 +329,14 @@ char delimiter_from_option(const std::string& text) {
   throw CommandError("--delimiter '" + text + "' is not known; accepted: auto, comma, semicolon, tab");
 }
 
+// A file to read as a stream, refused as read_text_file refuses it (missing, unreadable, a directory).
+void open_input_file(std::ifstream& file, const std::string& path) {
+  struct stat st {};
+  if (::stat(path.c_str(), &st) == 0 && S_ISDIR(st.st_mode)) throw CommandError("cannot read " + path + ": " + std::strerror(EISDIR));
+  file.open(path, std::ios::binary);
+  if (!file) throw CommandError("cannot read " + path + ": " + std::strerror(errno));
+}
+
 // CSV rows (streamed, one transaction: the accepted rows together, every refused row
 // reported), or a whole JSON journal (an export or backup) merged in, all or nothing.
 // --dry-run does the same work and checks and rolls back.
@@ -334,9 +346,15 @@ void run_import(const LogOptions& o) {
   const auto mode = o.dry_run ? Store::ImportMode::DryRun : Store::ImportMode::Commit;
   Store::ImportReport rep;
   if (json_file) {
-    auto j = parse_journal(read_text_file(o.file));
-    if (!j) throw CommandError(o.file + ": " + j.error().message + " (nothing was imported)");
-    rep = stored_or_fail(st->import_journal(*j, mode));
+    // Read one event at a time (the whole file never in memory), in one transaction.
+    std::ifstream file;
+    open_input_file(file, o.file);
+    auto r = st->import_journal_stream(file, mode);
+    if (!r) {  // the file's own errors name the file; the database's name the database
+      const std::string where = r.error().field != "journal" ? o.file + ": " : "";
+      throw CommandError(where + r.error().message + " (nothing was imported)");
+    }
+    rep = std::move(r).value();
   } else {
     CsvImportOptions opt;
     opt.time = time_options(o);
@@ -456,11 +474,11 @@ void run_backup(const LogOptions& o) {
 // JOURNAL.before-restore-<time>.db.
 void run_restore(const LogOptions& o) {
   auto st = open_for(o, Access::WriteOrCreate);
-  std::optional<Journal> from_json;
+  // A JSON journal is read one event at a time during the restore (the whole file never in
+  // memory) and checked as it goes: a refused record rolls the restore back.
+  std::ifstream from_json;
   if (!store::is_database_file(o.file)) {
-    auto j = parse_journal(read_text_file(o.file));
-    if (!j) throw CommandError(o.file + ": " + j.error().message + " (nothing was changed)");
-    from_json = std::move(j).value();
+    open_input_file(from_json, o.file);
   }
   // A second restore within the same second must not collide with the first one's copy.
   std::string keep = fmt::format("{}.before-restore-{}.db", st->path(), std::time(nullptr));
@@ -470,8 +488,12 @@ void run_restore(const LogOptions& o) {
     Status kept = st->backup_to(keep);
     if (!kept) throw CommandError(kept.error().message + " (nothing was changed)");
   }
-  Status done = from_json ? st->restore_from_journal(*from_json) : st->restore_from_database(o.file);
-  if (!done) throw CommandError(done.error().message + " (nothing was changed)");
+  Status done = from_json.is_open() ? st->restore_from_journal_stream(from_json) : st->restore_from_database(o.file);
+  if (!done) {
+    std::remove(keep.c_str());  // nothing was changed: the copy of the journal as it is is not needed
+    const std::string where = from_json.is_open() && done.error().field != "journal" ? o.file + ": " : "";
+    throw CommandError(where + done.error().message + " (nothing was changed)");
+  }
   std::cout << fmt::format("restored {} systems and {} events from {}", st->systems().size(), st->event_count(),
                            o.file);
   if (file_exists(keep)) std::cout << "; the journal as it was is kept in " << keep;

@@ -7,7 +7,8 @@
 // Figures, each the median of several runs (wall time) and the largest peak memory (maxrss):
 //   1. every `tidewright` command as a user runs it (a child process: start-up included) --
 //      import of the whole farm as CSV, one add, the demand estimate of one system, the list of
-//      one system's last 100 events, systems, exports, the integrity check;
+//      one system's last 100 events, systems, exports, the integrity check, and the JSON export
+//      imported and restored again (streamed, one event at a time);
 //   2. the same operations inside one process through the store API (no start-up);
 //   3. the JSON-file journal way (read and parse the whole file; an add also writes it all
 //      back), in a child process each, and the ratio JSON / database.
@@ -231,6 +232,19 @@ int main(int argc, char** argv) {
   print("log export --format json (whole journal, streamed)",
         run_command(binary, {"log", "--journal", db, "export", "--format", "json", "-o", json}, 1));
   print("log check (every record validated)", run_command(binary, {"log", "--journal", db, "check"}, 1));
+  {
+    // The JSON export read back one event at a time (journal_stream.hpp): into a new database,
+    // then as a restore over it (which first keeps a copy of the journal as it was).
+    const std::string copy = (dir / "from-json.db").string();
+    for (const char* tail : {"", "-wal", "-shm"}) fs::remove(copy + tail);
+    print("log import farm.json (streamed, into a new database)",
+          run_command(binary, {"log", "--journal", copy, "import", json}, 1));
+    print("log restore farm.json (streamed, over that database)",
+          run_command(binary, {"log", "--journal", copy, "restore", json}, 1));
+    for (const auto& entry : fs::directory_iterator(dir)) {
+      if (entry.path().filename().string().rfind("from-json.db", 0) == 0) fs::remove(entry.path());
+    }
+  }
   std::printf("  every command's peak memory target: < 64 MB\n");
 
   std::printf("2. inside one process (store API, database open)\n");

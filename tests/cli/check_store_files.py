@@ -84,6 +84,23 @@ with tempfile.TemporaryDirectory() as d:
     r = run("log", "--journal", "old.db", "import", "copy.json", cwd=d)
     check("importing an export again adds nothing", r.returncode == 0 and b"imported 0 events" in r.stdout, r.stdout)
 
+    # A JSON journal is read one event at a time: a bad record in the middle refuses the whole
+    # import or restore, names the record, and changes nothing (no copy of the journal left either).
+    bad = json.load(open(os.path.join(d, "copy.json"), encoding="utf-8"))
+    middle = len(bad["events"]) // 2
+    bad["events"][middle]["system_id"] = 999
+    with open(os.path.join(d, "bad.json"), "w", encoding="utf-8") as f:
+        json.dump(bad, f, indent=2)
+    before = export("old.db", d)
+    files_before = sorted(os.listdir(d))
+    for command in ("import", "restore"):
+        r = run("log", "--journal", "old.db", command, "bad.json", cwd=d)
+        err = r.stderr.decode()
+        check(f"{command} of a JSON journal with a bad record in the middle: refused and named",
+              r.returncode != 0 and f"bad.json: events[{middle}]" in err and "nothing was" in err and err.count("\n") == 1, err)
+        check(f"{command} of a JSON journal with a bad record: nothing changed",
+              export("old.db", d) == before and sorted(os.listdir(d)) == files_before, sorted(os.listdir(d)))
+
     # A symbolic link: written through, still a link.
     os.mkdir(os.path.join(d, "real"))
     r = run("log", "--journal", "real/tank.db", "add", "system", "--name", "Nano", "--volume", "40", cwd=d)

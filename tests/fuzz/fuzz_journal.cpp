@@ -3,7 +3,9 @@
 // is the text. Checks: no crash, no sanitizer report, and for every journal that parses, the
 // exact round trip parse(serialize(j)) == j, the CSV export re-imports without a reject, and
 // the journal store's JSON import path (core/store: a JSON journal into an in-memory database,
-// streamed back out) gives the very same text.
+// streamed back out) gives the very same text. The streaming reader (journal_stream.hpp) gets
+// the same bytes and must accept and refuse as parse_journal does, with the same journal or
+// the same error text; so must the store's streamed import.
 #include <cstddef>
 #include <cstdint>
 #include <cstdlib>
@@ -12,6 +14,7 @@
 
 #include "tidewright/journal/journal_csv.hpp"
 #include "tidewright/journal/journal_file.hpp"
+#include "tidewright/journal/journal_stream.hpp"
 #include "tidewright/store/journal_store.hpp"
 
 using namespace tw::journal;
@@ -44,6 +47,11 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
   const std::string text(reinterpret_cast<const char*>(data + 1), size - 1);
   if (mode % 2 == 0) {
     auto r = parse_journal(text);
+    std::istringstream in(text);
+    auto s = parse_journal_stream(in);
+    check(s.ok() == r.ok());
+    if (r.ok()) check(*s == *r);
+    else check(s.error().message == r.error().message);
     if (r.ok()) {
       const std::string out = serialize_journal(*r);
       auto back = parse_journal(out);
@@ -59,6 +67,13 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
       std::ostringstream streamed;
       check((*store)->export_json(streamed).ok());
       check(streamed.str() == out);
+      auto store2 = tw::store::JournalStore::open(":memory:");
+      check(store2.ok());
+      std::istringstream again(text);
+      check((*store2)->import_journal_stream(again).ok());
+      std::ostringstream streamed2;
+      check((*store2)->export_json(streamed2).ok());
+      check(streamed2.str() == out);
     }
   } else {
     Journal j = base_journal();

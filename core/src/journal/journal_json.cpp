@@ -1,7 +1,8 @@
 // Journal file format: JSON writer, reader with validation, and the migrations v1 -> v2 -> v3.
 //
 // Map: 1. writer   2. field readers (typed, with JSON paths in errors)   3. record readers
-//      4. migration v1 -> v2   4b. migration v2 -> v3   5. parse_journal
+//      4. migration v1 -> v2   4b. migration v2 -> v3   5. checks shared with the streaming
+//      reader (journal_json_internal.hpp, journal_stream.cpp)   6. parse_journal
 #include <algorithm>
 #include <set>
 
@@ -10,6 +11,7 @@
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/common/stored_number.hpp"
 #include "tidewright/journal/journal_file.hpp"
+#include "journal_json_internal.hpp"
 #include "journal_tidy_internal.hpp"
 
 namespace tw::journal {
@@ -442,37 +444,26 @@ Result<json> migrate_v2_to_v3(const json& v2) {
   return v3;
 }
 
-// ---------------------------------------------------------------- 5. parse_journal
-namespace {
-std::string line_column(const std::string& text, size_t byte) {
-  size_t line = 1, col = 1;
-  for (size_t i = 0; i < byte && i < text.size(); ++i) {
-    if (text[i] == '\n') {
-      ++line;
-      col = 1;
-    } else {
-      ++col;
-    }
-  }
-  return fmt::format("line {}, column {}", line, col);
-}
-}  // namespace
+// ---------------------------------------------------------------- 5. shared checks
+namespace detail {
 
-Result<Journal> parse_journal(const std::string& text, int* source_version) {
-  json doc;
-  try {
-    doc = json::parse(text);
-  } catch (const json::parse_error& e) {
-    // nlohmann: "[json.exception.parse_error.101] parse error at line 3, column 12: why"
-    std::string why = e.what();
-    const auto pos = why.find("] ");
-    if (pos != std::string::npos) why = why.substr(pos + 2);
-    if (why.rfind("parse error at line", 0) == 0 && why.find(": ") != std::string::npos) {
-      why = why.substr(why.find(": ") + 2);
-    }
-    return Error{"json", "the journal is not valid JSON (" + line_column(text, e.byte ? e.byte - 1 : 0) +
-                             "): " + why};
-  }
+Result<System> read_system_at(const json& j, const std::string& path) {
+  auto read = read_system(j, path);
+  if (!read) return read;
+  System s = std::move(read).value();
+  tidy_numbers(s);
+  return s;
+}
+
+Result<Event> read_event_at(const json& j, const std::string& path) {
+  auto read = read_event(j, path);
+  if (!read) return read;
+  Event e = std::move(read).value();
+  tidy_numbers(e);
+  return e;
+}
+
+Result<int> check_format_and_version(const json& doc) {
   if (!doc.is_object()) return Error{"format", "the journal must be a JSON object"};
   const json* fmt_name = member(doc, "format");
   if (!fmt_name || !fmt_name->is_string() || fmt_name->get<std::string>() != kFormatName) {
@@ -491,8 +482,130 @@ Result<Journal> parse_journal(const std::string& text, int* source_version) {
                              version, kSchemaVersion)};
   }
   if (version < 1) return Error{"schema_version", fmt::format("schema_version {} is not valid (1 to {})", version, kSchemaVersion)};
-  if (source_version) *source_version = static_cast<int>(version);
-  if (version == 1) {
+  return static_cast<int>(version);
+}
+
+Status read_head_fields(const json& doc, std::string& description, std::int64_t& next_id) {
+  TW_TRY(d, get_string(doc, "journal", "description", false));
+  TW_TRY(n, get_integer(doc, "journal", "next_id"));
+  description = std::move(d);
+  next_id = n;
+  return Ok{};
+}
+
+Error json_syntax_error(const std::string& what, const std::string& line_column) {
+  // nlohmann: "[json.exception.parse_error.101] parse error at line 3, column 12: why"
+  std::string why = what;
+  const auto pos = why.find("] ");
+  if (pos != std::string::npos) why = why.substr(pos + 2);
+  if (why.rfind("parse error at line", 0) == 0 && why.find(": ") != std::string::npos) {
+    why = why.substr(why.find(": ") + 2);
+  }
+  return Error{"json", "the journal is not valid JSON (" + line_column + "): " + why};
+}
+
+JournalChecks::JournalChecks(std::int64_t next_id) : next_id_(next_id) {
+  if (next_id > 1 && next_id <= kIdBitsLimit) below_next_.assign(static_cast<std::size_t>(next_id - 1), false);
+}
+
+Status JournalChecks::claim_id(std::int64_t id, const std::string& path) {
+  if (id <= 0) return at(path + ".id", "must be a positive integer");
+  bool fresh = true;
+  if (id < next_id_ && static_cast<std::size_t>(id - 1) < below_next_.size()) {
+    auto bit = below_next_[static_cast<std::size_t>(id - 1)];
+    fresh = !bit;
+    bit = true;
+  } else {
+    fresh = other_ids_.insert(id).second;
+  }
+  if (!fresh) return at(path + ".id", fmt::format("{} is used twice", id));
+  max_id_ = std::max(max_id_, id);
+  return Ok{};
+}
+
+Status JournalChecks::system(const System& s, const std::string& path) {
+  Status st = claim_id(s.id, path);
+  if (!st) return st;
+  st = validate_system(context_, s);
+  if (!st) return with_path(path, st.error());
+  context_.systems.push_back(s);
+  return Ok{};
+}
+
+Status JournalChecks::event(const Event& e, const std::string& path) {
+  Status st = claim_id(e.id, path);
+  if (!st) return st;
+  st = validate_event(context_, e);
+  if (!st) return with_path(path, st.error());
+  // A mark is checked against its schedule only (validate_mark): the other events need not be kept.
+  if (std::holds_alternative<DoseSchedule>(e.data)) context_.events.push_back(e);
+  return Ok{};
+}
+
+Status JournalChecks::finish() const {
+  if (next_id_ <= max_id_) {
+    return at("next_id", fmt::format("{} must be greater than every id in the journal ({})", next_id_, max_id_));
+  }
+  return Ok{};
+}
+
+}  // namespace detail
+
+// ---------------------------------------------------------------- 6. parse_journal
+namespace {
+std::string line_column(const std::string& text, size_t byte) {
+  size_t line = 1, col = 1;
+  for (size_t i = 0; i < byte && i < text.size(); ++i) {
+    if (text[i] == '\n') {
+      ++line;
+      col = 1;
+    } else {
+      ++col;
+    }
+  }
+  return fmt::format("line {}, column {}", line, col);
+}
+
+// Where nlohmann's parser stops on text it refuses. A number too large for a double ("1e400")
+// is refused with an out_of_range exception, which carries no position; the SAX parser says
+// where (as the streaming reader reports it).
+class ErrorLocator final : public nlohmann::json_sax<json> {
+ public:
+  std::size_t byte = 0;
+  bool null() override { return true; }
+  bool boolean(bool) override { return true; }
+  bool number_integer(number_integer_t) override { return true; }
+  bool number_unsigned(number_unsigned_t) override { return true; }
+  bool number_float(number_float_t, const string_t&) override { return true; }
+  bool string(string_t&) override { return true; }
+  bool binary(binary_t&) override { return true; }
+  bool start_object(std::size_t) override { return true; }
+  bool key(string_t&) override { return true; }
+  bool end_object() override { return true; }
+  bool start_array(std::size_t) override { return true; }
+  bool end_array() override { return true; }
+  bool parse_error(std::size_t position, const std::string&, const nlohmann::detail::exception&) override {
+    byte = position;
+    return false;
+  }
+};
+}  // namespace
+
+Result<Journal> parse_journal(const std::string& text, int* source_version) {
+  json doc;
+  try {
+    doc = json::parse(text);
+  } catch (const json::parse_error& e) {
+    return detail::json_syntax_error(e.what(), line_column(text, e.byte ? e.byte - 1 : 0));
+  } catch (const json::exception& e) {
+    ErrorLocator where;
+    json::sax_parse(text, &where);
+    return detail::json_syntax_error(e.what(), line_column(text, where.byte ? where.byte - 1 : 0));
+  }
+  auto version = detail::check_format_and_version(doc);
+  if (!version) return version.error();
+  if (source_version) *source_version = *version;
+  if (*version == 1) {
     auto migrated = migrate_v1_to_v2(doc);
     if (!migrated) return migrated.error();
     doc = std::move(migrated).value();
@@ -504,48 +617,32 @@ Result<Journal> parse_journal(const std::string& text, int* source_version) {
   }
 
   Journal j;
-  TW_TRY(description, get_string(doc, "journal", "description", false));
-  TW_TRY(next_id, get_integer(doc, "journal", "next_id"));
-  j.description = description;
+  std::int64_t next_id = 0;
+  if (Status head = detail::read_head_fields(doc, j.description, next_id); !head) return head.error();
   const json* systems = member(doc, "systems");
   const json* events = member(doc, "events");
   if (!systems || !systems->is_array()) return at("systems", "is missing (an array)");
   if (!events || !events->is_array()) return at("events", "is missing (an array)");
-  std::set<std::int64_t> ids;
-  auto claim_id = [&](std::int64_t id, const std::string& path) -> Status {
-    if (id <= 0) return at(path + ".id", "must be a positive integer");
-    if (!ids.insert(id).second) return at(path + ".id", fmt::format("{} is used twice", id));
-    return Ok{};
-  };
+  detail::JournalChecks checks(next_id);
   for (size_t i = 0; i < systems->size(); ++i) {
     const std::string path = fmt::format("systems[{}]", i);
-    TW_TRY(s, read_system((*systems)[i], path));
-    tidy_numbers(s);
-    Status st = claim_id(s.id, path);
+    TW_TRY(s, detail::read_system_at((*systems)[i], path));
+    Status st = checks.system(s, path);
     if (!st) return st.error();
-    st = validate_system(j, s);
-    if (!st) return with_path(path, st.error());
-    j.systems.push_back(std::move(s));
   }
+  j.systems = checks.systems();
   j.events.reserve(events->size());
   for (size_t i = 0; i < events->size(); ++i) {
     const std::string path = fmt::format("events[{}]", i);
-    TW_TRY(e, read_event((*events)[i], path));
-    tidy_numbers(e);
-    Status st = claim_id(e.id, path);
+    TW_TRY(e, detail::read_event_at((*events)[i], path));
+    Status st = checks.event(e, path);
     if (!st) return st.error();
-    st = validate_event(j, e);
-    if (!st) return with_path(path, st.error());
     j.events.push_back(std::move(e));
   }
   std::stable_sort(j.events.begin(), j.events.end(), [](const Event& a, const Event& b) {
     return a.time_s != b.time_s ? a.time_s < b.time_s : a.id < b.id;
   });
-  const std::int64_t max_id = ids.empty() ? 0 : *ids.rbegin();
-  if (next_id <= max_id) {
-    return at("next_id", fmt::format("{} must be greater than every id in the journal ({})",
-                                     next_id, max_id));
-  }
+  if (Status st = checks.finish(); !st) return st.error();
   j.next_id = next_id;
   return j;
 }

@@ -6,11 +6,8 @@
 
 #include <cstdio>
 #include <fstream>
-#include <sstream>
 
 #include <fmt/format.h>
-
-#include "tidewright/journal/journal_file.hpp"
 
 namespace tw::store {
 
@@ -34,16 +31,19 @@ std::string without_json_suffix(const std::string& path) {
   return ends_with(path, ".json") ? path.substr(0, path.size() - 5) : path;
 }
 
-Result<journal::Journal> read_json_journal(const std::string& path) {
+// The JSON journal's error, said as the user sees it: the file, the record, and that the file is kept.
+Error json_journal_error(const std::string& path, const Error& e) {
+  return Error{"journal", path + ": " + e.message + " (the file was not changed)"};
+}
+
+// The old JSON journal into the store, one event at a time (import_journal_stream): memory
+// stays flat whatever its size.
+Result<JournalStore::ImportReport> import_json_journal(JournalStore& store, const std::string& path) {
   std::ifstream in(path, std::ios::binary);
   if (!in) return Error{"journal", "cannot read " + path};
-  std::ostringstream text;
-  text << in.rdbuf();
-  auto j = journal::parse_journal(text.str());
-  if (!j) {
-    return Error{"journal", path + ": " + j.error().message + " (the file was not changed)"};
-  }
-  return j;
+  auto report = store.import_journal_stream(in);
+  if (!report) return json_journal_error(path, report.error());
+  return report;
 }
 
 }  // namespace
@@ -67,11 +67,9 @@ Result<OpenedJournal> open_journal(const std::string& given, Access access) {
   const bool have_database = exists(where.database);
   if (!have_database && where.json_source && access == Access::Read) {
     // Read the JSON journal into memory: reading never creates a file.
-    auto j = read_json_journal(*where.json_source);
-    if (!j) return j.error();
     auto mem = JournalStore::open(":memory:");
     if (!mem) return mem.error();
-    auto imported = (*mem)->import_journal(*j);
+    auto imported = import_json_journal(**mem, *where.json_source);
     if (!imported) return imported.error();
     out.store = std::move(mem).value();
     return out;
@@ -85,20 +83,22 @@ Result<OpenedJournal> open_journal(const std::string& given, Access access) {
       return Error{"journal", "journal " + given + " does not exist (create it with `tidewright log add system`)"};
     }
   }
+  if (!have_database && where.json_source && !std::ifstream(*where.json_source, std::ios::binary)) {
+    return Error{"journal", "cannot read " + *where.json_source};  // before a database is created
+  }
   OpenOptions options;
   options.read_only = access == Access::Read;
   auto store = JournalStore::open(where.database, options);
   if (!store) return store.error();
   out.store = std::move(store).value();
   if (!have_database && where.json_source) {
-    auto j = read_json_journal(*where.json_source);
-    if (!j) {
+    auto report = import_json_journal(*out.store, *where.json_source);
+    if (!report) {
       out.store.reset();
-      std::remove(where.database.c_str());  // created just now, empty: leave nothing behind
-      return j.error();
+      // Created just now and left empty (the import was rolled back): leave nothing behind.
+      for (const char* tail : {"", "-wal", "-shm"}) std::remove((where.database + tail).c_str());
+      return report.error();
     }
-    auto report = out.store->import_journal(*j);
-    if (!report) return report.error();
     out.notice = fmt::format(
         "note: the JSON journal {} was copied into the database {} ({} systems, {} events); {} is "
         "kept unchanged and is not written again: use --journal {} from now on",

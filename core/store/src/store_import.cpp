@@ -1,6 +1,6 @@
 // Imports into the store: a whole journal (the JSON format, already parsed and validated by
-// the core) and CSV streamed in chunks of rows. Each import is one write transaction: all of
-// it or nothing.
+// the core; the streamed JSON import is store_import_stream.cpp) and CSV streamed in chunks
+// of rows. Each import is one write transaction: all of it or nothing.
 #include <algorithm>
 #include <cctype>
 #include <map>
@@ -16,9 +16,9 @@ namespace tw::store {
 using namespace tw::journal;
 using namespace tw::store::detail;
 
-namespace {
+namespace detail {
 
-std::string lower(std::string s) {
+std::string lower_ascii(std::string s) {
   for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
   return s;
 }
@@ -28,6 +28,10 @@ bool database_empty(sqlite3* db) {
   st.step();
   return st.integer(0) == 0;
 }
+
+}  // namespace detail
+
+namespace {
 
 // Adds one validated event (id assigned here) unless an equal one is stored; the scratch
 // journal holds the stored systems for the core's validation.
@@ -97,7 +101,7 @@ Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& j
     std::map<SystemId, SystemId> system_of;
     for (const System& s : journal.systems) {
       auto same = std::find_if(scratch.systems.begin(), scratch.systems.end(),
-                               [&](const System& t) { return lower(t.name) == lower(s.name); });
+                               [&](const System& t) { return lower_ascii(t.name) == lower_ascii(s.name); });
       if (same != scratch.systems.end()) {
         system_of[s.id] = same->id;
         continue;

@@ -36,6 +36,11 @@ struct WhereClause {
 };
 WhereClause where_of(const journal::EventFilter& filter);
 
+// ASCII lower case (system names are matched without case).
+std::string lower_ascii(std::string s);
+// Whether the database holds no system and no event.
+bool database_empty(sqlite3* db);
+
 // Whether an event equal in content (same system, time and payload) is already stored.
 bool has_equal_event(sqlite3* db, const journal::Event& e);
 

@@ -121,6 +121,12 @@ class JournalStore {
   // journal); otherwise systems are matched by name (new ones added) and events get new ids,
   // skipping duplicates. All or nothing.
   Result<ImportReport> import_journal(const journal::Journal& journal, ImportMode mode = ImportMode::Commit);
+  // The same from a JSON journal file read one event at a time (journal_stream.hpp), so that
+  // memory stays flat whatever its size: the stream must be seekable (a file; it is read twice)
+  // or it is read whole. The reader's errors are returned as they are (field and text name
+  // the record: "events[12].value: ..."), and nothing is stored. New ids are given in the
+  // file's order (import_journal: time order; the same for a file Tidewright wrote).
+  Result<ImportReport> import_journal_stream(std::istream& in, ImportMode mode = ImportMode::Commit);
   // CSV (journal_csv.hpp) read from the stream in chunks of rows, in one transaction: the
   // accepted rows are committed together, every refused row is reported with its line. A
   // file-level error (no header, unclosed quote...) adds nothing.
@@ -144,6 +150,8 @@ class JournalStore {
   // already parsed), in one transaction: ids kept.
   Status restore_from_database(const std::string& backup_path);
   Status restore_from_journal(const journal::Journal& journal);
+  // A JSON journal read one event at a time (as import_journal_stream), in one transaction.
+  Status restore_from_journal_stream(std::istream& in);
 
   struct IntegrityReport {
     bool ok = true;
