@@ -128,6 +128,7 @@ bool start(const StartOptions&, std::string* error) {
   glfwMakeContextCurrent(g_window);
   track_canvas_size();
   ImGui_ImplGlfw_InitForOpenGL(g_window, true);
+  glfwSetScrollCallback(g_window, nullptr);  // the wheel comes from web_pre.js (begin_frame)
   ImGui_ImplOpenGL3_Init("#version 300 es");
   ImGui::GetIO().IniFilename = nullptr;  // layout comes from code, not a file
   return true;
@@ -152,9 +153,12 @@ void begin_frame() {
   track_canvas_size();
   ImGui_ImplOpenGL3_NewFrame();
   ImGui_ImplGlfw_NewFrame();
-  float p[5] = {0, 0, 0, 0, 0};
+  float p[6] = {0, 0, 0, 0, 0, 0};
   js_poll_pointer(p);
   ImGuiIO& io = ImGui::GetIO();
+  // The wheel from web_pre.js in pixels; ImGui scrolls 5 lines per notch, a browser's notch is
+  // about 100 CSS pixels.
+  io.MouseWheel -= p[5] / 100.0f;
   io.MousePos = p[4] > 0 ? ImVec2(p[0], p[1]) : ImVec2(-FLT_MAX, -FLT_MAX);
   io.MouseDown[0] = p[2] > 0;
   g_touch = p[3] > 0;

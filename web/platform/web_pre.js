@@ -7,7 +7,7 @@
 //   5. files: download and file picker
 // Functions called from C++ hang off Module.tw.
 
-Module.tw = { dirty: true, events: [], x: -1, y: -1, down: false, touch: false, liftPending: false };
+Module.tw = { dirty: true, events: [], x: -1, y: -1, down: false, touch: false, liftPending: false, wheel: 0 };
 
 // ---------------------------------------------------------------- 1. storage
 // The journal lives in IndexedDB record by record: web_store.js (Module.twStore). Tests wait
@@ -36,6 +36,14 @@ Module.tw.flushing = function () { return Module.twStore.pending > 0 || Module.t
   canvas.addEventListener('pointercancel', function (e) { push('up', e); });
   canvas.addEventListener('pointerleave', function (e) { if (e.pointerType === 'mouse' && !tw.down) push('leave', e); });
   canvas.addEventListener('contextmenu', function (e) { e.preventDefault(); });
+  // The wheel, read here: Emscripten 3.1.6's GLFW hands ImGui the browser's deltaY (pixels,
+  // positive = down) as GLFW notches (positive = up), so a turn down scrolled far up and the
+  // page never moved from its top. Summed in CSS pixels (lines and pages converted).
+  canvas.addEventListener('wheel', function (e) {
+    tw.wheel += e.deltaY * (e.deltaMode === 1 ? 40 : e.deltaMode === 2 ? canvas.clientHeight : 1);
+    tw.dirty = true;
+    e.preventDefault();
+  }, { passive: false });
 })();
 
 // Applies queued pointer events up to and including one button change (so a tap shorter than
@@ -58,6 +66,8 @@ Module.tw.poll = function (out) {
   HEAPF32[(out >> 2) + 2] = tw.down ? 1 : 0;
   HEAPF32[(out >> 2) + 3] = tw.touch ? 1 : 0;
   HEAPF32[(out >> 2) + 4] = hasPos ? 1 : 0;
+  HEAPF32[(out >> 2) + 5] = tw.wheel;  // CSS pixels down since the last poll
+  tw.wheel = 0;
 };
 
 // ---------------------------------------------------------------- 3. redraw flag
