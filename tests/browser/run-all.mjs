@@ -5,7 +5,7 @@
 import { resolve, join } from 'node:path';
 import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone } from './lib.mjs';
+import { launch, PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -157,6 +157,64 @@ test('text size setting and desktop Tab key navigation', async () => {
   await page.keyboard.press('Tab');
   await frames(page, 2);
   await context.close();
+});
+
+// Issue 18: a salt mix's own composition on the Water screen: measured total boron in place of
+// the salinity-scaled value, and the Mg/Ca correction of the constants (off until chosen), with
+// the core's sentences shown; a boron beyond the core's range refused with the range.
+test('water: salt mix boron and the Mg/Ca correction (phone 390x844)', async () => {
+  const { context, page, errors } = await open(PHONE);
+  const reveal = async (name) => {
+    await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
+    await frames(page, 3);
+  };
+  await tap(page, 'tab.water');
+  let s = await state(page);
+  check(s.water.ok && !s.water.mg_ca_correction && !s.water.boron_measured, 'salt-mix options on before being chosen');
+  check(/from salinity/.test(s.water.boron_source), `boron source: ${s.water.boron_source}`);
+  const omega0 = s.water.omega_aragonite;
+  await reveal('water.mg_ca.1');
+  await tap(page, 'water.mg_ca.1');
+  s = await state(page);
+  check(s.water.mg_ca_correction && s.water.magnesium_mg_l > 1000, `Mg/Ca: ${s.water.mg_ca_correction}, Mg ${s.water.magnesium_mg_l} (the demo logs magnesium)`);
+  check(s.water.ok && (s.water.warnings || []).some((w) => /Mg\/Ca correction of the constants applied/.test(w)),
+        `the correction's sentence is not among the warnings: ${JSON.stringify(s.water.warnings)} ${s.water.error}`);
+  check(Math.abs(s.water.omega_aragonite - omega0) > 1e-6, `Omega ${omega0} unchanged by the correction`);
+  await reveal('water.boron');
+  await tap(page, 'water.boron');
+  await enter(page, '8.8');
+  s = await state(page);
+  check(s.water.boron_measured && /as measured/.test(s.water.boron_source), `boron: ${s.water.boron_source}`);
+  await page.screenshot({ path: join(OUTPUT, 'phone-water-salt-mix.png') });
+  await tap(page, 'water.boron');
+  await enter(page, '50');
+  const r = await state(page);
+  check(r.water.total_boron_mg_l === 8.8, `a boron of 50 mg/L was taken: ${r.water.total_boron_mg_l}`);
+  check(r.message_is_error && /22/.test(r.message), `no range message for 50 mg/L: ${r.message}`);
+  await context.close();
+  const real = errors.filter((e) => !benign(e));
+  check(real.length === 0, `console errors: ${real.join(' | ')}`);
+});
+
+// Issue 15: the mouse wheel scrolls the page on a desktop (a widget low on the Water screen
+// moves up by about what the wheel asked, and back).
+test('desktop: the mouse wheel scrolls the page (desktop 1280x800)', async () => {
+  const { context, page, errors } = await open(DESKTOP);
+  await tap(page, 'tab.water');
+  const before = await widget(page, 'water.temperature');
+  check(before.found, 'no temperature field on the Water screen');
+  await page.mouse.move(640, 400);
+  await page.mouse.wheel(0, 300);
+  await frames(page, 6);
+  const after = await widget(page, 'water.temperature');
+  check(after.y < before.y - 50, `the wheel did not scroll: y ${before.y} -> ${after.y}`);
+  await page.mouse.wheel(0, -300);
+  await frames(page, 6);
+  const back = await widget(page, 'water.temperature');
+  check(Math.abs(back.y - before.y) < 2, `the wheel back up did not return: y ${before.y} -> ${back.y}`);
+  await context.close();
+  const real = errors.filter((e) => !benign(e));
+  check(real.length === 0, `console errors: ${real.join(' | ')}`);
 });
 
 // Issue 13: the Water screen shows every number with its band, and the readings' precisions

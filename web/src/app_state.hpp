@@ -56,6 +56,11 @@ struct WaterInputs {
   double salinity = 35;
   double temperature_c = 25;
   std::optional<double> calcium_mg_l;  // measured (latest logged); absent = from salinity
+  // A salt mix's own composition (issue 18), optional: magnesium (latest logged) for the Mg/Ca
+  // correction of the constants, off unless chosen; total boron in mg/L of B when measured.
+  std::optional<double> magnesium_mg_l;
+  std::optional<double> total_boron_mg_l;
+  bool mg_ca_correction = false;
   bool what_if = false;  // false: filled from the current system's latest readings
   std::string source;    // where the numbers came from, in words
   bool operator==(const WaterInputs&) const = default;
@@ -89,6 +94,7 @@ struct WaterResult {
   std::optional<tw::carbonate::CarbonateState> air;  // same alkalinity, at the room's CO2
   std::string air_error;
   tw::carbonate::CalciumSource calcium;    // where the saturation's calcium came from (core)
+  tw::carbonate::BoronSource boron;        // where the total boron came from (core)
   SpeciesCurve curve;
   // Standard uncertainty of each output from the readings' precision (Orr et al. 2018 linear
   // propagation in the core); unset with u_error when it could not be computed.

@@ -1,8 +1,12 @@
 // Water: the full carbonate state of the current system (latest readings) or of what-if
 // numbers, computed by the core; Omega with a plain reading; the species chart.
+#include <algorithm>
 #include <string>
 
 #include "actions.hpp"
+#include "tidewright/common/ranges.hpp"
+#include "tidewright/common/units.hpp"
+#include "tidewright/seawater/seawater.hpp"
 #include "fields.hpp"
 #include "format.hpp"
 #include "screens.hpp"
@@ -48,6 +52,37 @@ std::string source_label(const std::string& name) {
   return name;
 }
 
+// A salt mix's own composition (issue 18): measured total boron in place of the salinity-scaled
+// value, and the Mg/Ca correction of the constants (Hain et al. 2015), off unless chosen. Both
+// ranges are the core's, shown in mg/L at this water's density.
+void draw_salt_mix(AppState& app, WaterInputs& w, bool& changed) {
+  using tw::units::ConcentrationUnit, tw::units::Ion;
+  const double rho = tw::seawater::density_kg_per_l(w.salinity, w.temperature_c);
+  const double boron_hi = tw::units::ion_from_umol_kg(tw::ranges::kTotalBoronUmolKg.hi, ConcentrationUnit::MgPerL,
+                                                      Ion::Boron, rho);
+  changed |= ui::optional_number_field(app, "water.boron", {"Total boron (measured)", "mg/L", 2, 0.1, 0.0, boron_hi},
+                                       &w.total_boron_mg_l);
+  if (w.total_boron_mg_l && ui::button(app, "water.boron.clear", "Scale boron from salinity instead", -1, ui::Tone::Quiet)) {
+    w.total_boron_mg_l.reset();
+    changed = true;
+  }
+  static const char* kMgCa[] = {"Seawater ratios", "Correct for Mg and Ca"};
+  int mgca = w.mg_ca_correction ? 1 : 0;
+  if (ui::choice(app, "water.mg_ca", "Equilibrium constants", &mgca, kMgCa, 2)) {
+    w.mg_ca_correction = mgca == 1;
+    changed = true;
+  }
+  if (!w.mg_ca_correction) return;
+  const double mg_hi = tw::units::ion_from_umol_kg(tw::ranges::kMagnesiumUmolKg.hi, ConcentrationUnit::MgPerL,
+                                                   Ion::Magnesium, rho);
+  changed |= ui::optional_number_field(app, "water.magnesium",
+                                       {"Magnesium (measured)", "mg/L", 0, 10, 0.0, std::min(mg_hi, tw::ranges::kMagnesiumMgL.hi)},
+                                       &w.magnesium_mg_l);
+  ui::dim_text("For salt mixes whose magnesium and calcium depart from seawater's: the constants are corrected by "
+               "the MyAMI model's published polynomial (Hain et al. 2015), salinity 30-40 and 0-40 \u00b0C only. "
+               "Needs measured calcium and magnesium.");
+}
+
 void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
   WaterInputs w = app.water;
   bool changed = false;
@@ -78,6 +113,7 @@ void draw_inputs(AppState& app, const jn::UnitPreferences& u) {
     w.calcium_mg_l.reset();
     changed = true;
   }
+  draw_salt_mix(app, w, changed);
   changed |= ui::number_field(app, "water.salinity", {"Salinity", "psu", 1, 0.5, tw::ranges::kSalinity.lo, tw::ranges::kSalinity.hi}, &w.salinity);
   changed |= fields::temperature(app, "water.temperature", "Temperature", &w.temperature_c, u.temperature);
   if (changed) set_water_inputs(app, w);
@@ -230,6 +266,8 @@ void draw_results(AppState& app, const jn::UnitPreferences& u) {
   // Where calcium came from (the core's sentence); at low salinity the same sentence is one of
   // the warnings below, drawn there in the warning colour instead.
   if (!r.calcium.low_salinity) ui::dim_text(("Saturation uses " + r.calcium.note + ".").c_str());
+  if (r.boron.measured) ui::dim_text(("Borate uses " + r.boron.note + ".").c_str());
+  // The Mg/Ca correction, when applied, is among the warnings below (the core's sentence).
   for (const auto& wmsg : s.warnings) ui::colored_wrapped(theme::kWarning, wmsg.c_str());
   (void)e;
 }

@@ -57,11 +57,15 @@ std::string state_json() {
   json water = {{"ok", w.ok}, {"error", w.error}, {"what_if", a.water.what_if}, {"source", a.water.source},
                 {"computed_count", w.computed_count}, {"calcium_mg_l", opt(a.water.calcium_mg_l)},
                 {"calcium_source", w.calcium.note},
+                {"boron_measured", w.boron.measured}, {"boron_source", w.boron.note},
+                {"magnesium_mg_l", opt(a.water.magnesium_mg_l)}, {"total_boron_mg_l", opt(a.water.total_boron_mg_l)},
+                {"mg_ca_correction", a.water.mg_ca_correction},
                 {"inputs", {{"pair", static_cast<int>(a.water.pair)}, {"alkalinity_dkh", a.water.alkalinity_dkh},
                             {"ph", a.water.ph}, {"ph_scale", jn::ph_scale_name(a.water.ph_scale)},
                             {"salinity", a.water.salinity}, {"temperature_c", a.water.temperature_c}}}};
   if (w.ok) {
     water["ph_total"] = w.state.ph_total;
+    water["warnings"] = w.state.warnings;
     water["ph_nbs"] = w.state.ph_nbs;
     water["ph_sws"] = w.state.ph_sws;
     water["alkalinity_umol_kg"] = w.state.alkalinity_umol_kg;

@@ -45,6 +45,12 @@ LatestReadings latest_readings(const AppState& app) {
       r.calcium_time_s = e->time_s;
     }
   }
+  if (const jn::Event* e = last(jn::Parameter::Magnesium)) {
+    if (auto v = jn::canonical_value(std::get<jn::TestResult>(e->data)); v) {
+      r.magnesium_mg_l = *v;
+      r.magnesium_time_s = e->time_s;
+    }
+  }
   return r;
 }
 
@@ -64,6 +70,7 @@ void fill_from_journal(AppState& app) {
   w.salinity = r.salinity.value_or(sys->default_salinity);
   w.temperature_c = r.temperature_c.value_or(sys->default_temperature_c);
   w.calcium_mg_l = r.calcium_mg_l;
+  w.magnesium_mg_l = r.magnesium_mg_l;  // used only if the Mg/Ca correction is chosen
   std::string src = "Latest readings of " + sys->name + ": ";
   if (r.alkalinity_dkh) {
     w.alkalinity_dkh = *r.alkalinity_dkh;
@@ -155,6 +162,16 @@ void refresh_water(AppState& app) {
     cond.calcium_umol_kg = tw::units::ion_to_umol_kg(*w.calcium_mg_l, tw::units::ConcentrationUnit::MgPerL,
                                                      tw::units::Ion::Calcium, out.density_kg_per_l);
   }
+  using tw::units::ConcentrationUnit, tw::units::Ion;
+  if (w.magnesium_mg_l) {
+    cond.magnesium_umol_kg = tw::units::ion_to_umol_kg(*w.magnesium_mg_l, ConcentrationUnit::MgPerL, Ion::Magnesium,
+                                                       out.density_kg_per_l);
+  }
+  if (w.total_boron_mg_l) {
+    cond.total_boron_umol_kg = tw::units::ion_to_umol_kg(*w.total_boron_mg_l, ConcentrationUnit::MgPerL, Ion::Boron,
+                                                         out.density_kg_per_l);
+  }
+  cond.mg_ca_correction = w.mg_ca_correction;
   auto constants = cb::compute_constants(cond);
   if (!constants) {
     out.error = constants.error().message;
@@ -163,6 +180,7 @@ void refresh_water(AppState& app) {
   }
   const cb::Constants& k = *constants;
   out.calcium = k.calcium;
+  out.boron = k.boron;
   const double alk = tw::units::alkalinity_to_umol_kg(w.alkalinity_dkh, tw::units::AlkalinityUnit::DKH,
                                                       out.density_kg_per_l);
   tw::Result<cb::CarbonateState> state = tw::Error{"", ""};

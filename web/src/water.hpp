@@ -14,7 +14,8 @@ struct LatestReadings {
   std::optional<double> salinity;
   std::optional<double> temperature_c;
   std::optional<double> calcium_mg_l;
-  std::int64_t alkalinity_time_s = 0, ph_time_s = 0, calcium_time_s = 0;
+  std::optional<double> magnesium_mg_l;
+  std::int64_t alkalinity_time_s = 0, ph_time_s = 0, calcium_time_s = 0, magnesium_time_s = 0;
 };
 LatestReadings latest_readings(const AppState& app);
 
