@@ -8,7 +8,7 @@
 //              "ph_total" (total scale; absent = air equilibrium), "air_co2_ppm"},
 //   "targets": {"alkalinity_dkh": {"target","low","high"}, "calcium_mg_l": {...}, "magnesium_mg_l": {...}},
 //   "demand": {"alkalinity_meq_per_day", "calcium_mg_per_day", "magnesium_mg_per_day"},
-//   "additives": [  (required, 1..16) each ONE of
+//   "additives": [  (required, 1..16: ranges::kPlanAdditives) each ONE of
 //       {"compound": "<catalog key>"}                      dry, dosed in g
 //       {"stock": {"name", "temperature_c", "ingredients": [{"compound", "grams_per_l"}]}}   mL
 //       {"limewater": {"temperature_c", "fraction_of_saturation"}}                           mL
@@ -25,6 +25,7 @@
 
 #include "plan_internal.hpp"
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/plan/plan.hpp"
 
 namespace tw::plan {
@@ -188,7 +189,7 @@ Result<PlanInput> plan_input_from_json(const std::string& text, std::vector<std:
     TW_TRY(read_number(j["demand"], "magnesium_mg_per_day", "demand.", in.demand.magnesium_mg_per_day));
   }
   if (!j.contains("additives") || !j["additives"].is_array()) {
-    return Error{"additives", "additives must be a list of 1 to 16 additives"};
+    return Error{"additives", fmt::format("additives must be a list of 1 to {:g} additives", ranges::kPlanAdditives.hi)};
   }
   for (std::size_t i = 0; i < j["additives"].size(); ++i) {
     const json& a = j["additives"][i];

@@ -9,6 +9,7 @@
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/common/parameter.hpp"
+#include "tidewright/common/ranges.hpp"
 #include "tidewright/journal/schedule.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
 
@@ -164,7 +165,9 @@ Result<StarterInput> starter_plan_input(const journal::Journal& journal, journal
       out.notes.push_back(fmt::format("Left out {}: {}.", d.additive_id, delivery.error().message));
       continue;
     }
-    if (in.deliveries.size() < 16) in.deliveries.push_back(std::move(delivery).value());
+    if (in.deliveries.size() < static_cast<std::size_t>(ranges::kPlanAdditives.hi)) {
+      in.deliveries.push_back(std::move(delivery).value());
+    }
   }
   if (in.deliveries.empty()) {
     in.deliveries = starting_pair();

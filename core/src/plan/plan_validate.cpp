@@ -78,8 +78,9 @@ Status validate_input(const PlanInput& in) {
   }
   if (auto r = ranges::check("gas_exchange_hours", in.gas_exchange_hours, ranges::kGasExchangeHours); !r) return r;
   if (auto r = ranges::check("salinity_tolerance", in.salinity_tolerance, ranges::kSalinityTolerance); !r) return r;
-  if (in.deliveries.empty()) return Error{"additives", "a plan needs at least one additive (accepted: 1 to 16)"};
-  if (in.deliveries.size() > 16) return Error{"additives", "a plan takes at most 16 additives (accepted: 1 to 16)"};
+  const auto most = static_cast<std::size_t>(ranges::kPlanAdditives.hi);
+  if (in.deliveries.empty()) return Error{"additives", fmt::format("a plan needs at least one additive (accepted: 1 to {})", most)};
+  if (in.deliveries.size() > most) return Error{"additives", fmt::format("a plan takes at most {} additives (accepted: 1 to {})", most, most)};
   if (auto r = check_start_date(in.start_date); !r) return r;
   for (std::size_t i = 0; i < in.deliveries.size(); ++i) {
     const Delivery& d = in.deliveries[i];

@@ -103,6 +103,7 @@ inline constexpr Range kMagnesiumTargetMgL{800.0, 2000.0, "mg/L"};
 // ------------------------------------------------------------ a plan
 inline constexpr Range kPlanHorizonDays{1.0, 365.0, "days"};
 inline constexpr Range kDosesPerDay{1.0, 288.0, ""};  // every 5 minutes at most
+inline constexpr Range kPlanAdditives{1.0, 16.0, "additives"};  // what one plan doses [our choice]
 // Consumption a plan doses against, per litre of the system per day: wide on purpose, far above
 // a heavily stocked stony-coral tank's (about 0.3-1 meq/L, 10-20 mg/L of calcium a day)
 // [common practice].
