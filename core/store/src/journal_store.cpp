@@ -70,14 +70,15 @@ WhereClause where_of(const EventFilter& f) {
   return WhereClause{sql, f};
 }
 
-bool has_equal_event(sqlite3* db, const Event& e) {
+std::optional<EventId> equal_event_id(sqlite3* db, const Event& e) {
   Statement st(db, (std::string("SELECT ") + kEventColumns +
                     " FROM events WHERE system_id = ? AND time_s = ? AND type = ?").c_str());
   st.bind(1, e.system_id).bind(2, e.time_s).bind(3, std::string(event_type_name(e.data)));
   while (st.step()) {
-    if (read_event(st).data == e.data) return true;
+    const Event stored = read_event(st);
+    if (stored.data == e.data) return stored.id;
   }
-  return false;
+  return std::nullopt;
 }
 
 void clear_all(sqlite3* db) {

@@ -29,6 +29,52 @@ bool database_empty(sqlite3* db) {
   return st.integer(0) == 0;
 }
 
+JournalMerge::JournalMerge(sqlite3* db) : db_(db), next_id_(read_next_id(db)) { scratch_.systems = all_systems(db); }
+
+void JournalMerge::systems(const std::vector<System>& from_file, std::int64_t& systems_added) {
+  for (const System& s : from_file) {
+    auto same = std::find_if(scratch_.systems.begin(), scratch_.systems.end(),
+                             [&](const System& t) { return lower_ascii(t.name) == lower_ascii(s.name); });
+    if (same != scratch_.systems.end()) {
+      system_of_[s.id] = same->id;
+      continue;
+    }
+    System copy = s;
+    copy.id = next_id_++;
+    insert_system(db_, copy);
+    scratch_.systems.push_back(copy);
+    system_of_[s.id] = copy.id;
+    ++systems_added;
+  }
+}
+
+Result<bool> JournalMerge::event(Event e, Statement& insert, Event* stored) {
+  const EventId file_id = e.id;
+  e.system_id = system_of_.at(e.system_id);  // the reader checked it names a system of the file
+  if (auto* dose = std::get_if<Dose>(&e.data); dose && dose->schedule_id) {
+    if (auto it = schedule_of_.find(*dose->schedule_id); it != schedule_of_.end()) dose->schedule_id = it->second;
+  }
+  const bool schedule = std::holds_alternative<DoseSchedule>(e.data);
+  if (auto same = equal_event_id(db_, e)) {
+    if (schedule) {
+      schedule_of_[file_id] = *same;
+      e.id = *same;
+      scratch_.events.push_back(std::move(e));
+    }
+    return false;
+  }
+  e.id = next_id_;
+  if (Status ok = validate_event(scratch_, e); !ok) return ok.error();
+  insert_event(insert, e);
+  ++next_id_;
+  if (schedule) {
+    schedule_of_[file_id] = e.id;
+    scratch_.events.push_back(e);
+  }
+  if (stored) *stored = std::move(e);
+  return true;
+}
+
 }  // namespace detail
 
 namespace {
@@ -94,31 +140,22 @@ Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& j
       else tx.commit();
       return report;
     }
-    // Merge: systems by name, new ids for everything added.
-    Journal scratch;
-    scratch.systems = all_systems(db_);
-    std::int64_t next_id = read_next_id(db_);
-    std::map<SystemId, SystemId> system_of;
-    for (const System& s : journal.systems) {
-      auto same = std::find_if(scratch.systems.begin(), scratch.systems.end(),
-                               [&](const System& t) { return lower_ascii(t.name) == lower_ascii(s.name); });
-      if (same != scratch.systems.end()) {
-        system_of[s.id] = same->id;
-        continue;
-      }
-      System copy = s;
-      copy.id = next_id++;
-      insert_system(db_, copy);
-      scratch.systems.push_back(copy);
-      system_of[s.id] = copy.id;
-      ++report.systems_added;
-    }
+    // Merge: systems by name, new ids for everything added (store_internal.hpp).
+    JournalMerge merge(db_);
+    merge.systems(journal.systems, report.systems_added);
     Statement insert(db_, event_insert_sql());
     for (const Event& e : journal.events) {
-      Event copy = e;
-      copy.system_id = system_of.at(e.system_id);
-      add_checked(db_, insert, scratch, std::move(copy), next_id, report, fmt::format("event {}", e.id), dry);
+      Event stored;
+      auto added = merge.event(e, insert, dry ? &stored : nullptr);
+      if (!added) throw StoreFailure(fmt::format("event {}: {}", e.id, added.error().message));
+      if (!*added) {
+        ++report.duplicates_skipped;
+        continue;
+      }
+      ++report.events_added;
+      if (dry) report.would_add.push_back(std::move(stored));
     }
+    const std::int64_t next_id = merge.next_id();
     write_next_id(db_, next_id);
     if (!dry) tx.commit();
     return report;

@@ -8,6 +8,7 @@
 // ids in the order of the file (a written journal's order: time, then id), duplicates skipped.
 #include <algorithm>
 #include <map>
+#include <optional>
 
 #include <fmt/format.h>
 
@@ -37,23 +38,10 @@ class StreamSink {
       description_ = head.description;
       return Ok{};
     }
-    // Merge, as import_journal: systems by name, new ids for everything added.
-    scratch_.systems = all_systems(db_);
-    next_id_ = read_next_id(db_);
-    for (const System& s : head.systems) {
-      auto same = std::find_if(scratch_.systems.begin(), scratch_.systems.end(),
-                               [&](const System& t) { return lower_ascii(t.name) == lower_ascii(s.name); });
-      if (same != scratch_.systems.end()) {
-        system_of_[s.id] = same->id;
-        continue;
-      }
-      System copy = s;
-      copy.id = next_id_++;
-      insert_system(db_, copy);
-      scratch_.systems.push_back(copy);
-      system_of_[s.id] = copy.id;
-      ++report_.systems_added;
-    }
+    // Merge, as import_journal: systems by name, new ids for everything added, a marked
+    // dose pointed at its schedule's new id (store_internal.hpp).
+    merge_.emplace(db_);
+    merge_->systems(head.systems, report_.systems_added);
     return Ok{};
   }
 
@@ -61,18 +49,12 @@ class StreamSink {
     if (keep_ids_) {
       insert_event(insert_, e);
     } else {
-      e.system_id = system_of_.at(e.system_id);  // the reader checked it names a system of the file
-      if (has_equal_event(db_, e)) {
+      auto added = merge_->event(std::move(e), insert_, &e);
+      if (!added) return Error{path + "." + added.error().field, path + ": " + added.error().message};
+      if (!*added) {
         ++report_.duplicates_skipped;
         return Ok{};
       }
-      e.id = next_id_;
-      // As import_journal: checked against the stored systems (a marked dose's schedule is not
-      // carried over, so such a dose is refused here as it is there).
-      Status ok = validate_event(scratch_, e);
-      if (!ok) return Error{path + "." + ok.error().field, path + ": " + ok.error().message};
-      insert_event(insert_, e);
-      ++next_id_;
     }
     ++report_.events_added;
     if (list_added_) report_.would_add.push_back(std::move(e));
@@ -80,7 +62,7 @@ class StreamSink {
   }
 
   void finish() {
-    write_next_id(db_, next_id_);
+    write_next_id(db_, merge_ ? merge_->next_id() : next_id_);
     if (keep_ids_ && !description_.empty()) write_meta(db_, "description", description_);
   }
 
@@ -90,10 +72,9 @@ class StreamSink {
   bool keep_ids_;
   bool list_added_;
   Statement insert_;
-  std::int64_t next_id_ = 1;
+  std::int64_t next_id_ = 1;  // keeping ids: the file's
   std::string description_;
-  Journal scratch_;  // the stored systems (merge)
-  std::map<SystemId, SystemId> system_of_;  // the file's system id -> the stored one (merge)
+  std::optional<JournalMerge> merge_;  // merging into a store that holds records
 };
 
 // Reads the stream into the sink; an exception from SQLite names the record it was writing.

@@ -1,7 +1,11 @@
 // Shared between the store's source files (private to core/store).
 #pragma once
 
+#include <cstdint>
+#include <map>
+#include <optional>
 #include <string>
+#include <vector>
 
 #include "sqlite_util.hpp"
 #include "tidewright/journal/journal.hpp"
@@ -41,8 +45,32 @@ std::string lower_ascii(std::string s);
 // Whether the database holds no system and no event.
 bool database_empty(sqlite3* db);
 
-// Whether an event equal in content (same system, time and payload) is already stored.
-bool has_equal_event(sqlite3* db, const journal::Event& e);
+// The id of a stored event equal in content (same system, time and payload), if any.
+std::optional<journal::EventId> equal_event_id(sqlite3* db, const journal::Event& e);
+inline bool has_equal_event(sqlite3* db, const journal::Event& e) { return equal_event_id(db, e).has_value(); }
+
+// A journal merged into a store that already holds records (import into a non-empty store):
+// its systems matched by name or added, its events given new ids. A dose marked against a
+// schedule names the schedule by the file's id: the schedule's new id (or the id of the equal
+// schedule already stored) is remembered, so the dose points at it, and the schedules merged
+// so far stay in `scratch` for the core's validation.
+class JournalMerge {
+ public:
+  explicit JournalMerge(sqlite3* db);
+  // The file's systems: matched by name (no case) or added with a new id.
+  void systems(const std::vector<journal::System>& from_file, std::int64_t& systems_added);
+  // One event of the file (its id and system are the file's). Returns false for a duplicate of
+  // a stored event (skipped), true when stored; an Error from the core's validation.
+  Result<bool> event(journal::Event e, Statement& insert, journal::Event* stored = nullptr);
+  std::int64_t next_id() const { return next_id_; }
+
+ private:
+  sqlite3* db_;
+  journal::Journal scratch_;  // the stored systems and the schedules merged so far
+  std::map<journal::SystemId, journal::SystemId> system_of_;
+  std::map<journal::EventId, journal::EventId> schedule_of_;  // the file's id -> stored id
+  std::int64_t next_id_;
+};
 
 // Deletes every system, event and the description; resets next_id (inside a transaction).
 void clear_all(sqlite3* db);

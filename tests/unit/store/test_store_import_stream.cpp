@@ -150,6 +150,58 @@ TEST_CASE("store stream: merged into a non-empty database: systems by name, new 
   CHECK(json_of(*new_way) == before);
 }
 
+TEST_CASE("store import: a dose marked against a schedule merges into a non-empty store, both ways") {
+  // The demo journal (invented data) has schedules and a dose marked against one: merged into
+  // a store that already holds another system, the schedule gets a new id and the dose points
+  // at it; merged again, everything is a duplicate (the marked dose matched through the stored
+  // schedule's id). Before 2026-12-04 the marked dose kept the file's schedule id and the
+  // merge was refused.
+  const std::string text = demo_text();
+  auto j = parse_journal(text);
+  REQUIRE(j.ok());
+  std::size_t marked = 0;
+  for (const Event& e : j->events) {
+    if (const auto* d = std::get_if<Dose>(&e.data); d && d->schedule_id) ++marked;
+  }
+  REQUIRE(marked >= 1);
+  Journal first;
+  System other;
+  other.name = "Frag rack";
+  other.volume_l = 120;
+  REQUIRE(add_system(first, other).ok());
+  REQUIRE(add_event(first, Event{0, 1, 1700000000, "", Note{"already here"}}).ok());
+  TempDir dir;
+  auto whole = open_store(dir.file("whole.db"));
+  auto streamed = open_store(dir.file("streamed.db"));
+  REQUIRE(whole->import_journal(first).ok());
+  stream_import(*streamed, serialize_journal(first));
+  auto a = whole->import_journal(*j);
+  REQUIRE_MESSAGE(a.ok(), (a.ok() ? "" : a.error().message));
+  const auto b = stream_import(*streamed, text);
+  same_report(*a, b);
+  CHECK(a->events_added == static_cast<std::int64_t>(j->events.size()));
+  CHECK(json_of(*streamed) == json_of(*whole));
+  CHECK(whole->check_integrity().ok);
+  // Every marked dose points at a stored schedule of its own system.
+  std::size_t pointed = 0;
+  REQUIRE(whole->for_each_event({}, [&](const Event& e) {
+    if (const auto* d = std::get_if<Dose>(&e.data); d && d->schedule_id) {
+      auto s = whole->event(*d->schedule_id);
+      CHECK((s && std::holds_alternative<DoseSchedule>(s->data) && s->system_id == e.system_id));
+      ++pointed;
+    }
+    return true;
+  }).ok());
+  CHECK(pointed == marked);
+  // Again: nothing new.
+  auto again = whole->import_journal(*j);
+  REQUIRE_MESSAGE(again.ok(), (again.ok() ? "" : again.error().message));
+  CHECK(again->events_added == 0);
+  CHECK(again->duplicates_skipped == static_cast<std::int64_t>(j->events.size()));
+  const auto again_streamed = stream_import(*streamed, text);
+  same_report(*again, again_streamed);
+}
+
 TEST_CASE("store stream: a restore from a JSON stream equals the restore from the parsed journal") {
   TempDir dir;
   const std::string text = demo_text();
