@@ -16,30 +16,15 @@
 #include "tidewright/journal/journal_file.hpp"
 #include "tidewright/store/journal_location.hpp"
 #include "tidewright/store/journal_store.hpp"
+#include "store_test_support.hpp"
 
 using namespace tw::journal;
 using tw::store::JournalStore;
 
 namespace {
 
-// A directory removed at the end of the test case.
-struct TempDir {
-  std::filesystem::path path;
-  TempDir() {
-    static int n = 0;
-    path = std::filesystem::temp_directory_path() / fmt::format("tw_store_test_{}_{}", ::getpid(), ++n);
-    std::filesystem::remove_all(path);
-    std::filesystem::create_directories(path);
-  }
-  ~TempDir() { std::filesystem::remove_all(path); }
-  std::string file(const std::string& name) const { return (path / name).string(); }
-};
-
-std::unique_ptr<JournalStore> open_store(const std::string& path) {
-  auto s = JournalStore::open(path);
-  REQUIRE_MESSAGE(s.ok(), (s.ok() ? "" : s.error().message));
-  return std::move(s).value();
-}
+using tw::store::testing::open_store;
+using tw::store::testing::TempDir;
 
 // Invented data: two systems, every event type, n daily alkalinity tests on the first.
 Journal sample_journal(int daily_tests) {

@@ -16,6 +16,7 @@
 #include "tidewright/journal/journal_file.hpp"
 #include "tidewright/store/journal_location.hpp"
 #include "tidewright/store/journal_store.hpp"
+#include "store_test_support.hpp"
 
 using namespace tw::journal;
 using tw::Ok;
@@ -25,23 +26,8 @@ using tw::store::JournalStore;
 
 namespace {
 
-struct TempDir {
-  std::filesystem::path path;
-  TempDir() {
-    static int n = 0;
-    path = std::filesystem::temp_directory_path() / fmt::format("tw_stream_test_{}_{}", ::getpid(), ++n);
-    std::filesystem::remove_all(path);
-    std::filesystem::create_directories(path);
-  }
-  ~TempDir() { std::filesystem::remove_all(path); }
-  std::string file(const std::string& name) const { return (path / name).string(); }
-};
-
-std::unique_ptr<JournalStore> open_store(const std::string& path) {
-  auto s = JournalStore::open(path);
-  REQUIRE_MESSAGE(s.ok(), (s.ok() ? "" : s.error().message));
-  return std::move(s).value();
-}
+using tw::store::testing::open_store;
+using tw::store::testing::TempDir;
 
 std::string demo_text() {
   std::string here = __FILE__;
