@@ -90,7 +90,7 @@ std::optional<StoreUpdate> poll_store_update();
 
 // ---------------------------------------------------------------- 3. Files
 // Offers text to the user as a file (a download in the browser; a file in the data
-// directory natively). *where says where it went.
+// directory natively). *where says where it went, as a place ("saved to " + *where).
 bool export_file(const std::string& file_name, const std::string& mime, const std::string& text,
                  std::string* where);
 // Asks the user for a file to import (file picker in the browser; a path natively, asked

@@ -265,7 +265,7 @@ std::optional<StoreUpdate> poll_store_update() {
 bool export_file(const std::string& file_name, const std::string& mime, const std::string& text,
                  std::string* where) {
   js_download(file_name.c_str(), mime.c_str(), text.c_str());
-  if (where) *where = "downloaded as " + file_name;
+  if (where) *where = "your downloads, as " + file_name;  // read after "saved to"
   return true;
 }
 void request_import() { js_pick_file(); }

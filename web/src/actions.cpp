@@ -492,7 +492,7 @@ void export_all(AppState& app) {
   const std::string name = "tidewright-" + tw::datetime::format_date_utc(platform::now_unix_seconds()) + ".json";
   std::string where;
   if (platform::export_file(name, "application/json", store_to_text(app), &where)) {
-    notify(app, "Exported: " + where);
+    notify(app, "Exported to " + where);
   } else {
     notify(app, "Export failed: " + where, true);
   }
