@@ -358,11 +358,6 @@ std::vector<Compound> build_catalog() {
   return rows;
 }
 
-std::string lower(std::string s) {
-  for (auto& ch : s) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
-  return s;
-}
-
 }  // namespace
 
 double Compound::molar_mass_g_mol() const { return additives::molar_mass_g_mol(formula_unit); }
@@ -386,12 +381,19 @@ const Compound& compound(CompoundId id) {
 }
 
 Result<const Compound*> find_compound(const std::string& key_or_formula) {
-  const std::string wanted = lower(key_or_formula);
-  std::string keys;
+  // Called for every logged dose an estimate reads (tens of thousands on a farm's journal):
+  // compared without copies, and the list of keys is built only for the error.
+  const auto same = [&](const std::string& name) {
+    return name.size() == key_or_formula.size() &&
+           std::equal(name.begin(), name.end(), key_or_formula.begin(), [](char a, char b) {
+             return std::tolower(static_cast<unsigned char>(a)) == std::tolower(static_cast<unsigned char>(b));
+           });
+  };
   for (const auto& c : catalog()) {
-    if (lower(c.key) == wanted || lower(c.formula) == wanted) return &c;
-    keys += (keys.empty() ? "" : ", ") + c.key;
+    if (same(c.key) || same(c.formula)) return &c;
   }
+  std::string keys;
+  for (const auto& c : catalog()) keys += (keys.empty() ? "" : ", ") + c.key;
   return Error{"compound", fmt::format("compound \"{}\" is unknown; accepted: {}", key_or_formula, keys)};
 }
 
