@@ -110,7 +110,7 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
   const char* const sure[] = {"As read", "90% sure", "95% sure", "99% sure"};
   ui::choice(app, "hatchery.confidence", "Dose so the target is met and the ceiling kept", &f.confidence_index, sure, 4);
   if (f.confidence_index > 0) {
-    const auto& ap = *tw::carbonate::default_precision(tw::Parameter::Alkalinity);
+    const auto ap = *tw::carbonate::default_precision(tw::Parameter::Alkalinity);
     const double dkh_per_unit = tw::units::alkalinity_from_umol_kg(
         tw::units::alkalinity_to_umol_kg(1.0, u.alkalinity, jn::kNominalDensityKgPerL), tw::units::AlkalinityUnit::DKH,
         jn::kNominalDensityKgPerL);
@@ -121,7 +121,7 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
                          &shown)) {
       f.alkalinity_precision_dkh = shown * dkh_per_unit;
     }
-    const auto& pp = *tw::carbonate::default_precision(tw::Parameter::PH);
+    const auto pp = *tw::carbonate::default_precision(tw::Parameter::PH);
     ui::number_field(app, "hatchery.ph_precision", {"Intake pH reading precision (1 sd)", "pH", 3, 0.005, 0.0, pp.maximum},
                      &f.ph_precision);
   }
