@@ -113,7 +113,7 @@ import json
 # Orr et al. (2018, Mar. Chem. 207:84) Table 4, the worked example: TA 2300, DIC 2000 umol/kg,
 # S 35, 18 C, PO4 2, Si 60, u(TA) = u(DIC) = 2 umol/kg (PO4 and Si exact here, worth < 0.1 %);
 # their CO2SYS-MATLAB row gives u(pCO2) 3.8033 uatm, u(CO3) 1.8540 umol/kg, u(Omega_ar) 0.02862,
-# and with the constants' uncertainties 9.733, 3.261, 0.1558 (as transcribed by PyCO2SYS,
+# and with the constants' uncertainties 9.733, 3.261, 0.1558 (as copied by PyCO2SYS,
 # manuscript/data/orr2018-table4.csv). chem --json must carry the core's numbers.
 orr = ["chem", "--alkalinity", "2300", "--alkalinity-unit", "umol/kg", "--dic", "2000", "--temperature", "18",
        "--phosphate", "2", "--silicate", "60", "--alkalinity-precision", "2", "--dic-precision", "2",

@@ -239,7 +239,7 @@ std::vector<Compound> build_catalog() {
     //  - Bates, Bower & Smith 1956 (J. Res. NBS 56:305, doi:10.6028/jres.056.040): 0.0203 mol/kg
     //    = 0.1504 g/100 g at 25 C (published, primary, the lowest).
     //  The CRC Handbook's "aqueous solubility of inorganic compounds at various temperatures"
-    //  (98th ed., 2017, as transcribed in a public data set) has no Ca(OH)2 row. So the set
+    //  (98th ed., 2017, as copied into a public data set) has no Ca(OH)2 row. So the set
     //  below is the highest of the values found at every temperature; only Bates is primary.
     c.solubility = {{0, 0.189}, {10, 0.182}, {20, 0.173}, {30, 0.160}, {40, 0.141}};
     c.solubility_source =

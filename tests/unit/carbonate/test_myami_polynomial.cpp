@@ -13,7 +13,7 @@ TEST_CASE("MyAMI polynomial: the coefficient file evaluated as its package docum
   // Check values computed here, and independently in Python, from PalaeoCarb/MyAMI
   // pymyami/parameters/seawater_correction_approximated.json with the design matrix of
   // pymyami approximate.py ([T, ln T, S, Mg, Ca], PolynomialFeatures(degree=3)); they pin the
-  // transcription of all 7 x 56 coefficients. 35 C, S 36.2, Mg 0.03, Ca 0.012 mol/kg:
+  // copy of all 7 x 56 coefficients. 35 C, S 36.2, Mg 0.03, Ca 0.012 mol/kg:
   const cb::MyamiFactors f = cb::myami_factors_polynomial_hain2015(35, 36.2, 0.03, 0.012);
   CHECK(f.k0 == doctest::Approx(1.0056579908797232).epsilon(1e-9));
   CHECK(f.k1 == doctest::Approx(1.0005380339960859).epsilon(1e-9));

@@ -1,7 +1,7 @@
 // Uncertainty propagation (uncertainty.hpp) against
 //  1. Orr et al. (2018, Mar. Chem. 207:84) Table 2 (derivatives) and Table 4 (the worked
 //     example: standard uncertainties without and with the constants' uncertainties), as
-//     transcribed by PyCO2SYS (manuscript/data/orr2018-table2.csv and -table4.csv, read
+//     copied by PyCO2SYS (manuscript/data/orr2018-table2.csv and -table4.csv, read
 //     2026-12-04 via the search tool; the CO2SYS-MATLAB row is used);
 //  2. a seeded Monte Carlo run of the core's own solver (TW_UNCERTAINTY_DRAWS draws per state,
 //     default 20000; the 100,000 is `TW_UNCERTAINTY_DRAWS=100000`);

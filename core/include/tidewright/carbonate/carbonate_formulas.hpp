@@ -190,7 +190,7 @@ double nbs_activity_coefficient_takahashi1982(double salinity, double temperatur
 // This is the model's published polynomial approximation, as released with its Python port:
 // repository PalaeoCarb/MyAMI (package pymyami), file
 // pymyami/parameters/seawater_correction_approximated.json (commit 0432d78; 56 coefficients
-// per constant, transcribed unchanged into myami_polynomial.cpp), evaluated as that package's
+// per constant, copied unchanged into myami_polynomial.cpp), evaluated as that package's
 // approximate.py documents: the design matrix of [T, ln T, S, Mg, Ca] (T in K) expanded to a
 // full third-order polynomial with cross terms (scikit-learn PolynomialFeatures(degree=3):
 // 1, the five terms, then every product of two and of three of them in lexicographic order).
@@ -206,7 +206,7 @@ double nbs_activity_coefficient_takahashi1982(double salinity, double temperatur
 //    both: the file holds the same numbers under "KspC" and "KspA"). No factor for KF, the
 //    phosphate or the silicate constants.
 // Check values (computed here with this evaluation from the file's coefficients, and
-// independently in Python from the JSON; tests pin the transcription to 1e-9), at 35 C,
+// independently in Python from the JSON; tests pin the copy to 1e-9), at 35 C,
 // S 36.2, Mg 0.03, Ca 0.012 mol/kg:
 //   K0 1.0056580, K1 1.0005380, K2 0.7921878, KB 0.9365078, KW 0.7521933, KS 0.9538632,
 //   Ksp 0.7850957. The pymyami README prints an example at the same point (K0 1.00565919,
