@@ -272,7 +272,25 @@ const char* date_order_name(datetime::DateOrder d) {
                                                   : "";
 }
 
-void print_import_report(const LogOptions& o, const Store::ImportReport& rep, const Journal& names) {
+// A dry run's events, printed as the import finds them (memory stays flat whatever the file's
+// size): "would add ..." lines, or with --json the opening of the object and its "events" array,
+// which print_import_report closes. A system the import would add is not stored, so its events
+// show "?" for its name.
+Store::WouldAdd dry_run_listing(const LogOptions& o, const Journal& names) {
+  if (!o.json) {
+    return [&names](const Event& e) { std::cout << "would add " << describe_event_line(names, e) << "\n"; };
+  }
+  std::cout << "{\n  \"events\": [";
+  return [first = true](const Event& e) mutable {
+    std::string text = event_to_json(e).dump(2);
+    std::string indented;
+    for (char c : text) indented += c == '\n' ? std::string("\n    ") : std::string(1, c);
+    std::cout << (first ? "\n    " : ",\n    ") << indented;
+    first = false;
+  };
+}
+
+void print_import_report(const LogOptions& o, const Store::ImportReport& rep) {
   if (o.json) {
     nlohmann::json rej = nlohmann::json::array();
     for (const auto& r : rep.rejected) rej.push_back({{"line", r.line}, {"field", r.field}, {"reason", r.reason}});
@@ -286,16 +304,15 @@ void print_import_report(const LogOptions& o, const Store::ImportReport& rep, co
                        {"unused_columns", unused},
                        {"rejected", rej},
                        {"dry_run", o.dry_run}};
-    if (o.dry_run) {
-      nlohmann::json events = nlohmann::json::array();
-      for (const Event& e : rep.would_add) events.push_back(event_to_json(e));
-      out["events"] = events;
+    if (!o.dry_run) {
+      std::cout << out.dump(2) << "\n";
+      return;
     }
-    std::cout << out.dump(2) << "\n";
+    // The dry run's "events" were written first, as the import went (DryRunListing): the rest
+    // of the object follows them.
+    const std::string rest = out.dump(2);
+    std::cout << "\n  ],\n" << rest.substr(rest.find('\n') + 1) << "\n";
     return;
-  }
-  if (o.dry_run) {
-    for (const Event& e : rep.would_add) std::cout << "would add " << describe_event_line(names, e) << "\n";
   }
   std::cout << fmt::format("{} {} events{}, skipped {} duplicates and {} blank rows, rejected {} rows{}\n",
                            o.dry_run ? "dry run: would import" : "imported", rep.events_added,
@@ -344,12 +361,14 @@ void run_import(const LogOptions& o) {
   const bool json_file = o.file != "-" && looks_like_json(o.file);
   auto st = open_for(o, json_file ? Access::WriteOrCreate : Access::Write);
   const auto mode = o.dry_run ? Store::ImportMode::DryRun : Store::ImportMode::Commit;
+  const Journal names = systems_only(*st);
+  const Store::WouldAdd listing = o.dry_run ? dry_run_listing(o, names) : Store::WouldAdd{};
   Store::ImportReport rep;
   if (json_file) {
     // Read one event at a time (the whole file never in memory), in one transaction.
     std::ifstream file;
     open_input_file(file, o.file);
-    auto r = st->import_journal_stream(file, mode);
+    auto r = st->import_journal_stream(file, mode, listing);
     if (!r) {  // the file's own errors name the file; the database's name the database
       const std::string where = r.error().field != "journal" ? o.file + ": " : "";
       throw CommandError(where + r.error().message + " (nothing was imported)");
@@ -371,14 +390,14 @@ void run_import(const LogOptions& o) {
       file.open(o.file, std::ios::binary);
       if (!file) throw CommandError("cannot read " + o.file + ": " + std::strerror(errno));
     }
-    auto r = st->import_csv(o.file == "-" ? std::cin : file, opt, mode);
+    auto r = st->import_csv(o.file == "-" ? std::cin : file, opt, mode, listing);
     if (!r) {
       const std::string where = r.error().field == "column mapping" ? "--map: " : o.file + ": ";
       throw CommandError(where + r.error().message + " (nothing was imported)");
     }
     rep = std::move(r).value();
   }
-  print_import_report(o, rep, systems_only(*st));
+  print_import_report(o, rep);
   if (!rep.rejected.empty()) {
     std::cout << std::flush;
     std::exit(3);  // documented: some rows were rejected (the accepted ones are saved)

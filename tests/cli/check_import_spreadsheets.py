@@ -115,6 +115,16 @@ rc, out, err = run("log", "--journal", j, "import", "--dry-run", fixture("semico
 check("dry run exit 0", rc == 0, err)
 check("dry run lists the events", out.count("would add") == 9 and "nothing was stored" in out, out)
 check("dry run stores nothing", events(j) == before)
+# With --json the events are written as the import finds them (memory flat for a farm's file):
+# one object still, with every event and the same counts.
+rc, out, err = run("log", "--journal", j, "import", "--dry-run", "--json", fixture("semicolon_decimal_comma.csv"))
+try:
+    dry = json.loads(out)
+except ValueError as e:
+    dry = {"error": str(e)}
+check("dry run --json: one JSON object with every event", rc == 0 and len(dry.get("events", [])) == 9
+      and dry.get("would_add") == 9 and dry.get("dry_run") is True, out)
+check("dry run --json stores nothing", events(j) == before)
 
 # Delimiter given by an option; a wrong one leaves no time column and says which separator.
 j = fresh()

@@ -82,7 +82,8 @@ namespace {
 // Adds one validated event (id assigned here) unless an equal one is stored; the scratch
 // journal holds the stored systems for the core's validation.
 void add_checked(sqlite3* db, Statement& insert, const Journal& scratch, Event e, std::int64_t& next_id,
-                 JournalStore::ImportReport& report, const std::string& where, bool report_events) {
+                 JournalStore::ImportReport& report, const std::string& where, bool dry,
+                 const JournalStore::WouldAdd& would_add) {
   if (has_equal_event(db, e)) {
     ++report.duplicates_skipped;
     return;
@@ -93,7 +94,7 @@ void add_checked(sqlite3* db, Statement& insert, const Journal& scratch, Event e
   insert_event(insert, e);
   ++next_id;
   ++report.events_added;
-  if (report_events) report.would_add.push_back(std::move(e));
+  if (dry) note_would_add(report, would_add, std::move(e));
 }
 
 // Splits CSV text read line by line into records (a quoted cell may hold line breaks).
@@ -127,7 +128,8 @@ class CsvRecordReader {
 
 }  // namespace
 
-Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& journal, ImportMode mode) {
+Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& journal, ImportMode mode,
+                                                               const WouldAdd& would_add) {
   const bool dry = mode == ImportMode::DryRun;
   return guarded(path_, [&]() -> Result<ImportReport> {
     WriteTransaction tx(db_);
@@ -136,7 +138,9 @@ Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& j
       insert_journal_keeping_ids(db_, journal);
       report.systems_added = static_cast<std::int64_t>(journal.systems.size());
       report.events_added = static_cast<std::int64_t>(journal.events.size());
-      if (dry) report.would_add = journal.events;
+      if (dry) {
+        for (const Event& e : journal.events) note_would_add(report, would_add, e);
+      }
       else tx.commit();
       return report;
     }
@@ -153,7 +157,7 @@ Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& j
         continue;
       }
       ++report.events_added;
-      if (dry) report.would_add.push_back(std::move(stored));
+      if (dry) note_would_add(report, would_add, std::move(stored));
     }
     const std::int64_t next_id = merge.next_id();
     write_next_id(db_, next_id);
@@ -163,7 +167,7 @@ Result<JournalStore::ImportReport> JournalStore::import_journal(const Journal& j
 }
 
 Result<JournalStore::ImportReport> JournalStore::import_csv(std::istream& in, const CsvImportOptions& given,
-                                                           ImportMode mode) {
+                                                           ImportMode mode, const WouldAdd& would_add) {
   const bool dry = mode == ImportMode::DryRun;
   CsvImportOptions options = given;
   return guarded(path_, [&]() -> Result<ImportReport> {
@@ -217,7 +221,7 @@ Result<JournalStore::ImportReport> JournalStore::import_csv(std::istream& in, co
       for (const Event& e : scratch.events) by_id[e.id] = &e;
       for (EventId id : chunk->added) {
         Event e = *by_id.at(id);
-        add_checked(db_, insert, scratch, std::move(e), next_id, report, "CSV row", dry);
+        add_checked(db_, insert, scratch, std::move(e), next_id, report, "CSV row", dry, would_add);
       }
     }
     write_next_id(db_, next_id);

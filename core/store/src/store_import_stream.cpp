@@ -27,8 +27,10 @@ namespace {
 // Writes what the reader hands on, inside the caller's transaction.
 class StreamSink {
  public:
-  StreamSink(sqlite3* db, JournalStore::ImportReport& report, bool keep_ids, bool list_added)
-      : db_(db), report_(report), keep_ids_(keep_ids), list_added_(list_added), insert_(db, event_insert_sql()) {}
+  StreamSink(sqlite3* db, JournalStore::ImportReport& report, bool keep_ids, bool list_added,
+             JournalStore::WouldAdd would_add = {})
+      : db_(db), report_(report), keep_ids_(keep_ids), list_added_(list_added), would_add_(std::move(would_add)),
+        insert_(db, event_insert_sql()) {}
 
   Status head(const JournalHead& head) {
     if (keep_ids_) {
@@ -57,7 +59,7 @@ class StreamSink {
       }
     }
     ++report_.events_added;
-    if (list_added_) report_.would_add.push_back(std::move(e));
+    if (list_added_) note_would_add(report_, would_add_, std::move(e));
     return Ok{};
   }
 
@@ -71,6 +73,7 @@ class StreamSink {
   JournalStore::ImportReport& report_;
   bool keep_ids_;
   bool list_added_;
+  JournalStore::WouldAdd would_add_;
   Statement insert_;
   std::int64_t next_id_ = 1;  // keeping ids: the file's
   std::string description_;
@@ -100,12 +103,13 @@ Status stream_into(const std::string& store_path, std::istream& in, StreamSink& 
 
 }  // namespace
 
-Result<JournalStore::ImportReport> JournalStore::import_journal_stream(std::istream& in, ImportMode mode) {
+Result<JournalStore::ImportReport> JournalStore::import_journal_stream(std::istream& in, ImportMode mode,
+                                                                      const WouldAdd& would_add) {
   const bool dry = mode == ImportMode::DryRun;
   return guarded(path_, [&]() -> Result<ImportReport> {
     WriteTransaction tx(db_);
     ImportReport report;
-    StreamSink sink(db_, report, database_empty(db_), dry);
+    StreamSink sink(db_, report, database_empty(db_), dry, would_add);
     if (Status st = stream_into(path_, in, sink); !st) return st.error();  // rolled back
     if (!dry) tx.commit();
     return report;

@@ -77,4 +77,10 @@ void clear_all(sqlite3* db);
 // Inserts a validated journal with its ids kept (inside a transaction).
 void insert_journal_keeping_ids(sqlite3* db, const journal::Journal& j);
 
+// A dry run's event that would be stored: to the caller's listener, or kept in the report.
+inline void note_would_add(JournalStore::ImportReport& report, const JournalStore::WouldAdd& listener, journal::Event e) {
+  if (listener) listener(e);
+  else report.would_add.push_back(std::move(e));
+}
+
 }  // namespace tw::store::detail

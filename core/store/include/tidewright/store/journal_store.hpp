@@ -111,8 +111,12 @@ class JournalStore {
     std::int64_t blank_rows_skipped = 0;                // CSV rows with no text in any cell
     char delimiter = ',';                               // the CSV separator used
     datetime::DateOrder date_order = datetime::DateOrder::Unspecified;  // as CsvImportReport
-    std::vector<journal::Event> would_add;  // a dry run: the events that would be stored
+    std::vector<journal::Event> would_add;  // a dry run with no WouldAdd: the events that would be stored
   };
+  // A dry run given one of these hands it each event it would store, in order, instead of
+  // keeping them in would_add: a farm's import is hundreds of thousands of events, and a
+  // listing of them is printed as it goes, with memory flat.
+  using WouldAdd = std::function<void(const journal::Event&)>;
   // Commit stores the import; DryRun does all the same work and checks in the transaction,
   // fills would_add, and rolls back: nothing is stored.
   enum class ImportMode { Commit, DryRun };
@@ -120,18 +124,20 @@ class JournalStore {
   // empty database the ids, description and next id are kept exactly (opening an old JSON
   // journal); otherwise systems are matched by name (new ones added) and events get new ids,
   // skipping duplicates. All or nothing.
-  Result<ImportReport> import_journal(const journal::Journal& journal, ImportMode mode = ImportMode::Commit);
+  Result<ImportReport> import_journal(const journal::Journal& journal, ImportMode mode = ImportMode::Commit,
+                                      const WouldAdd& would_add = {});
   // The same from a JSON journal file read one event at a time (journal_stream.hpp), so that
   // memory stays flat whatever its size: the stream must be seekable (a file; it is read twice)
   // or it is read whole. The reader's errors are returned as they are (field and text name
   // the record: "events[12].value: ..."), and nothing is stored. New ids are given in the
   // file's order (import_journal: time order; the same for a file Tidewright wrote).
-  Result<ImportReport> import_journal_stream(std::istream& in, ImportMode mode = ImportMode::Commit);
+  Result<ImportReport> import_journal_stream(std::istream& in, ImportMode mode = ImportMode::Commit,
+                                             const WouldAdd& would_add = {});
   // CSV (journal_csv.hpp) read from the stream in chunks of rows, in one transaction: the
   // accepted rows are committed together, every refused row is reported with its line. A
   // file-level error (no header, unclosed quote...) adds nothing.
   Result<ImportReport> import_csv(std::istream& in, const journal::CsvImportOptions& options,
-                                  ImportMode mode = ImportMode::Commit);
+                                  ImportMode mode = ImportMode::Commit, const WouldAdd& would_add = {});
 
   // ---------------------------------------------------------------- 5. Exports
   // The journal in the documented JSON format (docs/journal-format.md), written event by
