@@ -127,7 +127,11 @@ std::size_t write_farm_csv(const std::string& path, int systems, int days) {
   out << "time,system,type,parameter,value,unit,ph_scale,additive,amount,amount_unit,volume,volume_unit\n";
   std::mt19937_64 rng(17);
   std::normal_distribution<double> n01(0.0, 1.0);
-  const std::int64_t start = 1483228800;  // 2017-01-01T00:00:00Z
+  // The farm's last day is yesterday (UTC): a fixed start date would, as years pass, put rows
+  // in the future, which the journal refuses.
+  const std::int64_t today = std::chrono::duration_cast<std::chrono::seconds>(
+                                 std::chrono::system_clock::now().time_since_epoch()).count() / 86400 * 86400;
+  const std::int64_t start = today - 86400LL * days;
   std::size_t rows = 0;
   for (int d = 0; d < days; ++d) {
     for (int s = 0; s < systems; ++s) {
