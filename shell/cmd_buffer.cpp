@@ -13,6 +13,7 @@
 #include "chem_uncertainty.hpp"
 #include "commands.hpp"
 #include "option_rules.hpp"
+#include "salt_mix_options.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
 #include "tidewright/hatchery/hatchery_line.hpp"
@@ -32,6 +33,7 @@ struct BufferOptions {
   std::string k1k2 = "lueker2000";
   std::optional<double> calcium;  // measured; absent = from salinity
   std::string calcium_unit = "mg/L";
+  SaltMixOptions salt_mix;  // made-up water: measured boron and magnesium, the Mg/Ca correction
   std::optional<double> alkalinity, dic, ph, pco2;
   std::string alkalinity_unit = "umol/kg", ph_scale;
   // target and limits
@@ -59,7 +61,8 @@ struct BufferOptions {
 };
 
 // Core field names -> command-line options, so that every one-line reason names the option.
-const FieldOptions kFieldOptions = {
+const FieldOptions kFieldOptions = [] {
+  FieldOptions fields = {
     {"target_alkalinity_rise", "--target-alkalinity-rise"}, {"target_omega", "--target-omega"},
     {"target_ph", "--target-ph"}, {"ph_ceiling", "--ph-ceiling"},
     {"mixing_omega_ceiling", "--omega-ceiling"}, {"degas_fraction", "--degas-fraction"},
@@ -72,6 +75,9 @@ const FieldOptions kFieldOptions = {
     {"mix_fraction", "--mix-fraction"}, {"mix_salinity", "--mix-salinity"},
     {"mix_temperature_c", "--mix-temperature"}, {"mix_alkalinity", "--mix-alkalinity"}, {"mix_dic", "--mix-dic"},
     {"mix_calcium", "--mix-calcium"}, {"tank_temperature_c", "--tank-temperature"}};
+  add_salt_mix_fields(fields);
+  return fields;
+}();
 
 [[noreturn]] void fail(const Error& e) { shell::fail(e, kFieldOptions); }
 
@@ -115,6 +121,10 @@ hy::Water water_of(const BufferOptions& o, bool table) {
     if (!unit) throw CommandError("--calcium-unit: " + unit.error().message);
     w.calcium_umol_kg = units::ion_to_umol_kg(*o.calcium, *unit, units::Ion::Calcium, density);
   }
+  const SaltMixValues mix = salt_mix_values(o.salt_mix, density);
+  w.total_boron_umol_kg = mix.total_boron_umol_kg;
+  w.magnesium_umol_kg = mix.magnesium_umol_kg;
+  w.mg_ca_correction = mix.mg_ca_correction;
   auto m = readings(o, density);
   const bool ph_used = o.ph.has_value() || (table && o.vary == "ph");
   if (ph_used && o.ph_scale.empty()) throw CommandError("--ph-scale is required with a pH reading (total, sws, free or nbs)");
@@ -180,11 +190,7 @@ void add_confidence(const BufferOptions& o, const hy::Water& w, hy::Settings& s)
   if (!o.confidence_percent && !o.precision.wanted()) return;
   const double percent = o.confidence_percent.value_or(95.0);
   if (auto r = ranges::check("--confidence", percent, ranges::kDoseConfidencePercent); !r) throw CommandError(r.error().message);
-  cb::Conditions c;
-  c.salinity = w.salinity;
-  c.temperature_c = w.temperature_c;
-  c.k1k2 = w.k1k2;
-  c.calcium_umol_kg = w.calcium_umol_kg;
+  const cb::Conditions c = hy::conditions_of(w);
   ChemUnits un;
   un.density_kg_l = seawater::density_kg_per_l(w.salinity, w.temperature_c);
   if (auto a = units::alkalinity_unit_from_string(o.alkalinity_unit)) un.alkalinity = *a;
@@ -235,9 +241,19 @@ json treatment_json(const hy::Treatment& t) {
           {"calcium_source", t.calcium_source}};
 }
 
+// Where boron came from and the Mg/Ca correction, in the JSON of every buffer command.
+json salt_mix_json(const hy::Water& w) {
+  const cb::BoronSource boron = cb::boron_source(hy::conditions_of(w));
+  return {{"total_boron_umol_kg", boron.boron_umol_kg}, {"boron_source", boron.note},
+          {"magnesium_umol_kg", w.magnesium_umol_kg ? json(*w.magnesium_umol_kg) : json(nullptr)},
+          {"mg_ca_correction", w.mg_ca_correction}};
+}
+
 std::string header_text(const hy::Water& w, const hy::Settings& s) {
-  return fmt::format("  water: salinity {:g}, {:g} C; K1 K2 {}\n  target: {} {}; additive {}; pH ceiling {:.2f} ({} scale)\n",
-                     w.salinity, w.temperature_c, cb::to_string(w.k1k2),
+  // A salt mix's own boron is said where it is used; without it the header is as before.
+  const cb::BoronSource boron = cb::boron_source(hy::conditions_of(w));
+  return fmt::format("  water: salinity {:g}, {:g} C; K1 K2 {}{}\n  target: {} {}; additive {}; pH ceiling {:.2f} ({} scale)\n",
+                     w.salinity, w.temperature_c, cb::to_string(w.k1k2), boron.measured ? "; " + boron.note : "",
                      s.target.kind == hy::TargetKind::OmegaAragonite ? fmt::format("Omega ar {:.2f}", s.target.value)
                      : s.target.kind == hy::TargetKind::PH
                          ? fmt::format("pH {:.2f} ({} scale)", s.target.value, cb::to_string(s.target.ph_scale))
@@ -305,7 +321,7 @@ void run_flow(const BufferOptions& o) {
     }
     json out = {{"mode", "flow"}, {"flow_l_per_min", flow}, {"additive", hy::to_string(s.buffer)},
                 {"treatment", treatment_json(p.treatment)}, {"lines", lines},
-                {"confidence", confidence_json(p.treatment)},
+                {"salt_mix", salt_mix_json(w)}, {"confidence", confidence_json(p.treatment)},
                 {"warnings", p.warnings}, {"cautions", p.cautions}};
     std::cout << out.dump(2) << "\n";
     return;
@@ -345,7 +361,7 @@ void run_batch(const BufferOptions& o) {
     }
     json out = {{"mode", "batch"}, {"volume_l", p.volume_l}, {"water_mass_kg", p.water_mass_kg},
                 {"additive", hy::to_string(s.buffer)}, {"treatment", treatment_json(p.treatment)},
-                {"additions", adds}, {"confidence", confidence_json(p.treatment)},
+                {"additions", adds}, {"salt_mix", salt_mix_json(w)}, {"confidence", confidence_json(p.treatment)},
                 {"warnings", p.warnings}, {"cautions", p.cautions}};
     std::cout << out.dump(2) << "\n";
     return;
@@ -398,6 +414,7 @@ void run_table(const BufferOptions& o) {
     json stocks = json::object();
     for (size_t k = 0; k < t.columns.size(); ++k) stocks[hy::formula_of(t.columns[k])] = t.stock_g_per_l[k];
     out = json{{"mode", "table"}, {"flow_l_per_min", flow}, {"vary", o.vary}, {"stock_g_per_l", stocks},
+               {"salt_mix", salt_mix_json(w)},
                {"rows", rows}, {"calcium_source", t.calcium_source}, {"cautions", t.cautions}}.dump(2) + "\n";
   } else {
     out = o.csv ? hy::pump_table_csv(t) : hy::pump_table_text(t);
@@ -431,6 +448,7 @@ void run_line(const BufferOptions& o) {
                         {"calcium_umol_kg", p.calcium_umol_kg}, {"state", state_json(p.state)}});
     }
     json out = {{"mode", "line"}, {"points", points}, {"treatment", treatment_json(line.treatment)},
+                {"salt_mix", salt_mix_json(line.conditioned)},
                 {"notes", line.notes}, {"warnings", line.treatment.warnings}};
     std::cout << out.dump(2) << "\n";
     return;
@@ -463,6 +481,7 @@ void add_common(CLI::App* c, BufferOptions& o) {
   c->add_option("--k1k2", o.k1k2, "Carbonic acid constants: lueker2000, or millero2010 for brackish water (suggested below S 19)")->default_str("lueker2000");
   c->add_option("--calcium", o.calcium, "Measured calcium, in --calcium-unit (default: from salinity by the seawater ratio, which under-reads estuarine intakes)");
   c->add_option("--calcium-unit", o.calcium_unit, "mg/L, mmol/kg or umol/kg")->default_str("mg/L");
+  add_salt_mix_options(*c, o.salt_mix);
   c->add_option("--alkalinity", o.alkalinity, "Total alkalinity, in --alkalinity-unit");
   c->add_option("--alkalinity-unit", o.alkalinity_unit, "umol/kg, meq/L, dKH or mg/L CaCO3")->default_str("umol/kg");
   c->add_option("--ph", o.ph, "pH on the scale given by --ph-scale");

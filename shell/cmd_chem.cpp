@@ -14,6 +14,7 @@
 #include "commands.hpp"
 #include "path_options.hpp"
 #include "option_rules.hpp"
+#include "salt_mix_options.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "batch_stream.hpp"
 #include "file_io.hpp"
@@ -33,9 +34,7 @@ struct ChemOptions {
   std::optional<double> temperature_c, temperature_f;
   std::optional<double> calcium;
   std::string calcium_unit = "mg/L";
-  std::optional<double> total_boron, magnesium;  // salt mixes (issue 18)
-  std::string total_boron_unit = "umol/kg", magnesium_unit = "mg/L";
-  bool mg_ca_correction = false;
+  SaltMixOptions salt_mix;  // measured boron and magnesium, the Mg/Ca correction (issue 18)
   double phosphate = 0, silicate = 0;
   std::string k1k2 = "lueker2000", boron = "uppstrom1974";
   std::string fluoride = "perezfraga1987", conventions = "co2sys";
@@ -53,16 +52,15 @@ TemperatureGiven temperature_given(const ChemOptions& o) {
 
 // The core's field names -> chem's options (errors name what the user typed).
 FieldOptions chem_fields(const ChemOptions& o) {
-  return {{"salinity", o.specific_gravity ? "--specific-gravity" : "--salinity"},
-          {"specific_gravity", "--specific-gravity"},
-          {"temperature_c", o.temperature_f ? "--temperature-f" : "--temperature"},
-          {"calcium_umol_kg", "--calcium"},
-          {"total_boron_umol_kg", "--total-boron"},
-          {"magnesium_umol_kg", "--magnesium"},
-          {"mg_ca_correction", "--mg-ca-correction"},
-          {"phosphate_umol_kg", "--phosphate"},
-          {"silicate_umol_kg", "--silicate"},
-          {"air_co2_ppm", "--air-co2"}};
+  FieldOptions fields{{"salinity", o.specific_gravity ? "--specific-gravity" : "--salinity"},
+                      {"specific_gravity", "--specific-gravity"},
+                      {"temperature_c", o.temperature_f ? "--temperature-f" : "--temperature"},
+                      {"calcium_umol_kg", "--calcium"},
+                      {"phosphate_umol_kg", "--phosphate"},
+                      {"silicate_umol_kg", "--silicate"},
+                      {"air_co2_ppm", "--air-co2"}};
+  add_salt_mix_fields(fields);
+  return fields;
 }
 
 double salinity(const ChemOptions& o) {
@@ -178,8 +176,8 @@ void run_batch(const ChemOptions& o) {
                        "u_ph, u_salinity, ...; empty: the kit default), with --uncertainty");
   options.with_uncertainty = o.precision.wanted();
   options.constants_uncertainty = o.precision.constants;
-  options.mg_ca_correction = o.mg_ca_correction;
-  if (o.total_boron || o.magnesium)
+  options.mg_ca_correction = o.salt_mix.mg_ca_correction;
+  if (o.salt_mix.total_boron || o.salt_mix.magnesium)
     throw CommandError("with --batch, give measured boron and magnesium per row in the total_boron_umol_kg and "
                        "magnesium_umol_kg columns");
   if (o.threads < 0 || o.threads > 64) throw CommandError(fmt::format("--threads {} is outside the accepted range 0 to 64", o.threads));
@@ -195,18 +193,6 @@ void run_batch(const ChemOptions& o) {
 
 // A measured ion in the user's unit to umol/kg, refused in that unit (so the message speaks it)
 // outside the range table's span (kept per kg there; per litre it converts with the density).
-double measured_ion(const char* option, double value, const std::string& unit_text, units::Ion ion,
-                    const ranges::Range& range_umol_kg, double density) {
-  const auto unit = or_fail(units::concentration_unit_from_string(unit_text));
-  const double hi = units::ion_from_umol_kg(range_umol_kg.hi, unit, ion, density);
-  const double shown_hi = unit == units::ConcentrationUnit::UmolPerKg ? hi : std::floor(hi * 10.0) / 10.0;
-  if (auto r = check_range(option, value, units::ion_from_umol_kg(range_umol_kg.lo, unit, ion, density), shown_hi,
-                           units::to_string(unit));
-      !r)
-    throw CommandError(r.error().message);
-  return units::ion_to_umol_kg(value, unit, ion, density);
-}
-
 void run_single(const ChemOptions& o) {
   carbonate::Conditions conditions;
   const FieldOptions fields = chem_fields(o);
@@ -228,13 +214,7 @@ void run_single(const ChemOptions& o) {
     auto unit = or_fail(units::concentration_unit_from_string(o.calcium_unit));
     conditions.calcium_umol_kg = units::ion_to_umol_kg(*o.calcium, unit, units::Ion::Calcium, density);
   }
-  if (o.total_boron)
-    conditions.total_boron_umol_kg = measured_ion("--total-boron", *o.total_boron, o.total_boron_unit,
-                                                  units::Ion::Boron, ranges::kTotalBoronUmolKg, density);
-  if (o.magnesium)
-    conditions.magnesium_umol_kg = measured_ion("--magnesium", *o.magnesium, o.magnesium_unit,
-                                                units::Ion::Magnesium, ranges::kMagnesiumUmolKg, density);
-  conditions.mg_ca_correction = o.mg_ca_correction;
+  apply_salt_mix(o.salt_mix, density, conditions);
   auto constants = or_fail(carbonate::compute_constants(conditions), fields);
 
   std::vector<carbonate::Measurement> given;
@@ -325,14 +305,7 @@ void register_chem(CLI::App& app) {
   cmd->add_option("--temperature-f", o->temperature_f, "Temperature [F]");
   cmd->add_option("--calcium", o->calcium, "Measured calcium, in --calcium-unit (default: from salinity)");
   cmd->add_option("--calcium-unit", o->calcium_unit, "mg/L, mmol/kg or umol/kg")->default_str("mg/L");
-  cmd->add_option("--total-boron", o->total_boron,
-                  "Measured total boron, in --total-boron-unit, in place of the salinity-scaled value (salt mixes)");
-  cmd->add_option("--total-boron-unit", o->total_boron_unit, "umol/kg, mmol/kg or mg/L (of boron, B)")->default_str("umol/kg");
-  cmd->add_option("--magnesium", o->magnesium, "Measured magnesium, in --magnesium-unit (read by --mg-ca-correction)");
-  cmd->add_option("--magnesium-unit", o->magnesium_unit, "mg/L, mmol/kg or umol/kg")->default_str("mg/L");
-  cmd->add_flag("--mg-ca-correction", o->mg_ca_correction,
-                "Correct the constants for the water's Mg and Ca (Hain et al. 2015, MyAMI polynomial; needs "
-                "--magnesium and --calcium, salinity 30-40, 0-40 C). Off by default");
+  add_salt_mix_options(*cmd, o->salt_mix);
   cmd->add_option("--phosphate", o->phosphate, "Total phosphate [umol/kg]")->default_str("0");
   cmd->add_option("--silicate", o->silicate, "Total silicate [umol/kg]")->default_str("0");
   cmd->add_option("--k1k2", o->k1k2, "Carbonic acid constants: lueker2000 or millero2010")->default_str("lueker2000");

@@ -2,7 +2,8 @@
 """Salt mixes (issue 18): `chem --total-boron` replaces the salinity-scaled boron and says so
 (refused out of range, naming the option and the range in the unit typed); `--mg-ca-correction`
 is off by default, needs --magnesium and --calcium, and says when it is applied and where it
-holds; the batch reads total_boron_umol_kg and magnesium_umol_kg columns.
+holds; the batch reads total_boron_umol_kg and magnesium_umol_kg columns. `buffer` takes the
+same options: a hatchery or reef salt mix is dosed from its own boron and Mg/Ca.
 Usage: check_salt_mix.py <tidewright>. Prints "N passed, M failed"."""
 import csv
 import io
@@ -71,5 +72,35 @@ check("batch correction: runs", rc == 0 and len(corrected) == 2, err)
 check("batch correction: said in warnings", corrected and "Mg/Ca correction" in corrected[0]["warnings"], corrected)
 rc, out, err = run_text("chem", "--batch", "-", "--total-boron", "500", input=table.encode())
 check("batch with --total-boron: refused, pointing at the column", rc != 0 and "total_boron_umol_kg" in err, err)
+
+# buffer: the same options, the same rules.
+flow = ["buffer", "flow", "--salinity", "35", "--temperature", "25", "--alkalinity", "2300", "--ph", "7.9",
+        "--ph-scale", "total", "--target-omega", "3", "--flow", "10", "--json"]
+plain_flow = json.loads(run_text(*flow)[1])
+dose = lambda j: j["treatment"]["added_alkalinity_umol_kg"]
+check("buffer: boron from salinity by default", "from salinity" in plain_flow["salt_mix"]["boron_source"], plain_flow["salt_mix"])
+same_flow = json.loads(run_text(*flow, "--total-boron", str(plain_flow["salt_mix"]["total_boron_umol_kg"]))[1])
+check("buffer: boron = scaled, same dose", abs(dose(same_flow) - dose(plain_flow)) < 1e-6, (dose(same_flow), dose(plain_flow)))
+doubled_flow = json.loads(run_text(*flow, "--total-boron", "831.4")[1])
+check("buffer: doubled boron, a different dose, said", abs(dose(doubled_flow) - dose(plain_flow)) > 1
+      and "as measured" in doubled_flow["salt_mix"]["boron_source"], (dose(doubled_flow), dose(plain_flow)))
+rc, out, err = run_text(*flow[:-1], "--total-boron", "831.4")
+check("buffer text: the header says the boron used", rc == 0 and "total boron as measured, 831 umol/kg" in out, out)
+mgca = json.loads(run_text(*flow, "--calcium", "470", "--magnesium", "1150", "--mg-ca-correction")[1])
+check("buffer: Mg/Ca correction applied and said", mgca["salt_mix"]["mg_ca_correction"] is True
+      and any("Mg/Ca correction" in w for w in mgca["treatment"].get("warnings", []) + mgca["warnings"]), mgca["warnings"])
+rc, out, err = run_text(*flow, "--magnesium", "1150", "--mg-ca-correction")
+check("buffer: correction without calcium refused, naming the option", rc != 0 and "--mg-ca-correction" in err and out == "", err)
+rc, out, err = run_text(*flow, "--total-boron", "50", "--total-boron-unit", "mg/L")
+check("buffer: boron out of range refused in mg/L", rc != 0 and "--total-boron 50 mg/L" in err and "22.1 mg/L" in err, err)
+line = ["buffer", "line", "--salinity", "30", "--temperature", "15", "--k1k2", "millero2010", "--alkalinity", "2100",
+        "--dic", "1950", "--target-omega", "1.5", "--mix-fraction", "0.25", "--mix-salinity", "0",
+        "--mix-temperature", "15", "--mix-alkalinity", "800", "--mix-dic", "850", "--total-boron", "712.74", "--json"]
+rc, out, err = run_text(*line)
+mixed = json.loads(out) if rc == 0 else {}
+# Mass fraction of fresh water 0.245753 (tests/unit/hatchery/test_hatchery_line.cpp, by hand):
+# 712.74 x (1 - 0.245753) = 537.58 umol/kg at the tanks.
+check("buffer line: measured boron mixed by mass", rc == 0 and abs(mixed["salt_mix"]["total_boron_umol_kg"] - 537.58) < 0.05
+      and any("measured boron mixed by mass" in n for n in mixed["notes"]), (err, mixed.get("salt_mix")))
 
 finish()

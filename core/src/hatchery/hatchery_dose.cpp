@@ -22,6 +22,18 @@ namespace tw::hatchery {
 
 namespace cb = tw::carbonate;
 
+cb::Conditions conditions_of(const Water& water) {
+  cb::Conditions c;
+  c.salinity = water.salinity;
+  c.temperature_c = water.temperature_c;
+  c.k1k2 = water.k1k2;
+  c.calcium_umol_kg = water.calcium_umol_kg;
+  c.total_boron_umol_kg = water.total_boron_umol_kg;
+  c.magnesium_umol_kg = water.magnesium_umol_kg;
+  c.mg_ca_correction = water.mg_ca_correction;
+  return c;
+}
+
 // ================================================================ 1. Names
 const char* to_string(Buffer buffer) {
   switch (buffer) {
@@ -142,12 +154,7 @@ Status validate_settings(const Settings& s) {
 
 // ================================================================ 3. Treatment chain
 Result<Line> solve_intake(const Water& water) {
-  cb::Conditions c;
-  c.salinity = water.salinity;
-  c.temperature_c = water.temperature_c;
-  c.k1k2 = water.k1k2;
-  c.calcium_umol_kg = water.calcium_umol_kg;
-  auto k = cb::compute_constants(c);
+  auto k = cb::compute_constants(conditions_of(water));
   if (!k) return k.error();
   auto s = cb::solve(*k, water.measurements);
   if (!s) return s.error();

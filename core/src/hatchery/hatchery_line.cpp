@@ -7,6 +7,7 @@
 #include <fmt/format.h>
 
 #include "hatchery_internal.hpp"
+#include "tidewright/carbonate/carbonate_formulas.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "tidewright/seawater/seawater.hpp"
 
@@ -38,6 +39,32 @@ Result<MixResult> mix_waters(double salinity, double temperature_c, double alkal
   out.calcium_umol_kg = by_mass(calcium_umol_kg, o.calcium_umol_kg);
   return out;
 }
+
+namespace {
+
+// A salt mix's measured boron and magnesium mix by mass, as calcium does; the added water is
+// taken to carry seawater's at its own salinity (none when fresh): Uppstrom (1974) boron and
+// the reference composition's magnesium (Millero et al. 2008), each scaled by salinity.
+void mix_salt_mix_ions(const Water& intake, const OtherWater& other, double mass_fraction_other, Water& mixed,
+                       std::vector<std::string>& notes) {
+  const double x = mass_fraction_other;
+  if (intake.total_boron_umol_kg) {
+    const double added = cb::total_boron_uppstrom1974(other.salinity) * 1e6;
+    mixed.total_boron_umol_kg = (1.0 - x) * *intake.total_boron_umol_kg + x * added;
+    notes.push_back(fmt::format("measured boron mixed by mass: {:.0f} umol/kg, taking {:.0f} umol/kg (seawater's "
+                                "ratio at salinity {:g}) in the added water",
+                                *mixed.total_boron_umol_kg, added, other.salinity));
+  }
+  if (intake.magnesium_umol_kg) {
+    const double added = cb::kMyamiModernMagnesiumMolKg * 1e6 * other.salinity / 35.0;
+    mixed.magnesium_umol_kg = (1.0 - x) * *intake.magnesium_umol_kg + x * added;
+    notes.push_back(fmt::format("measured magnesium mixed by mass: {:.0f} umol/kg, taking {:.0f} umol/kg (seawater's "
+                                "ratio at salinity {:g}) in the added water",
+                                *mixed.magnesium_umol_kg, added, other.salinity));
+  }
+}
+
+}  // namespace
 
 Result<HatcheryLine> plan_line(const Water& intake, const Conditioning& c, const Settings& s) {
   auto line = detail::solve_intake(intake);
@@ -73,6 +100,7 @@ Result<HatcheryLine> plan_line(const Water& intake, const Conditioning& c, const
   w.salinity = m.salinity;
   w.temperature_c = m.temperature_c;
   w.calcium_umol_kg = m.calcium_umol_kg;  // carried from the intake (measured or scaled), then mixed
+  if (c.mix) mix_salt_mix_ions(intake, *c.mix, m.mass_fraction_other, w, out.notes);
   w.measurements = {{cb::Quantity::Alkalinity, m.alkalinity_umol_kg}, {cb::Quantity::DIC, m.dic_umol_kg},
                     cb::PhScale::Total};
   auto cond = detail::solve_intake(w);

@@ -79,13 +79,7 @@ Result<PumpTable> build_pump_table(const Water& intake, double flow_l_per_min,
     t.stock_g_per_l.push_back(*g);
   }
   t.cautions = cautions_for(t.columns);
-  {
-    cb::Conditions c;
-    c.salinity = intake.salinity;
-    c.temperature_c = intake.temperature_c;
-    c.calcium_umol_kg = intake.calcium_umol_kg;
-    t.calcium_source = cb::calcium_source(c).note;
-  }
+  t.calcium_source = cb::calcium_source(conditions_of(intake)).note;
   const int n = static_cast<int>(n_real);
   for (int i = 0; i < n; ++i) {
     TableRow row;

@@ -95,3 +95,68 @@ TEST_CASE("hatchery: the line refuses bad mixing input naming the field and the 
   REQUIRE_FALSE(hot.ok());
   CHECK(hot.error().field == "tank_temperature_c");
 }
+
+TEST_CASE("hatchery: a salt mix's measured boron and magnesium mix by mass along the line") {
+  // The same 1 : 3 mix of fresh water into the S 30 intake as above (mass fraction of fresh
+  // water x = 0.245753, hand-worked there).
+  OtherWater fresh;
+  fresh.volume_fraction = 0.25;
+  fresh.salinity = 0;
+  fresh.temperature_c = 15;
+  fresh.alkalinity_umol_kg = 800;
+  fresh.dic_umol_kg = 850;
+  Conditioning c;
+  c.mix = fresh;
+  Settings s;
+  s.target = {TargetKind::OmegaAragonite, 1.5, cb::PhScale::Total};
+  Water in = intake_s30();
+  in.k1k2 = cb::K1K2Option::Millero2010;
+
+  SUBCASE("boron at seawater's ratio, entered as measured: the same line as boron scaled from salinity") {
+    // Uppstrom (1974) at S 30: 0.000232 / 10.811 x 30 / 1.80655 mol/kg = 356.37 umol/kg; mixed
+    // with boron-free water it stays at seawater's ratio (356.37 (1 - x) = Uppstrom at 22.6274).
+    auto scaled = plan_line(in, c, s);
+    REQUIRE(scaled.ok());
+    Water measured = in;
+    measured.total_boron_umol_kg = 0.000232 / 10.811 * 30 / 1.80655 * 1e6;
+    auto line = plan_line(measured, c, s);
+    REQUIRE(line.ok());
+    REQUIRE(line->conditioned.total_boron_umol_kg.has_value());
+    CHECK(*line->conditioned.total_boron_umol_kg == doctest::Approx(356.37 * (1 - 0.245753)).epsilon(1e-4));
+    for (std::size_t i = 0; i < line->points.size(); ++i) {
+      CHECK(line->points[i].state.ph_total == doctest::Approx(scaled->points[i].state.ph_total).epsilon(1e-9));
+      CHECK(line->points[i].state.omega_aragonite == doctest::Approx(scaled->points[i].state.omega_aragonite).epsilon(1e-9));
+    }
+    CHECK(line->treatment.dose.alkalinity_umol_kg() == doctest::Approx(scaled->treatment.dose.alkalinity_umol_kg()).epsilon(1e-9));
+  }
+  SUBCASE("twice seawater's boron: more borate, a different dose, and the note says how it was mixed") {
+    Water measured = in;
+    measured.total_boron_umol_kg = 2 * 356.37;
+    auto line = plan_line(measured, c, s);
+    auto scaled = plan_line(in, c, s);
+    REQUIRE(line.ok());
+    REQUIRE(scaled.ok());
+    CHECK(*line->conditioned.total_boron_umol_kg == doctest::Approx(2 * 356.37 * (1 - 0.245753)).epsilon(1e-4));
+    CHECK(line->treatment.dose.alkalinity_umol_kg() != doctest::Approx(scaled->treatment.dose.alkalinity_umol_kg()));
+    bool said = false;
+    for (const std::string& n : line->notes) said |= n.find("measured boron mixed by mass") != std::string::npos;
+    CHECK(said);
+  }
+  SUBCASE("magnesium mixed with sea water of another salinity takes seawater's ratio there") {
+    // 25 % by volume of S 35 water at 15 C: Mg 52817.1 x 35 / 35 umol/kg (Millero et al. 2008).
+    OtherWater sea = fresh;
+    sea.salinity = 35;
+    sea.alkalinity_umol_kg = 2300;
+    sea.dic_umol_kg = 2050;
+    Conditioning cs;
+    cs.mix = sea;
+    Water measured = in;
+    measured.magnesium_umol_kg = 40000;
+    auto line = plan_line(measured, cs, s);
+    REQUIRE(line.ok());
+    // Mass fraction of the S 35 water: 1.025973 / (1.025973 + 3 x 1.022122) (EOS-80 densities
+    // at 15 C, 0 dbar, UNESCO 1983) = 0.250706.
+    const double x = 0.250706;
+    CHECK(*line->conditioned.magnesium_umol_kg == doctest::Approx((1 - x) * 40000 + x * 52817.1).epsilon(1e-6));
+  }
+}

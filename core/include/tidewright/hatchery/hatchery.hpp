@@ -71,10 +71,19 @@ struct Water {
   // which under-reads estuarine and river-influenced intakes (Treatment::calcium_source says
   // which was used and, at low salinity, by how much it can be off).
   std::optional<double> calcium_umol_kg;
+  // A made-up water's own composition (salt mixes), as carbonate::Conditions takes it: measured
+  // total boron in place of the salinity-scaled value, and the Mg/Ca correction of the
+  // constants (Hain et al. 2015), which reads measured magnesium and calcium. Off by default.
+  std::optional<double> total_boron_umol_kg;
+  std::optional<double> magnesium_umol_kg;
+  bool mg_ca_correction = false;
   carbonate::InputPair measurements{{carbonate::Quantity::Alkalinity, 2300.0},
                                     {carbonate::Quantity::PH, 8.0},
                                     carbonate::PhScale::Total};
 };
+
+// The carbonate conditions of a water: the one place where a Water becomes Conditions.
+carbonate::Conditions conditions_of(const Water& water);
 
 enum class TargetKind { OmegaAragonite, PH, AlkalinityRise };
 const char* to_string(TargetKind kind);  // "omega_aragonite", "ph", "alkalinity_rise"
