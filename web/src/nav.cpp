@@ -1,5 +1,6 @@
 #include "nav.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include "actions.hpp"
@@ -94,11 +95,21 @@ void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
   }
   const int n = static_cast<int>(sizeof kTabs / sizeof kTabs[0]);
   const ImVec2 cell = vertical ? ImVec2(size.x, 4.2f * e) : ImVec2(size.x / static_cast<float>(n), size.y);
-  // All labels use the small font when any of them would not fit its cell (seven tabs on a phone).
+  // All labels use the small font when any of them would not fit its cell (eight tabs on a
+  // phone), and are drawn smaller still when even that does not fit (the largest text sizes):
+  // labels never run into each other.
   bool small_labels = false;
   ImGui::PushFont(app.ui.fonts.bold);
   for (int i = 0; i < n; ++i) small_labels |= ImGui::CalcTextSize(kTabs[i].label).x > cell.x - 0.3f * e;
   ImGui::PopFont();
+  float label_scale = 1.0f;
+  if (small_labels) {
+    ImGui::PushFont(app.ui.fonts.small);
+    float widest = 0;
+    for (int i = 0; i < n; ++i) widest = std::max(widest, ImGui::CalcTextSize(kTabs[i].label).x);
+    ImGui::PopFont();
+    if (widest > cell.x - 0.2f * e) label_scale = (cell.x - 0.2f * e) / widest;
+  }
   for (int i = 0; i < n; ++i) {
     const Tab& t = kTabs[i];
     const ImVec2 p = vertical ? ImVec2(pos.x, pos.y + e + cell.y * static_cast<float>(i))
@@ -121,8 +132,9 @@ void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
     t.icon(d, icon_c, 0.5f * e, col);
     // Labels shrink to the small font when seven tabs share a phone's width.
     ImGui::PushFont(small_labels ? app.ui.fonts.small : selected ? app.ui.fonts.bold : app.ui.fonts.body);
-    const ImVec2 ts = ImGui::CalcTextSize(t.label);
-    d->AddText(ImVec2(p.x + (cell.x - ts.x) / 2, p.y + cell.y * 0.62f), col, t.label);
+    const float font_size = ImGui::GetFontSize() * label_scale;
+    const float text_w = ImGui::CalcTextSize(t.label).x * label_scale;
+    d->AddText(ImGui::GetFont(), font_size, ImVec2(p.x + (cell.x - text_w) / 2, p.y + cell.y * 0.62f), col, t.label);
     ImGui::PopFont();
   }
 }

@@ -170,12 +170,20 @@ void colored_wrapped(ImU32 color, const char* text) {
 
 void label_value(AppState& app, const char* label, const std::string& value, ImU32 value_color) {
   const float avail = ImGui::GetContentRegionAvail().x;
+  const float x0 = ImGui::GetCursorPosX();
+  const float label_w = ImGui::CalcTextSize(label).x;
   ImGui::PushStyleColor(ImGuiCol_Text, theme::kTextDim);
   ImGui::TextUnformatted(label);
   ImGui::PopStyleColor();
   ImGui::PushFont(app.ui.fonts.bold);
   const float w = ImGui::CalcTextSize(value.c_str()).x;
-  ImGui::SameLine(std::max(ImGui::GetCursorPosX(), ImGui::GetCursorPosX() + avail - w - 1));
+  // The value goes right-aligned on the label's line, or on the next line when the two would
+  // meet (large text sizes, long labels).
+  if (label_w + 0.6f * em(app) + w <= avail) {
+    ImGui::SameLine(x0 + avail - w - 1);
+  } else {
+    ImGui::SetCursorPosX(std::max(x0, x0 + avail - w - 1));
+  }
   if (value_color) ImGui::PushStyleColor(ImGuiCol_Text, value_color);
   ImGui::TextUnformatted(value.c_str());
   if (value_color) ImGui::PopStyleColor();
