@@ -2,7 +2,7 @@
 // Network first (a new build is picked up as soon as the network is there), cache as fallback.
 // The cache name carries a hash of the build (filled in by web/cmake/service_worker.cmake).
 const CACHE = 'tidewright-@TW_BUILD_HASH@';
-const FILES = ['./', 'index.html', 'tidewright.js', 'tidewright.wasm', 'manifest.webmanifest',
+const FILES = ['./', 'index.html', 'page.js', 'page.css', 'tidewright.js', 'tidewright.wasm', 'manifest.webmanifest',
   'icons/icon-192.png', 'icons/icon-512.png', 'icons/icon-maskable-512.png'];
 
 self.addEventListener('install', (event) => {
