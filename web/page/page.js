@@ -20,10 +20,16 @@ window.addEventListener('error', function (e) {
 if (typeof WebAssembly !== 'object') {
   document.getElementById('loading-msg').textContent = 'This browser has no WebAssembly; Tidewright cannot run here.';
 }
+// The service worker is registered once the first frame is drawn, not at 'load': 'load' comes
+// as soon as tidewright.js has arrived, while the wasm is still downloading, and the worker's
+// install fetches every file of the app, which on a slow phone link would share the line with
+// the wasm the page is waiting for.
 if ('serviceWorker' in navigator) {
-  window.addEventListener('load', function () {
+  var registerWhenDrawn = function () {
+    if (window.__twFirstFrameMs === undefined) { setTimeout(registerWhenDrawn, 250); return; }
     navigator.serviceWorker.register('sw.js').catch(function (e) { console.log('service worker not registered: ' + e); });
-  });
+  };
+  window.addEventListener('load', registerWhenDrawn);
 }
 // The entry form never submits anywhere: Enter confirms through web_pre.js's handlers.
 document.getElementById('entry').addEventListener('submit', function (e) { e.preventDefault(); });
