@@ -2,11 +2,13 @@
 // Network first (a new build is picked up as soon as the network is there), cache as fallback.
 // The cache name carries a hash of the build (filled in by web/cmake/service_worker.cmake).
 const CACHE = 'tidewright-@TW_BUILD_HASH@';
-const FILES = ['./', 'index.html', 'tidewright.js', 'tidewright.wasm', 'manifest.webmanifest',
+const FILES = ['./', 'index.html', 'page.js', 'page.css', 'tidewright.js', 'tidewright.wasm', 'manifest.webmanifest',
   'icons/icon-192.png', 'icons/icon-512.png', 'icons/icon-maskable-512.png'];
 
 self.addEventListener('install', (event) => {
-  event.waitUntil(caches.open(CACHE).then((c) => c.addAll(FILES.map((f) => new Request(f, { cache: 'reload' }))))
+  // 'no-cache': each file is revalidated with the server, so the copy kept is this build's, and
+  // one the page has just downloaded comes from the HTTP cache instead of over the line again.
+  event.waitUntil(caches.open(CACHE).then((c) => c.addAll(FILES.map((f) => new Request(f, { cache: 'no-cache' }))))
     .then(() => self.skipWaiting()));
 });
 
