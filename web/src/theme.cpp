@@ -11,7 +11,8 @@ ImVec4 color(ImU32 c) { return ImGui::ColorConvertU32ToFloat4(c); }
 namespace {
 
 // Latin-1, Greek (Omega, mu), dashes and quotes, super- and subscripts (CO₂, CO₃²⁻), minus,
-// approximately, less/greater-or-equal.
+// approximately, less/greater-or-equal. The embedded font holds only these characters: after
+// changing a list, run assets/fonts/make_font_subset.py (it reads the lists from here).
 const ImWchar kGlyphRanges[] = {0x0020, 0x00FF, 0x0394, 0x0394, 0x03A9, 0x03A9, 0x03B2, 0x03B2, 0x03BC, 0x03BC,
                                 0x2009, 0x2026, 0x2070, 0x208E, 0x2212, 0x2212, 0x2248, 0x2248,
                                 0x2264, 0x2265, 0};
