@@ -159,6 +159,44 @@ test('text size setting and desktop Tab key navigation', async () => {
   await context.close();
 });
 
+// Issue 15: at the largest text size ("Huge") nothing runs into anything else: the tab labels
+// stay inside their own tabs, and no two named widgets on any screen overlap (a widget and its
+// own parts, "a" and "a.0", may nest). Widget rectangles come from the test interface.
+test('text size Huge: no tab labels or widgets overlap, on every screen (phone and desktop)', async () => {
+  for (const size of [PHONE, DESKTOP]) {
+    const { context, page } = await open(size);
+    await tap(page, 'tab.settings');
+    await tap(page, 'settings.text_size.3');
+    await frames(page, 4);
+    const tabs = ['systems', 'log', 'water', 'demand', 'plan', 'hatchery', 'mixes', 'settings'];
+    for (const screen of tabs) {
+      await tap(page, 'tab.' + screen);
+      await frames(page, 4);
+      const all = JSON.parse(await page.evaluate(() => Module.ccall('tw_test_widgets', 'string', [], [])));
+      for (const t of tabs) {
+        const label = all[`tab.${t}.label`], cell = all[`tab.${t}`];
+        check(label && cell, `tab ${t}: label or cell not recorded`);
+        check(label.x >= cell.x - 0.5 && label.x + label.w <= cell.x + cell.w + 0.5,
+          `${size.viewport.width}px ${screen}: the label of tab ${t} (${label.x.toFixed(1)}+${label.w.toFixed(1)}) leaves its cell (${cell.x.toFixed(1)}+${cell.w.toFixed(1)})`);
+      }
+      const shown = Object.entries(all).filter(([n, r]) => r.visible && r.w > 0 && r.h > 0 && !n.endsWith('.label'));
+      const nested = (a, b) => a.startsWith(b + '.') || b.startsWith(a + '.');
+      // The header and the tab bar stay put; content scrolled under them is clipped there.
+      const chrome = (n) => n.startsWith('tab.') || n.startsWith('header.');
+      for (let i = 0; i < shown.length; i++) {
+        for (let j = i + 1; j < shown.length; j++) {
+          const [na, a] = shown[i], [nb, b] = shown[j];
+          if (nested(na, nb) || chrome(na) !== chrome(nb)) continue;
+          const dx = Math.min(a.x + a.w, b.x + b.w) - Math.max(a.x, b.x);
+          const dy = Math.min(a.y + a.h, b.y + b.h) - Math.max(a.y, b.y);
+          check(!(dx > 1 && dy > 1), `${size.viewport.width}px ${screen}: ${na} and ${nb} overlap by ${dx.toFixed(1)} x ${dy.toFixed(1)} px`);
+        }
+      }
+    }
+    await context.close();
+  }
+});
+
 // Issue 18: a salt mix's own composition on the Water screen: measured total boron in place of
 // the salinity-scaled value, and the Mg/Ca correction of the constants (off until chosen), with
 // the core's sentences shown; a boron beyond the core's range refused with the range.

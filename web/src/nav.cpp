@@ -94,7 +94,10 @@ void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
     d->AddLine(pos, ImVec2(pos.x + size.x, pos.y), theme::kBorder);
   }
   const int n = static_cast<int>(sizeof kTabs / sizeof kTabs[0]);
-  const ImVec2 cell = vertical ? ImVec2(size.x, 4.2f * e) : ImVec2(size.x / static_cast<float>(n), size.y);
+  // Down the side (desktop) the tabs share the height when 4.2 em each would not fit (large
+  // text on a short screen): the last tab must stay reachable.
+  const ImVec2 cell = vertical ? ImVec2(size.x, std::min(4.2f * e, (size.y - e) / static_cast<float>(n)))
+                               : ImVec2(size.x / static_cast<float>(n), size.y);
   // All labels use the small font when any of them would not fit its cell (eight tabs on a
   // phone), and are drawn smaller still when even that does not fit (the largest text sizes):
   // labels never run into each other.
@@ -134,7 +137,9 @@ void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
     ImGui::PushFont(small_labels ? app.ui.fonts.small : selected ? app.ui.fonts.bold : app.ui.fonts.body);
     const float font_size = ImGui::GetFontSize() * label_scale;
     const float text_w = ImGui::CalcTextSize(t.label).x * label_scale;
-    d->AddText(ImGui::GetFont(), font_size, ImVec2(p.x + (cell.x - text_w) / 2, p.y + cell.y * 0.62f), col, t.label);
+    const ImVec2 text_at(p.x + (cell.x - text_w) / 2, p.y + cell.y * 0.62f);
+    d->AddText(ImGui::GetFont(), font_size, text_at, col, t.label);
+    ui::record_rect(app, std::string(t.name) + ".label", text_at, ImVec2(text_at.x + text_w, text_at.y + font_size));
     ImGui::PopFont();
   }
 }
