@@ -197,6 +197,28 @@ test('text size Huge: no tab labels or widgets overlap, on every screen (phone a
   }
 });
 
+// Issue 15: the canvas is invisible to screen readers; the current screen's text (its numbers
+// included) is mirrored into the page's #screen-text region, and follows the screen shown.
+test('screen readers: the current screen as text in the page, following the tabs', async () => {
+  const { context, page } = await open(PHONE);
+  const text = () => page.evaluate(() => document.getElementById('screen-text').textContent);
+  const role = await page.evaluate(() => document.getElementById('screen-text').getAttribute('role'));
+  check(role === 'region', `screen text role ${role}`);
+  await tap(page, 'tab.water');
+  await frames(page, 3);
+  const water = await text();
+  const s = await state(page);
+  check(/Aragonite saturation/.test(water), `water screen text: ${water.slice(0, 200)}`);
+  const shown = s.water.omega_aragonite.toFixed(1);
+  check(water.includes(shown), `Omega ${shown} not in the screen text: ${water.slice(0, 300)}`);
+  await tap(page, 'tab.systems');
+  await frames(page, 3);
+  const systems = await text();
+  check(s.systems.every((sys) => systems.includes(sys.name)), `system names missing: ${systems.slice(0, 300)}`);
+  check(!/Aragonite saturation/.test(systems), 'the Water screen text stayed after leaving it');
+  await context.close();
+});
+
 // Issue 18: a salt mix's own composition on the Water screen: measured total boron in place of
 // the salinity-scaled value, and the Mg/Ca correction of the constants (off until chosen), with
 // the core's sentences shown; a boron beyond the core's range refused with the range.

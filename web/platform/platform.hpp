@@ -124,7 +124,13 @@ std::int64_t now_unix_seconds();
 int utc_offset_minutes();  // local time zone, for showing and reading times
 double now_ms();           // monotonic, for frame timing
 
-// ---------------------------------------------------------------- 6. Test hooks
+// ---------------------------------------------------------------- 6. Screen readers
+// The text of the current screen, as plain lines, for a screen reader (the canvas itself is
+// invisible to one). The browser puts it in the page's #screen-text region; the desktop build
+// has no such channel yet and drops it.
+void set_screen_text(const std::string& text);
+
+// ---------------------------------------------------------------- 7. Test hooks
 // Tells the page the first frame is on screen (benchmark: navigation to first frame).
 void first_frame_drawn();
 

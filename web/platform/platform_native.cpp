@@ -335,5 +335,6 @@ double now_ms() {
 }
 
 void first_frame_drawn() {}
+void set_screen_text(const std::string&) {}
 
 }  // namespace twapp::platform

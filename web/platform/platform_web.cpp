@@ -76,6 +76,10 @@ EM_JS(void, js_download, (const char* name, const char* mime, const char* text),
 });
 EM_JS(void, js_pick_file, (), { Module.tw.pickFile(); });
 EM_JS(void, js_first_frame, (), { Module.tw.firstFrame(); });
+EM_JS(void, js_set_screen_text, (const char* text), {
+  var el = document.getElementById('screen-text');
+  if (el) el.textContent = UTF8ToString(text);
+});
 // Sets the canvas's pixel size and tells Emscripten's GLFW, without glfwSetWindowSize (which
 // asks for fullscreen when the size equals the screen's).
 EM_JS(void, js_set_canvas_size, (int w, int h), {
@@ -295,6 +299,7 @@ int utc_offset_minutes() { return js_utc_offset_minutes(); }
 double now_ms() { return emscripten_get_now(); }
 
 void first_frame_drawn() { js_first_frame(); }
+void set_screen_text(const std::string& text) { js_set_screen_text(text.c_str()); }
 
 // Called by the exported functions below.
 void push_entry(TextEntryResult r) {

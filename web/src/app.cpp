@@ -8,6 +8,7 @@
 
 #include "actions.hpp"
 #include "imgui.h"
+#include "imgui_internal.h"  // GImGui->LogBuffer: the frame's text, for screen readers
 #include "nav.hpp"
 #include "platform.hpp"
 #include "theme.hpp"
@@ -77,7 +78,16 @@ void draw_layout(AppState& app) {
   ImGui::PopStyleVar();
   ui::column_begin(app, 36);
   ImGui::Dummy(ImVec2(0, 0.1f * e));
+  // Everything the screen writes as text is captured by ImGui's own log and handed to screen
+  // readers when it changes (text drawn straight into a draw list logs itself with LogText).
+  // The log must end inside the window it began in: ImGui ends it at the window's End().
+  ImGui::LogToBuffer();
   draw_current_screen(app);
+  if (const char* text = GImGui->LogBuffer.c_str(); app.ui.screen_text != text) {
+    app.ui.screen_text = text;
+    platform::set_screen_text(app.ui.screen_text);
+  }
+  ImGui::LogFinish();
   ImGui::Dummy(ImVec2(0, 2 * e));  // room below the last control for the thumb
   ui::column_end(app);
   ui::touch_scroll(app);

@@ -184,6 +184,7 @@ struct UiState {
   float fonts_built_for = 0;   // scale the font atlas was built for (0 = not yet)
   std::map<std::string, Rect> widgets;  // named widgets drawn this frame
   std::string reveal;          // widget to scroll into view on the next frame
+  std::string screen_text;     // the text last handed to screen readers (platform::set_screen_text)
   bool drag_scrolling = false; // a touch drag is scrolling the page
   float drag_travel = 0;       // how far the current press has moved, device pixels
   std::string message;         // one-line banner (saved, exported, refused ...)

@@ -95,10 +95,12 @@ void draw_row(AppState& app, const jn::System& s) {
   ImGui::PushFont(app.ui.fonts.bold);
   d->PushClipRect(p, ImVec2(p.x + w - 0.5f * e, p.y + h), true);
   d->AddText(ImVec2(p.x + 0.8f * e, p.y + 0.45f * e), current ? theme::kAccent : theme::kText, s.name.c_str());
+  ImGui::LogText("\n%s", s.name.c_str());  // drawn into the list: said to screen readers here
   ImGui::PopFont();
   const std::string sub = std::string(fmtx::system_kind_label(s.kind)) + " \u00b7 " +
                           fmtx::volume_text(s.volume_l, s.units.volume) + (current ? " \u00b7 current" : "");
   d->AddText(ImVec2(p.x + 0.8f * e, p.y + 1.85f * e), theme::kTextDim, sub.c_str());
+  ImGui::LogText("\n%s\n", sub.c_str());
   d->PopClipRect();
   if (tapped) select_system(app, s.id);
   ImGui::SameLine();
