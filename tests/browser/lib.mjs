@@ -124,3 +124,13 @@ export async function runTests(tests, browser, server) {
   console.log(`${passed} passed, ${failed} failed`);
   process.exit(failed ? 1 : 0);
 }
+
+// Goes offline once the service worker controls the page, and reloads from its cache.
+export async function reloadOffline(page, context) {
+  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
+  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, null, { timeout: 10000 });
+  await context.setOffline(true);
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 2);
+}

@@ -5,7 +5,7 @@
 import { resolve, join } from 'node:path';
 import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone } from './lib.mjs';
+import { reloadOffline, launch, PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -101,12 +101,7 @@ test('reload keeps the logged result', async () => {
 
 test('offline reload works (service worker)', async () => {
   const { page, context } = shared;
-  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
-  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, null, { timeout: 10000 });
-  await context.setOffline(true);
-  await page.reload();
-  await waitReady(page);
-  await frames(page, 2);
+  await reloadOffline(page, context);
   const s = await state(page);
   check(Math.abs(s.latest.alkalinity_dkh - 9.35) < 1e-9, 'offline: data missing');
   await page.screenshot({ path: join(OUTPUT, 'phone-offline.png') });

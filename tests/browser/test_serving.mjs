@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { brotliDecompressSync, gunzipSync, brotliCompressSync } from 'node:zlib';
 import { startServer, chooseEncoding, CSP } from './serve.mjs';
-import { launch, PHONE, waitReady, state, tap, enter, frames, flushed, check, HERE, runTests, benign, watchErrors, messageGone } from './lib.mjs';
+import { reloadOffline, launch, PHONE, waitReady, state, tap, enter, frames, flushed, check, HERE, runTests, benign, watchErrors, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -146,12 +146,7 @@ test('the app starts, takes an entry, exports and reloads offline with no policy
   check(download.suggestedFilename().endsWith('.json'), `download ${download.suggestedFilename()}`);
   await noViolations(page, errors, 'online');
   // Offline reload from the service worker's cache, still under the policy.
-  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
-  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, null, { timeout: 10000 });
-  await context.setOffline(true);
-  await page.reload();
-  await waitReady(page);
-  await frames(page, 2);
+  await reloadOffline(page, context);
   check((await state(page)).events === events, 'offline reload lost the entry');
   await noViolations(page, errors, 'offline');
   await context.setOffline(false);

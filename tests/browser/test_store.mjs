@@ -5,7 +5,7 @@
 import { resolve, join } from 'node:path';
 import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, watchErrors, messageGone } from './lib.mjs';
+import { reloadOffline, launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, watchErrors, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -143,12 +143,7 @@ test('time of a write after a tap (figures)', async () => {
 test('reload and offline reload keep everything', async () => {
   const { page, context } = shared;
   const before = await stored(page);
-  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
-  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, null, { timeout: 10000 });
-  await context.setOffline(true);
-  await page.reload();
-  await waitReady(page);
-  await frames(page, 2);
+  await reloadOffline(page, context);
   const s = await state(page);
   check(s.events === before.events, `offline: ${s.events} events, stored ${before.events}`);
   await logAlkalinity(page, 8.88);  // saving works offline too
