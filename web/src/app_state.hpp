@@ -4,7 +4,7 @@
 //   AppState
 //     settings      app-wide preferences (saved)
 //     journal       systems and events, the core's tw::journal::Journal (saved)
-//     current_system, demo_system_ids (saved)
+//     current_system, demo_system_ids, dosing_by_system (saved)
 //     water         inputs of the Water screen; water_result = core results for them
 //     ui            per-session UI state (screen, forms, fonts, widget rectangles)
 //     store         how loading and saving went
@@ -214,6 +214,8 @@ struct AppState {
   tw::journal::Journal journal;
   tw::journal::SystemId current_system = 0;         // 0 = none
   std::vector<tw::journal::SystemId> demo_system_ids;  // systems that came from the demo
+  // The Plan and Hatchery settings of each system that has any other than the defaults (saved).
+  std::map<tw::journal::SystemId, SystemDosing> dosing_by_system;
   std::int64_t demo_shift_s = 0;  // how far the demo's times were moved forward when loaded (whole days)
   WaterInputs water;
   WaterPrecision water_precision;

@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "actions.hpp"
+#include "dosing_saved.hpp"
 #include "platform.hpp"
 #include "tidewright/journal/journal_file.hpp"
 #include "water.hpp"
@@ -180,6 +181,9 @@ std::string state_json() {
     schedules.push_back(jn::event_to_json(*e));
   }
   j["schedules"] = schedules;
+  // The Plan and Hatchery forms as shown (their saved part) and the system they are for.
+  j["dosing_forms"] = system_dosing_to_json(saved_part(a.ui.dosing.plan, a.ui.dosing.hatchery));
+  j["dosing_forms"]["system"] = a.ui.dosing.forms_for ? json(*a.ui.dosing.forms_for) : json(nullptr);
   j["demo_system_ids"] = a.demo_system_ids;
   j["demo_shift_s"] = a.demo_shift_s;
   j["store"] = {{"loaded", a.store.loaded}, {"problem", a.store.problem}, {"save_error", a.store.save_error},
