@@ -142,6 +142,10 @@ struct LogForm {
   std::string unit;          // empty = the parameter's preferred unit
   std::string value_text;    // as typed
   tw::carbonate::PhScale ph_scale = tw::carbonate::PhScale::NBS;
+  // The kit's precision (1 sd) in `unit`: filled with the parameter's typical one whenever the
+  // parameter or unit changes (precision_for: "parameter|unit" it was filled for); editable.
+  std::optional<double> precision;
+  std::string precision_for;
   // dose (compound: index into the Log screen's list of dosable compounds)
   int dose_compound = 0;            // -1: an additive the list does not offer (kept as logged)
   std::string dose_additive_as_logged;

@@ -49,7 +49,8 @@ std::string state_json() {
   j["recent_events"] = json::array();
   for (const jn::Event* e : newest) j["recent_events"].push_back(jn::event_to_json(*e));
   j["log_form"] = {{"editing", a.ui.log.editing}, {"kind", static_cast<int>(a.ui.log.kind)},
-                   {"when_s", a.ui.log.when_s ? json(*a.ui.log.when_s) : json(nullptr)}};
+                   {"when_s", a.ui.log.when_s ? json(*a.ui.log.when_s) : json(nullptr)},
+                   {"precision", opt(a.ui.log.precision)}};
   const LatestReadings r = latest_readings(a);
   j["latest"] = {{"alkalinity_dkh", opt(r.alkalinity_dkh)}, {"ph", opt(r.ph)},
                  {"salinity", opt(r.salinity)}, {"temperature_c", opt(r.temperature_c)},
