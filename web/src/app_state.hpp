@@ -127,6 +127,14 @@ struct EntryResult {
 struct Rect {
   float x = 0, y = 0, w = 0, h = 0;  // device pixels
   bool visible = false;              // inside its window's visible area this frame
+  std::string text;                  // a button's label as drawn (tests read it)
+};
+
+// Scrolling a window by dragging it with a finger (ui::touch_scroll), with a little momentum.
+struct DragScroll {
+  bool scrolling = false;  // the current press is scrolling the window
+  float travel = 0;        // how far the current press has moved, device pixels
+  float fling = 0;         // momentum after release, device pixels per frame
 };
 
 // The test-result form of the Log screen.
@@ -182,14 +190,13 @@ struct UiState {
   Fonts fonts;
   std::optional<EntryResult> entry;  // consumed by the widget whose key matches
   bool drag_owned = false;     // a widget (chart) owns the current drag: do not scroll
-  float fling_velocity = 0;    // touch scroll momentum, device pixels per frame
+  DragScroll page_scroll;      // the page, dragged with a finger
+  DragScroll switcher_scroll;  // the header's list of systems
   float em = 17;               // font size in device pixels this frame
   float pixel_ratio = 1;
   float fonts_built_for = 0;   // scale the font atlas was built for (0 = not yet)
   std::map<std::string, Rect> widgets;  // named widgets drawn this frame
   std::string reveal;          // widget to scroll into view on the next frame
-  bool drag_scrolling = false; // a touch drag is scrolling the page
-  float drag_travel = 0;       // how far the current press has moved, device pixels
   std::string message;         // one-line banner (saved, exported, refused ...)
   bool message_is_error = false;
   double message_until_ms = 0;

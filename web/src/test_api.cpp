@@ -206,7 +206,7 @@ std::string widget_json(const std::string& name, float ratio) {
   const float k = ratio > 0 ? 1.0f / ratio : 1.0f;
   const Rect& r = it->second;
   j = {{"name", name}, {"found", true}, {"visible", r.visible},
-       {"x", r.x * k}, {"y", r.y * k}, {"w", r.w * k}, {"h", r.h * k}};
+       {"x", r.x * k}, {"y", r.y * k}, {"w", r.w * k}, {"h", r.h * k}, {"text", r.text}};
   return j.dump();
 }
 
