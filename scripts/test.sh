@@ -70,6 +70,8 @@ scripts/build-web.sh
 (cd tests/browser && TW_CLI="$ROOT/build/native/shell/tidewright" node test_schedules.mjs "$ROOT/build/web/site")
 (cd tests/browser && node test_store.mjs "$ROOT/build/web/site")
 (cd tests/browser && node test_serving.mjs "$ROOT/build/web/site")
+(cd tests/browser && node test_saved_settings.mjs "$ROOT/build/web/site")
+(cd tests/browser && node test_switcher.mjs "$ROOT/build/web/site")
 xvfb-run -a build/native/web/tidewright-app --frames 30
 passed=$((passed + 1))
 

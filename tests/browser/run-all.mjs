@@ -73,6 +73,10 @@ test('a test result typed in shows in the journal and the chemistry', async () =
   check(w.water.curve_points > 50, 'species chart has no curve');
   await page.screenshot({ path: join(OUTPUT, 'phone-water-after-log.png') });
   await tap(page, 'water.chart');  // touch to read the chart at a pH
+  // The read-out is drawn under the chart; the page keeps the Log's scroll position (issue 15,
+  // not fixed yet), so with the chart at the bottom of the screen it can be just below it.
+  await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['water.chart_readout']));
+  await frames(page, 4);
   const readout = await page.evaluate(() => JSON.parse(Module.ccall('tw_test_widget', 'string', ['string'], ['water.chart_readout'])));
   check(readout.found && readout.visible, 'chart read-out not shown');
   await page.screenshot({ path: join(OUTPUT, 'phone-water-chart.png') });

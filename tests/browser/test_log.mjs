@@ -143,4 +143,49 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
   });
 }
 
+// The kit precision of a test (issue 15): filled with the typical precision of the parameter in
+// the unit chosen (the core's table), editable, saved with the test; out of range refused with
+// the field's name and range.
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`log: a test carries the kit precision entered; out of range refused (${label})`, async () => {
+    const { context, page, errors } = await open(opts);
+    await tap(page, 'tab.log');
+    await tap(page, 'log.kind.0');
+    await tap(page, 'log.parameter.0');
+    await tap(page, 'log.unit.0');
+    let s = await state(page);
+    check(Math.abs(s.log_form.precision - 0.2) < 1e-9, `alkalinity kit default ${s.log_form.precision}, expected 0.2 dKH`);
+    await tap(page, 'log.unit.1');
+    s = await state(page);
+    check(Math.abs(s.log_form.precision - 0.2 * 0.356652) < 1e-4, `in meq/L the default is ${s.log_form.precision}`);
+    await tap(page, 'log.unit.0');
+    await tap(page, 'log.precision');
+    await enter(page, '20');
+    s = await state(page);
+    check(s.message_is_error && /Kit precision/.test(s.message) && /0\.00 to 12\.50 dKH/.test(s.message),
+      `20 dKH not refused with the field and its range: "${s.message}"`);
+    check(Math.abs(s.log_form.precision - 0.2) < 1e-9, `the refused value changed the form: ${s.log_form.precision}`);
+    await tap(page, 'log.precision');
+    await enter(page, '0.35');
+    await tap(page, 'log.value');
+    await enter(page, '8.3');
+    await shot(page, `${label}-precision`);
+    await tap(page, 'log.save');
+    s = await state(page);
+    check(!s.message_is_error, `test refused: ${s.message}`);
+    const t = newest(s, 'test');
+    check(t && t.parameter === 'alkalinity' && Math.abs(t.value - 8.3) < 1e-9 && Math.abs(t.precision - 0.35) < 1e-9,
+      `test stored as ${JSON.stringify(t)}`);
+    await flushed(page);
+    await page.reload();
+    await waitReady(page);
+    await frames(page, 3);
+    const again = newest(await state(page), 'test');
+    check(again && again.id === t.id && Math.abs(again.precision - 0.35) < 1e-9, `after reload: ${JSON.stringify(again)}`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
 await runTests(tests, browser, server);

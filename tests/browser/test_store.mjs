@@ -122,6 +122,9 @@ test('time of a write after a tap (figures)', async () => {
   for (let i = 0; i < 5; i++) {
     await tap(a, 'log.value');
     await enter(a, String(7.5 + i / 10));
+    // Save may be below the fold (the form is taller with the kit precision): bring it up first.
+    await a.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), 'log.save');
+    await frames(a, 3);
     const w = JSON.parse(await a.evaluate(() => Module.ccall('tw_test_widget', 'string', ['string'], ['log.save'])));
     const writes = await a.evaluate(() => Module.twStore.writes);
     const t0 = await a.evaluate(() => performance.now());

@@ -54,6 +54,13 @@ void adopt(AppState& app, StoredApp stored) {
     app.settings = stored.settings;
     app.demo_system_ids = stored.demo_system_ids;
     app.current_system = stored.current_system;
+    app.dosing_by_system = std::move(stored.dosing_by_system);
+  }
+  app.ui.dosing.forms_for.reset();  // filled again from what was read (sync_dosing_forms)
+  if (!stored.refused.empty()) {
+    std::string text = stored.refused.front();
+    if (stored.refused.size() > 1) text += " (and " + std::to_string(stored.refused.size() - 1) + " more)";
+    notify(app, text, true);
   }
   if (!jn::find_system(app.journal, app.current_system)) {
     app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
@@ -97,9 +104,11 @@ void apply_store_update(AppState& app, const platform::StoreUpdate& update) {
     auto stored = store_from_text(update.text);
     if (!stored) return;  // the next start reports it (and keeps a copy)
     const Settings keep = app.settings;  // this tab's settings stay as they are
+    auto keep_dosing = app.dosing_by_system;  // and so do its Plan and Hatchery settings
     const jn::SystemId current = app.current_system;
     adopt(app, std::move(stored).value());
     app.settings = keep;
+    app.dosing_by_system = std::move(keep_dosing);
     if (jn::find_system(app.journal, current)) app.current_system = current;
   } else {
     auto changes = changes_from_text(update.text);
@@ -133,6 +142,7 @@ void start_app(AppState& app) {
     ++app.revision;
     return;
   }
+  const bool refused = !stored->refused.empty();
   adopt(app, std::move(stored).value());
   if (loaded->first_save_needed) {
     app.store.saved_journal = tw::journal::Journal{};  // write everything once
@@ -140,6 +150,7 @@ void start_app(AppState& app) {
     if (!loaded->notice.empty()) notify(app, loaded->notice);
   } else {
     app.store.saved_journal = app.journal;
+    if (refused) save(app);  // the settings as used (refused values at their defaults) replace the bad ones
   }
 }
 
@@ -194,6 +205,7 @@ bool remove_system(AppState& app, jn::SystemId id) {
     return false;
   }
   std::erase(app.demo_system_ids, id);
+  app.dosing_by_system.erase(id);
   if (app.current_system == id) app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
   notify(app, "Removed " + name + " and its log");
   changed(app);

@@ -69,6 +69,11 @@ bool import_text(AppState& app, const std::string& text);
 // journal here; nothing is written back.
 void apply_store_update(AppState& app, const platform::StoreUpdate& update);
 
+// The Plan and Hatchery forms <-> the current system's saved settings (once a frame, before and
+// after drawing): a change to the forms is kept for their system and saved; another current
+// system fills them with its own (actions_dosing_saved.cpp).
+void sync_dosing_forms(AppState& app);
+
 // Saves the store now (called by the actions above).
 void save(AppState& app);
 

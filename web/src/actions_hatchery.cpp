@@ -57,6 +57,7 @@ void refresh_hatchery(AppState& app) {
   s.limits.ph_ceiling_scale = f.ph_scale;
   s.gas.residence_time_min = f.residence_time_min;
   s.stock.temperature_c = f.stock_temperature_c;
+  s.stock.strength_g_per_l = f.stock_g_per_l;  // absent: the core's default strength
   if (f.confidence_index > 0) {
     hat::Confidence conf;
     conf.probability = kConfidenceChoices[f.confidence_index];

@@ -116,7 +116,9 @@ bool app_frame(AppState& app) {
   }
   ImGui::NewFrame();
   app.ui.widgets.clear();
+  sync_dosing_forms(app);
   draw_layout(app);
+  sync_dosing_forms(app);
   platform::draw_overlays(app.ui.em);
   app.ui.entry.reset();  // a result nobody claimed this frame is dropped (its screen is gone)
   const double t1 = platform::now_ms();  // UI built: CPU time of our frame without the GPU

@@ -4,7 +4,7 @@
 //   AppState
 //     settings      app-wide preferences (saved)
 //     journal       systems and events, the core's tw::journal::Journal (saved)
-//     current_system, demo_system_ids (saved)
+//     current_system, demo_system_ids, dosing_by_system (saved)
 //     water         inputs of the Water screen; water_result = core results for them
 //     ui            per-session UI state (screen, forms, fonts, widget rectangles)
 //     store         how loading and saving went
@@ -127,6 +127,14 @@ struct EntryResult {
 struct Rect {
   float x = 0, y = 0, w = 0, h = 0;  // device pixels
   bool visible = false;              // inside its window's visible area this frame
+  std::string text;                  // a button's label as drawn (tests read it)
+};
+
+// Scrolling a window by dragging it with a finger (ui::touch_scroll), with a little momentum.
+struct DragScroll {
+  bool scrolling = false;  // the current press is scrolling the window
+  float travel = 0;        // how far the current press has moved, device pixels
+  float fling = 0;         // momentum after release, device pixels per frame
 };
 
 // The test-result form of the Log screen.
@@ -142,6 +150,10 @@ struct LogForm {
   std::string unit;          // empty = the parameter's preferred unit
   std::string value_text;    // as typed
   tw::carbonate::PhScale ph_scale = tw::carbonate::PhScale::NBS;
+  // The kit's precision (1 sd) in `unit`: filled with the parameter's typical one whenever the
+  // parameter or unit changes (precision_for: "parameter|unit" it was filled for); editable.
+  std::optional<double> precision;
+  std::string precision_for;
   // dose (compound: index into the Log screen's list of dosable compounds)
   int dose_compound = 0;            // -1: an additive the list does not offer (kept as logged)
   std::string dose_additive_as_logged;
@@ -178,15 +190,14 @@ struct UiState {
   Fonts fonts;
   std::optional<EntryResult> entry;  // consumed by the widget whose key matches
   bool drag_owned = false;     // a widget (chart) owns the current drag: do not scroll
-  float fling_velocity = 0;    // touch scroll momentum, device pixels per frame
+  DragScroll page_scroll;      // the page, dragged with a finger
+  DragScroll switcher_scroll;  // the header's list of systems
   float em = 17;               // font size in device pixels this frame
   float pixel_ratio = 1;
   float fonts_built_for = 0;   // scale the font atlas was built for (0 = not yet)
   std::map<std::string, Rect> widgets;  // named widgets drawn this frame
   std::string reveal;          // widget to scroll into view on the next frame
   std::string screen_text;     // the text last handed to screen readers (platform::set_screen_text)
-  bool drag_scrolling = false; // a touch drag is scrolling the page
-  float drag_travel = 0;       // how far the current press has moved, device pixels
   std::string message;         // one-line banner (saved, exported, refused ...)
   bool message_is_error = false;
   double message_until_ms = 0;
@@ -215,6 +226,8 @@ struct AppState {
   tw::journal::Journal journal;
   tw::journal::SystemId current_system = 0;         // 0 = none
   std::vector<tw::journal::SystemId> demo_system_ids;  // systems that came from the demo
+  // The Plan and Hatchery settings of each system that has any other than the defaults (saved).
+  std::map<tw::journal::SystemId, SystemDosing> dosing_by_system;
   std::int64_t demo_shift_s = 0;  // how far the demo's times were moved forward when loaded (whole days)
   WaterInputs water;
   WaterPrecision water_precision;

@@ -8,6 +8,7 @@
 //     hatchery  HatcheryForm (water, target, buffer, flow or volume) -> HatcheryCache
 //     mixes     MixesForm (recipe -> strength, effect -> recipe)     -> MixesCache
 //     plan      PlanForm (additives, pumps, horizon; demand from the Demand estimate) -> PlanCache
+//   The Plan and Hatchery forms are saved per system (SystemDosing; actions_dosing_saved.cpp).
 #pragma once
 
 #include <array>
@@ -95,6 +96,7 @@ struct HatcheryForm {
   double volume_l = 1000.0;
   std::optional<double> residence_time_min;
   double stock_temperature_c = 20.0;
+  std::optional<double> stock_g_per_l;  // strength of the stock made up; absent = the core's default
   // Dosing to a confidence (hatchery::Confidence): 0 = for the readings as they stand, else the
   // probability kConfidenceChoices[i] with the intake readings' precision (kit table defaults).
   int confidence_index = 0;
@@ -102,7 +104,7 @@ struct HatcheryForm {
   double ph_precision = tw::carbonate::default_precision(tw::Parameter::PH)->typical;
   // pump-side table over the intake pH
   double table_from_ph = 7.50, table_to_ph = 8.00, table_step_ph = 0.05;
-  bool show_table = false;
+  bool show_table = false;           // not saved (what the screen shows)
   bool operator==(const HatcheryForm&) const = default;
 };
 
@@ -163,10 +165,10 @@ struct PlanForm {
   double evaporation_l_per_day = 2.0; // bounds limewater
   int horizon_days = 14;              // 1..60
   bool use_estimate = true;           // consumption from the log's estimate (else typed below)
-  bool accept_stale = false;          // plan from a level the log cannot vouch for today (flagged)
+  bool accept_stale = false;          // plan from a level the log cannot vouch for today (flagged; not saved)
   double alkalinity_demand_dkh_per_day = 1.0;  // when not from the estimate
   double calcium_demand_mg_l_per_day = 7.0;
-  bool show_all_days = false;
+  bool show_all_days = false;         // not saved, nor export_index (what the screen shows)
   int export_index = 0;               // 0 CSV, 1 iCalendar, 2 text, 3 JSON
   bool operator==(const PlanForm&) const = default;
 };
@@ -189,7 +191,20 @@ struct PlanCache {
   int computed_count = 0;
 };
 
+// ---------------------------------------------------------------- saved per system
+// What the Plan and Hatchery screens' forms keep for each system in the saved store (the app
+// part, store.hpp; dosing_saved.hpp reads and checks it): their forms without the members that
+// only say what the screen shows and without the stale-level consent (asked again each visit).
+struct SystemDosing {
+  PlanForm plan;
+  HatcheryForm hatchery;
+  bool operator==(const SystemDosing&) const = default;
+};
+
 struct DosingState {
+  // The system the forms below were filled for (AppState::dosing_by_system); unset: fill them
+  // again from the saved settings before they are drawn (start, import, another tab's store).
+  std::optional<tw::journal::SystemId> forms_for;
   DemandView demand;
   DemandCache demand_cache;
   HatcheryForm hatchery;

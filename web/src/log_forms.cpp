@@ -3,6 +3,7 @@
 // Values are kept in the journal's units (dKH, mg/L, L) and shown in the system's units.
 #include "log_forms.hpp"
 
+#include <cmath>
 #include <cstdlib>
 #include <functional>
 #include <variant>
@@ -14,6 +15,7 @@
 #include "format.hpp"
 #include "tidewright/additives/additives.hpp"
 #include "tidewright/journal/schedule.hpp"
+#include "tidewright/journal/test_precision.hpp"
 #include "tidewright/seawater/seawater.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "ui.hpp"
@@ -90,6 +92,26 @@ int decimals_for(jn::Parameter p, const std::string& unit) {
   return 1;
 }
 
+std::string precision_key(const LogForm& f) { return std::string(tw::parameter_name(f.parameter)) + "|" + f.unit; }
+
+// The kit's precision: the parameter's typical one (the core's table) in the unit chosen,
+// until the user types their kit's; bounded by what the journal accepts for it.
+void draw_precision(AppState& app, LogForm& f, const char* unit_shown, int value_decimals) {
+  if (f.precision_for != precision_key(f)) {
+    f.precision = jn::typical_precision_in_unit(f.parameter, f.unit);
+    f.precision_for = precision_key(f);
+  }
+  const auto bounds = jn::accepted_precision_in_unit(f.parameter, f.unit);
+  if (!bounds) return;
+  const int dec = value_decimals + 1;
+  ui::optional_number_field(app, "log.precision",
+                            {"Kit precision (one standard deviation)", unit_shown, dec, std::pow(10.0, -dec), bounds->lo,
+                             bounds->hi},
+                            &f.precision);
+  ui::dim_text("Filled with a typical hobby kit's; enter your own kit's if you know it. The Demand estimate weighs "
+               "each test by it.");
+}
+
 void draw_test(AppState& app, const jn::System& sys, LogForm& f) {
   int param = 0;
   for (int i = 0; i < kParamCount; ++i) if (kParamValues[i] == f.parameter) param = i;
@@ -127,6 +149,7 @@ void draw_test(AppState& app, const jn::System& sys, LogForm& f) {
                                 &value) && value) {
     f.value_text = fmtx::fixed(*value, dec + 1);
   }
+  draw_precision(app, f, units[static_cast<size_t>(unit)].shown, dec);
   if (f.parameter == jn::Parameter::SpecificGravity && value) {
     // What the reading means, as the Water screen will use it (refractometer convention 25/25 C).
     auto s = tw::seawater::salinity_from_specific_gravity(*value);
@@ -145,6 +168,7 @@ std::optional<jn::EventData> build_test(AppState& app, const LogForm& f) {
   t.value = std::strtod(f.value_text.c_str(), nullptr);
   t.unit = f.unit;
   if (f.parameter == jn::Parameter::PH) t.ph_scale = f.ph_scale;
+  if (f.precision_for == precision_key(f)) t.precision = f.precision;  // the core checks its range
   return t;
 }
 
@@ -314,6 +338,8 @@ LogForm from_event(const jn::Event& e) {
     f.unit = t->unit;
     f.value_text = fmtx::fixed(t->value, decimals_for(t->parameter, t->unit) + 1);
     if (t->ph_scale) f.ph_scale = *t->ph_scale;
+    f.precision = t->precision;  // as logged (none: the field stays empty)
+    f.precision_for = precision_key(f);
   } else if (const auto* d = std::get_if<jn::Dose>(&e.data)) {
     f.kind = LogKind::Dose;
     f.dose_compound = dose_choice_of(d->additive_id);

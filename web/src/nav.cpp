@@ -5,6 +5,7 @@
 
 #include "actions.hpp"
 #include "icons_dosing.hpp"
+#include "imgui_internal.h"  // RenderArrow
 #include "screens.hpp"
 #include "theme.hpp"
 #include "ui.hpp"
@@ -155,32 +156,48 @@ void draw_header(AppState& app, float height) {
   ImGui::PushFont(app.ui.fonts.bold);
   ImGui::TextUnformatted("Tidewright");
   ImGui::PopFont();
-  // Quick switch: the current system's name; tap for the list.
+  // Quick switch: the current system's name (cut with an ellipsis when long); tap for the list.
   const auto* sys = current_system(app);
-  const std::string label = (sys ? sys->name : std::string("No system")) + "  \u2026";
+  // The label leaves room on its right for the arrow that says a list opens.
+  const std::string more = "    ";
   ImGui::PushFont(app.ui.fonts.bold);
-  const float bw = std::min(w * 0.62f, ImGui::CalcTextSize(label.c_str()).x + 2 * e);
+  const std::string name = sys ? sys->name : std::string("No system");
+  const float bw = std::min(w * 0.62f, ImGui::CalcTextSize((name + more).c_str()).x + 2 * e);
+  const std::string label = ui::fit_text(name, bw - 2 * e - ImGui::CalcTextSize(more.c_str()).x) + more;
   ImGui::PopFont();
   ImGui::SetCursorScreenPos(ImVec2(p.x + w - bw - 0.6f * e, p.y + (height - ui::kTargetEm * e) / 2));
   ImGui::PushFont(app.ui.fonts.bold);
   if (ui::button(app, "header.switch", label.c_str(), bw)) ImGui::OpenPopup("##switch");
   ImGui::PopFont();
+  {
+    const ImVec2 r = ImGui::GetItemRectMax();
+    const float size = ImGui::GetFontSize();
+    ImGui::RenderArrow(ImGui::GetWindowDrawList(), ImVec2(r.x - e - 0.6f * size, r.y - ui::kTargetEm * e / 2 - 0.4f * size),
+                       theme::kTextDim, ImGuiDir_Down, 0.8f);
+  }
   ImGui::SetNextWindowPos(ImVec2(p.x + w - 0.6f * e, p.y + height), ImGuiCond_Always, ImVec2(1, 0));
-  ImGui::SetNextWindowSizeConstraints(ImVec2(std::min(w - 1.2f * e, 16 * e), 0), ImVec2(w - 1.2f * e, 30 * e));
+  // As tall as the room between the header and the tab bar; longer lists scroll (a finger's
+  // drag, the wheel or the scroll bar) and open at the current system.
+  const float room = ImGui::GetMainViewport()->Pos.y + ImGui::GetMainViewport()->Size.y - (p.y + height) - 5 * e;
+  ImGui::SetNextWindowSizeConstraints(ImVec2(std::min(w - 1.2f * e, 16 * e), 0),
+                                      ImVec2(w - 1.2f * e, std::max(room, 8 * e)));
   if (ImGui::BeginPopup("##switch")) {
     ui::dim_text("Switch to");
+    const float text_w = ImGui::GetContentRegionAvail().x - 2 * ImGui::GetStyle().FramePadding.x;
     for (const auto& s : app.journal.systems) {
       const bool current = s.id == app.current_system;
-      if (ui::button(app, "switch." + std::to_string(s.id), s.name.c_str(), 0,
+      if (ui::button(app, "switch." + std::to_string(s.id), ui::fit_text(s.name, text_w).c_str(), 0,
                      current ? ui::Tone::Primary : ui::Tone::Normal)) {
         select_system(app, s.id);
         ImGui::CloseCurrentPopup();
       }
+      if (current && ImGui::IsWindowAppearing()) ImGui::SetScrollHereY(0.5f);
     }
     if (ui::button(app, "switch.manage", "Manage systems", 0, ui::Tone::Quiet)) {
       go_to(app, Screen::Systems);
       ImGui::CloseCurrentPopup();
     }
+    ui::touch_scroll(app, app.ui.switcher_scroll);
     ImGui::EndPopup();
   }
   ImGui::SetCursorScreenPos(ImVec2(p.x, p.y + height));

@@ -133,6 +133,14 @@ void draw_target_form(AppState& app, HatcheryForm& f) {
                               &f.residence_time_min);
     fields::temperature(app, "hatchery.stock_temperature", "Stock tank temperature", &f.stock_temperature_c,
                         fields::units(app).temperature, tw::ranges::kStockTemperatureC);
+    ui::optional_number_field(app, "hatchery.stock_strength",
+                              {"Stock strength made up (empty: the default, safely under saturation)", tw::ranges::kStockGPerL.unit,
+                               0, 5, tw::ranges::kStockGPerL.lo, tw::ranges::kStockGPerL.hi},
+                              &f.stock_g_per_l);
+    if (f.stock_g_per_l &&
+        ui::button(app, "hatchery.stock_strength.clear", "Use the default strength", -1, ui::Tone::Quiet)) {
+      f.stock_g_per_l.reset();
+    }
   } else {
     const auto vu = u.volume;
     double v = tw::units::volume_from_litres(f.volume_l, vu);
@@ -273,7 +281,7 @@ void draw_pump_table(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
                    &f.table_from_ph);
   ui::number_field(app, "hatchery.table.to", {"To intake pH", fmtx::ph_scale_label(f.ph_scale), 2, 0.05, tw::ranges::kPh.lo, tw::ranges::kPh.hi},
                    &f.table_to_ph);
-  ui::number_field(app, "hatchery.table.step", {"Step", "pH", 2, 0.01, 0.01, 1.0}, &f.table_step_ph);
+  ui::number_field(app, "hatchery.table.step", {"Step", "pH", 2, 0.01, tw::ranges::kPumpTableStepPh.lo, tw::ranges::kPumpTableStepPh.hi}, &f.table_step_ph);
   if (!c.table_error.empty()) ui::colored_wrapped(theme::kError, c.table_error.c_str());
   if (c.table) {
     const hat::PumpTable& t = *c.table;

@@ -4,6 +4,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "dosing_saved.hpp"
 #include "tidewright/journal/journal_file.hpp"
 
 namespace twapp {
@@ -64,6 +65,7 @@ json app_part_json(const AppState& app) {
                    {"safety_limits", limits_to_json(app.settings.safety_limits)}};
   a["current_system"] = app.current_system;
   a["demo_system_ids"] = app.demo_system_ids;
+  a["dosing_by_system"] = dosing_to_json(app.dosing_by_system, app.journal);
   return a;
 }
 }  // namespace
@@ -121,6 +123,9 @@ tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
         out.demo_system_ids.push_back(id.get<jn::SystemId>());
       }
     }
+  }
+  if (app_part.contains("dosing_by_system")) {
+    out.dosing_by_system = dosing_from_json(app_part["dosing_by_system"], out.journal, &out.refused);
   }
   return out;
 }

@@ -2,11 +2,16 @@
 // core's format, readable by the command line) with one extra member "app" holding the app's
 // own part, schema-versioned:
 //   { "format": "tidewright-journal", "schema_version": 2, ...systems, events...,
-//     "app": { "schema_version": 1, "settings": {...}, "current_system": 3, "demo_system_ids": [1] } }
+//     "app": { "schema_version": 1, "settings": {...}, "current_system": 3, "demo_system_ids": [1],
+//              "dosing_by_system": {"3": {"plan": {...}, "hatchery": {...}}} } }
+// (dosing_by_system: the Plan and Hatchery settings per system, dosing_saved.hpp; added without
+// a new schema_version: an older build ignores it.)
 // The same text is what Export writes and Import reads (Import also takes a bare journal).
 #pragma once
 
+#include <map>
 #include <string>
+#include <vector>
 
 #include "app_state.hpp"
 #include "tidewright/common/result.hpp"
@@ -22,6 +27,8 @@ struct StoredApp {
   tw::journal::Journal journal;
   tw::journal::SystemId current_system = 0;
   std::vector<tw::journal::SystemId> demo_system_ids;
+  std::map<tw::journal::SystemId, SystemDosing> dosing_by_system;
+  std::vector<std::string> refused;  // saved settings refused (default used), one line each
   bool had_app_part = false;  // false for a bare journal file
 };
 

@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "actions.hpp"
+#include "dosing_saved.hpp"
 #include "platform.hpp"
 #include "tidewright/journal/journal_file.hpp"
 #include "water.hpp"
@@ -48,7 +49,8 @@ std::string state_json() {
   j["recent_events"] = json::array();
   for (const jn::Event* e : newest) j["recent_events"].push_back(jn::event_to_json(*e));
   j["log_form"] = {{"editing", a.ui.log.editing}, {"kind", static_cast<int>(a.ui.log.kind)},
-                   {"when_s", a.ui.log.when_s ? json(*a.ui.log.when_s) : json(nullptr)}};
+                   {"when_s", a.ui.log.when_s ? json(*a.ui.log.when_s) : json(nullptr)},
+                   {"precision", opt(a.ui.log.precision)}};
   const LatestReadings r = latest_readings(a);
   j["latest"] = {{"alkalinity_dkh", opt(r.alkalinity_dkh)}, {"ph", opt(r.ph)},
                  {"salinity", opt(r.salinity)}, {"temperature_c", opt(r.temperature_c)},
@@ -180,6 +182,9 @@ std::string state_json() {
     schedules.push_back(jn::event_to_json(*e));
   }
   j["schedules"] = schedules;
+  // The Plan and Hatchery forms as shown (their saved part) and the system they are for.
+  j["dosing_forms"] = system_dosing_to_json(saved_part(a.ui.dosing.plan, a.ui.dosing.hatchery));
+  j["dosing_forms"]["system"] = a.ui.dosing.forms_for ? json(*a.ui.dosing.forms_for) : json(nullptr);
   j["demo_system_ids"] = a.demo_system_ids;
   j["demo_shift_s"] = a.demo_shift_s;
   j["store"] = {{"loaded", a.store.loaded}, {"problem", a.store.problem}, {"save_error", a.store.save_error},
@@ -201,7 +206,7 @@ std::string widget_json(const std::string& name, float ratio) {
   const float k = ratio > 0 ? 1.0f / ratio : 1.0f;
   const Rect& r = it->second;
   j = {{"name", name}, {"found", true}, {"visible", r.visible},
-       {"x", r.x * k}, {"y", r.y * k}, {"w", r.w * k}, {"h", r.h * k}};
+       {"x", r.x * k}, {"y", r.y * k}, {"w", r.w * k}, {"h", r.h * k}, {"text", r.text}};
   return j.dump();
 }
 

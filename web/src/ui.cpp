@@ -64,6 +64,7 @@ bool button(AppState& app, const std::string& name, const char* label, float wid
   ImGui::PopID();
   ImGui::PopStyleColor(colors);
   record(app, name);
+  app.ui.widgets[name].text = label;
   return pressed;
 }
 
@@ -432,35 +433,62 @@ void column_end(AppState&) {
 }
 
 // ---------------------------------------------------------------- touch scrolling
-void touch_scroll(AppState& app) {
+void touch_scroll(AppState& app, DragScroll& st) {
   ImGuiIO& io = ImGui::GetIO();
-  UiState& ui = app.ui;
   const float threshold = 0.5f * em(app);
   const bool hovered = ImGui::IsWindowHovered(ImGuiHoveredFlags_ChildWindows |
                                               ImGuiHoveredFlags_AllowWhenBlockedByActiveItem);
   if (io.MouseClicked[0]) {
     // The press itself may arrive with a jump of the pointer (a tap elsewhere): not travel.
-    ui.drag_travel = 0;
-    ui.drag_scrolling = false;
-    ui.fling_velocity = 0;
-  } else if (io.MouseDown[0] && hovered && !ui.drag_owned && !platform::text_entry_open()) {
-    ui.drag_travel += std::fabs(io.MouseDelta.y) + std::fabs(io.MouseDelta.x);
-    if (!ui.drag_scrolling && ui.drag_travel > threshold && ImGui::GetScrollMaxY() > 0) {
-      ui.drag_scrolling = true;
+    st.travel = 0;
+    st.scrolling = false;
+    st.fling = 0;
+  } else if (io.MouseDown[0] && hovered && !app.ui.drag_owned && !platform::text_entry_open()) {
+    st.travel += std::fabs(io.MouseDelta.y) + std::fabs(io.MouseDelta.x);
+    if (!st.scrolling && st.travel > threshold && ImGui::GetScrollMaxY() > 0) {
+      st.scrolling = true;
       ImGui::ClearActiveID();  // the press is a scroll now, not a tap on what is under it
     }
-    if (ui.drag_scrolling) {
+    if (st.scrolling) {
       ImGui::SetScrollY(ImGui::GetScrollY() - io.MouseDelta.y);
-      ui.fling_velocity = 0.6f * ui.fling_velocity + 0.4f * io.MouseDelta.y;
+      st.fling = 0.6f * st.fling + 0.4f * io.MouseDelta.y;
     }
-  } else if (ui.drag_scrolling) {
-    ui.drag_scrolling = false;  // released: keep gliding a little
-  } else if (std::fabs(ui.fling_velocity) > 0.5f) {
-    ImGui::SetScrollY(ImGui::GetScrollY() - ui.fling_velocity);
-    ui.fling_velocity *= 0.9f;
+  } else if (st.scrolling) {
+    st.scrolling = false;  // released: keep gliding a little
+  } else if (std::fabs(st.fling) > 0.5f) {
+    ImGui::SetScrollY(ImGui::GetScrollY() - st.fling);
+    st.fling *= 0.9f;
     platform::request_frames(2);
   }
-  ui.drag_owned = false;
+}
+
+void touch_scroll(AppState& app) {
+  touch_scroll(app, app.ui.page_scroll);
+  app.ui.drag_owned = false;
+}
+
+std::string fit_text(const std::string& text, float width) {
+  if (ImGui::CalcTextSize(text.c_str()).x <= width) return text;
+  // Cut at a character boundary (UTF-8): the longest start that fits with the ellipsis.
+  std::vector<size_t> cuts;
+  for (size_t i = 1; i < text.size(); ++i) {
+    if ((static_cast<unsigned char>(text[i]) & 0xC0) != 0x80) cuts.push_back(i);
+  }
+  const auto with_ellipsis = [&](size_t n) {
+    std::string t = text.substr(0, n);
+    while (!t.empty() && t.back() == ' ') t.pop_back();
+    return t + "\u2026";
+  };
+  size_t lo = 0, hi = cuts.size();  // cuts[0, lo) fit; the answer is cuts[lo - 1]
+  while (lo < hi) {
+    const size_t mid = (lo + hi) / 2;
+    if (ImGui::CalcTextSize(with_ellipsis(cuts[mid]).c_str()).x <= width) {
+      lo = mid + 1;
+    } else {
+      hi = mid;
+    }
+  }
+  return lo == 0 ? std::string("\u2026") : with_ellipsis(cuts[lo - 1]);
 }
 
 }  // namespace twapp::ui

@@ -69,5 +69,10 @@ void column_end(AppState& app);
 // Drag on a scrolling window scrolls it (with a little momentum); a press that moves more
 // than a fraction of an em stops being a tap, so scrolling never edits anything.
 void touch_scroll(AppState& app);
+// The same for another scrolling window (a popup list), with its own state.
+void touch_scroll(AppState& app, DragScroll& state);
+
+// `text` cut to fit `width` (device pixels, the current font) with an ellipsis when it does not.
+std::string fit_text(const std::string& text, float width);
 
 }  // namespace twapp::ui

@@ -9,6 +9,7 @@
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/journal/system_name.hpp"
+#include "tidewright/journal/test_precision.hpp"
 #include "journal_tidy_internal.hpp"
 
 namespace tw::journal {
@@ -107,13 +108,8 @@ Status validate_test(const TestResult& t) {
                                       t.parameter == Parameter::Other ? "" : parameter_unit(t.parameter))};
   }
   if (t.precision) {
-    const double span = (r.hi - r.lo) / 2.0;
-    auto one = canonical_value(t.parameter, 1.0, t.unit);
-    const auto unit_t = temperature_unit_from_string(t.unit);
-    const double scale = t.parameter == Parameter::Temperature
-                             ? units::temperature_difference_to_celsius(1.0, unit_t.ok() ? *unit_t : TemperatureUnit::Celsius)
-                             : std::fabs(*one);
-    const double hi = scale > 0 ? span / scale : span;
+    const auto b = accepted_precision_in_unit(t.parameter, t.unit);  // the unit was accepted above
+    const double hi = b ? b->hi : (r.hi - r.lo) / 2.0;
     Status s = positive_in_range("precision", *t.precision, Range{0.0, hi, t.unit.c_str()});
     if (!s) return s;
   }

@@ -141,6 +141,9 @@ inline constexpr Range kMixWaterCarbonUmolKg{0.0, 10000.0, "umol/kg"};
 // The probability a hatchery dose reaches its target with (and keeps its ceiling with): from
 // a coin toss to 1 in 1000 [our choice: beyond 99.9 % the normal tails are not to be trusted].
 inline constexpr Range kDoseConfidencePercent{50.0, 99.9, "%"};
+// The step between the rows of the pump-side table, in pH units: a hundredth (about what a
+// meter shows) to a whole unit [our choice].
+inline constexpr Range kPumpTableStepPh{0.01, 1.0, "pH"};
 
 // ------------------------------------------------------------ time
 // 1970-01-01 to 2200-01-01 UTC.

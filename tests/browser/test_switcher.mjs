@@ -1,0 +1,127 @@
+// Browser tests of the header's system switcher with a farm's 33 systems (issue 15): the list
+// scrolls by a finger's drag on a phone and by the wheel on a desktop until the 33rd system can
+// be tapped, and a long name is cut with an ellipsis in the list and in the header.
+//   node test_switcher.mjs [site-dir]      (default ../../build/web/site)
+// Screenshots go to tests/browser/output/switcher-*.png.
+import { resolve, join } from 'node:path';
+import { startServer } from './serve.mjs';
+import { launch, PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors } from './lib.mjs';
+
+const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
+const server = await startServer(site);
+const browser = await launch();
+const tests = [];
+const test = (name, fn) => tests.push({ name, fn });
+
+const LONG = 'North greenhouse quarantine and grow-out raceway for the soft coral frags';
+const units = { alkalinity: 'dKH', calcium_magnesium: 'mg/L', temperature: 'C', ph_scale: 'nbs', volume: 'L' };
+const FARM = {
+  format: 'tidewright-journal', schema_version: 3, next_id: 34, description: 'a farm of 33 systems (test)',
+  systems: Array.from({ length: 33 }, (_, i) => ({
+    id: i + 1, name: i === 1 ? LONG : `Rack ${String(i + 1).padStart(2, '0')}`, kind: 'coral_grow_out', volume_l: 400,
+    default_salinity: 35, default_temperature_c: 25, units, targets: {} })),
+  events: [],
+  app: { schema_version: 1, current_system: 2, demo_system_ids: [], settings: { text_size: 1.0, room_co2_ppm: 600 } },
+};
+
+// Opens the app on the farm: the store as the older app kept it (IDBFS), imported on start.
+async function openFarm(opts) {
+  const context = await browser.newContext({ ...opts });
+  const page = await context.newPage();
+  const errors = watchErrors(page);
+  await page.goto(server.url + 'manifest.webmanifest');  // same origin, no app running yet
+  await page.evaluate((text) => new Promise((ok, fail) => {
+    const r = indexedDB.open('/persist', 21);
+    r.onupgradeneeded = () => r.result.createObjectStore('FILE_DATA').createIndex('timestamp', 'timestamp', { unique: false });
+    r.onerror = () => fail(r.error);
+    r.onsuccess = () => {
+      const tx = r.result.transaction('FILE_DATA', 'readwrite');
+      const s = tx.objectStore('FILE_DATA');
+      s.put({ timestamp: new Date(), mode: 16893 }, '/persist');
+      s.put({ timestamp: new Date(), mode: 33206, contents: new TextEncoder().encode(text) }, '/persist/tidewright.json');
+      tx.oncomplete = () => { r.result.close(); ok(); };
+    };
+  }), JSON.stringify(FARM));
+  await page.goto(server.url);
+  await waitReady(page);
+  await flushed(page);
+  await frames(page, 3);
+  return { context, page, errors };
+}
+
+// A press, a slow move and a release of one finger (Chromium's touch events become the
+// pointer events the app reads).
+async function drag(page, cdp, x, y0, y1) {
+  await cdp.send('Input.dispatchTouchEvent', { type: 'touchStart', touchPoints: [{ x, y: y0 }] });
+  await frames(page, 1);
+  for (let k = 1; k <= 6; k++) {
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchMove', touchPoints: [{ x, y: y0 + (y1 - y0) * k / 6 }] });
+    await frames(page, 1);
+  }
+  await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
+  await frames(page, 3);
+}
+
+async function press(page, w) {
+  const touch = await page.evaluate(() => navigator.maxTouchPoints > 0);
+  if (touch) await page.touchscreen.tap(w.x + w.w / 2, w.y + w.h / 2); else await page.mouse.click(w.x + w.w / 2, w.y + w.h / 2);
+  await frames(page, 3);
+}
+
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`switcher: 33 systems scroll to the last, which can be tapped; long names cut with an ellipsis (${label})`, async () => {
+    const { context, page, errors } = await openFarm(opts);
+    const s = await state(page);
+    check(s.systems.length === 33 && s.current_system === 2,
+      `farm not loaded: ${s.systems.length} systems, current ${s.current_system} ${s.store.problem}`);
+    const header = await widget(page, 'header.switch');
+    // The header names the system in full where it fits (a desktop), else cut with an ellipsis.
+    const shown = header.text.trim();
+    const cut = shown.endsWith('\u2026') && LONG.startsWith(shown.slice(0, -1).trimEnd());
+    check(opts.hasTouch ? cut : shown === LONG || cut, `the header shows "${header.text}"`);
+    await press(page, header);
+    const long = await widget(page, 'switch.2');
+    check(long.found && long.text.endsWith('\u2026') && LONG.startsWith(long.text.slice(0, -1).trimEnd()),
+      `the long name in the list reads "${long.text}"`);
+    const first = await widget(page, 'switch.1');
+    check(first.visible && first.text === 'Rack 01', `first row: ${JSON.stringify(first)}`);
+    let last = await widget(page, 'switch.33');
+    check(last.found && !last.visible, `system 33 is on screen before any scrolling: ${JSON.stringify(last)}`);
+    await page.screenshot({ path: join(OUTPUT, `switcher-${label}-open.png`) });
+    // Scroll the list only as a user would: drag it up (phone) or turn the wheel over it (desktop).
+    const cdp = opts.hasTouch ? await context.newCDPSession(page) : null;
+    for (let i = 0; i < 20 && !last.visible; i++) {
+      const x = first.x + first.w / 2;
+      if (cdp) {
+        await drag(page, cdp, x, header.y + header.h + 6 * first.h, header.y + header.h + 2 * first.h);
+      } else {
+        await page.mouse.move(x, header.y + header.h + 3 * first.h);
+        await page.mouse.wheel(0, 300);
+        await frames(page, 4);
+      }
+      last = await widget(page, 'switch.33');
+    }
+    check(last.visible, 'system 33 never came into view by scrolling');
+    // Let the list glide to a stop (a drag keeps a little momentum), as a user waits to aim.
+    for (let i = 0; i < 40; i++) {
+      await frames(page, 3);
+      const now = await widget(page, 'switch.33');
+      const still = Math.abs(now.y - last.y) < 0.5;
+      last = now;
+      if (still) break;
+    }
+    check(last.visible, 'system 33 glided out of view');
+    check((await state(page)).current_system === 2, 'scrolling the list chose a system');
+    await page.screenshot({ path: join(OUTPUT, `switcher-${label}-scrolled.png`) });
+    await press(page, last);
+    const after = await state(page);
+    check(after.current_system === 33, `tapping system 33 made ${after.current_system} current`);
+    check((await widget(page, 'header.switch')).text.startsWith('Rack 33'), 'the header does not name Rack 33');
+    await context.close();
+    // The blank same-origin page used to seed the older store asks for /favicon.ico (a 404).
+    const real = errors.filter((e) => !benign(e) && !/status of 404/.test(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
+await runTests(tests, browser, server);

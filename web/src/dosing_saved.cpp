@@ -1,0 +1,297 @@
+// The saved Plan and Hatchery settings per system (dosing_saved.hpp): written as JSON, read
+// back with every value checked by the core's ranges. Map: 1. names of choices  2. writing
+// 3. reading (the checks)  4. saved_part.
+#include "dosing_saved.hpp"
+
+#include <charconv>
+#include <cmath>
+#include <iterator>
+#include <utility>
+
+#include "tidewright/carbonate/measurement_precision.hpp"
+#include "tidewright/common/ranges.hpp"
+#include "tidewright/common/units.hpp"
+
+namespace twapp {
+
+namespace {
+
+using nlohmann::json;
+namespace jn = tw::journal;
+namespace rg = tw::ranges;
+namespace hat = tw::hatchery;
+namespace cb = tw::carbonate;
+
+// ---------------------------------------------------------------- 1. Names of choices
+template <class E>
+struct Named {
+  E value;
+  const char* name;
+};
+
+constexpr Named<PlanAlkalinity> kPlanAlkalinity[] = {{PlanAlkalinity::SodiumCarbonate, "sodium_carbonate"},
+                                                     {PlanAlkalinity::SodiumBicarbonate, "sodium_bicarbonate"},
+                                                     {PlanAlkalinity::Limewater, "limewater"},
+                                                     {PlanAlkalinity::None, "none"}};
+constexpr Named<PlanCalcium> kPlanCalcium[] = {{PlanCalcium::CalciumChloride, "calcium_chloride"}, {PlanCalcium::None, "none"}};
+constexpr Named<HatcheryMode> kModes[] = {{HatcheryMode::FlowThrough, "flow_through"}, {HatcheryMode::Batch, "batch"}};
+constexpr Named<hat::TargetPoint> kPoints[] = {{hat::TargetPoint::AfterMixing, "after_mixing"},
+                                               {hat::TargetPoint::AtTanks, "at_tanks"}};
+constexpr Named<hat::TargetKind> kKinds[] = {{hat::TargetKind::OmegaAragonite, "omega_aragonite"},
+                                             {hat::TargetKind::PH, "ph"},
+                                             {hat::TargetKind::AlkalinityRise, "alkalinity_rise"}};
+constexpr Named<hat::Buffer> kBuffers[] = {{hat::Buffer::SodiumCarbonate, "carbonate"},
+                                           {hat::Buffer::SodiumBicarbonate, "bicarbonate"},
+                                           {hat::Buffer::SodiumHydroxide, "hydroxide"},
+                                           {hat::Buffer::Blend, "blend"}};
+constexpr Named<cb::PhScale> kScales[] = {{cb::PhScale::NBS, "nbs"}, {cb::PhScale::Total, "total"},
+                                          {cb::PhScale::Seawater, "sws"}, {cb::PhScale::Free, "free"}};
+constexpr Named<cb::K1K2Option> kK1K2[] = {{cb::K1K2Option::Lueker2000, "lueker2000"},
+                                           {cb::K1K2Option::Millero2010, "millero2010"}};
+
+template <class E, std::size_t N>
+const char* name_of(const Named<E> (&table)[N], E value) {
+  for (const auto& n : table) if (n.value == value) return n.name;
+  return table[0].name;
+}
+
+json opt(const std::optional<double>& v) { return v ? json(*v) : json(nullptr); }
+
+// ---------------------------------------------------------------- 2. Writing
+json plan_to_json(const PlanForm& f) {
+  return {{"alkalinity_from", name_of(kPlanAlkalinity, f.alkalinity)},
+          {"alkalinity_stock_g_per_l", f.alkalinity_g_per_l},
+          {"calcium_from", name_of(kPlanCalcium, f.calcium)},
+          {"calcium_stock_g_per_l", f.calcium_g_per_l},
+          {"doses_per_day", f.doses_per_day},
+          {"max_dose_ml", f.max_dose_ml},
+          {"evaporation_l_per_day", f.evaporation_l_per_day},
+          {"horizon_days", f.horizon_days},
+          {"consumption_from_log", f.use_estimate},
+          {"alkalinity_consumption_dkh_per_day", f.alkalinity_demand_dkh_per_day},
+          {"calcium_consumption_mg_l_per_day", f.calcium_demand_mg_l_per_day}};
+}
+
+json hatchery_to_json(const HatcheryForm& f) {
+  return {{"mode", name_of(kModes, f.mode)},
+          {"salinity", f.salinity},
+          {"temperature_c", f.temperature_c},
+          {"alkalinity_dkh", f.alkalinity_dkh},
+          {"ph", f.ph},
+          {"ph_scale", name_of(kScales, f.ph_scale)},
+          {"calcium_mg_l", opt(f.calcium_mg_l)},
+          {"k1k2", name_of(kK1K2, f.k1k2)},
+          {"target", name_of(kKinds, f.target_kind)},
+          {"target_omega_aragonite", f.target_omega},
+          {"target_ph", f.target_ph},
+          {"target_rise_dkh", f.target_rise_dkh},
+          {"target_point", name_of(kPoints, f.target_point)},
+          {"buffer", name_of(kBuffers, f.buffer)},
+          {"ph_ceiling", f.ph_ceiling},
+          {"flow_l_per_min", f.flow_l_per_min},
+          {"volume_l", f.volume_l},
+          {"residence_time_min", opt(f.residence_time_min)},
+          {"stock_temperature_c", f.stock_temperature_c},
+          {"stock_g_per_l", opt(f.stock_g_per_l)},
+          {"confidence_percent", 100 * kConfidenceChoices[f.confidence_index]},
+          {"alkalinity_precision_dkh", f.alkalinity_precision_dkh},
+          {"ph_precision", f.ph_precision},
+          {"table_from_ph", f.table_from_ph},
+          {"table_to_ph", f.table_to_ph},
+          {"table_step_ph", f.table_step_ph}};
+}
+
+// ---------------------------------------------------------------- 3. Reading
+// Reads one object's members into a form; each value the core's checks refuse keeps the
+// form's default and adds a line to `refused`.
+class Reader {
+ public:
+  Reader(const json& j, std::string where, std::vector<std::string>* refused)
+      : j_(j), where_(std::move(where)), refused_(refused) {}
+
+  // A number in `range` (label names it in the message); above zero or whole when asked.
+  void number(const char* key, const char* label, const rg::Range& range, double* out, bool above_zero = false) {
+    const auto v = value(key, label);
+    if (!v) return;
+    if (auto st = rg::check(label, *v, range); !st) return refuse(st.error().message);
+    if (above_zero && !(*v > 0)) return refuse(std::string(label) + " must be above 0");
+    *out = *v;
+  }
+  void whole(const char* key, const char* label, const rg::Range& range, int* out) {
+    double v = *out;
+    const auto before = refused_->size();
+    number(key, label, range, &v);
+    if (refused_->size() != before) return;
+    if (v != std::floor(v)) return refuse(std::string(label) + " must be a whole number");
+    *out = static_cast<int>(v);
+  }
+  // null = not set.
+  void optional(const char* key, const char* label, const rg::Range& range, std::optional<double>* out,
+                bool above_zero = false) {
+    if (!j_.contains(key)) return;
+    if (j_[key].is_null()) {
+      out->reset();
+      return;
+    }
+    double v = 0;
+    const auto before = refused_->size();
+    number(key, label, range, &v, above_zero);
+    if (refused_->size() == before) *out = v;
+  }
+  // A kit or meter precision: the core's precision table decides.
+  void precision(const char* key, const char* label, tw::Parameter p, double* out) {
+    const auto v = value(key, label);
+    if (!v) return;
+    if (auto st = cb::check_precision(p, *v, label); !st) return refuse(st.error().message);
+    *out = *v;
+  }
+  void flag(const char* key, const char* label, bool* out) {
+    if (!j_.contains(key)) return;
+    if (!j_[key].is_boolean()) return refuse(std::string(label) + " is not yes or no");
+    *out = j_[key].get<bool>();
+  }
+  template <class E, std::size_t N>
+  void choice(const char* key, const char* label, const Named<E> (&table)[N], E* out) {
+    if (!j_.contains(key)) return;
+    const std::string text = j_[key].is_string() ? j_[key].get<std::string>() : j_[key].dump();
+    for (const auto& n : table) {
+      if (text == n.name) {
+        *out = n.value;
+        return;
+      }
+    }
+    std::string names;
+    for (const auto& n : table) names += std::string(names.empty() ? "" : ", ") + n.name;
+    refuse(std::string(label) + " '" + text + "' is not one of " + names);
+  }
+  void refuse(const std::string& why) { refused_->push_back(where_ + ": " + why + "; its default is used"); }
+
+ private:
+  std::optional<double> value(const char* key, const char* label) {
+    if (!j_.contains(key)) return std::nullopt;
+    if (!j_[key].is_number()) {
+      refuse(std::string(label) + " is not a number");
+      return std::nullopt;
+    }
+    return j_[key].get<double>();
+  }
+
+  const json& j_;
+  std::string where_;
+  std::vector<std::string>* refused_;
+};
+
+PlanForm plan_from_json(const json& j, const jn::System& sys, std::vector<std::string>* refused) {
+  PlanForm f;
+  Reader r(j, "Plan settings of " + sys.name, refused);
+  r.choice("alkalinity_from", "Alkalinity from", kPlanAlkalinity, &f.alkalinity);
+  r.number("alkalinity_stock_g_per_l", "Alkalinity stock strength", rg::kStockGPerL, &f.alkalinity_g_per_l, true);
+  r.choice("calcium_from", "Calcium from", kPlanCalcium, &f.calcium);
+  r.number("calcium_stock_g_per_l", "Calcium stock strength", rg::kStockGPerL, &f.calcium_g_per_l, true);
+  r.whole("doses_per_day", "Doses per day per pump", rg::kDosesPerDay, &f.doses_per_day);
+  r.number("max_dose_ml", "Largest single dose", rg::kPlannedDoseMax, &f.max_dose_ml);
+  const rg::Range evaporation{rg::kEvaporationFractionPerDay.lo * sys.volume_l,
+                              rg::kEvaporationFractionPerDay.hi * sys.volume_l, "L/day"};
+  r.number("evaporation_l_per_day", "Evaporation", evaporation, &f.evaporation_l_per_day);
+  r.whole("horizon_days", "Days to plan", rg::kPlanHorizonDays, &f.horizon_days);
+  r.flag("consumption_from_log", "Consumption from the log", &f.use_estimate);
+  const rg::Range alk_demand{rg::kAlkalinityDemandMeqPerLDay.lo / tw::units::kMeqPerLPerDKH,
+                             rg::kAlkalinityDemandMeqPerLDay.hi / tw::units::kMeqPerLPerDKH, "dKH/day"};
+  r.number("alkalinity_consumption_dkh_per_day", "Alkalinity consumption", alk_demand, &f.alkalinity_demand_dkh_per_day);
+  r.number("calcium_consumption_mg_l_per_day", "Calcium consumption", rg::kCalciumDemandMgPerLDay,
+           &f.calcium_demand_mg_l_per_day);
+  return f;
+}
+
+HatcheryForm hatchery_from_json(const json& j, const jn::System& sys, std::vector<std::string>* refused) {
+  HatcheryForm f;
+  Reader r(j, "Hatchery settings of " + sys.name, refused);
+  r.choice("mode", "Mode", kModes, &f.mode);
+  r.number("salinity", "Salinity", rg::kSalinityForCarbonateChemistry, &f.salinity);
+  r.number("temperature_c", "Temperature", rg::kTemperatureC, &f.temperature_c);
+  r.number("alkalinity_dkh", "Alkalinity", rg::kAlkalinityDkh, &f.alkalinity_dkh);
+  r.number("ph", "pH", rg::kPh, &f.ph);
+  r.choice("ph_scale", "pH scale", kScales, &f.ph_scale);
+  r.optional("calcium_mg_l", "Calcium (measured)", rg::kCalciumMgL, &f.calcium_mg_l);
+  r.choice("k1k2", "Carbonic acid constants", kK1K2, &f.k1k2);
+  r.choice("target", "Raise the water to", kKinds, &f.target_kind);
+  r.number("target_omega_aragonite", "Target \u03a9 aragonite", rg::kHatcheryTargetOmega, &f.target_omega);
+  r.number("target_ph", "Target pH", rg::kHatcheryTargetPh, &f.target_ph);
+  r.number("target_rise_dkh", "Alkalinity to add", rg::kAlkalinityDkh, &f.target_rise_dkh);
+  r.choice("target_point", "Where the target must be met", kPoints, &f.target_point);
+  r.choice("buffer", "Buffer", kBuffers, &f.buffer);
+  r.number("ph_ceiling", "pH ceiling", rg::kHatcheryPhCeiling, &f.ph_ceiling);
+  r.number("flow_l_per_min", "Intake flow", rg::kIntakeFlowLPerMin, &f.flow_l_per_min);
+  r.number("volume_l", "Tank volume", rg::kSystemVolumeL, &f.volume_l);
+  r.optional("residence_time_min", "Time to the tanks", rg::kResidenceTimeMin, &f.residence_time_min);
+  r.number("stock_temperature_c", "Stock tank temperature", rg::kStockTemperatureC, &f.stock_temperature_c);
+  r.optional("stock_g_per_l", "Stock strength", rg::kStockGPerL, &f.stock_g_per_l, true);
+  if (j.contains("confidence_percent")) {
+    const json& c = j["confidence_percent"];
+    bool known = false;
+    for (int i = 0; i < static_cast<int>(std::size(kConfidenceChoices)); ++i) {
+      if (c.is_number() && std::fabs(c.get<double>() - 100 * kConfidenceChoices[i]) < 1e-6) {
+        f.confidence_index = i;
+        known = true;
+      }
+    }
+    if (!known) r.refuse("Dose so the target is met " + c.dump() + " % is not one of 0 (as read), 90, 95, 99 %");
+  }
+  r.precision("alkalinity_precision_dkh", "Intake alkalinity test precision", tw::Parameter::Alkalinity,
+              &f.alkalinity_precision_dkh);
+  r.precision("ph_precision", "Intake pH reading precision", tw::Parameter::PH, &f.ph_precision);
+  r.number("table_from_ph", "Table from intake pH", rg::kPh, &f.table_from_ph);
+  r.number("table_to_ph", "Table to intake pH", rg::kPh, &f.table_to_ph);
+  r.number("table_step_ph", "Table step", rg::kPumpTableStepPh, &f.table_step_ph);
+  return f;
+}
+
+}  // namespace
+
+json system_dosing_to_json(const SystemDosing& d) {
+  return {{"plan", plan_to_json(d.plan)}, {"hatchery", hatchery_to_json(d.hatchery)}};
+}
+
+json dosing_to_json(const std::map<jn::SystemId, SystemDosing>& by_system, const jn::Journal& journal) {
+  json out = json::object();
+  for (const auto& [id, d] : by_system) {
+    if (jn::find_system(journal, id)) out[std::to_string(id)] = system_dosing_to_json(d);
+  }
+  return out;
+}
+
+std::map<jn::SystemId, SystemDosing> dosing_from_json(const json& j, const jn::Journal& journal,
+                                                      std::vector<std::string>* refused) {
+  std::map<jn::SystemId, SystemDosing> out;
+  if (!j.is_object()) {
+    refused->push_back("The saved Plan and Hatchery settings are not a JSON object; the defaults are used");
+    return out;
+  }
+  for (const auto& [key, value] : j.items()) {
+    jn::SystemId id = 0;
+    const auto [end, ec] = std::from_chars(key.data(), key.data() + key.size(), id);
+    if (ec != std::errc{} || end != key.data() + key.size()) continue;
+    const jn::System* sys = jn::find_system(journal, id);
+    if (!sys || !value.is_object()) continue;  // settings of a system no longer kept
+    SystemDosing d;
+    if (value.contains("plan") && value["plan"].is_object()) d.plan = plan_from_json(value["plan"], *sys, refused);
+    if (value.contains("hatchery") && value["hatchery"].is_object()) {
+      d.hatchery = hatchery_from_json(value["hatchery"], *sys, refused);
+    }
+    out[id] = d;
+  }
+  return out;
+}
+
+// ---------------------------------------------------------------- 4. saved_part
+SystemDosing saved_part(const PlanForm& plan, const HatcheryForm& hatchery) {
+  SystemDosing d{plan, hatchery};
+  const PlanForm p0;
+  d.plan.accept_stale = p0.accept_stale;
+  d.plan.show_all_days = p0.show_all_days;
+  d.plan.export_index = p0.export_index;
+  d.hatchery.show_table = HatcheryForm{}.show_table;
+  return d;
+}
+
+}  // namespace twapp
