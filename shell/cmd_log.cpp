@@ -273,24 +273,33 @@ const char* date_order_name(datetime::DateOrder d) {
 }
 
 // A dry run's events, printed as the import finds them (memory stays flat whatever the file's
-// size): "would add ..." lines, or with --json the opening of the object and its "events" array,
+// size): "would add ..." lines, or with --json the opening of the object and its "events" array
+// (opened by the first event, so that a file refused before any event leaves stdout empty),
 // which print_import_report closes. A system the import would add is not stored, so its events
 // show "?" for its name.
-Store::WouldAdd dry_run_listing(const LogOptions& o, const Journal& names) {
+struct DryRunJson {
+  bool opened = false;
+  void open() {
+    if (!opened) std::cout << "{\n  \"events\": [";
+    opened = true;
+  }
+};
+
+Store::WouldAdd dry_run_listing(const LogOptions& o, const Journal& names, DryRunJson& json) {
   if (!o.json) {
     return [&names](const Event& e) { std::cout << "would add " << describe_event_line(names, e) << "\n"; };
   }
-  std::cout << "{\n  \"events\": [";
-  return [first = true](const Event& e) mutable {
+  return [&json](const Event& e) {
+    const bool first = !json.opened;
+    json.open();
     std::string text = event_to_json(e).dump(2);
     std::string indented;
     for (char c : text) indented += c == '\n' ? std::string("\n    ") : std::string(1, c);
     std::cout << (first ? "\n    " : ",\n    ") << indented;
-    first = false;
   };
 }
 
-void print_import_report(const LogOptions& o, const Store::ImportReport& rep) {
+void print_import_report(const LogOptions& o, const Store::ImportReport& rep, DryRunJson& dry_json) {
   if (o.json) {
     nlohmann::json rej = nlohmann::json::array();
     for (const auto& r : rep.rejected) rej.push_back({{"line", r.line}, {"field", r.field}, {"reason", r.reason}});
@@ -308,8 +317,9 @@ void print_import_report(const LogOptions& o, const Store::ImportReport& rep) {
       std::cout << out.dump(2) << "\n";
       return;
     }
-    // The dry run's "events" were written first, as the import went (DryRunListing): the rest
-    // of the object follows them.
+    // The dry run's "events" were written first, as the import went (dry_run_listing): the
+    // rest of the object follows them.
+    dry_json.open();
     const std::string rest = out.dump(2);
     std::cout << "\n  ],\n" << rest.substr(rest.find('\n') + 1) << "\n";
     return;
@@ -362,7 +372,8 @@ void run_import(const LogOptions& o) {
   auto st = open_for(o, json_file ? Access::WriteOrCreate : Access::Write);
   const auto mode = o.dry_run ? Store::ImportMode::DryRun : Store::ImportMode::Commit;
   const Journal names = systems_only(*st);
-  const Store::WouldAdd listing = o.dry_run ? dry_run_listing(o, names) : Store::WouldAdd{};
+  DryRunJson dry_json;
+  const Store::WouldAdd listing = o.dry_run ? dry_run_listing(o, names, dry_json) : Store::WouldAdd{};
   Store::ImportReport rep;
   if (json_file) {
     // Read one event at a time (the whole file never in memory), in one transaction.
@@ -397,7 +408,7 @@ void run_import(const LogOptions& o) {
     }
     rep = std::move(r).value();
   }
-  print_import_report(o, rep);
+  print_import_report(o, rep, dry_json);
   if (!rep.rejected.empty()) {
     std::cout << std::flush;
     std::exit(3);  // documented: some rows were rejected (the accepted ones are saved)

@@ -125,6 +125,9 @@ except ValueError as e:
 check("dry run --json: one JSON object with every event", rc == 0 and len(dry.get("events", [])) == 9
       and dry.get("would_add") == 9 and dry.get("dry_run") is True, out)
 check("dry run --json stores nothing", events(j) == before)
+rc, out, err = run("log", "--journal", j, "import", "--dry-run", "--json", fixture("no_such_file.csv"))
+check("dry run --json of a missing file: nothing on stdout, the reason on stderr", rc != 0 and out == ""
+      and "no_such_file.csv" in err, (rc, out, err))
 
 # Delimiter given by an option; a wrong one leaves no time column and says which separator.
 j = fresh()
