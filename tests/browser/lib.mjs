@@ -134,3 +134,22 @@ export async function reloadOffline(page, context) {
   await waitReady(page);
   await frames(page, 2);
 }
+
+// Writes `text` as the older store of the app (a journal file in Emscripten's IDBFS database, as
+// the app kept it before its IndexedDB store), from a page of the same origin with no app
+// running; the app imports it once on its next start.
+export async function seedOlderStore(page, url, text) {
+  await page.goto(url + 'manifest.webmanifest');
+  await page.evaluate((t) => new Promise((ok, fail) => {
+    const r = indexedDB.open('/persist', 21);  // as Emscripten's IDBFS creates it
+    r.onupgradeneeded = () => r.result.createObjectStore('FILE_DATA').createIndex('timestamp', 'timestamp', { unique: false });
+    r.onerror = () => fail(r.error);
+    r.onsuccess = () => {
+      const tx = r.result.transaction('FILE_DATA', 'readwrite');
+      const s = tx.objectStore('FILE_DATA');
+      s.put({ timestamp: new Date(), mode: 16893 }, '/persist');
+      s.put({ timestamp: new Date(), mode: 33206, contents: new TextEncoder().encode(t) }, '/persist/tidewright.json');
+      tx.oncomplete = () => { r.result.close(); ok(); };
+    };
+  }), text);
+}

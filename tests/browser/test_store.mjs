@@ -5,7 +5,7 @@
 import { resolve, join } from 'node:path';
 import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
-import { reloadOffline, launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, watchErrors, messageGone } from './lib.mjs';
+import { reloadOffline, launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, watchErrors, messageGone, seedOlderStore } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -220,19 +220,7 @@ test('an old-format store (IDBFS) is imported once, and kept', async () => {
   const context = await browser.newContext({ ...PHONE });
   const page = await context.newPage();
   const errors = watchErrors(page);
-  await page.goto(server.url + 'manifest.webmanifest');  // same origin, no app running yet
-  await page.evaluate((text) => new Promise((ok, fail) => {
-    const r = indexedDB.open('/persist', 21);  // as Emscripten's IDBFS creates it
-    r.onupgradeneeded = () => r.result.createObjectStore('FILE_DATA').createIndex('timestamp', 'timestamp', { unique: false });
-    r.onerror = () => fail(r.error);
-    r.onsuccess = () => {
-      const tx = r.result.transaction('FILE_DATA', 'readwrite');
-      const s = tx.objectStore('FILE_DATA');
-      s.put({ timestamp: new Date(), mode: 16893 }, '/persist');
-      s.put({ timestamp: new Date(), mode: 33206, contents: new TextEncoder().encode(text) }, '/persist/tidewright.json');
-      tx.oncomplete = () => { r.result.close(); ok(); };
-    };
-  }), JSON.stringify(LEGACY));
+  await seedOlderStore(page, server.url, JSON.stringify(LEGACY));
   await page.goto(server.url);
   await waitReady(page);
   const first = await state(page);  // the notice shows for 4 s: read it at once

@@ -5,7 +5,7 @@
 // Screenshots go to tests/browser/output/switcher-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors } from './lib.mjs';
+import { launch, PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -29,19 +29,7 @@ async function openFarm(opts) {
   const context = await browser.newContext({ ...opts });
   const page = await context.newPage();
   const errors = watchErrors(page);
-  await page.goto(server.url + 'manifest.webmanifest');  // same origin, no app running yet
-  await page.evaluate((text) => new Promise((ok, fail) => {
-    const r = indexedDB.open('/persist', 21);
-    r.onupgradeneeded = () => r.result.createObjectStore('FILE_DATA').createIndex('timestamp', 'timestamp', { unique: false });
-    r.onerror = () => fail(r.error);
-    r.onsuccess = () => {
-      const tx = r.result.transaction('FILE_DATA', 'readwrite');
-      const s = tx.objectStore('FILE_DATA');
-      s.put({ timestamp: new Date(), mode: 16893 }, '/persist');
-      s.put({ timestamp: new Date(), mode: 33206, contents: new TextEncoder().encode(text) }, '/persist/tidewright.json');
-      tx.oncomplete = () => { r.result.close(); ok(); };
-    };
-  }), JSON.stringify(FARM));
+  await seedOlderStore(page, server.url, JSON.stringify(FARM));
   await page.goto(server.url);
   await waitReady(page);
   await flushed(page);
