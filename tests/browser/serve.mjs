@@ -17,7 +17,7 @@
 //    browser may keep a copy but asks before each use, and an update is picked up by the next
 //    load, by the tests as much as by a phone. The service worker agrees: it fetches network
 //    first (through this same revalidation) and falls back to its own cache only offline; its
-//    cache name carries a hash of the build, and its install fetches with cache: 'reload'. A
+//    cache name carries a hash of the build, and its install revalidates (cache: 'no-cache'). A
 //    stale tidewright.js can therefore never meet a new tidewright.wasm. Revalidation costs one
 //    small round trip per file on a repeat visit, which the network-first worker makes anyway;
 //    long-lived caching would need versioned file names (tidewright.<hash>.wasm) from the build.
