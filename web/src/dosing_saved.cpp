@@ -37,17 +37,19 @@ constexpr Named<PlanCalcium> kPlanCalcium[] = {{PlanCalcium::CalciumChloride, "c
 constexpr Named<HatcheryMode> kModes[] = {{HatcheryMode::FlowThrough, "flow_through"}, {HatcheryMode::Batch, "batch"}};
 constexpr Named<hat::TargetPoint> kPoints[] = {{hat::TargetPoint::AfterMixing, "after_mixing"},
                                                {hat::TargetPoint::AtTanks, "at_tanks"}};
-constexpr Named<hat::TargetKind> kKinds[] = {{hat::TargetKind::OmegaAragonite, "omega_aragonite"},
-                                             {hat::TargetKind::PH, "ph"},
-                                             {hat::TargetKind::AlkalinityRise, "alkalinity_rise"}};
-constexpr Named<hat::Buffer> kBuffers[] = {{hat::Buffer::SodiumCarbonate, "carbonate"},
-                                           {hat::Buffer::SodiumBicarbonate, "bicarbonate"},
-                                           {hat::Buffer::SodiumHydroxide, "hydroxide"},
-                                           {hat::Buffer::Blend, "blend"}};
-constexpr Named<cb::PhScale> kScales[] = {{cb::PhScale::NBS, "nbs"}, {cb::PhScale::Total, "total"},
-                                          {cb::PhScale::Seawater, "sws"}, {cb::PhScale::Free, "free"}};
-constexpr Named<cb::K1K2Option> kK1K2[] = {{cb::K1K2Option::Lueker2000, "lueker2000"},
-                                           {cb::K1K2Option::Millero2010, "millero2010"}};
+
+// The core's own spellings where it has them (hatchery.hpp, carbonate.hpp: to_string).
+template <class E>
+Named<E> named(E value) {
+  return {value, to_string(value)};
+}
+const Named<hat::TargetKind> kKinds[] = {named(hat::TargetKind::OmegaAragonite), named(hat::TargetKind::PH),
+                                         named(hat::TargetKind::AlkalinityRise)};
+const Named<hat::Buffer> kBuffers[] = {named(hat::Buffer::SodiumCarbonate), named(hat::Buffer::SodiumBicarbonate),
+                                       named(hat::Buffer::SodiumHydroxide), named(hat::Buffer::Blend)};
+const Named<cb::PhScale> kScales[] = {named(cb::PhScale::NBS), named(cb::PhScale::Total), named(cb::PhScale::Seawater),
+                                      named(cb::PhScale::Free)};
+const Named<cb::K1K2Option> kK1K2[] = {named(cb::K1K2Option::Lueker2000), named(cb::K1K2Option::Millero2010)};
 
 template <class E, std::size_t N>
 const char* name_of(const Named<E> (&table)[N], E value) {
