@@ -94,7 +94,9 @@ void draw_row(AppState& app, const jn::System& s) {
   }
   ImGui::PushFont(app.ui.fonts.bold);
   d->PushClipRect(p, ImVec2(p.x + w - 0.5f * e, p.y + h), true);
-  d->AddText(ImVec2(p.x + 0.8f * e, p.y + 0.45f * e), current ? theme::kAccent : theme::kText, s.name.c_str());
+  // A long name ends in an ellipsis inside the card (ui::fit_text, as the switcher does).
+  const std::string name = ui::fit_text(s.name, w - 1.3f * e);
+  d->AddText(ImVec2(p.x + 0.8f * e, p.y + 0.45f * e), current ? theme::kAccent : theme::kText, name.c_str());
   ImGui::LogText("\n%s", s.name.c_str());  // drawn into the list: said to screen readers here
   ImGui::PopFont();
   const std::string sub = std::string(fmtx::system_kind_label(s.kind)) + " \u00b7 " +
