@@ -63,15 +63,24 @@ done
 passed=$((passed + 1))
 
 stage "5/5 the app: browser build, browser tests, native start under Xvfb"
+web_started=$SECONDS
 scripts/build-web.sh
-(cd tests/browser && node run-all.mjs "$ROOT/build/web/site")
-(cd tests/browser && node test_screens_dosing.mjs "$ROOT/build/web/site")
-(cd tests/browser && node test_log.mjs "$ROOT/build/web/site")
-(cd tests/browser && TW_CLI="$ROOT/build/native/shell/tidewright" node test_schedules.mjs "$ROOT/build/web/site")
-(cd tests/browser && node test_store.mjs "$ROOT/build/web/site")
-(cd tests/browser && node test_serving.mjs "$ROOT/build/web/site")
-(cd tests/browser && node test_saved_settings.mjs "$ROOT/build/web/site")
-(cd tests/browser && node test_switcher.mjs "$ROOT/build/web/site")
+printf 'browser build: %d s\n' $((SECONDS - web_started))
+# Each suite prints its own passes; the seconds each took are printed too, so the stage's
+# time can be trimmed where it goes.
+browser_suite() {
+  local t0=$SECONDS
+  (cd tests/browser && node "$@" "$ROOT/build/web/site")
+  printf 'browser suite %s: %d s\n' "$1" $((SECONDS - t0))
+}
+browser_suite run-all.mjs
+browser_suite test_screens_dosing.mjs
+browser_suite test_log.mjs
+TW_CLI="$ROOT/build/native/shell/tidewright" browser_suite test_schedules.mjs
+browser_suite test_store.mjs
+browser_suite test_serving.mjs
+browser_suite test_saved_settings.mjs
+browser_suite test_switcher.mjs
 xvfb-run -a build/native/web/tidewright-app --frames 30
 passed=$((passed + 1))
 

@@ -386,6 +386,7 @@ double useful_horizon_days(Parameter p) {
     case Parameter::Alkalinity: return 14.0;
     case Parameter::Calcium: return 30.0;
     case Parameter::Magnesium: return 60.0;
+    default: break;  // not a dosed parameter: the estimate tracks only the three above
   }
   return 14.0;
 }

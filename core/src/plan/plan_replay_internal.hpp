@@ -46,7 +46,7 @@ class Engine {
   // Runs to the end of the horizon and makes the end checks (floors never reached).
   void finish();
   // Runs to the end of day `day` (inclusive).
-  void run_to_end_of_day(int day) { run_to(day * 1440.0); }
+  void run_to_end_of_day(int which_day) { run_to(which_day * 1440.0); }
   // Forgets what was found so far (for a copy that follows a mishap).
   void reset_findings();
 
