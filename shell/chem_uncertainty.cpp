@@ -26,7 +26,8 @@ const FieldOptions kPrecisionOptions = {
     {"u(fco2)", "--fco2-precision"},             {"u(co3)", "--carbonate-precision"},
     {"u(ph_scale_conversion)", "--ph-conversion-precision"},
     {"u(salinity)", "--salinity-precision"},     {"u(temperature_c)", "--temperature-precision"},
-    {"u(calcium_umol_kg)", "--calcium-precision"}};
+    {"u(calcium_umol_kg)", "--calcium-precision"},
+    {"u(magnesium_umol_kg)", "--magnesium-precision"}, {"u(total_boron_umol_kg)", "--total-boron-precision"}};
 
 // Checks a precision given in the user's unit against the table's range (canonical unit),
 // wording a refusal in the user's unit. to_canonical: factor from the user's unit.
@@ -47,7 +48,7 @@ std::string fixed(double v, int decimals) { return fmt::format("{:.{}f}", v, dec
 
 bool ChemPrecisionOptions::any_given() const {
   return alkalinity || ph || ph_conversion || calcium || salinity || temperature || dic || pco2 ||
-         fco2 || carbonate;
+         fco2 || carbonate || magnesium || total_boron;
 }
 
 void add_precision_options(CLI::App& cmd, ChemPrecisionOptions& o) {
@@ -62,6 +63,11 @@ void add_precision_options(CLI::App& cmd, ChemPrecisionOptions& o) {
   cmd.add_option("--ph-conversion-precision", o.ph_conversion,
                  "Uncertainty of converting --ph to the total scale (nbs default 0.03)");
   cmd.add_option("--calcium-precision", o.calcium, "Calcium test's standard uncertainty, in --calcium-unit (kit: 10-20 mg/L)");
+  cmd.add_option("--magnesium-precision", o.magnesium,
+                 "Magnesium test's standard uncertainty, in --magnesium-unit (kit: 25-50 mg/L); counts "
+                 "with --mg-ca-correction");
+  cmd.add_option("--total-boron-precision", o.total_boron,
+                 "Measured total boron's standard uncertainty, in --total-boron-unit (default 5 % of it)");
   cmd.add_option("--salinity-precision", o.salinity, "Salinity's standard uncertainty (default 0.5)");
   cmd.add_option("--temperature-precision", o.temperature,
                  "Temperature's standard uncertainty, in the unit of the temperature given (default 0.2 C)");
@@ -90,6 +96,10 @@ tc::InputUncertainties input_uncertainties(const ChemPrecisionOptions& o, const 
   needs(o.fco2, tc::Quantity::FCO2, "--fco2-precision", "--fco2");
   needs(o.carbonate, tc::Quantity::Carbonate, "--carbonate-precision", "--carbonate");
   if (o.calcium && !conditions.calcium_umol_kg) throw CommandError("--calcium-precision needs --calcium");
+  if (o.magnesium && !(conditions.magnesium_umol_kg && conditions.mg_ca_correction))
+    throw CommandError("--magnesium-precision needs --magnesium and --mg-ca-correction (magnesium is read by nothing else)");
+  if (o.total_boron && !conditions.total_boron_umol_kg)
+    throw CommandError("--total-boron-precision needs --total-boron");
 
   if (o.alkalinity) {
     const double umol_per_unit = units::alkalinity_to_umol_kg(1.0, un.alkalinity, un.density_kg_l);
@@ -114,6 +124,25 @@ tc::InputUncertainties input_uncertainties(const ChemPrecisionOptions& o, const 
                                                          units::Ion::Calcium, un.density_kg_l);
     check_in_unit(P::Calcium, *o.calcium, mg_l_per_unit, units::to_string(un.calcium), "--calcium-precision");
     u.calcium_umol_kg = *o.calcium * umol_per_unit;
+  }
+  if (o.magnesium) {
+    const double umol_per_unit = units::ion_to_umol_kg(1.0, un.magnesium, units::Ion::Magnesium, un.density_kg_l);
+    const double mg_l_per_unit = units::ion_from_umol_kg(umol_per_unit, units::ConcentrationUnit::MgPerL,
+                                                         units::Ion::Magnesium, un.density_kg_l);
+    check_in_unit(P::Magnesium, *o.magnesium, mg_l_per_unit, units::to_string(un.magnesium), "--magnesium-precision");
+    u.magnesium_umol_kg = *o.magnesium * umol_per_unit;
+  }
+  // Boron is no kit test: its accepted range is the core's, a share of the measured value,
+  // worded here in the unit the boron was given in.
+  if (o.total_boron) {
+    const double umol_per_unit = units::ion_to_umol_kg(1.0, un.total_boron, units::Ion::Boron, un.density_kg_l);
+    const double max = tc::kMaxUncertaintyRelative * *conditions.total_boron_umol_kg / umol_per_unit;
+    const std::string unit = units::to_string(un.total_boron);
+    if (!(*o.total_boron >= 0.0 && *o.total_boron <= max))
+      throw CommandError(fmt::format("--total-boron-precision {:g} {} is outside the accepted range 0 to {:.4g} {} "
+                                     "(one standard deviation, up to half the measured total boron)",
+                                     *o.total_boron, unit, max, unit));
+    u.total_boron_umol_kg = *o.total_boron * umol_per_unit;
   }
   if (o.salinity) {
     check_in_unit(P::Salinity, *o.salinity, 1.0, "", "--salinity-precision");
@@ -204,6 +233,13 @@ std::string uncertainty_text(const tc::UncertainState& s, const ChemUnits& un) {
       shown = fmt::format("calcium {:.3g} {}", units::ion_from_umol_kg(src.u, un.calcium, units::Ion::Calcium,
                                                                        un.density_kg_l),
                           units::to_string(un.calcium));
+    } else if (src.name == "magnesium_umol_kg" || src.name == "total_boron_umol_kg") {
+      const bool mg = src.name == "magnesium_umol_kg";
+      const units::ConcentrationUnit unit = mg ? un.magnesium : un.total_boron;
+      shown = fmt::format("{} {:.3g} {}", mg ? "magnesium" : "total boron",
+                          units::ion_from_umol_kg(src.u, unit, mg ? units::Ion::Magnesium : units::Ion::Boron,
+                                                  un.density_kg_l),
+                          units::to_string(unit));
     } else if (src.name.rfind("u", 0) != 0 && src.name.find("_umol_kg") != std::string::npos) {
       shown = fmt::format("{} {:g} umol/kg", src.name.substr(0, src.name.find("_umol_kg")), src.u);
     } else if (src.name == "dic" || src.name == "co3") {

@@ -19,6 +19,7 @@ struct ChemPrecisionOptions {
   bool constants = false;              // --constants-uncertainty
   std::optional<double> alkalinity, ph, ph_conversion, calcium, salinity, temperature;
   std::optional<double> dic, pco2, fco2, carbonate;
+  std::optional<double> magnesium, total_boron;  // a salt mix's measured composition
   bool any_given() const;              // a precision option was given (implies --uncertainty)
   bool wanted() const { return uncertainty || constants || any_given(); }
 };
@@ -29,6 +30,8 @@ void add_precision_options(CLI::App& cmd, ChemPrecisionOptions& o);
 struct ChemUnits {
   units::AlkalinityUnit alkalinity = units::AlkalinityUnit::DKH;
   units::ConcentrationUnit calcium = units::ConcentrationUnit::MgPerL;
+  units::ConcentrationUnit magnesium = units::ConcentrationUnit::MgPerL;
+  units::ConcentrationUnit total_boron = units::ConcentrationUnit::UmolPerKg;
   bool fahrenheit = false;
   double density_kg_l = 1.0;
 };

@@ -195,6 +195,8 @@ void add_confidence(const BufferOptions& o, const hy::Water& w, hy::Settings& s)
   un.density_kg_l = seawater::density_kg_per_l(w.salinity, w.temperature_c);
   if (auto a = units::alkalinity_unit_from_string(o.alkalinity_unit)) un.alkalinity = *a;
   if (auto ca = units::concentration_unit_from_string(o.calcium_unit)) un.calcium = *ca;
+  if (auto mg = units::concentration_unit_from_string(o.salt_mix.magnesium_unit)) un.magnesium = *mg;
+  if (auto b = units::concentration_unit_from_string(o.salt_mix.total_boron_unit)) un.total_boron = *b;
   hy::Confidence conf;
   conf.probability = percent / 100.0;
   conf.intake = input_uncertainties(o.precision, c, w.measurements, un);

@@ -148,6 +148,8 @@ ChemUnits chem_units(const ChemOptions& o, double density) {
   ChemUnits units_used;
   units_used.alkalinity = or_fail(units::alkalinity_unit_from_string(o.alkalinity_unit));
   units_used.calcium = or_fail(units::concentration_unit_from_string(o.calcium_unit));
+  units_used.magnesium = or_fail(units::concentration_unit_from_string(o.salt_mix.magnesium_unit));
+  units_used.total_boron = or_fail(units::concentration_unit_from_string(o.salt_mix.total_boron_unit));
   units_used.fahrenheit = temperature_given(o).in_fahrenheit;
   units_used.density_kg_l = density;
   return units_used;

@@ -235,6 +235,14 @@ test('water: salt mix boron and the Mg/Ca correction (phone 390x844)', async () 
   await reveal('water.mg_ca.1');
   await tap(page, 'water.mg_ca.1');
   s = await state(page);
+  // The measured magnesium the correction reads is a source of uncertainty of its own: a
+  // coarser magnesium test widens Omega's band.
+  const u1 = s.water.u.omega_aragonite;
+  await reveal('water.u_magnesium');
+  await tap(page, 'water.u_magnesium');
+  await enter(page, '150');
+  s = await state(page);
+  check(s.water.u.omega_aragonite > u1, `u(Omega) ${u1} -> ${s.water.u.omega_aragonite} with magnesium known to 150 mg/L`);
   check(s.water.mg_ca_correction && s.water.magnesium_mg_l > 1000, `Mg/Ca: ${s.water.mg_ca_correction}, Mg ${s.water.magnesium_mg_l} (the demo logs magnesium)`);
   check(s.water.ok && (s.water.warnings || []).some((w) => /Mg\/Ca correction of the constants applied/.test(w)),
         `the correction's sentence is not among the warnings: ${JSON.stringify(s.water.warnings)} ${s.water.error}`);
@@ -244,6 +252,12 @@ test('water: salt mix boron and the Mg/Ca correction (phone 390x844)', async () 
   await enter(page, '8.8');
   s = await state(page);
   check(s.water.boron_measured && /as measured/.test(s.water.boron_source), `boron: ${s.water.boron_source}`);
+  const u2 = s.water.u.omega_aragonite;
+  await reveal('water.u_boron');
+  await tap(page, 'water.u_boron');
+  await enter(page, '20');
+  s = await state(page);
+  check(s.water.u.omega_aragonite > u2, `u(Omega) ${u2} -> ${s.water.u.omega_aragonite} with boron known to 20 %`);
   await page.screenshot({ path: join(OUTPUT, 'phone-water-salt-mix.png') });
   await tap(page, 'water.boron');
   await enter(page, '50');

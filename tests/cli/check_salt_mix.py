@@ -103,4 +103,23 @@ mixed = json.loads(out) if rc == 0 else {}
 check("buffer line: measured boron mixed by mass", rc == 0 and abs(mixed["salt_mix"]["total_boron_umol_kg"] - 537.58) < 0.05
       and any("measured boron mixed by mass" in n for n in mixed["notes"]), (err, mixed.get("salt_mix")))
 
+# Their uncertainty: a measured boron and a magnesium the correction reads are sources of their
+# own (5 % of the boron and the magnesium kit's 25 mg/L by default), set by options in the unit
+# typed, refused outside their range.
+reef = ["chem", "--alkalinity", "8", "--ph", "8.1", "--ph-scale", "nbs", "--calcium", "420", "--magnesium", "1320",
+        "--mg-ca-correction", "--total-boron", "6.5", "--total-boron-unit", "mg/L", "--uncertainty"]
+rc, out, err = run_text(*reef)
+check("uncertainty: boron and magnesium listed in the unit typed", rc == 0 and "magnesium 25 mg/L" in out
+      and "total boron 0.325 mg/L" in out, out + err)
+rc, out, err = run_text(*reef, "--json")
+names = [s["name"] for s in json.loads(out)["uncertainty"]["sources"]] if rc == 0 else []
+check("uncertainty json: both sources", "magnesium_umol_kg" in names and "total_boron_umol_kg" in names, names)
+rc, out, err = run_text(*reef, "--total-boron-precision", "5")
+check("boron precision out of range: refused in mg/L", rc != 0 and out == ""
+      and "--total-boron-precision 5 mg/L" in err and "0 to 3.25 mg/L" in err, err)
+rc, out, err = run_text(*reef, "--magnesium-precision", "300")
+check("magnesium precision out of range: refused with the range", rc != 0 and "0 to 200 mg/L" in err, err)
+rc, out, err = run_text("chem", "--alkalinity", "8", "--ph", "8.1", "--ph-scale", "nbs", "--magnesium-precision", "30")
+check("magnesium precision without the correction: refused", rc != 0 and "--mg-ca-correction" in err, err)
+
 finish()

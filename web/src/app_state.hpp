@@ -77,6 +77,11 @@ struct WaterPrecision {
   double temperature_c = typical(tw::journal::Parameter::Temperature);
   double pco2_uatm = 0;
   double dic_umol_kg = 0;
+  // Of a measured calcium and magnesium (mg/L), and of a measured total boron (a fraction of
+  // its value); each counts only when that value is used (uncertainty.hpp).
+  double calcium_mg_l = typical(tw::journal::Parameter::Calcium);
+  double magnesium_mg_l = typical(tw::journal::Parameter::Magnesium);
+  double total_boron_relative = tw::carbonate::kMeasuredBoronRelativeUncertainty;
   bool operator==(const WaterPrecision&) const = default;
   static double typical(tw::journal::Parameter p) { return tw::carbonate::default_precision(p)->typical; }
 };

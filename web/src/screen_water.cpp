@@ -158,6 +158,21 @@ void draw_precision(AppState& app, const jn::UnitPreferences& u) {
     p.temperature_c = t / per_c;
     changed = true;
   }
+  // A measured composition's precisions, shown only where that value is used.
+  if (w.calcium_mg_l)
+    changed |= ui::number_field(app, "water.u_calcium", {"Calcium test \u00b1", "mg/L", 0, 1, 0.0,
+                                                         dflt(jn::Parameter::Calcium).maximum}, &p.calcium_mg_l);
+  if (w.mg_ca_correction && w.magnesium_mg_l)
+    changed |= ui::number_field(app, "water.u_magnesium", {"Magnesium test \u00b1", "mg/L", 0, 5, 0.0,
+                                                           dflt(jn::Parameter::Magnesium).maximum}, &p.magnesium_mg_l);
+  if (w.total_boron_mg_l) {
+    double percent = 100.0 * p.total_boron_relative;
+    if (ui::number_field(app, "water.u_boron", {"Total boron \u00b1", "%", 0, 1, 0.0, 100.0 * cb::kMaxUncertaintyRelative},
+                         &percent)) {
+      p.total_boron_relative = percent / 100.0;
+      changed = true;
+    }
+  }
   if (ui::button(app, "water.u_defaults", "Typical hobby kit precisions", 0, ui::Tone::Quiet)) {
     p = WaterPrecision{};
     changed = true;

@@ -127,6 +127,13 @@ void add_uncertainty(const AppState& app, const cb::Conditions& cond, double alk
   }
   u.salinity = p.salinity;
   u.temperature_c = p.temperature_c;
+  const auto ion_u = [&](double mg_l, tw::units::Ion ion) {
+    return tw::units::ion_to_umol_kg(mg_l, tw::units::ConcentrationUnit::MgPerL, ion, out.density_kg_per_l);
+  };
+  if (cond.calcium_umol_kg) u.calcium_umol_kg = ion_u(p.calcium_mg_l, tw::units::Ion::Calcium);
+  if (cond.mg_ca_correction && cond.magnesium_umol_kg)
+    u.magnesium_umol_kg = ion_u(p.magnesium_mg_l, tw::units::Ion::Magnesium);
+  if (cond.total_boron_umol_kg) u.total_boron_umol_kg = p.total_boron_relative * *cond.total_boron_umol_kg;
   auto r = w.pair == WaterPair::AlkalinityAir
                ? cb::equilibrate_with_air_with_uncertainty(cond, alk_umol_kg, app.settings.room_co2_ppm, u)
                : cb::solve_with_uncertainty(cond, pair, u);

@@ -19,6 +19,8 @@ std::optional<PrecisionDefault> default_precision(journal::Parameter p) {
       return PrecisionDefault{*typical, 0.5, 2.0, "dKH", "hobby alkalinity test kit", "common practice"};
     case P::Calcium:
       return PrecisionDefault{*typical, 20.0, 100.0, "mg/L", "hobby calcium test kit", "common practice"};
+    case P::Magnesium:
+      return PrecisionDefault{*typical, 50.0, 200.0, "mg/L", "hobby magnesium test kit", "common practice"};
     case P::PH:
       return PrecisionDefault{*typical, 0.1, kMaxUncertaintyPh, "pH (NBS)",
                               "hobby pH meter calibrated with NBS buffers", "common practice"};
@@ -65,6 +67,11 @@ InputUncertainties default_input_uncertainties(const Conditions& conditions, con
   if (conditions.calcium_umol_kg)
     u.calcium_umol_kg = units::ion_to_umol_kg(typical(P::Calcium), units::ConcentrationUnit::MgPerL,
                                               units::Ion::Calcium, density);
+  if (conditions.mg_ca_correction && conditions.magnesium_umol_kg)
+    u.magnesium_umol_kg = units::ion_to_umol_kg(typical(P::Magnesium), units::ConcentrationUnit::MgPerL,
+                                                units::Ion::Magnesium, density);
+  if (conditions.total_boron_umol_kg)
+    u.total_boron_umol_kg = kMeasuredBoronRelativeUncertainty * *conditions.total_boron_umol_kg;
   return u;
 }
 

@@ -104,6 +104,14 @@ Status check_all(const Conditions& c, const InputPair& in, const InputUncertaint
                        kMaxUncertaintyRelative * c.calcium_umol_kg.value_or(0.0), "umol/kg");
       !s)
     return s;
+  if (auto s = check_u("total_boron_umol_kg", u.total_boron_umol_kg,
+                       kMaxUncertaintyRelative * c.total_boron_umol_kg.value_or(0.0), "umol/kg");
+      !s)
+    return s;
+  if (auto s = check_u("magnesium_umol_kg", u.magnesium_umol_kg,
+                       kMaxUncertaintyRelative * c.magnesium_umol_kg.value_or(0.0), "umol/kg");
+      !s)
+    return s;
   if (auto s = check_u("phosphate_umol_kg", u.phosphate_umol_kg, kMaxUncertaintyNutrientUmolKg, "umol/kg"); !s)
     return s;
   if (auto s = check_u("silicate_umol_kg", u.silicate_umol_kg, kMaxUncertaintyNutrientUmolKg, "umol/kg"); !s)
@@ -186,10 +194,30 @@ std::vector<Source> sources_of(const Problem& base, const InputUncertainties& u)
     p.conditions.temperature_c += d;
     return recompute(std::move(p));
   });
+  // With the Mg/Ca correction on, calcium and magnesium also move the constants: those
+  // nudges recompute them. Otherwise calcium enters only the saturation's product.
+  const bool corrected = base.conditions.mg_ca_correction;
   if (base.conditions.calcium_umol_kg)
     add("calcium_umol_kg", u.calcium_umol_kg, 1e-6 * std::max(*base.conditions.calcium_umol_kg, 1.0),
-        false, [](Problem p, double d) -> Result<Problem> {
+        false, [corrected](Problem p, double d) -> Result<Problem> {
+          if (corrected) {
+            *p.conditions.calcium_umol_kg += d;
+            return recompute(std::move(p));
+          }
           p.constants.totals.calcium += d * 1e-6;
+          return p;
+        });
+  if (corrected && base.conditions.magnesium_umol_kg)
+    add("magnesium_umol_kg", u.magnesium_umol_kg, 1e-6 * std::max(*base.conditions.magnesium_umol_kg, 1.0),
+        false, [](Problem p, double d) -> Result<Problem> {
+          *p.conditions.magnesium_umol_kg += d;
+          return recompute(std::move(p));
+        });
+  const bool boron_measured = base.conditions.total_boron_umol_kg.has_value();
+  if (boron_measured)
+    add("total_boron_umol_kg", u.total_boron_umol_kg, 1e-6 * std::max(*base.conditions.total_boron_umol_kg, 1.0),
+        false, [](Problem p, double d) -> Result<Problem> {
+          p.constants.totals.boron += d * 1e-6;
           return p;
         });
   add("phosphate_umol_kg", u.phosphate_umol_kg, 1e-4, base.conditions.phosphate_umol_kg < 1e-4,
@@ -220,11 +248,13 @@ std::vector<Source> sources_of(const Problem& base, const InputUncertainties& u)
         return p;
       });
     }
-    // Relative: a nudge d multiplies total boron by (1 + d).
-    add("boron_relative", c.boron_relative, 1e-6, false, [](Problem p, double d) -> Result<Problem> {
-      p.constants.totals.boron *= 1.0 + d;
-      return p;
-    });
+    // Relative: a nudge d multiplies total boron by (1 + d). The ratio's uncertainty; a
+    // measured boron carries its own instead (above).
+    if (!boron_measured)
+      add("boron_relative", c.boron_relative, 1e-6, false, [](Problem p, double d) -> Result<Problem> {
+        p.constants.totals.boron *= 1.0 + d;
+        return p;
+      });
   }
   return out;
 }

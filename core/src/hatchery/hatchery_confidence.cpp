@@ -4,7 +4,7 @@
 //
 // Method: at a dose D (fixed amounts of each compound), the target's quantity T(D) and the
 // highest pH P(D) are functions of the intake readings x (the measured pair, the pH scale
-// conversion, salinity, temperature, calcium). Their standard uncertainties follow Orr et al.
+// conversion, salinity, temperature, calcium, and a salt mix's measured boron and magnesium). Their standard uncertainties follow Orr et al.
 // (2018, Mar. Chem. 207:84): u(T)^2 = sum_i (dT/dx_i)^2 u(x_i)^2, the readings independent, the
 // derivatives central differences of the same chain the dose is planned with (apply_dose:
 // intake solve, dose, gas exchange). The dose is then planned for the target raised to
@@ -69,6 +69,10 @@ Result<AtDose> uncertainty_at(const Water& w, const DoseMix& dose, const Setting
       {u.salinity, [](Water& x, double h) { x.salinity += h; }},
       {u.temperature_c, [](Water& x, double h) { x.temperature_c += h; }},
       {w.calcium_umol_kg ? u.calcium_umol_kg : 0.0, [](Water& x, double h) { *x.calcium_umol_kg += h; }},
+      // A salt mix's measured boron, and magnesium when the Mg/Ca correction reads it.
+      {w.total_boron_umol_kg ? u.total_boron_umol_kg : 0.0, [](Water& x, double h) { *x.total_boron_umol_kg += h; }},
+      {w.magnesium_umol_kg && w.mg_ca_correction ? u.magnesium_umol_kg : 0.0,
+       [](Water& x, double h) { *x.magnesium_umol_kg += h; }},
   };
   double vt = 0, vp = 0;
   for (const Source& src : sources) {

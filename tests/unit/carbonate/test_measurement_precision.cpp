@@ -1,7 +1,8 @@
 // Default measurement precisions (measurement_precision.hpp): the one table agrees with the
 // journal's typical precision and with the ranges of common practice named in issue 13
-// (alkalinity kit 0.2-0.5 dKH, hobby pH meter 0.05-0.1 NBS, calcium kit 10-20 mg/L; common
-// practice, no single source), and bad precisions are refused with the field and the range.
+// (alkalinity kit 0.2-0.5 dKH, hobby pH meter 0.05-0.1 NBS, calcium kit 10-20 mg/L; magnesium
+// kit 25-50 mg/L, issue 18; common practice, no single source), and bad precisions are refused
+// with the field and the range.
 #include <cmath>
 #include <string>
 
@@ -15,7 +16,7 @@ using P = tw::journal::Parameter;
 TEST_CASE("measurement precision: defaults sit in the ranges of common practice") {
   struct Row { P p; double low, high; const char* unit; };
   const Row rows[] = {{P::Alkalinity, 0.2, 0.5, "dKH"}, {P::PH, 0.05, 0.1, "pH (NBS)"},
-                      {P::Calcium, 10, 20, "mg/L"}};
+                      {P::Calcium, 10, 20, "mg/L"}, {P::Magnesium, 25, 50, "mg/L"}};
   for (const Row& r : rows) {
     auto d = tc::default_precision(r.p);
     REQUIRE(d);

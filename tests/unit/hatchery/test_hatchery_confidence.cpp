@@ -106,3 +106,26 @@ TEST_CASE("hatchery confidence: the pH ceiling holds with the same probability")
   MESSAGE(refused.error().message);
   CHECK(refused.error().message.find("confidence") != std::string::npos);
 }
+
+TEST_CASE("hatchery confidence: a salt mix's measured boron is a source of its own") {
+  // Made-up water with a measured total boron: its uncertainty (5 %, the core's default for a
+  // measured boron) widens the margin the 95 % dose keeps, so the dose grows; a boron known
+  // exactly adds nothing.
+  hy::Water w = intake(2100, 7.85);
+  w.total_boron_umol_kg = 500;
+  hy::Settings s;
+  s.target = {hy::TargetKind::OmegaAragonite, 2.5, cb::PhScale::Total};
+  s.limits.ph_ceiling = 8.3;
+  hy::Confidence conf;
+  conf.intake.first = 10;
+  conf.intake.second = 0.02;
+  s.confidence = conf;
+  auto exact = hy::plan_treatment(w, s);
+  s.confidence->intake.total_boron_umol_kg = 0.05 * 500;
+  auto uncertain = hy::plan_treatment(w, s);
+  REQUIRE(exact.ok());
+  REQUIRE(uncertain.ok());
+  MESSAGE("added alkalinity at 95 %: boron exact ", exact->confidence->added_alkalinity_umol_kg,
+          ", boron +/- 5 % ", uncertain->confidence->added_alkalinity_umol_kg, " umol/kg");
+  CHECK(uncertain->confidence->added_alkalinity_umol_kg > exact->confidence->added_alkalinity_umol_kg);
+}

@@ -62,7 +62,8 @@ struct ConstantUncertainties {
   double pkw = 0.01;
   double pksp_aragonite = 0.02;
   double pksp_calcite = 0.02;
-  double boron_relative = 0.02;  // u(total boron)/total boron
+  double boron_relative = 0.02;  // u(total boron)/total boron, of the boron-to-salinity ratio:
+                                 // not used for a measured boron (InputUncertainties::total_boron_umol_kg)
 };
 
 // ---------------------------------------------------------------- 3. Inputs
@@ -78,6 +79,12 @@ struct InputUncertainties {
   double salinity = 0;
   double temperature_c = 0;
   double calcium_umol_kg = 0;  // counts only when Conditions::calcium_umol_kg is given
+  // Of a salt mix's measured composition (issue 18). Total boron counts only when
+  // Conditions::total_boron_umol_kg is given, and then stands in for the constants'
+  // boron_relative (the seawater boron-to-salinity ratio is not used). Magnesium counts only
+  // when Conditions::mg_ca_correction is on, its one reader.
+  double total_boron_umol_kg = 0;
+  double magnesium_umol_kg = 0;
   double phosphate_umol_kg = 0;
   double silicate_umol_kg = 0;
   std::optional<ConstantUncertainties> constants;  // unset: the constants taken as exact

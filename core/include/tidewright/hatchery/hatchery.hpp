@@ -129,7 +129,8 @@ struct StockOptions {
 struct Confidence {
   double probability = 0.95;              // accepted 0.5..0.999
   carbonate::InputUncertainties intake;   // of Water::measurements (first, second, pH scale
-                                          // conversion), salinity, temperature, calcium
+                                          // conversion), salinity, temperature, calcium, and
+                                          // a salt mix's measured boron and magnesium
 };
 
 struct Settings {
