@@ -4,6 +4,7 @@ import { chromium } from 'playwright-core';
 import { mkdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { inflateSync } from 'node:zlib';
 
 export const HERE = dirname(fileURLToPath(import.meta.url));
 export const OUTPUT = join(HERE, 'output');
@@ -152,4 +153,20 @@ export async function seedOlderStore(page, url, text) {
       tx.oncomplete = () => { r.result.close(); ok(); };
     };
   }), text);
+}
+
+// The colour of one page pixel (CSS px), [r, g, b]: a 1x1 screenshot's PNG, decoded here (8-bit
+// RGB or RGBA, one scanline with its filter byte, which for one pixel leaves it as stored).
+export async function pixelAt(page, x, y) {
+  const png = await page.screenshot({ clip: { x, y, width: 1, height: 1 }, scale: 'css' });
+  const channels = png[25] === 6 ? 4 : 3;  // IHDR colour type: 6 RGBA, 2 RGB
+  const chunks = [];
+  for (let at = 8; at < png.length;) {
+    const length = png.readUInt32BE(at);
+    const type = png.toString('ascii', at + 4, at + 8);
+    if (type === 'IDAT') chunks.push(png.subarray(at + 8, at + 8 + length));
+    at += 12 + length;
+  }
+  const row = inflateSync(Buffer.concat(chunks));
+  return [row[1], row[2], row[3]].slice(0, channels >= 3 ? 3 : channels);
 }

@@ -5,7 +5,7 @@
 import { resolve, join } from 'node:path';
 import { readFileSync } from 'node:fs';
 import { startServer } from './serve.mjs';
-import { reloadOffline, launch, PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone } from './lib.mjs';
+import { reloadOffline, launch, PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, pixelAt } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -145,7 +145,7 @@ test('export then import restores everything', async () => {
 
 // A damaged store, two tabs, the older IDBFS store: test_store.mjs.
 
-test('text size setting and desktop Tab key navigation', async () => {
+test('text size and light look settings, desktop Tab key navigation', async () => {
   const { context, page } = await open(DESKTOP);
   await tap(page, 'tab.settings');
   const em0 = (await state(page)).em_px;
@@ -155,6 +155,21 @@ test('text size setting and desktop Tab key navigation', async () => {
   check(em1 > em0 * 1.15, `text size ${em0} -> ${em1}`);
   await page.keyboard.press('Tab');
   await frames(page, 2);
+  // Issue 15: the light look for bright rooms, kept by a reload. The pixel is the page's
+  // background right of the centred column.
+  const dark = await pixelAt(page, 1270, 400);
+  check(Math.max(...dark) < 60, `the dark look's background is not dark: ${dark}`);
+  await tap(page, 'settings.look.1');
+  await frames(page, 3);
+  const light = await pixelAt(page, 1270, 400);
+  check((await state(page)).settings.look === 'light' && Math.min(...light) > 200, `the light look's background: ${light}`);
+  await page.screenshot({ path: join(OUTPUT, 'desktop-settings-light.png') });
+  await flushed(page);
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 3);
+  const kept = await pixelAt(page, 1270, 400);
+  check((await state(page)).settings.look === 'light' && Math.min(...kept) > 200, `the light look after a reload: ${kept}`);
   await context.close();
 });
 
@@ -285,6 +300,26 @@ test('desktop: the mouse wheel scrolls the page (desktop 1280x800)', async () =>
   await frames(page, 6);
   const back = await widget(page, 'water.temperature');
   check(Math.abs(back.y - before.y) < 2, `the wheel back up did not return: y ${before.y} -> ${back.y}`);
+  // Each screen keeps its own scroll position: scrolled down on Water, away to Plan and back,
+  // Water opens where it was left.
+  await page.mouse.wheel(0, 300);
+  await frames(page, 6);
+  const left = await widget(page, 'water.temperature');
+  await tap(page, 'tab.plan');
+  await frames(page, 4);
+  const planTop = await state(page);
+  check(planTop.screen === 'plan', `not on Plan: ${planTop.screen}`);
+  await tap(page, 'tab.water');
+  await frames(page, 6);
+  const again = await widget(page, 'water.temperature');
+  check(Math.abs(again.y - left.y) < 2, `Water did not open where it was left: y ${left.y} -> ${again.y}`);
+  // A reload opens the screen the page's address names (#water), not Systems.
+  check(page.url().endsWith('#water'), `the page's address does not name the screen: ${page.url()}`);
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 2);
+  const reloaded = await state(page);
+  check(reloaded.screen === 'water', `a reload landed on ${reloaded.screen}, not on Water`);
   await context.close();
   const real = errors.filter((e) => !benign(e));
   check(real.length === 0, `console errors: ${real.join(' | ')}`);

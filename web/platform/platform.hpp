@@ -130,6 +130,13 @@ double now_ms();           // monotonic, for frame timing
 // has no such channel yet and drops it.
 void set_screen_text(const std::string& text);
 
+// ---------------------------------------------------------------- 6b. The page's address
+// The screen shown, kept in the browser tab's address ("#plan") with history.replaceState, so a
+// reload (or a bookmark) opens that screen again; each browser tab keeps its own. Nothing is
+// written to the store. The desktop build keeps nothing and always opens on Systems.
+void set_location_screen(const char* name);
+std::string location_screen();  // the name after '#', or "" when there is none
+
 // ---------------------------------------------------------------- 7. Test hooks
 // Tells the page the first frame is on screen (benchmark: navigation to first frame).
 void first_frame_drawn();

@@ -336,5 +336,7 @@ double now_ms() {
 
 void first_frame_drawn() {}
 void set_screen_text(const std::string&) {}
+void set_location_screen(const char*) {}
+std::string location_screen() { return {}; }
 
 }  // namespace twapp::platform

@@ -76,6 +76,13 @@ EM_JS(void, js_download, (const char* name, const char* mime, const char* text),
 });
 EM_JS(void, js_pick_file, (), { Module.tw.pickFile(); });
 EM_JS(void, js_first_frame, (), { Module.tw.firstFrame(); });
+EM_JS(void, js_set_location_screen, (const char* name), {
+  var hash = '#' + UTF8ToString(name);
+  if (location.hash !== hash) history.replaceState(history.state, '', hash);
+});
+EM_JS(void, js_location_screen, (char* out, int size), {
+  stringToUTF8(decodeURIComponent(location.hash.slice(1)).slice(0, 40), out, size);
+});
 EM_JS(void, js_set_screen_text, (const char* text), {
   var el = document.getElementById('screen-text');
   if (el) el.textContent = UTF8ToString(text);
@@ -300,6 +307,12 @@ double now_ms() { return emscripten_get_now(); }
 
 void first_frame_drawn() { js_first_frame(); }
 void set_screen_text(const std::string& text) { js_set_screen_text(text.c_str()); }
+void set_location_screen(const char* name) { js_set_location_screen(name); }
+std::string location_screen() {
+  char name[64] = {};
+  js_location_screen(name, sizeof name);
+  return name;
+}
 
 // Called by the exported functions below.
 void push_entry(TextEntryResult r) {

@@ -35,6 +35,12 @@ const char* screen_name(Screen s) {
   return "?";
 }
 
+std::optional<Screen> screen_from_name(const std::string& name) {
+  for (Screen s : kAllScreens)
+    if (name == screen_name(s)) return s;
+  return std::nullopt;
+}
+
 void notify(AppState& app, const std::string& message, bool is_error) {
   app.ui.message = message;
   app.ui.message_is_error = is_error;
@@ -121,6 +127,8 @@ void apply_store_update(AppState& app, const platform::StoreUpdate& update) {
 }
 
 void start_app(AppState& app) {
+  // A reload opens the screen the page's address names (platform::location_screen).
+  if (auto screen = screen_from_name(platform::location_screen())) app.ui.screen = *screen;
   app.store.loaded = true;
   const auto loaded = platform::store_load(kStoreName);
   if (!loaded) {  // first start: the demo
@@ -157,6 +165,7 @@ void start_app(AppState& app) {
 void go_to(AppState& app, Screen screen) {
   app.ui.screen = screen;
   app.ui.reveal.clear();
+  platform::set_location_screen(screen_name(screen));
 }
 
 // ---------------------------------------------------------------- systems
@@ -380,6 +389,11 @@ void set_units(AppState& app, const jn::UnitPreferences& units) {
     copy.units = units;
     if (!jn::update_system(app.journal, copy)) notify(app, "Units could not be stored with the system", true);
   }
+  changed(app);
+}
+
+void set_look(AppState& app, Look look) {
+  app.settings.look = look;
   changed(app);
 }
 

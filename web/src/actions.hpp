@@ -44,6 +44,7 @@ bool log_schedule_mark(AppState& app, tw::journal::EventId schedule, tw::journal
 // Settings (units go to the current system too, so the journal and the screen agree)
 void set_units(AppState& app, const tw::journal::UnitPreferences& units);
 void set_text_size(AppState& app, float text_size);
+void set_look(AppState& app, Look look);  // dark or light colours, saved with the settings
 bool set_room_co2(AppState& app, double ppm);
 void set_constants_convention(AppState& app, tw::carbonate::ConstantsConvention convention);
 // A safety limit of the planner: refused (message names the limit and its accepted range)

@@ -42,7 +42,7 @@ void draw_message(AppState& app, float width, float height) {
   const float e = ui::em(app);
   const ImVec2 pos = ImGui::GetCursorScreenPos();
   ImDrawList* d = ImGui::GetWindowDrawList();
-  const ImU32 fill = app.ui.message_is_error ? IM_COL32(110, 44, 38, 255) : IM_COL32(28, 92, 84, 255);
+  const ImU32 fill = app.ui.message_is_error ? theme::kMessageError : theme::kMessageOk;
   d->AddRectFilled(pos, ImVec2(pos.x + width, pos.y + height), fill);
   if (ImGui::InvisibleButton("##message_dismiss", ImVec2(width, height))) app.ui.message.clear();
   ui::record(app, "banner");
@@ -76,6 +76,7 @@ void draw_layout(AppState& app) {
   ImGui::PushStyleVar(ImGuiStyleVar_WindowPadding, ImVec2(e, 0.6f * e));
   ImGui::BeginChild("##page", ImVec2(0, -message_h), false, ImGuiWindowFlags_AlwaysUseWindowPadding);
   ImGui::PopStyleVar();
+  ui::page_scroll_memory(app);
   ui::column_begin(app, 36);
   ImGui::Dummy(ImVec2(0, 0.1f * e));
   // Everything the screen writes as text is captured by ImGui's own log and handed to screen
@@ -111,8 +112,12 @@ bool app_frame(AppState& app) {
   app.ui.pixel_ratio = platform::pixel_ratio();
   const float scale = app.ui.pixel_ratio * app.settings.text_size;
   if (std::fabs(scale - app.ui.fonts_built_for) > 0.01f) {
-    theme::build(app.ui, scale);
+    theme::build(app.ui, scale, app.settings.look);
+    app.ui.look_applied = app.settings.look;
     platform::reload_fonts_texture();
+  } else if (app.ui.look_applied != app.settings.look) {
+    theme::apply_look(app.settings.look, scale);
+    app.ui.look_applied = app.settings.look;
   }
   ImGui::NewFrame();
   app.ui.widgets.clear();

@@ -28,11 +28,18 @@ namespace twapp {
 // Screens in tab-bar order. To add one: a value here, a row in kTabs (nav.cpp), and
 // void draw_<name>(AppState&) in screen_<name>.cpp declared in screens.hpp.
 enum class Screen { Systems, Log, Water, Demand, Plan, Hatchery, Mixes, Settings };
-const char* screen_name(Screen s);  // "systems", "log", "water", "settings" (test interface)
+inline constexpr Screen kAllScreens[] = {Screen::Systems, Screen::Log,      Screen::Water, Screen::Demand,
+                                         Screen::Plan,    Screen::Hatchery, Screen::Mixes, Screen::Settings};
+const char* screen_name(Screen s);  // "systems", "log", "water", "settings" (test interface, page address)
+std::optional<Screen> screen_from_name(const std::string& name);
+
+// The app's colours: dark for dim fish rooms (the default), light for bright rooms (theme.hpp).
+enum class Look { Dark, Light };
 
 struct Settings {
   tw::journal::UnitPreferences units;  // shown when no system exists; copied to new systems
   float text_size = 1.0f;              // multiplier of the base text size, 0.8 .. 1.6
+  Look look = Look::Dark;
   double room_co2_ppm = 800;           // CO2 of the room's air, for the air-equilibrium figures
   // How the Water screen's constants are put on the total scale: as CO2SYS/PyCO2SYS do
   // (default) or as the 2007 Guide prints them (carbonate.hpp, ConstantsConvention).
@@ -196,10 +203,15 @@ struct UiState {
   std::optional<EntryResult> entry;  // consumed by the widget whose key matches
   bool drag_owned = false;     // a widget (chart) owns the current drag: do not scroll
   DragScroll page_scroll;      // the page, dragged with a finger
+  // Each screen's own scroll position (ui::page_scroll_memory): a tab opens where it was left.
+  std::map<Screen, float> scroll_of_screen;
+  Screen page_shows = Screen::Systems;  // the screen the page showed last frame
+  int scroll_restore_frames = 0;        // frames left re-applying the restored position
   DragScroll switcher_scroll;  // the header's list of systems
   float em = 17;               // font size in device pixels this frame
   float pixel_ratio = 1;
   float fonts_built_for = 0;   // scale the font atlas was built for (0 = not yet)
+  Look look_applied = Look::Dark;  // the look the style was last applied with
   std::map<std::string, Rect> widgets;  // named widgets drawn this frame
   std::string reveal;          // widget to scroll into view on the next frame
   std::string screen_text;     // the text last handed to screen readers (platform::set_screen_text)

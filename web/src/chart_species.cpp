@@ -62,7 +62,7 @@ void draw_species_chart(AppState& app) {
   // Grid and axes: y in % of DIC, x in pH units.
   for (int i = 0; i <= 4; ++i) {
     const float f = 0.25f * static_cast<float>(i);
-    d->AddLine(ImVec2(a.x, sy(f)), ImVec2(b.x, sy(f)), IM_COL32(52, 76, 86, i == 0 ? 255 : 110), line * 0.7f);
+    d->AddLine(ImVec2(a.x, sy(f)), ImVec2(b.x, sy(f)), theme::with_alpha(theme::kGrid, i == 0 ? 255 : 110), line * 0.7f);
     if (i % 2 == 0) {
       const std::string t = std::to_string(25 * i) + "%";
       const ImVec2 ts = ImGui::CalcTextSize(t.c_str());
@@ -71,7 +71,7 @@ void draw_species_chart(AppState& app) {
   }
   for (int ph = 6; ph <= 10; ++ph) {
     const float x = sx(static_cast<float>(ph));
-    d->AddLine(ImVec2(x, a.y), ImVec2(x, b.y), IM_COL32(52, 76, 86, 110), line * 0.7f);
+    d->AddLine(ImVec2(x, a.y), ImVec2(x, b.y), theme::with_alpha(theme::kGrid, 110), line * 0.7f);
     const std::string t = std::to_string(ph);
     const ImVec2 ts = ImGui::CalcTextSize(t.c_str());
     d->AddText(ImVec2(x - ts.x / 2, b.y + 0.25f * e), theme::kTextDim, t.c_str());

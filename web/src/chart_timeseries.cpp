@@ -72,6 +72,33 @@ std::string day_label(double t_days, int utc_offset_minutes) {
   return buf;
 }
 
+namespace {
+
+// Dose marks gathered into ticks at least `room` apart: each tick at the mean x of its doses,
+// with their count. xs need not be sorted.
+struct DoseTick {
+  float x = 0;
+  int count = 0;
+};
+std::vector<DoseTick> dose_ticks(std::vector<float> xs, float room) {
+  std::sort(xs.begin(), xs.end());
+  std::vector<DoseTick> out;
+  float first = 0, sum = 0;
+  for (float x : xs) {
+    if (!out.empty() && x - first < room) {
+      ++out.back().count;
+      sum += x;
+      out.back().x = sum / static_cast<float>(out.back().count);
+      continue;
+    }
+    out.push_back({x, 1});
+    first = sum = x;
+  }
+  return out;
+}
+
+}  // namespace
+
 // ---------------------------------------------------------------- 2. Drawing
 bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* probe_t) {
   const float e = ui::em(app);
@@ -129,13 +156,13 @@ bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* 
 
   // Target band and line.
   if (s.band_lo && s.band_hi) {
-    d->AddRectFilled(ImVec2(a.x, sy(*s.band_hi)), ImVec2(b.x, sy(*s.band_lo)), IM_COL32(79, 194, 176, 28));
+    d->AddRectFilled(ImVec2(a.x, sy(*s.band_hi)), ImVec2(b.x, sy(*s.band_lo)), theme::with_alpha(theme::kAccent, 28));
   }
   // Grid and value labels.
   const double ystep = nice_step(y_hi - y_lo, 4);
   for (double v = std::ceil(y_lo / ystep) * ystep; v <= y_hi + 1e-9 * ystep; v += ystep) {
     const float y = sy(v);
-    d->AddLine(ImVec2(a.x, y), ImVec2(b.x, y), IM_COL32(52, 76, 86, 110), line * 0.7f);
+    d->AddLine(ImVec2(a.x, y), ImVec2(b.x, y), theme::with_alpha(theme::kGrid, 110), line * 0.7f);
     const int dec = std::max(0, std::min(3, static_cast<int>(std::ceil(-std::log10(ystep) + 1e-9))));
     const std::string t = fmtx::fixed(std::fabs(v) < 1e-12 ? 0.0 : v, std::max(dec, 0));
     const ImVec2 ts = ImGui::CalcTextSize(t.c_str());
@@ -148,13 +175,13 @@ bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* 
   const double first = std::ceil((x_lo + offs) / dstep) * dstep - offs;
   for (double t = first; t <= x_hi; t += dstep) {
     const float x = sx(t);
-    d->AddLine(ImVec2(x, a.y), ImVec2(x, b.y), IM_COL32(52, 76, 86, 90), line * 0.7f);
+    d->AddLine(ImVec2(x, a.y), ImVec2(x, b.y), theme::with_alpha(theme::kGrid, 90), line * 0.7f);
     const std::string lab = day_label(t + 1e-6, s.utc_offset_minutes);
     const ImVec2 ts = ImGui::CalcTextSize(lab.c_str());
     d->AddText(ImVec2(std::clamp(x - ts.x / 2, a.x - 0.3f * e, b.x - ts.x), b.y + 0.75f * e), theme::kTextDim,
                lab.c_str());
   }
-  d->AddLine(ImVec2(a.x, b.y), ImVec2(b.x, b.y), IM_COL32(52, 76, 86, 255), line);
+  d->AddLine(ImVec2(a.x, b.y), ImVec2(b.x, b.y), theme::kGrid, line);
   if (s.target) {
     dashed_line(d, ImVec2(a.x, sy(*s.target)), ImVec2(b.x, sy(*s.target)), theme::kAccent, line, 0.4f * e);
   }
@@ -187,15 +214,22 @@ bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* 
     if (band.t.size() == 1) d->AddCircleFilled(ImVec2(sx(band.t[0]), sy(band.mid[0])), 0.2f * e, band.color);
   }
 
-  // Marks on the time axis: doses as upward ticks, water changes as open triangles.
+  // Marks on the time axis: doses as upward ticks, water changes as open triangles. Doses
+  // closer than a tick's room (a pump dosing many times a day over weeks) are drawn as one
+  // taller tick, so they never merge into a solid bar.
+  std::vector<float> dose_x;
   for (const Mark& m : s.marks) {
     const float x = sx(m.t);
     if (m.kind == MarkKind::Dose) {
-      d->AddLine(ImVec2(x, b.y), ImVec2(x, b.y - 0.45f * e), IM_COL32(150, 160, 255, 150), 0.8f * line);
+      dose_x.push_back(x);
     } else {
       d->AddTriangle(ImVec2(x, b.y - 0.9f * e), ImVec2(x - 0.25f * e, b.y - 0.45f * e),
                      ImVec2(x + 0.25f * e, b.y - 0.45f * e), theme::kCo2, 1.2f * line);
     }
+  }
+  for (const DoseTick& t : dose_ticks(dose_x, 0.3f * e)) {
+    const float h = 0.45f * e * std::min(2.0f, 1.0f + 0.35f * std::log2(static_cast<float>(t.count)));
+    d->AddLine(ImVec2(t.x, b.y), ImVec2(t.x, b.y - h), theme::with_alpha(theme::kCo3, 190), 1.2f * line);
   }
 
   // Readings: used = filled dot; flagged = hollow ring in the warning colour with a cross;

@@ -131,7 +131,7 @@ void draw_tabs(AppState& app, ImVec2 pos, ImVec2 size, bool vertical) {
     if (selected || held) {
       // A pill behind the icon marks the current screen.
       d->AddRectFilled(ImVec2(icon_c.x - 1.6f * e, icon_c.y - 0.8f * e), ImVec2(icon_c.x + 1.6f * e, icon_c.y + 0.8f * e),
-                       selected ? IM_COL32(79, 194, 176, 40) : IM_COL32(255, 255, 255, 20), 0.8f * e);
+                       selected ? theme::with_alpha(theme::kAccent, 40) : theme::with_alpha(theme::kText, 20), 0.8f * e);
     }
     t.icon(d, icon_c, 0.5f * e, col);
     // Labels shrink to the small font when seven tabs share a phone's width.

@@ -159,10 +159,10 @@ void draw_level_chart(AppState& app, const ParameterEstimate& pe, const Shown& s
   std::optional<double>& probe = app.ui.dosing.demand.probe_day;
   chart::draw_timeseries(app, ts, &probe);
   std::string legend = "Dots: tests.  Red rings: flagged tests.  Line and shade: estimated level (95%).";
-  if (!pe.forecast.empty()) legend += "  Dashed: forecast.";
-  if (!pe.addition_days.empty()) legend += "  Ticks at the bottom: doses.";
+  if (!pe.forecast.empty()) legend += "  Dashed with shade: forecast (95%).";
+  if (!pe.addition_days.empty()) legend += "  Ticks at the bottom: doses (taller: several close together).";
   if (!pe.dilution_days.empty()) legend += "  Triangles: water changes.";
-  if (target) legend += std::string("  Shaded strip: ") + s.band_text + " (common practice).";
+  if (target) legend += std::string("  Dashed line across, with its strip: ") + s.band_text + " (common practice).";
   ui::dim_text(legend.c_str());
   if (probe) {
     level_readout(app, pe, s, *probe);

@@ -131,6 +131,11 @@ void draw_settings(AppState& app) {
   for (int i = 0; i < 4; ++i) if (std::abs(kTextSizeValues[i] - app.settings.text_size) < 0.01f) size = i;
   if (ui::choice(app, "settings.text_size", nullptr, &size, kTextSizes, 4)) set_text_size(app, kTextSizeValues[size]);
 
+  ui::heading(app, "Colours");
+  const char* const looks[] = {"Dark (dim rooms)", "Light (bright rooms)"};
+  int look = app.settings.look == Look::Light ? 1 : 0;
+  if (ui::choice(app, "settings.look", nullptr, &look, looks, 2)) set_look(app, look == 1 ? Look::Light : Look::Dark);
+
   ui::heading(app, "Room air");
   double co2 = app.settings.room_co2_ppm;
   if (ui::number_field(app, "settings.room_co2", {"CO\u2082 in the room's air", "ppm", 0, 50, tw::ranges::kRoomCo2Ppm.lo, tw::ranges::kRoomCo2Ppm.hi}, &co2)) {

@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "dosing_saved.hpp"
+#include "theme.hpp"
 #include "tidewright/journal/journal_file.hpp"
 
 namespace twapp {
@@ -60,6 +61,7 @@ json app_part_json(const AppState& app) {
   a["schema_version"] = kAppSchemaVersion;
   a["settings"] = {{"units", units_to_json(app.settings.units)},
                    {"text_size", app.settings.text_size},
+                   {"look", theme::to_string(app.settings.look)},
                    {"room_co2_ppm", app.settings.room_co2_ppm},
                    {"constants_convention", tw::carbonate::to_string(app.settings.constants_convention)},
                    {"safety_limits", limits_to_json(app.settings.safety_limits)}};
@@ -107,6 +109,9 @@ tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
     if (s.contains("units")) out.settings.units = units_from_json(s["units"]);
     const double size = s.value("text_size", 1.0);
     if (size >= 0.8 && size <= 1.6) out.settings.text_size = static_cast<float>(size);
+    if (s.contains("look") && s["look"].is_string()) {
+      if (auto look = theme::look_from_string(s["look"].get<std::string>())) out.settings.look = *look;  // unknown: dark
+    }
     const double co2 = s.value("room_co2_ppm", out.settings.room_co2_ppm);
     if (co2 >= 100 && co2 <= 10000) out.settings.room_co2_ppm = co2;
     if (s.contains("constants_convention") && s["constants_convention"].is_string()) {

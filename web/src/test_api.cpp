@@ -9,6 +9,7 @@
 #include "actions.hpp"
 #include "dosing_saved.hpp"
 #include "platform.hpp"
+#include "theme.hpp"
 #include "tidewright/journal/journal_file.hpp"
 #include "water.hpp"
 
@@ -93,7 +94,8 @@ std::string state_json() {
                    {"volume_unit", tw::units::to_string(a.settings.units.volume)},
                    {"temperature_unit", jn::to_string(a.settings.units.temperature)},
                    {"ph_scale", jn::ph_scale_name(a.settings.units.ph_scale)},
-                   {"text_size", a.settings.text_size}, {"room_co2_ppm", a.settings.room_co2_ppm},
+                   {"text_size", a.settings.text_size}, {"look", theme::to_string(a.settings.look)},
+                   {"room_co2_ppm", a.settings.room_co2_ppm},
                    {"constants_convention", tw::carbonate::to_string(a.settings.constants_convention)}};
   json limits = json::object();
   for (const auto& spec : tw::plan::limit_specs()) limits[spec.key] = a.settings.safety_limits[static_cast<size_t>(spec.id)];

@@ -8,6 +8,26 @@ namespace twapp::theme {
 
 ImVec4 color(ImU32 c) { return ImGui::ColorConvertU32ToFloat4(c); }
 
+ImU32 with_alpha(ImU32 c, int a) { return (c & ~IM_COL32_A_MASK) | (static_cast<ImU32>(a & 0xFF) << IM_COL32_A_SHIFT); }
+
+const char* to_string(Look look) { return look == Look::Light ? "light" : "dark"; }
+
+std::optional<Look> look_from_string(const std::string& text) {
+  if (text == "dark") return Look::Dark;
+  if (text == "light") return Look::Light;
+  return std::nullopt;
+}
+
+void use_look(Look look) {
+  const Palette& p = look == Look::Light ? kLightPalette : kDarkPalette;
+  kBackground = p.background, kSurface = p.surface, kSurfaceHigh = p.surface_high, kBorder = p.border;
+  kText = p.text, kTextDim = p.text_dim, kAccent = p.accent, kAccentDark = p.accent_dark;
+  kWarning = p.warning, kError = p.error, kCo2 = p.co2, kHco3 = p.hco3, kCo3 = p.co3;
+  kHover = p.hover, kPrimaryHover = p.primary_hover, kDanger = p.danger, kDangerHover = p.danger_hover;
+  kDangerActive = p.danger_active, kCardEdge = p.card_edge, kGrid = p.grid;
+  kMessageOk = p.message_ok, kMessageError = p.message_error;
+}
+
 namespace {
 
 // Latin-1, Greek (Omega, mu), dashes and quotes, super- and subscripts (CO₂, CO₃²⁻), minus,
@@ -33,7 +53,7 @@ ImFont* add_font(const unsigned char* data, unsigned long size, float px, const 
 
 void apply_style(float scale) {
   ImGuiStyle style;  // fresh copy each time: ScaleAllSizes must be applied exactly once
-  ImGui::StyleColorsDark(&style);
+  ImGui::StyleColorsDark(&style);  // every colour the app shows is set below, from the palette
   style.WindowPadding = ImVec2(14, 12);
   style.FramePadding = ImVec2(12, 10);
   style.ItemSpacing = ImVec2(10, 10);
@@ -61,10 +81,10 @@ void apply_style(float scale) {
   c[ImGuiCol_FrameBgHovered] = color(kSurfaceHigh);
   c[ImGuiCol_FrameBgActive] = color(kSurfaceHigh);
   c[ImGuiCol_Button] = color(kSurfaceHigh);
-  c[ImGuiCol_ButtonHovered] = color(IM_COL32(42, 66, 77, 255));
+  c[ImGuiCol_ButtonHovered] = color(kHover);
   c[ImGuiCol_ButtonActive] = color(kAccentDark);
   c[ImGuiCol_Header] = color(kSurfaceHigh);
-  c[ImGuiCol_HeaderHovered] = color(IM_COL32(42, 66, 77, 255));
+  c[ImGuiCol_HeaderHovered] = color(kHover);
   c[ImGuiCol_HeaderActive] = color(kAccentDark);
   c[ImGuiCol_CheckMark] = color(kAccent);
   c[ImGuiCol_SliderGrab] = color(kAccent);
@@ -74,14 +94,19 @@ void apply_style(float scale) {
   c[ImGuiCol_ScrollbarGrab] = color(kBorder);
   c[ImGuiCol_NavHighlight] = color(kAccent);
   c[ImGuiCol_TextSelectedBg] = color(kAccentDark);
-  c[ImGuiCol_ModalWindowDimBg] = ImVec4(0, 0, 0, 0.6f);
+  c[ImGuiCol_ModalWindowDimBg] = color(with_alpha(kBackground, 150));
   style.ScaleAllSizes(scale);
   ImGui::GetStyle() = style;
 }
 
 }  // namespace
 
-void build(UiState& ui, float scale) {
+void apply_look(Look look, float scale) {
+  use_look(look);
+  apply_style(scale);
+}
+
+void build(UiState& ui, float scale, Look look) {
   ImGuiIO& io = ImGui::GetIO();
   io.Fonts->Clear();
   const float px = kBaseFontPx * scale;
@@ -93,7 +118,7 @@ void build(UiState& ui, float scale) {
   ui.fonts.big = add_font(tw_font_regular, tw_font_regular_size, px * 1.9f, kBigGlyphRanges);
   io.Fonts->Build();
   io.FontDefault = ui.fonts.body;
-  apply_style(scale);
+  apply_look(look, scale);
   ui.em = px;
   ui.fonts_built_for = scale;
 }

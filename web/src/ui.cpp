@@ -36,6 +36,7 @@ void record_rect(AppState& app, const std::string& name, ImVec2 a, ImVec2 b) {
   if (app.ui.reveal == name) {
     ImGui::SetScrollHereY(0.4f);
     app.ui.reveal.clear();
+    app.ui.scroll_restore_frames = 0;  // a widget asked to be shown wins over the remembered position
   }
 }
 
@@ -47,13 +48,13 @@ bool button(AppState& app, const std::string& name, const char* label, float wid
   int colors = 0;
   if (tone == Tone::Primary) {
     ImGui::PushStyleColor(ImGuiCol_Button, theme::kAccentDark);
-    ImGui::PushStyleColor(ImGuiCol_ButtonHovered, IM_COL32(50, 140, 126, 255));
+    ImGui::PushStyleColor(ImGuiCol_ButtonHovered, theme::kPrimaryHover);
     ImGui::PushStyleColor(ImGuiCol_ButtonActive, theme::kAccent);
     colors = 3;
   } else if (tone == Tone::Danger) {
-    ImGui::PushStyleColor(ImGuiCol_Button, IM_COL32(92, 40, 36, 255));
-    ImGui::PushStyleColor(ImGuiCol_ButtonHovered, IM_COL32(120, 52, 46, 255));
-    ImGui::PushStyleColor(ImGuiCol_ButtonActive, IM_COL32(150, 64, 56, 255));
+    ImGui::PushStyleColor(ImGuiCol_Button, theme::kDanger);
+    ImGui::PushStyleColor(ImGuiCol_ButtonHovered, theme::kDangerHover);
+    ImGui::PushStyleColor(ImGuiCol_ButtonActive, theme::kDangerActive);
     colors = 3;
   } else if (tone == Tone::Quiet) {
     ImGui::PushStyleColor(ImGuiCol_Button, IM_COL32(0, 0, 0, 0));
@@ -407,7 +408,7 @@ void card_end(AppState& app) {
   const ImVec2 end(w->WorkRect.Max.x, ImGui::GetCursorScreenPos().y - ImGui::GetStyle().ItemSpacing.y);
   w->DrawList->ChannelsSetCurrent(0);
   w->DrawList->AddRectFilled(g_card.start, end, theme::kSurface, 0.7f * em(app));
-  w->DrawList->AddRect(g_card.start, end, IM_COL32(38, 58, 67, 255), 0.7f * em(app));
+  w->DrawList->AddRect(g_card.start, end, theme::kCardEdge, 0.7f * em(app));
   w->DrawList->ChannelsMerge();
   ImGui::Dummy(ImVec2(0, 0.2f * em(app)));
 }
@@ -459,6 +460,23 @@ void touch_scroll(AppState& app, DragScroll& st) {
     ImGui::SetScrollY(ImGui::GetScrollY() - st.fling);
     st.fling *= 0.9f;
     platform::request_frames(2);
+  }
+}
+
+void page_scroll_memory(AppState& app) {
+  UiState& ui = app.ui;
+  if (ui.screen != ui.page_shows) {
+    ui.scroll_of_screen[ui.page_shows] = ImGui::GetScrollY();
+    ui.page_shows = ui.screen;
+    ui.page_scroll = DragScroll{};  // a glide on one screen does not carry into the next
+    // ImGui clamps a scroll to the content of the frame before (the other screen's): the
+    // position is applied again on the next frames, once this screen's height is known.
+    ui.scroll_restore_frames = 3;
+  }
+  if (ui.scroll_restore_frames > 0) {
+    --ui.scroll_restore_frames;
+    if (ui.reveal.empty()) ImGui::SetScrollY(ui.scroll_of_screen[ui.screen]);
+    platform::request_frames(1);
   }
 }
 

@@ -68,6 +68,9 @@ void column_end(AppState& app);
 
 // Drag on a scrolling window scrolls it (with a little momentum); a press that moves more
 // than a fraction of an em stops being a tap, so scrolling never edits anything.
+// Called at the top of the page window each frame: keeps each screen's scroll position and
+// puts it back when its tab is opened again (the page's window is shared by every screen).
+void page_scroll_memory(AppState& app);
 void touch_scroll(AppState& app);
 // The same for another scrolling window (a popup list), with its own state.
 void touch_scroll(AppState& app, DragScroll& state);
