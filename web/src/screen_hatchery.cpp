@@ -340,6 +340,7 @@ void line_table(AppState& app, const hat::HatcheryLine& line) {
   const auto u = fields::units(app);
   const cb::PhScale scale = app.ui.dosing.hatchery.ph_scale;
   static const char* const kPoints[] = {"Intake", "Conditioned", "Dosed", "At the tanks"};
+  const fmtx::UnitShown shown = fmtx::alkalinity_shown(u.alkalinity);  // the unit is in the header
   if (!ImGui::BeginTable("##line", 6, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) return;
   const std::string ph = std::string("pH ") + fmtx::ph_scale_label(scale);
   ImGui::TableSetupColumn("");
@@ -347,7 +348,7 @@ void line_table(AppState& app, const hat::HatcheryLine& line) {
   ImGui::TableSetupColumn("S");
   ImGui::TableSetupColumn(ph.c_str());
   ImGui::TableSetupColumn("\u03a9 ar.");
-  ImGui::TableSetupColumn(fmtx::alkalinity_shown(u.alkalinity).unit);
+  ImGui::TableSetupColumn(shown.unit);
   ImGui::TableHeadersRow();
   for (std::size_t i = 0; i < line.points.size() && i < 4; ++i) {
     const hat::LinePoint& p = line.points[i];
@@ -355,7 +356,8 @@ void line_table(AppState& app, const hat::HatcheryLine& line) {
                                                           jn::kNominalDensityKgPerL);
     const std::string cells[] = {kPoints[i], fmtx::fixed(fmtx::temperature_shown(p.temperature_c, u.temperature), 1),
                                  fmtx::fixed(p.salinity, 1), fmtx::fixed(fmtx::ph_on_scale(p.state, scale), 2),
-                                 fmtx::fixed(p.state.omega_aragonite, 2), fmtx::alkalinity_text(dkh, u.alkalinity)};
+                                 fmtx::fixed(p.state.omega_aragonite, 2),
+                                 fmtx::fixed(fmtx::alkalinity_from_dkh(dkh, u.alkalinity), shown.decimals)};
     ImGui::TableNextRow();
     for (const std::string& c : cells) {
       ImGui::TableNextColumn();
@@ -377,8 +379,8 @@ void draw_line_result(AppState& app, const HatcheryCache& c) {
   const auto u = fields::units(app);
   const double dkh = tw::units::alkalinity_from_umol_kg(line.treatment.dose.alkalinity_umol_kg(),
                                                         tw::units::AlkalinityUnit::DKH, jn::kNominalDensityKgPerL);
-  ui::wrapped(("Dose planned on the conditioned water: +" + fmtx::alkalinity_text(dkh, u.alkalinity) + " " +
-               fmtx::alkalinity_shown(u.alkalinity).unit + " of alkalinity. The pump rates above are for the intake "
+  ui::wrapped(("Dose planned on the conditioned water: +" + fmtx::alkalinity_text(dkh, u.alkalinity) +
+               " of alkalinity. The pump rates above are for the intake "
                "as read; when the water is heated, cooled or mixed before the dose, this is what the dose must add.")
                   .c_str());
   ui::record(app, "hatchery.line.dose");
