@@ -98,7 +98,7 @@ function cliLine(tankC, fraction) {
 }
 
 for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
-  test(`the line: four points, the typed tank temperature, pH and Omega as the command line gives them${label === 'phone' ? '; kept after a reload' : ''} (${label})`, async () => {
+  test(`the line: four points, the typed tank temperature, pH and Omega as the command line gives them${label === 'phone' ? '; kept after a reload, a damaged stored share refused' : ''} (${label})`, async () => {
     const { context, page, errors } = await openApp(browser, server.url, opts);
     await tap(page, 'tab.hatchery');
     check((await hatchery(page)).line.length === 0, 'the line is computed while hidden');
@@ -130,6 +130,31 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(f.line_shown === true && f.line_tank_temperature_c === 24 && f.mix_fraction === 0.2, `line settings not kept: ${JSON.stringify(f)}`);
     await tap(page, 'tab.hatchery');
     check((await hatchery(page)).line.length === 4, 'the line is not shown after the reload');
+    // A damaged stored share is refused with its name and range (ranges.hpp); the rest is kept.
+    await flushed(page);
+    await page.evaluate((id) => new Promise((ok, fail) => {
+      const r = indexedDB.open('tidewright');
+      r.onerror = () => fail(r.error);
+      r.onsuccess = () => {
+        const tx = r.result.transaction('settings', 'readwrite');
+        const st = tx.objectStore('settings');
+        st.get('app').onsuccess = (e) => {
+          const app = e.target.result;
+          app.dosing_by_system[String(id)].hatchery.mix_fraction = 5;
+          st.put(app, 'app');
+        };
+        tx.oncomplete = () => { r.result.close(); ok(); };
+        tx.onerror = () => fail(tx.error);
+      };
+    }), (await state(page)).dosing_forms.system);
+    await page.reload();
+    await waitReady(page);
+    await frames(page, 3);
+    const d = await state(page);
+    check(d.message_is_error && /Other water mixed in, share by volume 5/.test(d.message) && /0 to 1/.test(d.message),
+      `no refusal naming the share and its range: "${d.message}"`);
+    check(d.dosing_forms.hatchery.mix_fraction === null && d.dosing_forms.hatchery.line_tank_temperature_c === 24,
+      `refused share not back to its default, or the tank temperature lost: ${JSON.stringify(d.dosing_forms.hatchery)}`);
     await context.close();
     noErrors(errors);
   });
