@@ -3,6 +3,7 @@
 // 3. reading (the checks)  4. saved_part.
 #include "dosing_saved.hpp"
 
+#include <algorithm>
 #include <charconv>
 #include <cmath>
 #include <iterator>
@@ -11,6 +12,7 @@
 #include "tidewright/carbonate/measurement_precision.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "tidewright/common/units.hpp"
+#include "tidewright/seawater/seawater.hpp"
 
 namespace twapp {
 
@@ -83,6 +85,17 @@ json hatchery_to_json(const HatcheryForm& f) {
           {"ph_scale", name_of(kScales, f.ph_scale)},
           {"calcium_mg_l", opt(f.calcium_mg_l)},
           {"k1k2", name_of(kK1K2, f.k1k2)},
+          {"total_boron_mg_l", opt(f.total_boron_mg_l)},
+          {"magnesium_mg_l", opt(f.magnesium_mg_l)},
+          {"mg_ca_correction", f.mg_ca_correction},
+          {"line_shown", f.line_shown},
+          {"line_tank_temperature_c", opt(f.line_tank_temperature_c)},
+          {"mix_fraction", opt(f.mix_fraction)},
+          {"mix_salinity", f.mix_salinity},
+          {"mix_temperature_c", f.mix_temperature_c},
+          {"mix_alkalinity_dkh", f.mix_alkalinity_dkh},
+          {"mix_dic_umol_kg", f.mix_dic_umol_kg},
+          {"mix_calcium_mg_l", f.mix_calcium_mg_l},
           {"target", name_of(kKinds, f.target_kind)},
           {"target_omega_aragonite", f.target_omega},
           {"target_ph", f.target_ph},
@@ -205,6 +218,35 @@ PlanForm plan_from_json(const json& j, const jn::System& sys, std::vector<std::s
   return f;
 }
 
+// A salt mix's boron and magnesium in mg/L: the core's ranges per kg, at the density of the
+// water as read just before (as the Hatchery screen bounds its fields).
+void read_salt_mix(Reader& r, HatcheryForm& f) {
+  using tw::units::ConcentrationUnit, tw::units::Ion;
+  const double rho = tw::seawater::density_kg_per_l(f.salinity, f.temperature_c);
+  const auto mg_l = [rho](double umol_kg, Ion ion) {
+    return tw::units::ion_from_umol_kg(umol_kg, ConcentrationUnit::MgPerL, ion, rho);
+  };
+  const rg::Range boron{mg_l(rg::kTotalBoronUmolKg.lo, Ion::Boron), mg_l(rg::kTotalBoronUmolKg.hi, Ion::Boron), "mg/L"};
+  const rg::Range magnesium{rg::kMagnesiumMgL.lo,
+                            std::min(mg_l(rg::kMagnesiumUmolKg.hi, Ion::Magnesium), rg::kMagnesiumMgL.hi), "mg/L"};
+  r.optional("total_boron_mg_l", "Total boron (measured)", boron, &f.total_boron_mg_l);
+  r.optional("magnesium_mg_l", "Magnesium (measured)", magnesium, &f.magnesium_mg_l);
+  r.flag("mg_ca_correction", "Correct for Mg and Ca", &f.mg_ca_correction);
+}
+
+// The line's conditioning (hatchery::Conditioning's ranges).
+void read_line(Reader& r, HatcheryForm& f) {
+  r.flag("line_shown", "Show the line", &f.line_shown);
+  r.optional("line_tank_temperature_c", "Tank temperature after heating or cooling", rg::kTemperatureC,
+             &f.line_tank_temperature_c);
+  r.optional("mix_fraction", "Other water mixed in, share by volume", rg::kMixVolumeFraction, &f.mix_fraction);
+  r.number("mix_salinity", "Other water's salinity", rg::kSalinity, &f.mix_salinity);
+  r.number("mix_temperature_c", "Other water's temperature", rg::kTemperatureC, &f.mix_temperature_c);
+  r.number("mix_alkalinity_dkh", "Other water's alkalinity", rg::kAlkalinityDkh, &f.mix_alkalinity_dkh);
+  r.number("mix_dic_umol_kg", "Other water's DIC", rg::kMixWaterCarbonUmolKg, &f.mix_dic_umol_kg);
+  r.number("mix_calcium_mg_l", "Other water's calcium", rg::kCalciumMgL, &f.mix_calcium_mg_l);
+}
+
 HatcheryForm hatchery_from_json(const json& j, const jn::System& sys, std::vector<std::string>* refused) {
   HatcheryForm f;
   Reader r(j, "Hatchery settings of " + sys.name, refused);
@@ -216,6 +258,8 @@ HatcheryForm hatchery_from_json(const json& j, const jn::System& sys, std::vecto
   r.choice("ph_scale", "pH scale", kScales, &f.ph_scale);
   r.optional("calcium_mg_l", "Calcium (measured)", rg::kCalciumMgL, &f.calcium_mg_l);
   r.choice("k1k2", "Carbonic acid constants", kK1K2, &f.k1k2);
+  read_salt_mix(r, f);
+  read_line(r, f);
   r.choice("target", "Raise the water to", kKinds, &f.target_kind);
   r.number("target_omega_aragonite", "Target \u03a9 aragonite", rg::kHatcheryTargetOmega, &f.target_omega);
   r.number("target_ph", "Target pH", rg::kHatcheryTargetPh, &f.target_ph);

@@ -21,6 +21,7 @@
 #include "tidewright/estimate/estimate.hpp"
 #include "tidewright/carbonate/measurement_precision.hpp"
 #include "tidewright/hatchery/hatchery.hpp"
+#include "tidewright/hatchery/hatchery_line.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/plan/plan.hpp"
 #include "tidewright/plan/plan_starter.hpp"
@@ -85,6 +86,23 @@ struct HatcheryForm {
   tw::carbonate::PhScale ph_scale = tw::carbonate::PhScale::Total;
   std::optional<double> calcium_mg_l;  // measured; absent = from salinity (core says how far off)
   tw::carbonate::K1K2Option k1k2 = tw::carbonate::K1K2Option::Lueker2000;
+  // A salt mix's own composition (issue 18), as on the Water screen: measured total boron (mg/L
+  // of B; absent = scaled from salinity), measured magnesium, and the Mg/Ca correction of the
+  // constants (off unless chosen; the core refuses it without measured Ca and Mg).
+  std::optional<double> total_boron_mg_l;
+  std::optional<double> magnesium_mg_l;
+  bool mg_ca_correction = false;
+  // The line (flow-through, issue 18): intake -> conditioned -> dosed -> tanks; off by default.
+  // Conditioning: the temperature at the tanks after heating or cooling (absent = as mixed) and
+  // optional mixing with other water (absent fraction = none), as hatchery::Conditioning takes it.
+  bool line_shown = false;
+  std::optional<double> line_tank_temperature_c;
+  std::optional<double> mix_fraction;  // by volume, 0..1
+  double mix_salinity = 0.0;           // fresh water unless changed
+  double mix_temperature_c = 20.0;
+  double mix_alkalinity_dkh = 0.0;     // shown in the user's unit
+  double mix_dic_umol_kg = 0.0;
+  double mix_calcium_mg_l = 0.0;
   tw::hatchery::TargetKind target_kind = tw::hatchery::TargetKind::OmegaAragonite;
   double target_omega = 2.0;
   double target_ph = 8.0;           // on ph_scale
@@ -118,6 +136,11 @@ struct HatcheryCache {
   std::optional<tw::hatchery::BatchPlan> batch;
   std::optional<tw::hatchery::PumpTable> table;
   std::string table_error;
+  // The line, when shown (flow-through): its four points, or the core's refusal.
+  std::optional<tw::hatchery::HatcheryLine> line;
+  std::string line_error;
+  // Where total boron came from for the dose (carbonate::boron_source of the intake water).
+  tw::carbonate::BoronSource boron;
   // The core's suggestion of another K1 K2 set for this water (carbonate::suggest_k1k2).
   std::optional<tw::carbonate::K1K2Suggestion> k1k2_suggestion;
   int computed_count = 0;

@@ -26,6 +26,21 @@ bool temperature(AppState& app, const std::string& name, const char* label, doub
   return true;
 }
 
+bool optional_temperature(AppState& app, const std::string& name, const char* label, std::optional<double>* celsius,
+                          tw::units::TemperatureUnit tu, const tw::ranges::Range& range_c) {
+  std::optional<double> shown;
+  if (*celsius) shown = fmtx::temperature_shown(**celsius, tu);
+  if (!ui::optional_number_field(app, name,
+                                 {label, fmtx::temperature_unit_text(tu), 1, 0.5, fmtx::temperature_shown(range_c.lo, tu),
+                                  fmtx::temperature_shown(range_c.hi, tu)},
+                                 &shown)) {
+    return false;
+  }
+  celsius->reset();
+  if (shown) *celsius = fmtx::temperature_from_shown(*shown, tu);
+  return true;
+}
+
 bool alkalinity(AppState& app, const std::string& name, const char* label, double* dkh,
                 tw::units::AlkalinityUnit au, const tw::ranges::Range& range_dkh) {
   const fmtx::UnitShown shown_unit = fmtx::alkalinity_shown(au);

@@ -3,6 +3,7 @@
 // calls these instead of converting and bounding a temperature or an alkalinity itself.
 #pragma once
 
+#include <optional>
 #include <string>
 
 #include "app_state.hpp"
@@ -17,6 +18,10 @@ tw::journal::UnitPreferences units(const AppState& app);
 // A temperature kept in C; shown and typed in `unit`, `range_c` converted with it.
 bool temperature(AppState& app, const std::string& name, const char* label, double* celsius,
                  tw::units::TemperatureUnit unit, const tw::ranges::Range& range_c = tw::ranges::kTemperatureC);
+
+// The same, for a temperature that may be left empty ("Tap to enter").
+bool optional_temperature(AppState& app, const std::string& name, const char* label, std::optional<double>* celsius,
+                          tw::units::TemperatureUnit unit, const tw::ranges::Range& range_c = tw::ranges::kTemperatureC);
 
 // An alkalinity kept in dKH; shown and typed in `unit`.
 bool alkalinity(AppState& app, const std::string& name, const char* label, double* dkh,

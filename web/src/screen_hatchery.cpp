@@ -2,7 +2,8 @@
 // sodium carbonate, bicarbonate, hydroxide or a blend, to a target aragonite saturation, pH
 // or alkalinity rise under a pH ceiling. All chemistry is the core's (tw::hatchery); this
 // screen edits the form, shows the dose, the water through the line, the pump-side table and
-// the cautions. Map: 1. form  2. results  3. pump-side table  4. draw_hatchery.
+// the cautions. Map: 1. form  2. results  3. the line (intake -> conditioned -> dosed -> tanks)
+// 4. pump-side table  5. draw_hatchery.
 #include <algorithm>
 #include <string>
 
@@ -13,6 +14,7 @@
 #include "screens.hpp"
 #include "theme.hpp"
 #include "tidewright/common/ranges.hpp"
+#include "tidewright/seawater/seawater.hpp"
 #include "ui.hpp"
 
 namespace twapp {
@@ -24,6 +26,37 @@ namespace cb = tw::carbonate;
 namespace jn = tw::journal;
 
 // ---------------------------------------------------------------- 1. Form
+// A salt mix's own composition (issue 18), as on the Water screen: measured total boron in place
+// of the salinity-scaled value, and the Mg/Ca correction of the constants, off unless chosen.
+// Ranges are the core's, shown in mg/L at this water's density.
+void draw_salt_mix(AppState& app, HatcheryForm& f) {
+  using tw::units::ConcentrationUnit, tw::units::Ion;
+  namespace rg = tw::ranges;
+  const double rho = tw::seawater::density_kg_per_l(f.salinity, f.temperature_c);
+  const auto boron_mg_l = [rho](double umol_kg) {
+    return tw::units::ion_from_umol_kg(umol_kg, ConcentrationUnit::MgPerL, Ion::Boron, rho);
+  };
+  ui::optional_number_field(app, "hatchery.boron",
+                            {"Total boron (measured)", "mg/L", 2, 0.1, boron_mg_l(rg::kTotalBoronUmolKg.lo),
+                             boron_mg_l(rg::kTotalBoronUmolKg.hi)},
+                            &f.total_boron_mg_l);
+  if (f.total_boron_mg_l && ui::button(app, "hatchery.boron.clear", "Scale boron from salinity instead", -1, ui::Tone::Quiet)) {
+    f.total_boron_mg_l.reset();
+  }
+  static const char* const kMgCa[] = {"Seawater ratios", "Correct for Mg and Ca"};
+  int mgca = f.mg_ca_correction ? 1 : 0;
+  if (ui::choice(app, "hatchery.mg_ca", "Equilibrium constants", &mgca, kMgCa, 2)) f.mg_ca_correction = mgca == 1;
+  if (!f.mg_ca_correction) return;
+  const double mg_hi = tw::units::ion_from_umol_kg(rg::kMagnesiumUmolKg.hi, ConcentrationUnit::MgPerL, Ion::Magnesium, rho);
+  ui::optional_number_field(app, "hatchery.magnesium",
+                            {"Magnesium (measured)", rg::kMagnesiumMgL.unit, 0, 10, rg::kMagnesiumMgL.lo,
+                             std::min(mg_hi, rg::kMagnesiumMgL.hi)},
+                            &f.magnesium_mg_l);
+  ui::dim_text("For salt mixes whose magnesium and calcium depart from seawater's: the constants are corrected by "
+               "the MyAMI model's published polynomial (Hain et al. 2015), salinity 30-40 and 0-40 \u00b0C only. "
+               "Needs measured calcium and magnesium.");
+}
+
 void draw_water_form(AppState& app, HatcheryForm& f) {
   const auto u = fields::units(app);
   ui::card_begin(app);
@@ -44,6 +77,7 @@ void draw_water_form(AppState& app, HatcheryForm& f) {
   if (f.calcium_mg_l && ui::button(app, "hatchery.calcium.clear", "Scale calcium from salinity instead", -1, ui::Tone::Quiet)) {
     f.calcium_mg_l.reset();
   }
+  draw_salt_mix(app, f);
   // Carbonic acid constants for this water; below the default set's range the core suggests
   // the low-salinity set with its reason (computed with the results, not every frame).
   int set = f.k1k2 == cb::K1K2Option::Millero2010 ? 1 : 0;
@@ -206,6 +240,13 @@ void calcium_line(const hat::Treatment& t) {
     ui::dim_text(("Saturation uses " + t.calcium_source + ".").c_str());
 }
 
+// Which boron the borate alkalinity used, measured or scaled from salinity (the core's sentence).
+// The Mg/Ca correction, when applied, is among the warnings (the core's sentence too).
+void boron_line(AppState& app) {
+  ui::dim_text(("Borate uses " + app.ui.dosing.hatchery_cache.boron.note + ".").c_str());
+  ui::record(app, "hatchery.boron_source");
+}
+
 // What dosing to a confidence gives: both one-sided bounds and the extra alkalinity.
 void confidence_line(AppState& app, const hat::Treatment& t) {
   if (!t.confidence) return;
@@ -248,6 +289,7 @@ void draw_flow_result(AppState& app, const hat::FlowPlan& p) {
   confidence_line(app, p.treatment);
   water_table(app, p.treatment, false);
   calcium_line(p.treatment);
+  boron_line(app);
   list(p.warnings, theme::kWarning);
   ui::card_end(app);
 }
@@ -264,11 +306,101 @@ void draw_batch_result(AppState& app, const hat::BatchPlan& p) {
   confidence_line(app, p.treatment);
   water_table(app, p.treatment, true);
   calcium_line(p.treatment);
+  boron_line(app);
   list(p.warnings, theme::kWarning);
   ui::card_end(app);
 }
 
-// ---------------------------------------------------------------- 3. Pump-side table
+// ---------------------------------------------------------------- 3. The line
+// Conditioning between the intake and the dose (hatchery::Conditioning), as the core takes it.
+void draw_line_form(AppState& app, HatcheryForm& f) {
+  namespace rg = tw::ranges;
+  const auto u = fields::units(app);
+  fields::optional_temperature(app, "hatchery.line.tank_temperature", "Tank temperature after heating or cooling (empty: as mixed)",
+                               &f.line_tank_temperature_c, u.temperature);
+  ui::optional_number_field(app, "hatchery.line.mix_fraction",
+                            {"Other water mixed in, share by volume (empty: none)", "", 2, 0.05, rg::kMixVolumeFraction.lo,
+                             rg::kMixVolumeFraction.hi},
+                            &f.mix_fraction);
+  if (!f.mix_fraction) return;
+  ui::number_field(app, "hatchery.line.mix_salinity", {"Its salinity (0: fresh water)", "psu", 1, 0.5, rg::kSalinity.lo, rg::kSalinity.hi},
+                   &f.mix_salinity);
+  fields::temperature(app, "hatchery.line.mix_temperature", "Its temperature", &f.mix_temperature_c, u.temperature);
+  fields::alkalinity(app, "hatchery.line.mix_alkalinity", "Its alkalinity", &f.mix_alkalinity_dkh, u.alkalinity);
+  ui::number_field(app, "hatchery.line.mix_dic",
+                   {"Its dissolved inorganic carbon (DIC)", "\u03bcmol/kg", 0, 50, rg::kMixWaterCarbonUmolKg.lo,
+                    rg::kMixWaterCarbonUmolKg.hi},
+                   &f.mix_dic_umol_kg);
+  ui::number_field(app, "hatchery.line.mix_calcium", {"Its calcium", rg::kCalciumMgL.unit, 0, 5, rg::kCalciumMgL.lo, rg::kCalciumMgL.hi},
+                   &f.mix_calcium_mg_l);
+}
+
+// One row per point of the line, in the user's units and pH scale.
+void line_table(AppState& app, const hat::HatcheryLine& line) {
+  const auto u = fields::units(app);
+  const cb::PhScale scale = app.ui.dosing.hatchery.ph_scale;
+  static const char* const kPoints[] = {"Intake", "Conditioned", "Dosed", "At the tanks"};
+  const fmtx::UnitShown shown = fmtx::alkalinity_shown(u.alkalinity);  // the unit is in the header
+  if (!ImGui::BeginTable("##line", 6, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) return;
+  const std::string ph = std::string("pH ") + fmtx::ph_scale_label(scale);
+  ImGui::TableSetupColumn("");
+  ImGui::TableSetupColumn(fmtx::temperature_unit_text(u.temperature));
+  ImGui::TableSetupColumn("S");
+  ImGui::TableSetupColumn(ph.c_str());
+  ImGui::TableSetupColumn("\u03a9 ar.");
+  ImGui::TableSetupColumn(shown.unit);
+  ImGui::TableHeadersRow();
+  for (std::size_t i = 0; i < line.points.size() && i < 4; ++i) {
+    const hat::LinePoint& p = line.points[i];
+    const double dkh = tw::units::alkalinity_from_umol_kg(p.state.alkalinity_umol_kg, tw::units::AlkalinityUnit::DKH,
+                                                          jn::kNominalDensityKgPerL);
+    const std::string cells[] = {kPoints[i], fmtx::fixed(fmtx::temperature_shown(p.temperature_c, u.temperature), 1),
+                                 fmtx::fixed(p.salinity, 1), fmtx::fixed(fmtx::ph_on_scale(p.state, scale), 2),
+                                 fmtx::fixed(p.state.omega_aragonite, 2),
+                                 fmtx::fixed(fmtx::alkalinity_from_dkh(dkh, u.alkalinity), shown.decimals)};
+    ImGui::TableNextRow();
+    for (const std::string& c : cells) {
+      ImGui::TableNextColumn();
+      ImGui::TextUnformatted(c.c_str());
+    }
+  }
+  ImGui::EndTable();
+  ui::record(app, "hatchery.line.table");
+}
+
+void draw_line_result(AppState& app, const HatcheryCache& c) {
+  if (!c.line_error.empty()) {
+    ui::colored_wrapped(theme::kError, c.line_error.c_str());
+    ui::record(app, "hatchery.line.error");
+  }
+  if (!c.line) return;
+  const hat::HatcheryLine& line = *c.line;
+  line_table(app, line);
+  const auto u = fields::units(app);
+  const double dkh = tw::units::alkalinity_from_umol_kg(line.treatment.dose.alkalinity_umol_kg(),
+                                                        tw::units::AlkalinityUnit::DKH, jn::kNominalDensityKgPerL);
+  ui::wrapped(("Dose planned on the conditioned water: +" + fmtx::alkalinity_text(dkh, u.alkalinity) +
+               " of alkalinity. The pump rates above are for the intake "
+               "as read; when the water is heated, cooled or mixed before the dose, this is what the dose must add.")
+                  .c_str());
+  ui::record(app, "hatchery.line.dose");
+  for (const std::string& n : line.notes) ui::dim_text(("\u2022 " + n).c_str());
+}
+
+void draw_line(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
+  ui::heading(app, "The line: heating, cooling, mixing");
+  if (!f.line_shown) {
+    ui::dim_text("The water at each point from the intake to the tanks, when it is heated, cooled or mixed with other "
+                 "water before the dose.");
+    if (ui::button(app, "hatchery.line.show", "Show the line")) f.line_shown = true;
+    return;
+  }
+  draw_line_form(app, f);
+  draw_line_result(app, c);
+  if (ui::button(app, "hatchery.line.hide", "Hide the line", 0, ui::Tone::Quiet)) f.line_shown = false;
+}
+
+// ---------------------------------------------------------------- 4. Pump-side table
 void draw_pump_table(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
   ui::heading(app, "Pump-side table");
   ui::dim_text("Pump rates for a range of intake pH at this alkalinity, flow and target, to post by the pump.");
@@ -340,7 +472,7 @@ void draw_pump_table(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
 
 }  // namespace
 
-// ---------------------------------------------------------------- 4. The screen
+// ---------------------------------------------------------------- 5. The screen
 void draw_hatchery(AppState& app) {
   HatcheryForm& f = app.ui.dosing.hatchery;
   ui::heading(app, "Hatchery buffering");
@@ -370,7 +502,10 @@ void draw_hatchery(AppState& app) {
     draw_batch_result(app, *c.batch);
     cautions = &c.batch->cautions;
   }
-  if (f.mode == HatcheryMode::FlowThrough) draw_pump_table(app, f, c);
+  if (f.mode == HatcheryMode::FlowThrough) {
+    draw_line(app, f, c);
+    draw_pump_table(app, f, c);
+  }
   if (cautions && !cautions->empty()) {
     ui::heading(app, "Cautions");
     list(*cautions, theme::kText);

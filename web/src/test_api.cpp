@@ -175,7 +175,21 @@ std::string state_json() {
       h["calcium_source"] = t->calcium_source;
       h["omega_intake"] = t->intake.omega_aragonite;
       h["warnings"] = t->warnings;
+      h["added_alkalinity_umol_kg"] = t->dose.alkalinity_umol_kg();
     }
+    // A salt mix's own boron and magnesium, and the line's points when shown (issue 18).
+    h.update({{"total_boron_mg_l", opt(hf.total_boron_mg_l)}, {"magnesium_mg_l", opt(hf.magnesium_mg_l)},
+              {"mg_ca_correction", hf.mg_ca_correction}, {"boron_source", hc.boron.note},
+              {"line_error", hc.line_error}});
+    json points = json::array();
+    if (hc.line) {
+      for (const auto& p : hc.line->points) {
+        points.push_back({{"name", p.name}, {"salinity", p.salinity}, {"temperature_c", p.temperature_c},
+                          {"ph_total", p.state.ph_total}, {"omega_aragonite", p.state.omega_aragonite},
+                          {"alkalinity_umol_kg", p.state.alkalinity_umol_kg}});
+      }
+    }
+    h["line"] = points;
     j["hatchery"] = h;
   }
   // The current system's schedules running now or starting later (as the Log screen lists them).

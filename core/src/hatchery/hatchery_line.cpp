@@ -17,7 +17,7 @@ namespace cb = tw::carbonate;
 
 Result<MixResult> mix_waters(double salinity, double temperature_c, double alkalinity_umol_kg, double dic_umol_kg,
                              double calcium_umol_kg, const OtherWater& o) {
-  if (auto r = check_range("mix_fraction", o.volume_fraction, 0.0, 1.0, ""); !r) return r.error();
+  if (auto r = ranges::check("mix_fraction", o.volume_fraction, ranges::kMixVolumeFraction); !r) return r.error();
   // The other water's density is EOS-80's too: the water's ranges (common/ranges.hpp).
   if (auto r = ranges::check("mix_salinity", o.salinity, ranges::kSalinity); !r) return r.error();
   if (auto r = ranges::check("mix_temperature_c", o.temperature_c, ranges::kTemperatureC); !r) return r.error();

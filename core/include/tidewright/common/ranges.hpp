@@ -138,6 +138,8 @@ inline constexpr Range kResidenceTimeMin{0.0, 1440.0, "min"};
 // Water mixed into the line (fresh or another seawater): its alkalinity and DIC, far above any
 // natural water's (seawater ~2300, hard river water ~5000 umol/kg) [our choice].
 inline constexpr Range kMixWaterCarbonUmolKg{0.0, 10000.0, "umol/kg"};
+// Share by volume of that water in the mixed water: none to all.
+inline constexpr Range kMixVolumeFraction{0.0, 1.0, ""};
 // The probability a hatchery dose reaches its target with (and keeps its ceiling with): from
 // a coin toss to 1 in 1000 [our choice: beyond 99.9 % the normal tails are not to be trusted].
 inline constexpr Range kDoseConfidencePercent{50.0, 99.9, "%"};
