@@ -101,9 +101,13 @@ hat::Settings settings_of(const HatcheryForm& f) {
   if (f.confidence_index > 0) {
     hat::Confidence conf;
     conf.probability = kConfidenceChoices[f.confidence_index];
+    // The kit defaults of the core's table for every reading (salinity, temperature, calcium,
+    // a salt mix's boron and magnesium), as `buffer --confidence` takes them, with the form's
+    // own alkalinity and pH precisions in place of theirs.
+    const hat::Water water = water_of(f);
+    conf.intake = cb::default_input_uncertainties(hat::conditions_of(water), water.measurements);
     conf.intake.first = tw::units::alkalinity_to_umol_kg(f.alkalinity_precision_dkh, tw::units::AlkalinityUnit::DKH, density);
     conf.intake.second = f.ph_precision;
-    if (f.ph_scale != cb::PhScale::Total) conf.intake.ph_scale_conversion = cb::kPhNbsToTotalUncertainty;
     s.confidence = conf;
   }
   return s;
