@@ -21,6 +21,7 @@ const test = (name, fn) => tests.push({ name, fn });
 const SYSTEMS = 30;
 const LOW_CALCIUM = 5;  // its newest calcium test is below the band
 const OLD_TESTS = 7;    // tested last 40 days ago
+const MEQ = 9;          // its keeper reads alkalinity in meq/L
 const DAY = 86400e3;
 const iso = (ms) => new Date(Math.floor(ms / 1000) * 1000).toISOString().replace('.000Z', 'Z');
 const units = { alkalinity: 'dKH', calcium_magnesium: 'mg/L', temperature: 'C', ph_scale: 'nbs', volume: 'L' };
@@ -32,7 +33,8 @@ function makeFarm(now) {
   const start = now - 365 * DAY;
   for (let s = 1; s <= SYSTEMS; s++) {
     systems.push({ id: s, name: s === 2 ? 'North greenhouse grow-out raceway for the soft coral frags' : `Rack ${String(s).padStart(2, '0')}`,
-      kind: 'coral_grow_out', volume_l: 400, default_salinity: 35, default_temperature_c: 25, units, targets });
+      kind: 'coral_grow_out', volume_l: 400, default_salinity: 35, default_temperature_c: 25,
+      units: s === MEQ ? { ...units, alkalinity: 'meq/L' } : units, targets });
     events.push({ id: id++, system_id: s, time: iso(start), type: 'schedule', additive: 'sodium_carbonate', amount: 20,
       amount_unit: 'mL', calibration: 1.0, device: 'alkalinity pump', doses_per_day: 4, stock_g_per_l: 100,
       stock_name: 'soda ash 100 g/L' });
@@ -120,6 +122,9 @@ test('farm overview: 30 systems listed to the last, the flagged first and in wor
   const old = (await widget(page, `farm.attention.${OLD_TESTS}`)).text;
   check(/Alkalinity: last test 40 d ago, too old/.test(old), `system ${OLD_TESTS} says "${old}"`);
   check(s.farm.rows.every((r) => r.due === 1), 'every system has its running schedule due today');
+  const meq = (await widget(page, `farm.level.${MEQ}.0`)).text;
+  const meqUse = (await widget(page, `farm.demand.${MEQ}.0`)).text;
+  check(/^2\.\d+ meq\/L, \d+ h ago$/.test(meq) && meqUse.endsWith(' meq/L'), `system ${MEQ} (meq/L) shows "${meq}", uses "${meqUse}"`);
   await page.screenshot({ path: join(OUTPUT, 'farm-phone-overview.png') });
   // Drawing more frames does not build it again (cached on the journal's revision).
   await frames(page, 10);
@@ -145,8 +150,8 @@ test('farm overview: 30 systems listed to the last, the flagged first and in wor
   const shownAlk = (await widget(page, 'demand.consumption')).text;
   await tap(page, 'demand.param.1');
   const shownCa = (await widget(page, 'demand.consumption')).text;
-  console.log(`     system ${id}: alkalinity ${farmAlk} dKH/day (Demand screen ${shownAlk}), calcium ${farmCa} mg/L/day (${shownCa})`);
-  check(farmAlk === shownAlk && farmCa === shownCa, `overview ${farmAlk} / ${farmCa}, Demand screen ${shownAlk} / ${shownCa}`);
+  console.log(`     system ${id}: alkalinity ${farmAlk}/day (Demand screen ${shownAlk}), calcium ${farmCa}/day (${shownCa})`);
+  check(farmAlk === `${shownAlk} dKH` && farmCa === `${shownCa} mg/L`, `overview ${farmAlk} / ${farmCa}, Demand screen ${shownAlk} / ${shownCa}`);
   // Back through the Systems tab: the overview is one tap away, and the Water button opens Water.
   await tap(page, 'tab.systems');
   check((await state(page)).systems_view === 1, 'the Systems tab did not come back to the overview');

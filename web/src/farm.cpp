@@ -112,7 +112,7 @@ std::string farm_demand_text(const FarmRow& row, size_t i) {
   // As the Demand screen prints it: digits set by the estimate's own uncertainty.
   const ShownUnit su = shown_unit(row.units, tw::kDosedParameters[i]);
   const int dd = tw::carbonate::decimals_for_uncertainty(l.demand_sd * su.factor);
-  return fmtx::fixed(l.demand_per_day * su.factor, dd);
+  return fmtx::fixed(l.demand_per_day * su.factor, dd) + " " + su.unit;
 }
 
 void refresh_farm(AppState& app) {

@@ -14,7 +14,8 @@ void refresh_farm(AppState& app);
 // "5 h ago", "2 d ago".
 std::string farm_age_text(std::int64_t now_s, std::int64_t then_s);
 // Row i (kDosedParameters order) of a system: its newest reading in the system's units
-// ("8.1 dKH", "no test"), and its daily use as the Demand screen prints it ("" if unknown).
+// ("8.1 dKH", "no test"), and its daily use as the Demand screen prints it, with the unit
+// ("1.06 dKH"; "" if unknown).
 std::string farm_level_text(const FarmRow& row, size_t i);
 std::string farm_demand_text(const FarmRow& row, size_t i);
 

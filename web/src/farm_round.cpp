@@ -19,11 +19,11 @@ namespace {
 
 namespace jn = tw::journal;
 
-// The unit as the field shows it ("dKH", "mg/L", "pH (NBS)").
+// The unit as the field shows it ("dKH", "mg/L", "NBS scale").
 std::string shown_unit_text(const jn::System& sys, int field) {
   const tw::Parameter p = round_parameter(field);
   if (p == tw::Parameter::Alkalinity) return fmtx::alkalinity_shown(sys.units.alkalinity).unit;
-  if (p == tw::Parameter::PH) return std::string("pH, ") + fmtx::ph_scale_label(sys.units.ph_scale);
+  if (p == tw::Parameter::PH) return std::string(fmtx::ph_scale_label(sys.units.ph_scale)) + " scale";
   return round_unit(sys, field);
 }
 
@@ -73,11 +73,13 @@ void draw_system(AppState& app, const jn::System& sys) {
   ImGui::TextUnformatted(ui::fit_text(sys.name, ImGui::GetContentRegionAvail().x).c_str());
   ImGui::PopFont();
   ImGui::LogText("\n%s\n", sys.name.c_str());
-  const float gap = ImGui::GetStyle().ItemSpacing.x;
-  const float half = (ImGui::GetContentRegionAvail().x - gap) / 2;
-  for (int k = 0; k < kRoundFields; ++k) {
-    if (k % 2 == 1) ImGui::SameLine();
-    draw_field(app, sys, k, typed[static_cast<size_t>(k)], half);
+  // Two fields a row, in table cells so that both labels sit on one line.
+  if (ImGui::BeginTable(("##round" + std::to_string(sys.id)).c_str(), 2, ImGuiTableFlags_SizingStretchSame)) {
+    for (int k = 0; k < kRoundFields; ++k) {
+      ImGui::TableNextColumn();
+      draw_field(app, sys, k, typed[static_cast<size_t>(k)], ImGui::GetContentRegionAvail().x);
+    }
+    ImGui::EndTable();
   }
   if (!f.error.empty() && f.error_field.rfind("round." + std::to_string(sys.id) + ".", 0) == 0) {
     ui::colored_wrapped(theme::kError, f.error.c_str());

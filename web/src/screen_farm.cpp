@@ -125,7 +125,7 @@ void draw_farm_overview(AppState& app) {
     ui::dim_text(summary.c_str());
     record_text(app, "farm.summary", summary);
   }
-  ui::dim_text("Uses a day: the estimated consumption in the system's units, as on the Demand screen. Low or high: the newest "
+  ui::dim_text("Uses a day: the estimated consumption, as on the Demand screen. Low or high: the newest "
                "test is outside the system's target band; old: too old to say today's level.");
   for (const FarmRow& row : c.rows) draw_row(app, row, c.now_s);
 }

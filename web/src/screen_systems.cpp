@@ -130,7 +130,7 @@ void draw_systems(AppState& app) {
   }
   ui::heading(app, "Systems");
   if (!app.journal.systems.empty()) {
-    const char* const views[] = {"Manage", "Farm", "Round of tests"};
+    const char* const views[] = {"Manage", "Farm", "Test round"};
     int view = static_cast<int>(app.ui.farm.view);
     if (ui::choice(app, "systems.view", nullptr, &view, views, 3)) app.ui.farm.view = static_cast<SystemsView>(view);
     if (app.ui.farm.view == SystemsView::Overview) {
