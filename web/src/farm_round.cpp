@@ -37,10 +37,12 @@ void draw_field(AppState& app, const jn::System& sys, int field, std::string& te
   const float e = ui::em(app);
   const tw::Parameter p = round_parameter(field);
   const std::string unit = shown_unit_text(sys, field);
-  ImGui::BeginGroup();
-  ImGui::PushStyleColor(ImGuiCol_Text, theme::kTextDim);
-  ImGui::TextUnformatted((std::string(tw::parameter_label(p)) + ", " + unit).c_str());
-  ImGui::PopStyleColor();
+  // The label goes straight into the draw list: text items in a table row take the row's
+  // baseline from the boxes beside them, which put the second label lower than the first.
+  const std::string label = std::string(tw::parameter_label(p)) + ", " + unit;
+  ImGui::GetWindowDrawList()->AddText(ImGui::GetCursorScreenPos(), theme::kTextDim, label.c_str());
+  ImGui::Dummy(ImVec2(width, ImGui::GetTextLineHeight()));
+  ImGui::LogText("%s\n", label.c_str());
   const bool refused = app.ui.farm.round.error_field == name;
   ImGui::PushStyleColor(ImGuiCol_Button, theme::kSurface);
   ImGui::PushStyleColor(ImGuiCol_Border, refused ? theme::kError : theme::kBorder);
@@ -62,7 +64,6 @@ void draw_field(AppState& app, const jn::System& sys, int field, std::string& te
   ImGui::PopStyleColor(3);
   ui::record(app, name);
   app.ui.widgets[name].text = text;
-  ImGui::EndGroup();
 }
 
 void draw_system(AppState& app, const jn::System& sys) {
