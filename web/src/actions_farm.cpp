@@ -87,8 +87,8 @@ int save_round(AppState& app) {
       if (!st) {
         f.error = sys.name + ", " + label + ": " + st.error().message;
         f.error_field = round_field_name(sys.id, k);
-        app.ui.reveal = f.error_field;  // scroll to the refused field
-        notify(app, f.error, true);
+        app.ui.reveal = f.error_field;  // scroll to the refused field, which shows the message
+
         return 0;
       }
       tests.push_back(std::move(e));
