@@ -94,10 +94,12 @@ std::string state_json() {
   const FarmCache& fc = a.ui.farm.cache;
   if (fc.valid) {
     json rows = json::array();
-    for (const FarmRow& r : fc.rows) rows.push_back({{"id", r.id}, {"attention", r.attention}, {"due", r.due.size()}});
-    j["farm"] = {{"rows", rows}, {"needing_attention", fc.needing_attention}, {"build_ms", fc.build_ms}, {"wall_ms", fc.wall_ms}, {"frames", fc.frames},
-
-                 {"computed_count", fc.computed_count}, {"revision", fc.revision}};
+    for (const FarmRow& row : fc.rows) {
+      rows.push_back({{"id", row.id}, {"attention", row.attention}, {"due", row.due.size()}});
+    }
+    j["farm"] = {{"rows", rows}, {"needing_attention", fc.needing_attention}, {"build_ms", fc.build_ms},
+                 {"wall_ms", fc.wall_ms}, {"frames", fc.frames}, {"computed_count", fc.computed_count},
+                 {"revision", fc.revision}};
   }
   j["farm_building"] = a.ui.farm.build.active;
   j["systems_view"] = static_cast<int>(a.ui.farm.view);
