@@ -12,6 +12,12 @@ namespace twapp {
 
 // Demand: the current system's journal -> per-parameter estimate, forecast, marks.
 void refresh_demand(AppState& app);
+// The same estimate for any system at now_s (the farm overview): fills out's results (error,
+// now_days, volume, notes, per_parameter, ratio); its key and counter are the caller's.
+// smooth = false leaves out the smoothed history (the charts' consumption curve), which the
+// state at now does not depend on.
+void estimate_system(const tw::journal::Journal& journal, const tw::journal::System& sys, std::int64_t now_s,
+                     int forecast_days, DemandCache& out, bool smooth = true);
 // Hatchery: the form -> flow-through or batch plan (+ pump-side table when shown).
 void refresh_hatchery(AppState& app);
 // Mixes: the form -> stock strength or the recipe for an effect, with the solubility check.
@@ -32,6 +38,14 @@ const std::vector<tw::additives::CompoundId>& mix_compounds();
 
 // Downloads the pump-side table as CSV / fixed-width text (platform::export_file).
 bool export_pump_table(AppState& app, bool csv);
+
+// A dosed parameter in the user's units: shown = core value (dKH, mg/L) x factor.
+struct ShownUnit {
+  double factor = 1;
+  std::string unit;
+  int decimals = 1;
+};
+ShownUnit shown_unit(const tw::journal::UnitPreferences& units, tw::Parameter p);
 
 // Calcium / magnesium: mg/L <-> the user's unit (tw::units, seawater density nominal).
 double ion_shown(double mg_l, tw::units::ConcentrationUnit unit, tw::units::Ion ion);

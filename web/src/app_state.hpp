@@ -22,6 +22,7 @@
 #include "tidewright/carbonate/uncertainty.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "dosing_state.hpp"  // forms and cached results of Demand, Hatchery, Mixes, Plan
+#include "farm_state.hpp"    // the Systems screen's farm overview and round of tests
 
 namespace twapp {
 
@@ -222,6 +223,7 @@ struct UiState {
   ScheduleEdit schedule_edit;
   DosingState dosing;  // Demand, Hatchery, Mixes, Plan (dosing_state.hpp)
   SystemForm system_form;
+  FarmState farm;     // farm overview and round of tests (farm_state.hpp)
   bool confirm_remove_demo = false;
   tw::journal::EventId confirm_remove_event = 0;  // Log: entry waiting for a second tap
   std::optional<float> chart_probe_ph;  // pH the user touched on the species chart

@@ -2,6 +2,8 @@
 
 #include "actions.hpp"
 #include "format.hpp"
+#include "platform.hpp"
+#include "tidewright/common/datetime.hpp"
 #include "ui.hpp"
 
 namespace twapp::fields {
@@ -64,6 +66,30 @@ bool ph_scale(AppState& app, const std::string& name, const char* label, cb::PhS
   if (!ui::choice(app, name, label, &index, kNames, 4)) return false;
   *scale = kPhScales[index];
   return true;
+}
+
+// "Now" or a local date and time the user types or steps back by an hour or a day.
+void when(AppState& app, const std::string& prefix, std::optional<std::int64_t>* when_s) {
+  const int tz = platform::utc_offset_minutes();
+  int chosen = when_s->has_value() ? 1 : 0;
+  const char* const whens[] = {"Now", "Earlier"};
+  if (ui::choice(app, prefix + ".when", "When", &chosen, whens, 2)) {
+    if (chosen == 1) *when_s = platform::now_unix_seconds() / 60 * 60;
+    else when_s->reset();
+  }
+  if (!when_s->has_value()) return;
+  std::string text = fmtx::local_time_text(**when_s, tz);
+  if (ui::text_field(app, prefix + ".time", "Date and time (your local time)", &text, "for example 2026-12-01 07:30")) {
+    tw::datetime::ParseOptions o;
+    o.utc_offset_minutes = tz;
+    auto t = tw::datetime::parse_datetime(text, o);
+    if (!t) notify(app, t.error().message, true);
+    else *when_s = *t;
+  }
+  const float half = (ImGui::GetContentRegionAvail().x - ImGui::GetStyle().ItemSpacing.x) / 2;
+  if (ui::button(app, prefix + ".time.hour_earlier", "1 hour earlier", half, ui::Tone::Quiet)) **when_s -= 3600;
+  ImGui::SameLine();
+  if (ui::button(app, prefix + ".time.day_earlier", "1 day earlier", half, ui::Tone::Quiet)) **when_s -= 86400;
 }
 
 }  // namespace twapp::fields

@@ -3,6 +3,7 @@
 // calls these instead of converting and bounding a temperature or an alkalinity itself.
 #pragma once
 
+#include <cstdint>
 #include <optional>
 #include <string>
 
@@ -33,5 +34,9 @@ inline constexpr tw::carbonate::PhScale kPhScales[] = {tw::carbonate::PhScale::N
 
 // The pH scale a reading is on: a choice of kPhScales.
 bool ph_scale(AppState& app, const std::string& name, const char* label, tw::carbonate::PhScale* scale);
+
+// When an entry happened: "Now" (empty) or a local date and time typed or stepped back by an
+// hour or a day. Widgets <prefix>.when, <prefix>.time, <prefix>.time.hour_earlier / day_earlier.
+void when(AppState& app, const std::string& prefix, std::optional<std::int64_t>* when_s);
 
 }  // namespace twapp::fields

@@ -39,17 +39,10 @@ Shown shown_for(const AppState& app, est::Parameter p) {
   const auto* sys = current_system(app);
   const tw::journal::UnitPreferences u = sys ? sys->units : app.settings.units;
   Shown s;
-  if (p == est::Parameter::Alkalinity) {
-    const fmtx::UnitShown a = fmtx::alkalinity_shown(u.alkalinity);
-    s.factor = fmtx::alkalinity_from_dkh(1.0, u.alkalinity);
-    s.unit = a.unit;
-    s.decimals = a.decimals;
-  } else {
-    const auto ion = p == est::Parameter::Calcium ? tw::units::Ion::Calcium : tw::units::Ion::Magnesium;
-    s.factor = ion_shown(1.0, u.calcium_magnesium, ion);
-    s.unit = tw::units::to_string(u.calcium_magnesium);
-    s.decimals = ion_decimals(u.calcium_magnesium);
-  }
+  const ShownUnit su = shown_unit(u, p);
+  s.factor = su.factor;
+  s.unit = su.unit;
+  s.decimals = su.decimals;
   const tw::ParameterInfo& info = tw::info_of(p);
   s.band_half = info.band_half_width.value_or(0.0);
   s.band_text = fmt::format("target \u00b1 {:g} {}", s.band_half, info.unit);
@@ -217,13 +210,15 @@ void draw_summary(AppState& app, const ParameterEstimate& pe, const Shown& s) {
     // Digits the estimate supports: set by its own uncertainty, not by the unit.
     const int dd = tw::carbonate::decimals_for_uncertainty(e.demand_sd * s.factor);
     ImGui::PushFont(app.ui.fonts.big);
-    ImGui::TextUnformatted(fmtx::fixed(e.demand_per_day * s.factor, dd).c_str());
+    const std::string figure = fmtx::fixed(e.demand_per_day * s.factor, dd);
+    ImGui::TextUnformatted(figure.c_str());
     ImGui::PopFont();
     ImGui::SameLine(0, 0.4f * ui::em(app));
     ImGui::PushFont(app.ui.fonts.bold);
     ImGui::TextUnformatted((s.unit + " per day").c_str());
     ImGui::PopFont();
     ui::record(app, "demand.consumption");
+    app.ui.widgets["demand.consumption"].text = figure;  // the figure as shown (tests compare it)
     const std::string range = fmtx::fixed(e.demand_low95 * s.factor, dd) + " to " +
                               fmtx::fixed(e.demand_high95 * s.factor, dd) + " " + s.unit + " per day";
     ui::wrapped(range.c_str());
@@ -278,7 +273,7 @@ void draw_forecast(AppState& app, const ParameterEstimate& pe, const Shown& s, s
       ImGui::TableNextColumn();
       ImGui::Text("%d (%s)", f.day, chart::day_label(f.time_days, platform::utc_offset_minutes()).c_str());
       ImGui::TableNextColumn();
-      const bool off = target && std::fabs(f.level - *target) > s.band_half;
+      const bool off = target && tw::band_side(tw::target_band(pe.estimate.parameter, *target), f.level) != tw::BandSide::Inside;
       if (off) ImGui::PushStyleColor(ImGuiCol_Text, theme::kWarning);
       ImGui::TextUnformatted(val(s, f.level).c_str());
       if (off) ImGui::PopStyleColor();

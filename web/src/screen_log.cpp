@@ -6,13 +6,13 @@
 #include <string>
 
 #include "actions.hpp"
+#include "fields.hpp"
 #include "format.hpp"
 #include "log_forms.hpp"
 #include "log_schedules.hpp"
 #include "platform.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
-#include "tidewright/common/datetime.hpp"
 #include "ui.hpp"
 
 namespace twapp {
@@ -24,30 +24,6 @@ namespace jn = tw::journal;
 const char* const kKinds[] = {"Test", "Dose", "Water change", "Top-off"};
 const char* const kKindNouns[] = {"test result", "dose", "water change", "top-off"};
 
-// "Now" or a local date and time the user types or steps back by an hour or a day.
-void draw_when(AppState& app, LogForm& f) {
-  const int tz = platform::utc_offset_minutes();
-  int when = f.when_s ? 1 : 0;
-  const char* const whens[] = {"Now", "Earlier"};
-  if (ui::choice(app, "log.when", "When", &when, whens, 2)) {
-    if (when == 1) f.when_s = platform::now_unix_seconds() / 60 * 60;
-    else f.when_s.reset();
-  }
-  if (!f.when_s) return;
-  std::string text = fmtx::local_time_text(*f.when_s, tz);
-  if (ui::text_field(app, "log.time", "Date and time (your local time)", &text, "for example 2026-12-01 07:30")) {
-    tw::datetime::ParseOptions o;
-    o.utc_offset_minutes = tz;
-    auto t = tw::datetime::parse_datetime(text, o);
-    if (!t) notify(app, t.error().message, true);
-    else f.when_s = *t;
-  }
-  const float half = (ImGui::GetContentRegionAvail().x - ImGui::GetStyle().ItemSpacing.x) / 2;
-  if (ui::button(app, "log.time.hour_earlier", "1 hour earlier", half, ui::Tone::Quiet)) *f.when_s -= 3600;
-  ImGui::SameLine();
-  if (ui::button(app, "log.time.day_earlier", "1 day earlier", half, ui::Tone::Quiet)) *f.when_s -= 86400;
-}
-
 void draw_entry_form(AppState& app, const jn::System& sys, LogForm& f) {
   if (f.editing) {
     ui::colored_wrapped(theme::kWarning, ("Changing a logged " + std::string(kKindNouns[static_cast<int>(f.kind)]) + ".").c_str());
@@ -56,7 +32,7 @@ void draw_entry_form(AppState& app, const jn::System& sys, LogForm& f) {
     if (ui::choice(app, "log.kind", "What to log", &kind, kKinds, 4)) f.kind = static_cast<LogKind>(kind);
   }
   ui::dim_text(("For " + sys.name + ".").c_str());
-  draw_when(app, f);
+  fields::when(app, "log", &f.when_s);
   log_forms::draw(app, sys, f);
   if (f.editing) {
     const float half = (ImGui::GetContentRegionAvail().x - ImGui::GetStyle().ItemSpacing.x) / 2;

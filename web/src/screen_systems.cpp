@@ -1,4 +1,7 @@
-// Systems: the list (tap to make one current), add, edit volume and defaults, remove.
+// Systems: three views. Manage: the list (tap to make one current), add, edit volume and
+// defaults, remove. Farm: every system's levels, demand, doses due and what needs a look
+// (screen_farm.cpp). Round: one round of tests for many systems (farm_round.cpp). The view
+// chosen stays for the session, so the Systems tab opens it again in one tap.
 #include <string>
 
 #include "actions.hpp"
@@ -126,6 +129,19 @@ void draw_systems(AppState& app) {
     return;
   }
   ui::heading(app, "Systems");
+  if (!app.journal.systems.empty()) {
+    const char* const views[] = {"Manage", "Farm", "Test round"};
+    int view = static_cast<int>(app.ui.farm.view);
+    if (ui::choice(app, "systems.view", nullptr, &view, views, 3)) app.ui.farm.view = static_cast<SystemsView>(view);
+    if (app.ui.farm.view == SystemsView::Overview) {
+      draw_farm_overview(app);
+      return;
+    }
+    if (app.ui.farm.view == SystemsView::Round) {
+      draw_round(app);
+      return;
+    }
+  }
   if (app.journal.systems.empty()) {
     ui::dim_text("No systems yet. A system is one body of water with its own volume and log: a display tank, a grow-out raceway, a larval culture tank.");
   } else {

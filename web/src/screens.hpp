@@ -15,6 +15,11 @@ void draw_hatchery(AppState& app);  // screen_hatchery.cpp
 void draw_mixes(AppState& app);     // screen_mixes.cpp
 void draw_plan(AppState& app);      // screen_plan.cpp
 
+// Views of the Systems screen: the farm overview (screen_farm.cpp) and the round of tests for
+// many systems at once (farm_round.cpp).
+void draw_farm_overview(AppState& app);
+void draw_round(AppState& app);
+
 // The Demand screen's card: a calcium reactor's net daily addition against the estimated
 // consumption (demand_reactor.cpp).
 void draw_reactor_check(AppState& app);

@@ -90,6 +90,20 @@ std::string state_json() {
                         {"salinity", wp.salinity}, {"temperature_c", wp.temperature_c},
                         {"pco2_uatm", wp.pco2_uatm}, {"dic_umol_kg", wp.dic_umol_kg}};
   j["water"] = water;
+  // The farm overview (only once it has been shown): order of the rows, which need a look and
+  // why, and how long building it took.
+  const FarmCache& fc = a.ui.farm.cache;
+  if (fc.valid) {
+    json rows = json::array();
+    for (const FarmRow& row : fc.rows) {
+      rows.push_back({{"id", row.id}, {"attention", row.attention}, {"due", row.due.size()}});
+    }
+    j["farm"] = {{"rows", rows}, {"needing_attention", fc.needing_attention}, {"build_ms", fc.build_ms},
+                 {"wall_ms", fc.wall_ms}, {"frames", fc.frames}, {"computed_count", fc.computed_count},
+                 {"revision", fc.revision}};
+  }
+  j["farm_building"] = a.ui.farm.build.active;
+  j["systems_view"] = static_cast<int>(a.ui.farm.view);
   j["settings"] = {{"alkalinity_unit", tw::units::to_string(a.settings.units.alkalinity)},
                    {"volume_unit", tw::units::to_string(a.settings.units.volume)},
                    {"temperature_unit", jn::to_string(a.settings.units.temperature)},

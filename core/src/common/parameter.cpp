@@ -81,4 +81,10 @@ TargetBand default_target_band(Parameter p) {
   return target_band(p, info_of(p).default_target.value_or(0.0));
 }
 
+BandSide band_side(const TargetBand& band, double level) {
+  if (level < band.low) return BandSide::Below;
+  if (level > band.high) return BandSide::Above;
+  return BandSide::Inside;
+}
+
 }  // namespace tw

@@ -58,5 +58,9 @@ struct TargetBand {
 TargetBand target_band(Parameter p, double target);
 // The band around the parameter's default target (dosed parameters; zeros otherwise).
 TargetBand default_target_band(Parameter p);
+// Where a level stands against a band: below its low end, inside it (ends included), above
+// its high end. The one rule for "out of band" that the app's overview and forecast read.
+enum class BandSide { Below, Inside, Above };
+BandSide band_side(const TargetBand& band, double level);
 
 }  // namespace tw
