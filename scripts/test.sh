@@ -40,9 +40,12 @@ ASAN_OPTIONS=detect_leaks=1 UBSAN_OPTIONS=print_stacktrace=1 \
 passed=$((passed + 1))
 
 stage "3/5 core tests compiled to WebAssembly, under Node.js"
-emcmake cmake -S . -B build/wasm -G Ninja -DCMAKE_BUILD_TYPE=Release >/dev/null
-ninja -C build/wasm -j"$JOBS" tw_tests
-ctest --test-dir build/wasm --output-on-failure
+# In the browser app's own build directory: the tests run on the core exactly as the app is
+# built (-Os), and stage 5 reuses its compiled core instead of building it a second time.
+emcmake cmake -S . -B build/web -G Ninja -DCMAKE_BUILD_TYPE=Release -DTW_BUILD_WEB=ON -DTW_BUILD_TESTS=ON \
+  -DTW_IMGUI_DIR="$ROOT/.cache/imgui" >/dev/null
+ninja -C build/web -j"$JOBS" tw_tests
+ctest --test-dir build/web --output-on-failure
 passed=$((passed + 1))
 
 stage "4/5 fuzz targets (${FUZZ_SECONDS} s each)"
@@ -81,6 +84,8 @@ browser_suite test_store.mjs
 browser_suite test_serving.mjs
 browser_suite test_saved_settings.mjs
 browser_suite test_switcher.mjs
+browser_suite test_farm.mjs
+TW_CLI="$ROOT/build/native/shell/tidewright" browser_suite test_hatchery_water.mjs
 xvfb-run -a build/native/web/tidewright-app --frames 30
 passed=$((passed + 1))
 

@@ -198,7 +198,11 @@ void run_add_dose(const LogOptions& o) {
   auto st = open_for(o, Access::Write);
   const System sys = system_or_fail(*st, o.system);
   if (!o.amount) throw CommandError("--amount is needed");
-  Dose d{o.additive, *o.amount, or_fail(dose_unit_from_string(o.amount_unit)), o.stock_g_per_l};
+  Dose d;
+  d.additive_id = o.additive;
+  d.amount = *o.amount;
+  d.unit = or_fail(dose_unit_from_string(o.amount_unit));
+  d.stock_g_per_l = o.stock_g_per_l;
   auto [time_s, text] = event_time(o);
   // Stored (or refused, with its one-line error) first; the compound's cautions follow.
   add_event_and_report(o, *st, sys, Event{0, sys.id, time_s, text, d});

@@ -159,8 +159,11 @@ Event read_event(const Statement& r) {
     t.kit = r.text(11);
     e.data = std::move(t);
   } else if (type == "dose") {
-    Dose d{r.text(12), r.real(13), known(dose_unit_from_string(r.text(14)), "amount unit", e.id),
-           r.optional_real(15)};
+    Dose d;
+    d.additive_id = r.text(12);
+    d.amount = r.real(13);
+    d.unit = known(dose_unit_from_string(r.text(14)), "amount unit", e.id);
+    d.stock_g_per_l = r.optional_real(15);
     if (!r.is_null(24)) {
       d.mark = known(schedule_mark_from_string(r.text(24)), "mark", e.id);
       d.schedule_id = r.integer(25);
