@@ -118,20 +118,21 @@ tc::InputUncertainties input_uncertainties(const ChemPrecisionOptions& o, const 
       throw CommandError(s.error().message);
     u.ph_scale_conversion = *o.ph_conversion;
   }
-  if (o.calcium) {
-    const double umol_per_unit = units::ion_to_umol_kg(1.0, un.calcium, units::Ion::Calcium, un.density_kg_l);
-    const double mg_l_per_unit = units::ion_from_umol_kg(umol_per_unit, units::ConcentrationUnit::MgPerL,
-                                                         units::Ion::Calcium, un.density_kg_l);
-    check_in_unit(P::Calcium, *o.calcium, mg_l_per_unit, units::to_string(un.calcium), "--calcium-precision");
-    u.calcium_umol_kg = *o.calcium * umol_per_unit;
-  }
-  if (o.magnesium) {
-    const double umol_per_unit = units::ion_to_umol_kg(1.0, un.magnesium, units::Ion::Magnesium, un.density_kg_l);
-    const double mg_l_per_unit = units::ion_from_umol_kg(umol_per_unit, units::ConcentrationUnit::MgPerL,
-                                                         units::Ion::Magnesium, un.density_kg_l);
-    check_in_unit(P::Magnesium, *o.magnesium, mg_l_per_unit, units::to_string(un.magnesium), "--magnesium-precision");
-    u.magnesium_umol_kg = *o.magnesium * umol_per_unit;
-  }
+  // A kit's precision in the unit its value was given in, checked against the table's range in
+  // mg/L, in umol/kg for the solver.
+  const auto ion_precision = [&](P parameter, units::Ion ion, units::ConcentrationUnit unit, double value,
+                                 const char* option) {
+    const double umol_per_unit = units::ion_to_umol_kg(1.0, unit, ion, un.density_kg_l);
+    const double mg_l_per_unit =
+        units::ion_from_umol_kg(umol_per_unit, units::ConcentrationUnit::MgPerL, ion, un.density_kg_l);
+    check_in_unit(parameter, value, mg_l_per_unit, units::to_string(unit), option);
+    return value * umol_per_unit;
+  };
+  if (o.calcium)
+    u.calcium_umol_kg = ion_precision(P::Calcium, units::Ion::Calcium, un.calcium, *o.calcium, "--calcium-precision");
+  if (o.magnesium)
+    u.magnesium_umol_kg =
+        ion_precision(P::Magnesium, units::Ion::Magnesium, un.magnesium, *o.magnesium, "--magnesium-precision");
   // Boron is no kit test: its accepted range is the core's, a share of the measured value,
   // worded here in the unit the boron was given in.
   if (o.total_boron) {

@@ -170,3 +170,26 @@ export async function pixelAt(page, x, y) {
   const row = inflateSync(Buffer.concat(chunks));
   return [row[1], row[2], row[3]].slice(0, channels >= 3 ? 3 : channels);
 }
+
+// Changes a system's saved Plan or Hatchery settings in the app's IndexedDB record by hand, as a
+// damaged or hand-edited store would hold them: edits maps "plan.doses_per_day" to a value.
+export async function editSavedSettings(page, systemId, edits) {
+  await page.evaluate(([id, changes]) => new Promise((ok, fail) => {
+    const r = indexedDB.open('tidewright');
+    r.onerror = () => fail(r.error);
+    r.onsuccess = () => {
+      const tx = r.result.transaction('settings', 'readwrite');
+      const st = tx.objectStore('settings');
+      st.get('app').onsuccess = (e) => {
+        const app = e.target.result;
+        for (const [path, value] of Object.entries(changes)) {
+          const [form, field] = path.split('.');
+          app.dosing_by_system[String(id)][form][field] = value;
+        }
+        st.put(app, 'app');
+      };
+      tx.oncomplete = () => { r.result.close(); ok(); };
+      tx.onerror = () => fail(tx.error);
+    };
+  }), [systemId, edits]);
+}

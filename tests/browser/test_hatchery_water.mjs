@@ -9,7 +9,7 @@
 import { resolve, join } from 'node:path';
 import { execFileSync } from 'node:child_process';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
+import { launch, PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, editSavedSettings } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
@@ -132,21 +132,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check((await hatchery(page)).line.length === 4, 'the line is not shown after the reload');
     // A damaged stored share is refused with its name and range (ranges.hpp); the rest is kept.
     await flushed(page);
-    await page.evaluate((id) => new Promise((ok, fail) => {
-      const r = indexedDB.open('tidewright');
-      r.onerror = () => fail(r.error);
-      r.onsuccess = () => {
-        const tx = r.result.transaction('settings', 'readwrite');
-        const st = tx.objectStore('settings');
-        st.get('app').onsuccess = (e) => {
-          const app = e.target.result;
-          app.dosing_by_system[String(id)].hatchery.mix_fraction = 5;
-          st.put(app, 'app');
-        };
-        tx.oncomplete = () => { r.result.close(); ok(); };
-        tx.onerror = () => fail(tx.error);
-      };
-    }), (await state(page)).dosing_forms.system);
+    await editSavedSettings(page, (await state(page)).dosing_forms.system, { 'hatchery.mix_fraction': 5 });
     await page.reload();
     await waitReady(page);
     await frames(page, 3);

@@ -5,7 +5,7 @@
 // Screenshots go to tests/browser/output/saved-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone } from './lib.mjs';
+import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, editSavedSettings } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -117,22 +117,7 @@ test('a damaged saved setting is refused with its name and range; the default is
   await flushed(page);
   const events = (await state(page)).events;
   // Change the stored record by hand, as a damaged or hand-edited store would have it.
-  await page.evaluate((id) => new Promise((ok, fail) => {
-    const r = indexedDB.open('tidewright');
-    r.onerror = () => fail(r.error);
-    r.onsuccess = () => {
-      const tx = r.result.transaction('settings', 'readwrite');
-      const st = tx.objectStore('settings');
-      st.get('app').onsuccess = (e) => {
-        const app = e.target.result;
-        app.dosing_by_system[String(id)].plan.doses_per_day = 999;
-        app.dosing_by_system[String(id)].hatchery.stock_g_per_l = 'strong';
-        st.put(app, 'app');
-      };
-      tx.oncomplete = () => { r.result.close(); ok(); };
-      tx.onerror = () => fail(tx.error);
-    };
-  }), ids[0]);
+  await editSavedSettings(page, ids[0], { 'plan.doses_per_day': 999, 'hatchery.stock_g_per_l': 'strong' });
   await page.reload();
   await waitReady(page);
   await frames(page, 3);
