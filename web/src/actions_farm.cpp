@@ -88,7 +88,6 @@ int save_round(AppState& app) {
         f.error = sys.name + ", " + label + ": " + st.error().message;
         f.error_field = round_field_name(sys.id, k);
         app.ui.reveal = f.error_field;  // scroll to the refused field, which shows the message
-
         return 0;
       }
       tests.push_back(std::move(e));
@@ -114,7 +113,8 @@ int save_round(AppState& app) {
   app.water.what_if = false;  // the Water screen follows the new readings
   f.typed.clear();
   f.when_s.reset();
-  notify(app, "Saved " + std::to_string(tests.size()) + " tests of " + std::to_string(filled.size()) + " systems");
+  const auto count = [](size_t n, const char* one, const char* many) { return std::to_string(n) + " " + (n == 1 ? one : many); };
+  notify(app, "Saved " + count(tests.size(), "test", "tests") + " of " + count(filled.size(), "system", "systems"));
   ++app.revision;
   save(app);  // one save: the store writes the new events in one transaction
   return static_cast<int>(tests.size());
