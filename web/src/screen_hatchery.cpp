@@ -352,8 +352,9 @@ void line_table(AppState& app, const hat::HatcheryLine& line) {
   ImGui::TableHeadersRow();
   for (std::size_t i = 0; i < line.points.size() && i < 4; ++i) {
     const hat::LinePoint& p = line.points[i];
+    // Per litre at the point's own density, as the intake's alkalinity was typed.
     const double dkh = tw::units::alkalinity_from_umol_kg(p.state.alkalinity_umol_kg, tw::units::AlkalinityUnit::DKH,
-                                                          jn::kNominalDensityKgPerL);
+                                                          tw::seawater::density_kg_per_l(p.salinity, p.temperature_c));
     const std::string cells[] = {kPoints[i], fmtx::fixed(fmtx::temperature_shown(p.temperature_c, u.temperature), 1),
                                  fmtx::fixed(p.salinity, 1), fmtx::fixed(fmtx::ph_on_scale(p.state, scale), 2),
                                  fmtx::fixed(p.state.omega_aragonite, 2),
@@ -377,8 +378,9 @@ void draw_line_result(AppState& app, const HatcheryCache& c) {
   const hat::HatcheryLine& line = *c.line;
   line_table(app, line);
   const auto u = fields::units(app);
-  const double dkh = tw::units::alkalinity_from_umol_kg(line.treatment.dose.alkalinity_umol_kg(),
-                                                        tw::units::AlkalinityUnit::DKH, jn::kNominalDensityKgPerL);
+  const hat::LinePoint& dosed = line.points.size() > 2 ? line.points[2] : line.points.back();
+  const double dkh = tw::units::alkalinity_from_umol_kg(line.treatment.dose.alkalinity_umol_kg(), tw::units::AlkalinityUnit::DKH,
+                                                        tw::seawater::density_kg_per_l(dosed.salinity, dosed.temperature_c));
   ui::wrapped(("Dose planned on the conditioned water: +" + fmtx::alkalinity_text(dkh, u.alkalinity) +
                " of alkalinity. The pump rates above are for the intake "
                "as read; when the water is heated, cooled or mixed before the dose, this is what the dose must add.")
