@@ -8,6 +8,7 @@
 
 #include <fmt/format.h>
 
+#include "tidewright/additives/additives.hpp"
 #include "tidewright/common/datetime.hpp"
 
 namespace tw::journal {
@@ -25,10 +26,18 @@ Dose delivered_dose(const DoseSchedule& s, double amount_as_set) {
 std::string schedule_summary(const DoseSchedule& s) {
   std::string recipe;
   if (!s.stock_name.empty()) recipe = s.stock_name;
-  if (s.stock_g_per_l) recipe += fmt::format("{}{:g} g/L", recipe.empty() ? "" : ", ", *s.stock_g_per_l);
+  // The strength, unless the keeper's own stock name already says it ("soda ash 80 g/L").
+  if (s.stock_g_per_l) {
+    const std::string strength = fmt::format("{:g} g/L", *s.stock_g_per_l);
+    if (recipe.find(strength) == std::string::npos) recipe += (recipe.empty() ? "" : ", ") + strength;
+  }
+  // The compound by its name in the catalog ("Sodium carbonate (soda ash)"); an id the catalog
+  // does not know is shown as it is stored.
+  const auto compound = additives::find_compound(s.additive_id);
+  const std::string what = compound ? (*compound)->name : s.additive_id;
   std::string out = fmt::format("{}: {:g} {} x {} a day of {}", s.device, s.amount, to_string(s.unit),
-                                s.doses_per_day, s.additive_id);
-  if (!recipe.empty()) out += " (" + recipe + ")";
+                                s.doses_per_day, what);
+  if (!recipe.empty()) out += ", stock " + recipe;
   if (s.calibration != 1.0) out += fmt::format(", calibration {:.3g}", s.calibration);
   return out;
 }

@@ -137,3 +137,16 @@ TEST_CASE("journal: schedules and marked doses survive the JSON round trip") {
   REQUIRE_MESSAGE(back.ok(), back.error().message);
   CHECK(*back == j);
 }
+
+TEST_CASE("journal: a schedule's one-line summary names the compound and says the strength once") {
+  DoseSchedule d = pump(47.5, 2);
+  CHECK(schedule_summary(d) == "pump 1: 47.5 mL x 2 a day of Sodium carbonate (soda ash), stock 80 g/L");
+  d.stock_name = "soda ash 80 g/L";  // the keeper's own name already says the strength
+  d.calibration = 1.03;
+  CHECK(schedule_summary(d) ==
+        "pump 1: 47.5 mL x 2 a day of Sodium carbonate (soda ash), stock soda ash 80 g/L, calibration 1.03");
+  d.stock_name = "alk stock";
+  d.additive_id = "something_else";  // not in the catalog: shown as stored
+  d.calibration = 1.0;
+  CHECK(schedule_summary(d) == "pump 1: 47.5 mL x 2 a day of something_else, stock alk stock, 80 g/L");
+}

@@ -21,8 +21,9 @@ std::int64_t dose_interval_s(const DoseSchedule& schedule);
 // calibration applied: additive, unit and stock of the schedule, amount x calibration.
 Dose delivered_dose(const DoseSchedule& schedule, double amount_as_set);
 
-// One line for lists and logs: "pump 1: 47.5 mL x 2 a day of sodium_carbonate (soda ash
-// 80 g/L, 80 g/L), calibration 1.03". Times are the caller's to add (they choose the zone).
+// One line for lists and logs: "pump 1: 47.5 mL x 2 a day of Sodium carbonate (soda ash),
+// stock soda ash 80 g/L, calibration 1.03" (the compound by its catalog name; the strength
+// unless the stock's name already says it). Times are the caller's to add (they choose the zone).
 std::string schedule_summary(const DoseSchedule& schedule);
 
 // Starts a schedule at start_s (an event of the journal). Returns its id.
