@@ -300,8 +300,9 @@ test('desktop: the mouse wheel scrolls the page (desktop 1280x800)', async () =>
   await frames(page, 6);
   const back = await widget(page, 'water.temperature');
   check(Math.abs(back.y - before.y) < 2, `the wheel back up did not return: y ${before.y} -> ${back.y}`);
-  // Each screen keeps its own scroll position: scrolled down on Water, away to Plan and back,
-  // Water opens where it was left.
+  // Each screen keeps its own scroll position: Water scrolled down by 300, Plan by a further
+  // 400; back on Water it is where it was left (a page scroll shared by the screens would have
+  // carried Plan's), and back on Plan too.
   await page.mouse.wheel(0, 300);
   await frames(page, 6);
   const left = await widget(page, 'water.temperature');
@@ -309,10 +310,22 @@ test('desktop: the mouse wheel scrolls the page (desktop 1280x800)', async () =>
   await frames(page, 4);
   const planTop = await state(page);
   check(planTop.screen === 'plan', `not on Plan: ${planTop.screen}`);
+  const planOpened = await widget(page, 'plan.alkalinity.0');
+  await page.mouse.move(640, 400);
+  await page.mouse.wheel(0, 400);
+  await frames(page, 6);
+  const planLeft = await widget(page, 'plan.alkalinity.0');
+  check(planLeft.y < planOpened.y - 50, `the wheel did not scroll Plan: y ${planOpened.y} -> ${planLeft.y}`);
   await tap(page, 'tab.water');
   await frames(page, 6);
   const again = await widget(page, 'water.temperature');
   check(Math.abs(again.y - left.y) < 2, `Water did not open where it was left: y ${left.y} -> ${again.y}`);
+  await tap(page, 'tab.plan');
+  await frames(page, 6);
+  const planAgain = await widget(page, 'plan.alkalinity.0');
+  check(Math.abs(planAgain.y - planLeft.y) < 2, `Plan did not open where it was left: y ${planLeft.y} -> ${planAgain.y}`);
+  await tap(page, 'tab.water');
+  await frames(page, 6);
   // A reload opens the screen the page's address names (#water), not Systems.
   check(page.url().endsWith('#water'), `the page's address does not name the screen: ${page.url()}`);
   await page.reload();
