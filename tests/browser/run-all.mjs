@@ -193,20 +193,58 @@ test('text size Huge: no tab labels or widgets overlap, on every screen (phone a
         check(label.x >= cell.x - 0.5 && label.x + label.w <= cell.x + cell.w + 0.5,
           `${size.viewport.width}px ${screen}: the label of tab ${t} (${label.x.toFixed(1)}+${label.w.toFixed(1)}) leaves its cell (${cell.x.toFixed(1)}+${cell.w.toFixed(1)})`);
       }
-      const shown = Object.entries(all).filter(([n, r]) => r.visible && r.w > 0 && r.h > 0 && !n.endsWith('.label'));
-      const nested = (a, b) => a.startsWith(b + '.') || b.startsWith(a + '.');
-      // The header and the tab bar stay put; content scrolled under them is clipped there.
-      const chrome = (n) => n.startsWith('tab.') || n.startsWith('header.');
-      for (let i = 0; i < shown.length; i++) {
-        for (let j = i + 1; j < shown.length; j++) {
-          const [na, a] = shown[i], [nb, b] = shown[j];
-          if (nested(na, nb) || chrome(na) !== chrome(nb)) continue;
-          const dx = Math.min(a.x + a.w, b.x + b.w) - Math.max(a.x, b.x);
-          const dy = Math.min(a.y + a.h, b.y + b.h) - Math.max(a.y, b.y);
-          check(!(dx > 1 && dy > 1), `${size.viewport.width}px ${screen}: ${na} and ${nb} overlap by ${dx.toFixed(1)} x ${dy.toFixed(1)} px`);
-        }
+      checkNoOverlaps(all, `${size.viewport.width}px ${screen}`);
+    }
+    await context.close();
+  }
+});
+
+// No two named widgets that are shown overlap (a widget and its own parts, "a" and "a.0", may
+// nest). The header and the tab bar stay put; content scrolled under them is clipped there.
+function checkNoOverlaps(all, where) {
+  const shown = Object.entries(all).filter(([n, r]) => r.visible && r.w > 0 && r.h > 0 && !n.endsWith('.label'));
+  const nested = (a, b) => a.startsWith(b + '.') || b.startsWith(a + '.');
+  const chrome = (n) => n.startsWith('tab.') || n.startsWith('header.');
+  for (let i = 0; i < shown.length; i++) {
+    for (let j = i + 1; j < shown.length; j++) {
+      const [na, a] = shown[i], [nb, b] = shown[j];
+      if (nested(na, nb) || chrome(na) !== chrome(nb)) continue;
+      const dx = Math.min(a.x + a.w, b.x + b.w) - Math.max(a.x, b.x);
+      const dy = Math.min(a.y + a.h, b.y + b.h) - Math.max(a.y, b.y);
+      check(!(dx > 1 && dy > 1), `${where}: ${na} and ${nb} overlap by ${dx.toFixed(1)} x ${dy.toFixed(1)} px`);
+    }
+  }
+}
+
+// Issue 15: a desktop window is not a phone column in the middle of the screen. Water, Demand,
+// Plan and Hatchery put their results beside their inputs (two panes, both starting at the
+// top) when the page is wide enough, and keep one column in the same order on a phone. Each
+// pair is a widget of the first pane and one of the second (widget rectangles from the test
+// interface, page coordinates).
+test('wide desktop: two panes side by side on Water, Demand, Plan and Hatchery; one column on a phone', async () => {
+  const pairs = {
+    water: ['water.omega', 'water.pair.0'],
+    demand: ['demand.chart.level', 'demand.forecast_table'],
+    plan: ['plan.verdict', 'plan.chart'],
+    hatchery: ['hatchery.salinity', 'hatchery.water_table'],
+  };
+  for (const [label, size] of [['desktop', DESKTOP], ['phone', PHONE]]) {
+    const { context, page } = await open(size);
+    for (const [screen, [first, second]] of Object.entries(pairs)) {
+      await tap(page, 'tab.' + screen);
+      await frames(page, 4);
+      const all = JSON.parse(await page.evaluate(() => Module.ccall('tw_test_widgets', 'string', [], [])));
+      const a = all[first], b = all[second];
+      check(a && b, `${label} ${screen}: ${first} or ${second} not drawn`);
+      if (label === 'desktop') {
+        check(b.x >= a.x + a.w, `${label} ${screen}: ${second} (x ${b.x.toFixed(0)}) is not right of ${first} (ends at ${(a.x + a.w).toFixed(0)})`);
+        check(b.y < 0.5 * size.viewport.height, `${label} ${screen}: the second pane starts at y ${b.y.toFixed(0)}, not at the top`);
+        checkNoOverlaps(all, `${label} ${screen}`);
+      } else {
+        check(b.y > a.y + a.h && b.x < a.x + a.w, `${label} ${screen}: ${second} (${b.x.toFixed(0)},${b.y.toFixed(0)}) is not below ${first} in one column`);
       }
     }
+    if (label === 'desktop') await page.screenshot({ path: join(OUTPUT, 'desktop-plan-panes.png') });
     await context.close();
   }
 });

@@ -286,12 +286,8 @@ void draw_forecast(AppState& app, const ParameterEstimate& pe, const Shown& s, s
   if (target) ui::dim_text("Yellow: more than the target band away from the target.");
 }
 
-}  // namespace
-
-void draw_demand(AppState& app) {
-  refresh_demand(app);
-  const DemandCache& c = app.ui.dosing.demand_cache;
-  const auto* sys = current_system(app);
+// The screen's content; an early return (nothing to show) still ends the panes.
+void draw_demand_panes(AppState& app, const DemandCache& c, const tw::journal::System* sys) {
   ui::heading(app, sys ? ("Demand of " + sys->name).c_str() : "Demand");
   if (!c.error.empty()) {
     ui::dim_text(c.error.c_str());
@@ -321,6 +317,7 @@ void draw_demand(AppState& app) {
     ui::heading(app, "Consumption per day");
     draw_demand_chart(app, pe, s);
   }
+  ui::panes_next(app);
   draw_forecast(app, pe, s, target);
   if (p != est::Parameter::Magnesium && c.ratio.verdict != est::RatioVerdict::NotEnoughData) {
     ui::heading(app, "Calcium and alkalinity together");
@@ -334,6 +331,17 @@ void draw_demand(AppState& app) {
   }
   ui::dim_text("Kit precision sets how much one test counts: log it with each test when you know it. "
                "Typical hobby kits: 0.2 dKH, 10 mg/L calcium, 25 mg/L magnesium (common practice).");
+}
+
+}  // namespace
+
+void draw_demand(AppState& app) {
+  refresh_demand(app);
+  const DemandCache& c = app.ui.dosing.demand_cache;
+  const auto* sys = current_system(app);
+  ui::panes_begin(app);  // wide: the summary and charts beside the forecast and the checks
+  draw_demand_panes(app, c, sys);
+  ui::panes_end(app);
 }
 
 }  // namespace twapp

@@ -477,6 +477,7 @@ void draw_pump_table(AppState& app, HatcheryForm& f, const HatcheryCache& c) {
 // ---------------------------------------------------------------- 5. The screen
 void draw_hatchery(AppState& app) {
   HatcheryForm& f = app.ui.dosing.hatchery;
+  ui::panes_begin(app);  // wide: the water and the target beside the dose and the line
   ui::heading(app, "Hatchery buffering");
   ui::colored_wrapped(theme::kWarning,
                       "Sodium hydroxide and strong carbonate stocks are caustic: gloves and eye protection, add to "
@@ -487,6 +488,7 @@ void draw_hatchery(AppState& app) {
   if (ui::choice(app, "hatchery.mode", "", &mode, modes, 2)) f.mode = static_cast<HatcheryMode>(mode);
   draw_water_form(app, f);
   draw_target_form(app, f);
+  ui::panes_next(app);
   refresh_hatchery(app);
   const HatcheryCache& c = app.ui.dosing.hatchery_cache;
   if (!c.error.empty()) {
@@ -513,6 +515,7 @@ void draw_hatchery(AppState& app) {
     list(*cautions, theme::kText);
     ui::record(app, "hatchery.cautions");
   }
+  ui::panes_end(app);
 }
 
 }  // namespace twapp

@@ -334,6 +334,7 @@ void draw_adopt(AppState& app, const PlanCache& c) {
 void draw_plan(AppState& app) {
   PlanForm& f = app.ui.dosing.plan;
   const auto* sys = current_system(app);
+  ui::panes_begin(app);  // wide: the verdict and the choices beside what the plan predicts
   ui::heading(app, sys ? ("Dose plan for " + sys->name).c_str() : "Dose plan");
   refresh_plan(app);
   const PlanCache& c = app.ui.dosing.plan_cache;
@@ -356,7 +357,10 @@ void draw_plan(AppState& app) {
     }
     ui::card_end(app);
   }
-  if (!c.plan) return;
+  if (!c.plan) {
+    ui::panes_end(app);
+    return;
+  }
   const pl::Plan& plan = *c.plan;
   ui::card_begin(app);
   const char* pnames[3] = {"Alkalinity", "Calcium", "Magnesium"};
@@ -374,6 +378,7 @@ void draw_plan(AppState& app) {
   // paraphrased here, so the keeper read it twice.
   ui::card_end(app);
   draw_adopt(app, c);
+  ui::panes_next(app);
   ui::heading(app, "Predicted water");
   draw_chart(app, c);
   ui::heading(app, "Day by day");
@@ -407,6 +412,7 @@ void draw_plan(AppState& app) {
   const char* const formats[] = {"CSV", "iCalendar", "Text", "JSON"};
   ui::choice(app, "plan.export_format", "", &f.export_index, formats, 4);
   if (ui::button(app, "plan.export", "Download the schedule", 0, ui::Tone::Primary)) export_plan(app, f.export_index);
+  ui::panes_end(app);
 }
 
 }  // namespace twapp

@@ -292,6 +292,7 @@ void draw_results(AppState& app, const jn::UnitPreferences& u) {
 void draw_water(AppState& app) {
   const jn::System* sys = current_system(app);
   const jn::UnitPreferences u = sys ? sys->units : app.settings.units;
+  ui::panes_begin(app);  // wide: the results and their chart beside the inputs
   ui::heading(app, "Water");
   ui::dim_text(app.water.source.c_str());
   if (app.water.what_if && sys) {
@@ -300,6 +301,7 @@ void draw_water(AppState& app) {
   draw_results(app, u);
   ui::heading(app, "Species across pH");
   draw_species_chart(app);
+  ui::panes_next(app);
   ui::heading(app, "Inputs");
   ui::dim_text("Change any number for a what-if; the log is not touched.");
   draw_inputs(app, u);
@@ -308,6 +310,7 @@ void draw_water(AppState& app) {
                "meters (common practice: alkalinity kits 0.2-0.5 dKH, pH meters 0.05-0.1, and a few "
                "hundredths more to put an NBS reading on the total scale). Change them to your own.");
   draw_precision(app, u);
+  ui::panes_end(app);
 }
 
 }  // namespace twapp

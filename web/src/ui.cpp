@@ -182,7 +182,9 @@ void label_value(AppState& app, const char* label, const std::string& value, ImU
   // The value goes right-aligned on the label's line, or on the next line when the two would
   // meet (large text sizes, long labels).
   if (label_w + 0.6f * em(app) + w <= avail) {
-    ImGui::SameLine(x0 + avail - w - 1);
+    // SameLine(offset) would count from a group's start too (a wide page's second pane).
+    ImGui::SameLine();
+    ImGui::SetCursorPosX(x0 + avail - w - 1);
   } else {
     ImGui::SetCursorPosX(std::max(x0, x0 + avail - w - 1));
   }
@@ -378,10 +380,19 @@ namespace {
 struct Inset {
   ImVec2 start;
   float old_work_max = 0, old_content_max = 0;
+  float page_left = 0;  // the column's window: where its content starts (screen x)
 };
 // Cards do not nest, columns do not nest: one of each at a time.
 Inset g_card;    // NOLINT: widget scratch between begin and end of one card, not app state
 Inset g_column;  // NOLINT: same for the column
+
+struct PaneScratch {
+  bool split = false;
+  float top = 0, left = 0, width = 0, gap = 0;
+  float first_bottom = 0;
+  float old_work_max = 0, old_content_max = 0;
+};
+PaneScratch g_panes;  // NOLINT: same for the two panes of a wide page
 }  // namespace
 
 void card_begin(AppState& app) {
@@ -421,6 +432,7 @@ void column_begin(AppState& app, float max_em) {
   g_column.old_work_max = w->WorkRect.Max.x;
   g_column.old_content_max = w->ContentRegionRect.Max.x;
   g_column.start.x = left;
+  g_column.page_left = w->DC.CursorPos.x;
   if (left > 0) ImGui::Indent(left);
   w->WorkRect.Max.x = w->DC.CursorPos.x + width;
   w->ContentRegionRect.Max.x = w->DC.CursorPos.x + width;
@@ -431,6 +443,57 @@ void column_end(AppState&) {
   if (g_column.start.x > 0) ImGui::Unindent(g_column.start.x);
   w->WorkRect.Max.x = g_column.old_work_max;
   w->ContentRegionRect.Max.x = g_column.old_content_max;
+}
+
+// Two panes need room for two readable columns: each at least kPaneMinEm wide. Below that
+// (every phone, a narrow window, "Huge" text on a laptop) the panes follow each other.
+namespace {
+constexpr float kPaneMinEm = 28, kPaneMaxEm = 40, kPaneGapEm = 2;
+void set_pane_width(ImGuiWindow* w, float left, float width) {
+  w->WorkRect.Max.x = left + width;
+  w->ContentRegionRect.Max.x = left + width;
+}
+}  // namespace
+
+bool panes_begin(AppState& app) {
+  ImGuiWindow* w = ImGui::GetCurrentWindow();
+  const float e = em(app);
+  const float page = g_column.old_content_max - g_column.page_left;
+  g_panes = {};
+  if (page < 2 * kPaneMinEm * e + kPaneGapEm * e) return false;
+  g_panes.split = true;
+  g_panes.gap = kPaneGapEm * e;
+  g_panes.width = std::floor(std::min((page - g_panes.gap) / 2, kPaneMaxEm * e));
+  g_panes.left = std::floor(g_column.page_left + (page - 2 * g_panes.width - g_panes.gap) / 2);
+  g_panes.top = w->DC.CursorPos.y;
+  g_panes.old_work_max = w->WorkRect.Max.x;
+  g_panes.old_content_max = w->ContentRegionRect.Max.x;
+  ImGui::SetCursorScreenPos(ImVec2(g_panes.left, g_panes.top));
+  ImGui::BeginGroup();
+  set_pane_width(w, g_panes.left, g_panes.width);
+  return true;
+}
+
+void panes_next(AppState&) {
+  if (!g_panes.split) return;
+  ImGuiWindow* w = ImGui::GetCurrentWindow();
+  ImGui::EndGroup();
+  g_panes.first_bottom = ImGui::GetItemRectMax().y;
+  const float right = g_panes.left + g_panes.width + g_panes.gap;
+  ImGui::SetCursorScreenPos(ImVec2(right, g_panes.top));
+  ImGui::BeginGroup();
+  set_pane_width(w, right, g_panes.width);
+}
+
+void panes_end(AppState&) {
+  if (!g_panes.split) return;
+  ImGuiWindow* w = ImGui::GetCurrentWindow();
+  ImGui::EndGroup();
+  const float bottom = std::max(g_panes.first_bottom, ImGui::GetItemRectMax().y);
+  w->WorkRect.Max.x = g_panes.old_work_max;
+  w->ContentRegionRect.Max.x = g_panes.old_content_max;
+  ImGui::SetCursorScreenPos(ImVec2(g_column.page_left + g_column.start.x, bottom + ImGui::GetStyle().ItemSpacing.y));
+  g_panes = {};
 }
 
 // ---------------------------------------------------------------- touch scrolling

@@ -66,6 +66,14 @@ void card_end(AppState& app);
 void column_begin(AppState& app, float max_em);
 void column_end(AppState& app);
 
+// A screen in two panes side by side when the page is wide enough (a desktop window), one
+// after the other in the column otherwise (a phone), in the same order either way:
+//   ui::panes_begin(app); <first pane> ui::panes_next(app); <second pane> ui::panes_end(app);
+// panes_begin says whether they are side by side. Every begin needs its end, early returns too.
+bool panes_begin(AppState& app);
+void panes_next(AppState& app);
+void panes_end(AppState& app);
+
 // Drag on a scrolling window scrolls it (with a little momentum); a press that moves more
 // than a fraction of an em stops being a tap, so scrolling never edits anything.
 // Called at the top of the page window each frame: keeps each screen's scroll position and
