@@ -170,6 +170,15 @@ test('text size and light look settings, desktop Tab key navigation', async () =
   await frames(page, 3);
   const kept = await pixelAt(page, 1270, 400);
   check((await state(page)).settings.look === 'light' && Math.min(...kept) > 200, `the light look after a reload: ${kept}`);
+  // The page's own HTML parts (loading screen, entry sheet) follow from the first paint of the
+  // reload: page.js reads the look the app left in localStorage.
+  const html = await page.evaluate(() => ({
+    light: document.documentElement.classList.contains('light'),
+    loading: getComputedStyle(document.getElementById('loading')).backgroundColor,
+    entry: getComputedStyle(document.getElementById('entry')).backgroundColor,
+  }));
+  check(html.light && html.loading === 'rgb(240, 244, 243)' && html.entry === 'rgb(255, 255, 255)',
+    `the page's loading screen and entry sheet in the light look: ${JSON.stringify(html)}`);
   await context.close();
 });
 

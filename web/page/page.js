@@ -1,6 +1,14 @@
 // Tidewright page script, run before tidewright.js (a file of its own: the content security
 // policy allows no inline script). Module settings read by tidewright.js; storage, entry and
 // file glue live in web/platform/web_pre.js.
+// The look chosen in the app (platform::set_page_look) paints the loading screen and the entry
+// sheet from the first paint on.
+try {
+  if (localStorage.getItem('tidewright.look') === 'light') {
+    document.documentElement.classList.add('light');
+    document.querySelector('meta[name="theme-color"]').setAttribute('content', '#f0f4f3');
+  }
+} catch (e) { /* storage refused (private mode): the dark default */ }
 var Module = {
   canvas: document.getElementById('canvas'),
   print: function (t) { console.log(t); },

@@ -137,6 +137,12 @@ void set_screen_text(const std::string& text);
 void set_location_screen(const char* name);
 std::string location_screen();  // the name after '#', or "" when there is none
 
+// ---------------------------------------------------------------- 6c. The page's own colours
+// The page's loading screen and the phone keyboard sheet are HTML, drawn before the app's store
+// is read: the look chosen (light or dark) is also kept in the browser's localStorage so the
+// next load paints them in it from the start (page.js reads it). No-op on the desktop.
+void set_page_look(bool light);
+
 // ---------------------------------------------------------------- 7. Test hooks
 // Tells the page the first frame is on screen (benchmark: navigation to first frame).
 void first_frame_drawn();

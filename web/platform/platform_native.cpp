@@ -337,6 +337,7 @@ double now_ms() {
 void first_frame_drawn() {}
 void set_screen_text(const std::string&) {}
 void set_location_screen(const char*) {}
+void set_page_look(bool) {}
 std::string location_screen() { return {}; }
 
 }  // namespace twapp::platform

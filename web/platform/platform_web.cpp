@@ -83,6 +83,12 @@ EM_JS(void, js_set_location_screen, (const char* name), {
 EM_JS(void, js_location_screen, (char* out, int size), {
   stringToUTF8(decodeURIComponent(location.hash.slice(1)).slice(0, 40), out, size);
 });
+EM_JS(void, js_set_page_look, (int light), {
+  document.documentElement.classList.toggle('light', !!light);
+  var meta = document.querySelector('meta[name="theme-color"]');
+  if (meta) meta.setAttribute('content', light ? '#f0f4f3' : '#0b1418');
+  try { localStorage.setItem('tidewright.look', light ? 'light' : 'dark'); } catch (e) {}
+});
 EM_JS(void, js_set_screen_text, (const char* text), {
   var el = document.getElementById('screen-text');
   if (el) el.textContent = UTF8ToString(text);
@@ -308,6 +314,7 @@ double now_ms() { return emscripten_get_now(); }
 void first_frame_drawn() { js_first_frame(); }
 void set_screen_text(const std::string& text) { js_set_screen_text(text.c_str()); }
 void set_location_screen(const char* name) { js_set_location_screen(name); }
+void set_page_look(bool light) { js_set_page_look(light ? 1 : 0); }
 std::string location_screen() {
   char name[64] = {};
   js_location_screen(name, sizeof name);

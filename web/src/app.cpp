@@ -119,6 +119,10 @@ bool app_frame(AppState& app) {
     theme::apply_look(app.settings.look, scale);
     app.ui.look_applied = app.settings.look;
   }
+  if (app.ui.page_look != app.settings.look) {
+    platform::set_page_look(app.settings.look == Look::Light);
+    app.ui.page_look = app.settings.look;
+  }
   ImGui::NewFrame();
   app.ui.widgets.clear();
   sync_dosing_forms(app);

@@ -213,6 +213,7 @@ struct UiState {
   float pixel_ratio = 1;
   float fonts_built_for = 0;   // scale the font atlas was built for (0 = not yet)
   Look look_applied = Look::Dark;  // the look the style was last applied with
+  std::optional<Look> page_look;   // the look the page's HTML parts were last told
   std::map<std::string, Rect> widgets;  // named widgets drawn this frame
   std::string reveal;          // widget to scroll into view on the next frame
   std::string screen_text;     // the text last handed to screen readers (platform::set_screen_text)
