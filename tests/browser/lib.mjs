@@ -18,6 +18,10 @@ export function launch() {
 }
 
 export const PHONE = { viewport: { width: 390, height: 844 }, deviceScaleFactor: 3, hasTouch: true, isMobile: true };
+// The same phone at one device pixel per CSS pixel, for suites that test behaviour, not looks:
+// Chromium draws the canvas with software WebGL (SwiftShader) here, and at 3x each frame has
+// 9x the pixels, which made a tap (a few frames) take 2-3 s on the 2-core CI machine.
+export const PHONE_1X = { ...PHONE, deviceScaleFactor: 1 };
 export const DESKTOP = { viewport: { width: 1280, height: 800 }, deviceScaleFactor: 1, hasTouch: false };
 
 // Collects console errors and page errors of a page.

@@ -5,7 +5,7 @@
 // Screenshots go to tests/browser/output/saved-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, editSavedSettings } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, editSavedSettings } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);

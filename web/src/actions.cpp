@@ -132,7 +132,7 @@ void start_app(AppState& app) {
   app.store.loaded = true;
   const auto loaded = platform::store_load(kStoreName);
   if (!loaded) {  // first start: the demo
-    load_demo(app);
+    load_demo(app, false);
     return;
   }
   const std::string& text = loaded->text;
@@ -464,7 +464,7 @@ void use_latest_readings(AppState& app) {
 }
 
 // ---------------------------------------------------------------- demo, export, import
-void load_demo(AppState& app) {
+void load_demo(AppState& app, bool save_now) {
   const std::string text(reinterpret_cast<const char*>(tw_demo_journal), tw_demo_journal_size);
   auto stored = store_from_text(text);
   if (!stored) {
@@ -493,7 +493,12 @@ void load_demo(AppState& app) {
     for (const auto& s : app.journal.systems) app.demo_system_ids.push_back(s.id);
     app.current_system = app.journal.systems.empty() ? 0 : app.journal.systems.front().id;
     if (const jn::System* s = current_system(app)) app.settings.units = s->units;
-    changed(app);
+    ++app.revision;
+    if (save_now) {
+      save(app);
+    } else {
+      app.store.save_after_first_frame = true;
+    }
     return;
   }
   notify(app, "The demo can only be loaded into an empty journal: export and remove your data first", true);

@@ -62,7 +62,8 @@ void use_latest_readings(AppState& app);
 
 // Demo data, export and import
 bool remove_demo(AppState& app);
-void load_demo(AppState& app);
+// save_now false: saved after the first frame instead (a first start).
+void load_demo(AppState& app, bool save_now = true);
 void export_all(AppState& app);
 void ask_import(AppState& app);
 bool import_text(AppState& app, const std::string& text);

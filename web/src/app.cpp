@@ -142,6 +142,10 @@ bool app_frame(AppState& app) {
     app.ui.first_frame_reported = true;
     platform::first_frame_drawn();
   }
+  if (app.store.save_after_first_frame) {
+    app.store.save_after_first_frame = false;
+    save(app);
+  }
   return true;
 }
 
