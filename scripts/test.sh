@@ -86,6 +86,7 @@ browser_suite test_saved_settings.mjs
 browser_suite test_switcher.mjs
 browser_suite test_farm.mjs
 TW_CLI="$ROOT/build/native/shell/tidewright" browser_suite test_hatchery_water.mjs
+TW_CLI="$ROOT/build/native/shell/tidewright" browser_suite test_import.mjs
 xvfb-run -a build/native/web/tidewright-app --frames 30
 passed=$((passed + 1))
 

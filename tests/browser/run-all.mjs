@@ -130,6 +130,11 @@ test('export then import restores everything', async () => {
   await messageGone(page);  // the strip going moves the button under the tap (lib.mjs)
   const [chooser] = await Promise.all([page.waitForEvent('filechooser'), tap(page, 'settings.import')]);
   await chooser.setFiles(file);
+  // The file is previewed first (test_import.mjs); replacing everything takes two taps.
+  await page.waitForFunction(() => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).import.kind === 'journal',
+    null, { timeout: 10000 });
+  await tap(page, 'import.replace');
+  await tap(page, 'import.replace_confirm');
   await page.waitForFunction((n) => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).systems.length === n,
     before.systems.length, { timeout: 10000 });
   await frames(page, 2);

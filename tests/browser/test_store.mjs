@@ -197,6 +197,11 @@ test('import of an export restores everything', async () => {
   await page.waitForFunction(() => window.__twFileRequests === 1, null, { timeout: 10000 })
     .catch(() => { throw new Error('tapping Import file did not ask for a file'); });
   await page.setInputFiles('#import-file', file);
+  // The file is previewed first (test_import.mjs); replacing everything takes two taps.
+  await page.waitForFunction(() => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).import.kind === 'journal',
+    null, { timeout: 10000 });
+  await tap(page, 'import.replace');
+  await tap(page, 'import.replace_confirm');
   await page.waitForFunction((n) => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).events === n,
     before.events, { timeout: 10000 });
   await flushed(page);

@@ -353,6 +353,11 @@ EMSCRIPTEN_KEEPALIVE const char* tw_test_state() {
   s = twapp::test_api::state_json();
   return s.c_str();
 }
+EMSCRIPTEN_KEEPALIVE const char* tw_test_journal() {
+  static std::string s;
+  s = twapp::test_api::journal_json();
+  return s.c_str();
+}
 EMSCRIPTEN_KEEPALIVE const char* tw_test_widget(const char* name) {
   static std::string s;
   s = twapp::test_api::widget_json(name ? name : "", twapp::platform::pixel_ratio());

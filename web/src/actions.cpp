@@ -531,11 +531,8 @@ void export_all(AppState& app) {
 
 void ask_import(AppState&) { platform::request_import(); }
 
-bool import_text(AppState& app, const std::string& text) {
-  if (text.empty()) {
-    notify(app, "Import: the file is empty or could not be read", true);
-    return false;
-  }
+// "Replace everything" of an import, once the keeper confirmed it (actions_import.cpp asks).
+bool replace_all_from_text(AppState& app, const std::string& text) {
   auto stored = store_from_text(text);
   if (!stored) {
     notify(app, "Import refused, nothing changed: " + stored.error().field + ": " + stored.error().message, true);
@@ -545,7 +542,7 @@ bool import_text(AppState& app, const std::string& text) {
   adopt(app, std::move(stored).value());
   if (!full) app.demo_system_ids.clear();
   app.store.problem.clear();
-  notify(app, std::string("Imported ") + std::to_string(app.journal.systems.size()) + " systems and " +
+  notify(app, std::string("Replaced with the file's ") + std::to_string(app.journal.systems.size()) + " systems and " +
                   std::to_string(app.journal.events.size()) + " log entries");
   changed(app);
   return true;

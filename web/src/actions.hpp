@@ -66,7 +66,17 @@ bool remove_demo(AppState& app);
 void load_demo(AppState& app, bool save_now = true);
 void export_all(AppState& app);
 void ask_import(AppState& app);
+// A picked file's text: makes the preview shown in Settings (import_state.hpp); nothing in the
+// journal changes until the keeper confirms it (actions_import.cpp).
 bool import_text(AppState& app, const std::string& text);
+void remake_import_preview(AppState& app);  // after the keeper changed a choice of the preview
+bool confirm_import_add(AppState& app);      // CSV rows, or a Tidewright file merged
+bool confirm_import_replace(AppState& app);  // a Tidewright file in place of everything here
+void cancel_import(AppState& app);
+bool replace_all_from_text(AppState& app, const std::string& text);
+// The log as long-form CSV (the command line's `log export` format), of the current system or
+// of every system (UiState::csv_export_all).
+void export_log_csv(AppState& app);
 // Records another tab stored (or the store as a whole after a failed save) come into the
 // journal here; nothing is written back.
 void apply_store_update(AppState& app, const platform::StoreUpdate& update);

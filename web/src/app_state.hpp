@@ -23,6 +23,7 @@
 #include "tidewright/journal/journal.hpp"
 #include "dosing_state.hpp"  // forms and cached results of Demand, Hatchery, Mixes, Plan
 #include "farm_state.hpp"    // the Systems screen's farm overview and round of tests
+#include "import_state.hpp"   // a picked file waiting for the keeper's confirmation
 
 namespace twapp {
 
@@ -226,6 +227,8 @@ struct UiState {
   SystemForm system_form;
   FarmState farm;     // farm overview and round of tests (farm_state.hpp)
   bool confirm_remove_demo = false;
+  ImportPreview import;        // Settings: a picked file, previewed until confirmed or cancelled
+  bool csv_export_all = false; // Settings: "Export log as CSV" of every system, or the current one
   tw::journal::EventId confirm_remove_event = 0;  // Log: entry waiting for a second tap
   std::optional<float> chart_probe_ph;  // pH the user touched on the species chart
   std::vector<float> frame_ms;          // CPU time per drawn frame (benchmark)

@@ -152,17 +152,7 @@ void draw_settings(AppState& app) {
 
   draw_safety_limits(app);
 
-  ui::heading(app, "Your data");
-  ui::dim_text(("Kept in " + platform::storage_location() + ", saved after every change.").c_str());
-  if (!app.store.save_error.empty()) ui::colored_wrapped(theme::kError, ("Last save failed: " + app.store.save_error).c_str());
-  const float half = (ImGui::GetContentRegionAvail().x - ImGui::GetStyle().ItemSpacing.x) / 2;
-  if (ui::button(app, "settings.export", "Export to file", half)) export_all(app);
-  ImGui::SameLine();
-  if (ui::button(app, "settings.import", "Import file\u2026", half)) ask_import(app);
-  ui::dim_text("Import replaces what is here with the file's systems and log. Export first to keep a copy.");
-  if (!app.demo_system_ids.empty()) {
-    if (ui::button(app, "settings.remove_demo", "Remove demo data", 0, ui::Tone::Quiet)) remove_demo(app);
-  }
+  draw_settings_data(app);  // settings_data.cpp: exports, import and its preview
 
   ui::heading(app, "Care");
   ui::dim_text("Tidewright's numbers come from published seawater chemistry, but your test kits, your animals and your dosing are your responsibility. Change alkalinity slowly; sodium hydroxide and limewater are caustic (wear eye protection, add slowly, never into a tank with the pump off). Hatcheries and farms producing food follow their local codes and licensed practice.");

@@ -24,6 +24,10 @@ void draw_round(AppState& app);
 // consumption (demand_reactor.cpp).
 void draw_reactor_check(AppState& app);
 
+// The Settings screen's "Your data": exports, import and the preview of a picked file
+// (settings_data.cpp).
+void draw_settings_data(AppState& app);
+
 // Carbonate species across pH with this water marked (chart_species.cpp).
 void draw_species_chart(AppState& app);
 

@@ -25,6 +25,33 @@ json opt(const std::optional<double>& v) { return v ? json(*v) : json(nullptr); 
 
 void attach(AppState* app) { g_app = app; }
 
+// The preview of a picked file (import_state.hpp), as the Settings screen shows it.
+static json import_json(const ImportPreview& p) {
+  const char* kinds[] = {"none", "csv", "journal"};
+  json j = {{"kind", kinds[static_cast<int>(p.kind)]}, {"error", p.error}, {"merge_error", p.merge_error},
+            {"csv_system", p.csv_system}, {"confirm_replace", p.confirm_replace},
+            {"file_systems", p.file_systems}, {"file_events", p.file_events}};
+  if (p.csv_report) {
+    const auto& r = *p.csv_report;
+    json refused = json::array();
+    for (const auto& row : r.rejected) refused.push_back({{"line", row.line}, {"field", row.field}, {"reason", row.reason}});
+    json unused = json::array();
+    for (const auto& c : r.unused_columns) unused.push_back({{"name", c.name}, {"reason", c.reason}});
+    j["csv"] = {{"added", r.added.size()}, {"duplicates", r.duplicates_skipped}, {"refused", refused},
+                {"unused_columns", unused}, {"delimiter", std::string(1, r.delimiter)},
+                {"date_order", static_cast<int>(r.date_order)}};
+  }
+  if (p.merge_report) {
+    const auto& m = *p.merge_report;
+    j["merge"] = {{"entries_added", m.entries_added}, {"duplicates", m.duplicates_skipped},
+                  {"systems_added", m.systems_added}, {"systems_matched", m.systems_matched},
+                  {"settings_kept", m.settings_kept}};
+  }
+  return j;
+}
+
+std::string journal_json() { return g_app ? jn::serialize_journal(g_app->journal) : "{}"; }
+
 std::string state_json() {
   if (!g_app) return "{}";
   const AppState& a = *g_app;
@@ -219,6 +246,7 @@ std::string state_json() {
   j["demo_shift_s"] = a.demo_shift_s;
   j["store"] = {{"loaded", a.store.loaded}, {"problem", a.store.problem}, {"save_error", a.store.save_error},
                 {"saves", a.store.saves}};
+  j["import"] = import_json(a.ui.import);
   j["message"] = a.ui.message;
   j["message_is_error"] = a.ui.message_is_error;
   j["entry_open"] = platform::text_entry_open();

@@ -12,6 +12,8 @@ namespace twapp::test_api {
 void attach(AppState* app);
 // {"screen":"water","systems":[...],"current_system":1,"latest":{...},"water":{...},...}
 std::string state_json();
+// The whole journal in the JSON file format (journal_file.hpp): what an import added.
+std::string journal_json();
 // {"name":"tab.water","found":true,"visible":true,"x":..,"y":..,"w":..,"h":..} in CSS pixels
 // (device pixels divided by pixel_ratio).
 std::string widget_json(const std::string& name, float pixel_ratio);

@@ -164,20 +164,6 @@ Result<EventData> long_top_off(const RowReader& r, const System& sys) {
   return EventData{o};
 }
 
-bool same_content(const Event& a, const Event& b) {
-  return a.system_id == b.system_id && a.time_s == b.time_s && a.data == b.data;
-}
-
-bool is_duplicate(const Journal& j, const Event& e) {
-  // Events are sorted by time: look only at those with the same time.
-  auto it = std::lower_bound(j.events.begin(), j.events.end(), e.time_s,
-                             [](const Event& x, std::int64_t t) { return x.time_s < t; });
-  for (; it != j.events.end() && it->time_s == e.time_s; ++it) {
-    if (same_content(*it, e)) return true;
-  }
-  return false;
-}
-
 }  // namespace
 
 Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
@@ -344,7 +330,7 @@ Result<CsvImportReport> import_csv(Journal& journal, const std::string& text,
     }
     if (!row_ok) continue;
     for (auto& e : events) {
-      if (is_duplicate(journal, e)) {
+      if (find_equal_event(journal, e)) {
         ++report.duplicates_skipped;
         continue;
       }

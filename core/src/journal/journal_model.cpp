@@ -448,6 +448,16 @@ const Event* find_event(const Journal& journal, EventId id) {
   return it == journal.events.end() ? nullptr : &*it;
 }
 
+const Event* find_equal_event(const Journal& journal, const Event& event) {
+  // Events are sorted by time: look only at those with the same time.
+  auto it = std::lower_bound(journal.events.begin(), journal.events.end(), event.time_s,
+                             [](const Event& x, std::int64_t t) { return x.time_s < t; });
+  for (; it != journal.events.end() && it->time_s == event.time_s; ++it) {
+    if (it->system_id == event.system_id && it->data == event.data) return &*it;
+  }
+  return nullptr;
+}
+
 std::vector<const Event*> select_events(const Journal& journal, const EventFilter& f) {
   std::vector<const Event*> out;
   for (const auto& e : journal.events) {

@@ -264,6 +264,10 @@ Status remove_event(Journal& journal, EventId id);
 const System* find_system(const Journal& journal, SystemId id);
 const System* find_system_by_name(const Journal& journal, const std::string& name);  // no case
 const Event* find_event(const Journal& journal, EventId id);
+// An event already in the journal that says the same as `event`: same system, time and content
+// (its id and the time as written aside). The one rule for "already there" of the CSV import
+// and the merge of journals (journal_merge.hpp), so a file imported twice adds nothing.
+const Event* find_equal_event(const Journal& journal, const Event& event);
 
 // Events of one system in time order; optionally only tests of one parameter and/or within
 // [from_s, to_s].
