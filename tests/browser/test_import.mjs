@@ -12,7 +12,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, state, tap, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, widget } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, state, tap, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, widget } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');

@@ -228,8 +228,8 @@ bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* 
     }
   }
   for (const DoseTick& t : dose_ticks(dose_x, 0.3f * e)) {
-    const float h = 0.45f * e * std::min(2.0f, 1.0f + 0.35f * std::log2(static_cast<float>(t.count)));
-    d->AddLine(ImVec2(t.x, b.y), ImVec2(t.x, b.y - h), theme::with_alpha(theme::kCo3, 190), 1.2f * line);
+    const float tick_h = 0.45f * e * std::min(2.0f, 1.0f + 0.35f * std::log2(static_cast<float>(t.count)));
+    d->AddLine(ImVec2(t.x, b.y), ImVec2(t.x, b.y - tick_h), theme::with_alpha(theme::kCo3, 190), 1.2f * line);
   }
 
   // Readings: used = filled dot; flagged = hollow ring in the warning colour with a cross;
