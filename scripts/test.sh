@@ -80,6 +80,7 @@ browser_suite run-all.mjs
 browser_suite test_screens_dosing.mjs
 browser_suite test_log.mjs
 TW_CLI="$ROOT/build/native/shell/tidewright" browser_suite test_schedules.mjs
+TW_CLI="$ROOT/build/native/shell/tidewright" browser_suite test_pumps.mjs
 browser_suite test_store.mjs
 browser_suite test_serving.mjs
 browser_suite test_saved_settings.mjs

@@ -9,7 +9,7 @@
 // Screenshots go to tests/browser/output/farm-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore, tap, enter } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore, tap, enter } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);

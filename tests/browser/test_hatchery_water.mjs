@@ -9,7 +9,7 @@
 import { resolve, join } from 'node:path';
 import { execFileSync } from 'node:child_process';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, editSavedSettings } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, editSavedSettings } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');

@@ -17,7 +17,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, DESKTOP, state, widget, tap, enter, frames, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, state, widget, tap, enter, frames, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');

@@ -30,6 +30,14 @@ void refresh_plan(AppState& app);
 // pumps' earlier schedules stop there), by the core's plan::adopt_plan as `plan --adopt`.
 // Refused when the plan cannot hold or its check fails.
 bool adopt_current_plan(AppState& app);
+// Names a stock pump of the Plan (slot 0 alkalinity, 1 calcium) as typed: trimmed, 1 to 60
+// characters by the core's rule (journal/device_name.hpp), not the other pump's name. A refused
+// name says why and keeps the name stored.
+bool set_plan_pump_name(AppState& app, int slot, const std::string& typed);
+// The Plan's day table, by pump: a column's title ("pump 1, mL", "Left doser, mL set" when the
+// pump's calibration is not 1 and the column shows what to set) and the legend under the table.
+std::string pump_column_title(const tw::plan::Delivery& d);
+std::string pump_legend(const std::vector<tw::plan::Delivery>& deliveries);
 // Downloads the current schedule: format 0 CSV, 1 iCalendar, 2 plain text.
 bool export_plan(AppState& app, int format);
 

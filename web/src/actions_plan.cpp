@@ -4,11 +4,13 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 
 #include "actions.hpp"
 #include "platform.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/common/ranges.hpp"
+#include "tidewright/journal/device_name.hpp"
 #include "tidewright/plan/plan.hpp"
 #include "tidewright/plan/plan_adopt.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
@@ -20,6 +22,11 @@ namespace pl = tw::plan;
 
 namespace {
 std::string fmtx_g_per_l(double g) { return std::to_string(static_cast<long long>(std::llround(g))) + " g/L"; }
+std::string fmtx_calibration(double k) {
+  char b[16];
+  std::snprintf(b, sizeof b, "%.3g", k);  // as the journal's schedule summary writes it
+  return b;
+}
 }  // namespace
 
 bool export_plan(AppState& app, int format) {
@@ -76,6 +83,34 @@ tw::Result<add::Additive> stock_additive(add::CompoundId id, double g_per_l, con
   return add::additive_from_stock(r);
 }
 
+tw::Result<add::Additive> alkalinity_stock(const PlanForm& f) {
+  const bool carb = f.alkalinity == PlanAlkalinity::SodiumCarbonate;
+  return stock_additive(carb ? add::CompoundId::SodiumCarbonate : add::CompoundId::SodiumBicarbonate,
+                        f.alkalinity_g_per_l, carb ? "Sodium carbonate" : "Sodium bicarbonate");
+}
+tw::Result<add::Additive> calcium_stock(const PlanForm& f) {
+  return stock_additive(add::CompoundId::CalciumChlorideDihydrate, f.calcium_g_per_l, "Calcium chloride dihydrate");
+}
+
+// Each stock pump's name and calibration: the keeper's, else those of the system's schedule
+// that gives the same compound (running now, or adopted for later), else the fallback.
+std::array<PlanPump, 2> resolve_pumps(const AppState& app, const PlanForm& f, tw::journal::SystemId system) {
+  std::array<PlanPump, 2> out;
+  const std::int64_t now = platform::now_unix_seconds();
+  auto one = [&](int slot, tw::Result<add::Additive> additive, const std::optional<std::string>& name,
+                 const std::optional<double>& calibration) {
+    std::optional<pl::ScheduledPump> sched;
+    if (additive) sched = pl::scheduled_pump_for(app.journal, system, *additive, now);
+    PlanPump& p = out[static_cast<std::size_t>(slot)];
+    p.name = name ? *name : sched ? sched->device : kPlanPumpFallback[slot];
+    p.calibration = calibration ? *calibration : sched ? sched->calibration : 1.0;
+    p.from_schedule = sched && (!name || !calibration);
+  };
+  one(0, alkalinity_stock(f), f.alkalinity_pump_name, f.alkalinity_pump_calibration);
+  one(1, calcium_stock(f), f.calcium_pump_name, f.calcium_pump_calibration);
+  return out;
+}
+
 }  // namespace
 
 void refresh_plan(AppState& app) {
@@ -108,6 +143,7 @@ void refresh_plan(AppState& app) {
     c = std::move(out);
     return;
   }
+  out.pumps = resolve_pumps(app, f, sys->id);
   pl::PlanInput in;
   in.system.name = sys->name;
   in.system.volume_l = sys->volume_l;
@@ -160,10 +196,11 @@ void refresh_plan(AppState& app) {
     out.assumptions.push_back("Consumption: typed here, not the log's estimate.");
   }
   // Deliveries.
-  auto pump = [&](add::Additive a, const std::string& device) {
+  auto pump = [&](add::Additive a, const std::string& device, double calibration = 1.0) {
     pl::Delivery d;
     d.additive = std::move(a);
     d.device = device;
+    d.calibration = calibration;  // max_dose below is the largest amount SET on the pump (plan.hpp Delivery)
     d.doses_per_day = std::clamp(f.doses_per_day, static_cast<int>(tw::ranges::kDosesPerDay.lo),
                                  static_cast<int>(tw::ranges::kDosesPerDay.hi));
     d.max_dose = f.max_dose_ml;
@@ -172,15 +209,13 @@ void refresh_plan(AppState& app) {
   switch (f.alkalinity) {
     case PlanAlkalinity::SodiumCarbonate:
     case PlanAlkalinity::SodiumBicarbonate: {
-      const bool carb = f.alkalinity == PlanAlkalinity::SodiumCarbonate;
-      auto a = stock_additive(carb ? add::CompoundId::SodiumCarbonate : add::CompoundId::SodiumBicarbonate,
-                              f.alkalinity_g_per_l, carb ? "Sodium carbonate" : "Sodium bicarbonate");
+      auto a = alkalinity_stock(f);
       if (!a) {
         out.error = "Alkalinity stock: " + a.error().message;
         c = std::move(out);
         return;
       }
-      in.deliveries.push_back(pump(std::move(a).value(), "pump 1"));
+      in.deliveries.push_back(pump(std::move(a).value(), out.pumps[0].name, out.pumps[0].calibration));
       break;
     }
     case PlanAlkalinity::Limewater: {
@@ -199,13 +234,13 @@ void refresh_plan(AppState& app) {
     case PlanAlkalinity::None: break;
   }
   if (f.calcium == PlanCalcium::CalciumChloride) {
-    auto a = stock_additive(add::CompoundId::CalciumChlorideDihydrate, f.calcium_g_per_l, "Calcium chloride dihydrate");
+    auto a = calcium_stock(f);
     if (!a) {
       out.error = "Calcium stock: " + a.error().message;
       c = std::move(out);
       return;
     }
-    in.deliveries.push_back(pump(std::move(a).value(), "pump 2"));
+    in.deliveries.push_back(pump(std::move(a).value(), out.pumps[1].name, out.pumps[1].calibration));
   }
   in.horizon_days = std::clamp(f.horizon_days, static_cast<int>(tw::ranges::kPlanHorizonDays.lo),
                                static_cast<int>(tw::ranges::kPlanHorizonDays.hi));
@@ -224,6 +259,38 @@ void refresh_plan(AppState& app) {
   out.plan = std::move(plan).value();
   out.input = std::move(in);
   c = std::move(out);
+}
+
+// ---------------------------------------------------------------- The day table's words
+std::string pump_column_title(const pl::Delivery& d) {
+  return d.device + ", " + add::to_string(d.additive.unit) + (d.calibration != 1.0 ? " set" : "");
+}
+
+std::string pump_legend(const std::vector<pl::Delivery>& deliveries) {
+  std::string legend;
+  for (const auto& d : deliveries) {
+    legend += (legend.empty() ? "" : "; ") + d.device + ": " + d.additive.name;
+    if (d.calibration != 1.0) legend += ", calibration " + fmtx_calibration(d.calibration) + ": amounts to set";
+  }
+  return legend;
+}
+
+// ---------------------------------------------------------------- Name a pump
+bool set_plan_pump_name(AppState& app, int slot, const std::string& typed) {
+  PlanForm& f = app.ui.dosing.plan;
+  const char* which = slot == 0 ? "Alkalinity pump name" : "Calcium pump name";
+  auto name = tw::journal::device_name_from_text(typed, which);
+  if (!name) {
+    notify(app, name.error().message + "; the name stays as it was", true);
+    return false;
+  }
+  const PlanCache& c = app.ui.dosing.plan_cache;
+  if (*name == c.pumps[static_cast<std::size_t>(1 - slot)].name) {
+    notify(app, std::string(which) + ": \"" + *name + "\" already names the other pump; each pump needs its own name", true);
+    return false;
+  }
+  (slot == 0 ? f.alkalinity_pump_name : f.calcium_pump_name) = *name;
+  return true;
 }
 
 // ---------------------------------------------------------------- Adopt the plan
@@ -253,7 +320,14 @@ bool adopt_current_plan(AppState& app) {
   }
   app.journal = std::move(next);
   ++app.revision;
-  notify(app, "Adopted: " + std::to_string(ids->size()) + " schedule" + (ids->size() == 1 ? "" : "s") +
+  // Name each pump adopted, with its calibration when it is not 1 (the schedules hold the
+  // amounts to set on it).
+  std::string pumps;
+  for (const pl::Delivery& d : c.input->deliveries) {
+    pumps += (pumps.empty() ? "" : ", ") + d.device;
+    if (d.calibration != 1.0) pumps += " (calibration " + fmtx_calibration(d.calibration) + ")";
+  }
+  notify(app, "Adopted: " + std::to_string(ids->size()) + " schedule" + (ids->size() == 1 ? "" : "s") + " for " + pumps +
                   " from tomorrow, shown on the Log screen");
   save(app);
   return true;

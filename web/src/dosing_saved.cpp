@@ -12,6 +12,7 @@
 #include "tidewright/carbonate/measurement_precision.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "tidewright/common/units.hpp"
+#include "tidewright/journal/device_name.hpp"
 #include "tidewright/seawater/seawater.hpp"
 
 namespace twapp {
@@ -60,6 +61,7 @@ const char* name_of(const Named<E> (&table)[N], E value) {
 }
 
 json opt(const std::optional<double>& v) { return v ? json(*v) : json(nullptr); }
+json opt(const std::optional<std::string>& v) { return v ? json(*v) : json(nullptr); }
 
 // ---------------------------------------------------------------- 2. Writing
 json plan_to_json(const PlanForm& f) {
@@ -67,6 +69,11 @@ json plan_to_json(const PlanForm& f) {
           {"alkalinity_stock_g_per_l", f.alkalinity_g_per_l},
           {"calcium_from", name_of(kPlanCalcium, f.calcium)},
           {"calcium_stock_g_per_l", f.calcium_g_per_l},
+          // null: not set by the keeper (taken from the log's schedule, or the fallback)
+          {"alkalinity_pump_name", opt(f.alkalinity_pump_name)},
+          {"alkalinity_pump_calibration", opt(f.alkalinity_pump_calibration)},
+          {"calcium_pump_name", opt(f.calcium_pump_name)},
+          {"calcium_pump_calibration", opt(f.calcium_pump_calibration)},
           {"doses_per_day", f.doses_per_day},
           {"max_dose_ml", f.max_dose_ml},
           {"evaporation_l_per_day", f.evaporation_l_per_day},
@@ -153,6 +160,18 @@ class Reader {
     number(key, label, range, &v, above_zero);
     if (refused_->size() == before) *out = v;
   }
+  // A pump's name by the core's rule (trimmed, 1 to 60 characters); null = not set.
+  void device_name(const char* key, const char* label, std::optional<std::string>* out) {
+    if (!j_.contains(key)) return;
+    if (j_[key].is_null()) {
+      out->reset();
+      return;
+    }
+    if (!j_[key].is_string()) return refuse(std::string(label) + " is not text");
+    auto name = jn::device_name_from_text(j_[key].get<std::string>(), label);
+    if (!name) return refuse(name.error().message);
+    *out = *name;
+  }
   // A kit or meter precision: the core's precision table decides.
   void precision(const char* key, const char* label, tw::Parameter p, double* out) {
     const auto v = value(key, label);
@@ -203,6 +222,10 @@ PlanForm plan_from_json(const json& j, const jn::System& sys, std::vector<std::s
   r.number("alkalinity_stock_g_per_l", "Alkalinity stock strength", rg::kStockGPerL, &f.alkalinity_g_per_l, true);
   r.choice("calcium_from", "Calcium from", kPlanCalcium, &f.calcium);
   r.number("calcium_stock_g_per_l", "Calcium stock strength", rg::kStockGPerL, &f.calcium_g_per_l, true);
+  r.device_name("alkalinity_pump_name", "Alkalinity pump name", &f.alkalinity_pump_name);
+  r.optional("alkalinity_pump_calibration", "Alkalinity pump calibration", rg::kPumpCalibration, &f.alkalinity_pump_calibration);
+  r.device_name("calcium_pump_name", "Calcium pump name", &f.calcium_pump_name);
+  r.optional("calcium_pump_calibration", "Calcium pump calibration", rg::kPumpCalibration, &f.calcium_pump_calibration);
   r.whole("doses_per_day", "Doses per day per pump", rg::kDosesPerDay, &f.doses_per_day);
   r.number("max_dose_ml", "Largest single dose", rg::kPlannedDoseMax, &f.max_dose_ml);
   const rg::Range evaporation{rg::kEvaporationFractionPerDay.lo * sys.volume_l,

@@ -1,7 +1,9 @@
 // The Plan and Hatchery settings of each system as the saved store keeps them: a member
 // "dosing_by_system" of the app part (store.hpp), keyed by system id:
 //   "dosing_by_system": { "3": { "plan": { "alkalinity_from": "sodium_carbonate",
-//                                           "alkalinity_stock_g_per_l": 120, "doses_per_day": 6, ... },
+//                                           "alkalinity_stock_g_per_l": 120, "doses_per_day": 6,
+//                                           "alkalinity_pump_name": "Left doser" (null: not set),
+//                                           "alkalinity_pump_calibration": 0.9 (null: not set), ... },
 //                                 "hatchery": { "mode": "flow_through", "stock_g_per_l": 120, ... } } }
 // Numbers are in the core's units (C, dKH, mg/L, L). Reading checks every value against the
 // core's range table (tidewright/common/ranges.hpp) and the kit precision table; a value out

@@ -183,6 +183,11 @@ struct PlanForm {
   double alkalinity_g_per_l = tw::plan::kStarterSodaAshGPerL;  // stock strength (as sold, per L of solution)
   PlanCalcium calcium = PlanCalcium::CalciumChloride;
   double calcium_g_per_l = tw::plan::kStarterCalciumChlorideGPerL;  // CaCl2.2H2O per L of solution
+  // The two stock pumps' names and calibrations as the keeper set them; unset = the pump of the
+  // system's schedule that gives the same additive (plan::scheduled_pump_for), else
+  // kPlanPumpFallback. Limewater keeps its top-off (name "top-off", calibration 1).
+  std::optional<std::string> alkalinity_pump_name, calcium_pump_name;
+  std::optional<double> alkalinity_pump_calibration, calcium_pump_calibration;
   int doses_per_day = 4;              // per pump, 1..24
   double max_dose_ml = 50.0;          // largest single dose of a pump
   double evaporation_l_per_day = 2.0; // bounds limewater
@@ -194,6 +199,17 @@ struct PlanForm {
   bool show_all_days = false;         // not saved, nor export_index (what the screen shows)
   int export_index = 0;               // 0 CSV, 1 iCalendar, 2 text, 3 JSON
   bool operator==(const PlanForm&) const = default;
+};
+
+// The Plan's two stock pumps, by slot.
+enum class PlanPumpSlot { Alkalinity = 0, Calcium = 1 };
+inline constexpr const char* kPlanPumpFallback[2] = {"pump 1", "pump 2"};
+
+// A pump as the plan uses it: the keeper's setting, else the running schedule's, else the fallback.
+struct PlanPump {
+  std::string name;
+  double calibration = 1.0;
+  bool from_schedule = false;  // name or calibration taken from a schedule in the log
 };
 
 struct PlanCache {
@@ -210,6 +226,7 @@ struct PlanCache {
   std::optional<tw::plan::PlanInput> input;
   std::optional<tw::plan::Plan> plan;
   std::optional<tw::plan::CheckReport> check;  // the independent checker's replay
+  std::array<PlanPump, 2> pumps;               // by PlanPumpSlot, shown in the form
   double start_day = 0;                        // days since epoch of day 1, 00:00 local
   int computed_count = 0;
 };

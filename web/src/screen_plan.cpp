@@ -27,31 +27,61 @@ namespace {
 namespace pl = tw::plan;
 
 // ---------------------------------------------------------------- 1. Form
+// A stock pump's name and calibration, under the stock it gives (one card per pump). The shown
+// values are the plan's (the keeper's, else the log's schedule, PlanCache::pumps); a change is
+// kept as the keeper's own.
+void draw_pump_fields(AppState& app, int slot, const PlanPump& shown, std::optional<double>* calibration) {
+  namespace rg = tw::ranges;
+  const std::string id = slot == 0 ? "plan.alk_pump" : "plan.ca_pump";
+  ui::divider(app);  // the pump below the stock it gives, in the same card
+  std::string name = shown.name;
+  if (ui::text_field(app, id + ".name", "Pump name", &name, "1 to 60 characters")) set_plan_pump_name(app, slot, name);
+  double k = shown.calibration;
+  if (ui::number_field(app, id + ".calibration", {"Calibration (delivered per mL set)", "", 2, 0.01,
+                                                   rg::kPumpCalibration.lo, rg::kPumpCalibration.hi},
+                       &k)) {
+    *calibration = k;
+  }
+  if (shown.from_schedule) ui::dim_text("Taken from this pump's schedule in the log until you change it.");
+  if (shown.calibration != 1.0) {
+    ui::dim_text(("The plan's doses are what reaches the tank; set " + fmtx::fixed(1.0 / shown.calibration, 2) +
+                  " mL on the pump for each mL. The day table shows the amounts to set.")
+                     .c_str());
+  }
+}
+
 void draw_form(AppState& app, PlanForm& f) {
   namespace rg = tw::ranges;
   const tw::journal::System* sys = tw::journal::find_system(app.journal, app.current_system);
   const double volume_l = sys ? sys->volume_l : 100.0;  // the bounds only; no system, no plan
+  const auto& pumps = app.ui.dosing.plan_cache.pumps;
   ui::card_begin(app);
   int alk = static_cast<int>(f.alkalinity);
   const char* const alks[] = {"Na\u2082CO\u2083 stock", "NaHCO\u2083 stock", "Limewater", "None"};
   if (ui::choice(app, "plan.alkalinity", "Alkalinity from", &alk, alks, 4)) f.alkalinity = static_cast<PlanAlkalinity>(alk);
   if (f.alkalinity == PlanAlkalinity::SodiumCarbonate || f.alkalinity == PlanAlkalinity::SodiumBicarbonate) {
     ui::number_field(app, "plan.alk_strength", {"Stock strength", "g/L", 0, 5, 1, rg::kStockGPerL.hi}, &f.alkalinity_g_per_l);
+    draw_pump_fields(app, 0, pumps[0], &f.alkalinity_pump_calibration);
   } else if (f.alkalinity == PlanAlkalinity::Limewater) {
     ui::number_field(app, "plan.evaporation", {"Evaporation (top-off per day)", "L/day", 1, 0.5,
                                                rg::kEvaporationFractionPerDay.lo * volume_l,
                                                rg::kEvaporationFractionPerDay.hi * volume_l},
                      &f.evaporation_l_per_day);
   }
+  ui::card_end(app);
+  ui::card_begin(app);
   int ca = static_cast<int>(f.calcium);
   const char* const cas[] = {"CaCl\u2082\u00b72H\u2082O stock", "None"};
   if (ui::choice(app, "plan.calcium", "Calcium from", &ca, cas, 2)) f.calcium = static_cast<PlanCalcium>(ca);
   if (f.calcium == PlanCalcium::CalciumChloride) {
     ui::number_field(app, "plan.ca_strength", {"Stock strength", "g/L", 0, 10, 1, rg::kStockGPerL.hi}, &f.calcium_g_per_l);
+    draw_pump_fields(app, 1, pumps[1], &f.calcium_pump_calibration);
   }
+  ui::card_end(app);
+  ui::card_begin(app);
   double n = f.doses_per_day;
   if (ui::number_field(app, "plan.doses_per_day", {"Doses per day per pump", "", 0, 1, rg::kDosesPerDay.lo, rg::kDosesPerDay.hi}, &n)) f.doses_per_day = static_cast<int>(n);
-  ui::number_field(app, "plan.max_dose", {"Largest single dose", "mL", 0, 5, 1, rg::kPlannedDoseMax.hi}, &f.max_dose_ml);
+  ui::number_field(app, "plan.max_dose", {"Largest single dose (as set on a pump)", "mL", 0, 5, 1, rg::kPlannedDoseMax.hi}, &f.max_dose_ml);
   double h = f.horizon_days;
   if (ui::number_field(app, "plan.horizon", {"Days to plan", "days", 0, 1, rg::kPlanHorizonDays.lo, rg::kPlanHorizonDays.hi}, &h)) f.horizon_days = static_cast<int>(h);
   int src = f.use_estimate ? 0 : 1;
@@ -143,7 +173,9 @@ void draw_chart(AppState& app, const PlanCache& c) {
     std::snprintf(hm, sizeof hm, "%02d:%02d", best->minute / 60, best->minute % 60);
     const std::string r = "Day " + std::to_string(best->day) + " " + hm + ", " + del.device + ": " +
                           fmtx::fixed(best->amount, 1) + " " + tw::additives::to_string(del.additive.unit) + " of " +
-                          del.additive.name + ". After: " + fmtx::fixed(best->after.alkalinity_dkh, 2) + " dKH, " +
+                          del.additive.name +
+                          (del.calibration != 1.0 ? " (set " + fmtx::fixed(del.set_amount(best->amount), 1) + ")" : "") +
+                          ". After: " + fmtx::fixed(best->after.alkalinity_dkh, 2) + " dKH, " +
                           fmtx::fixed(best->after.calcium_mg_l, 0) + " mg/L Ca, pH " + fmtx::fixed(best->after.ph_total, 2) +
                           " (total), \u03a9 " + fmtx::fixed(best->after.omega_aragonite, 2) +
                           (best->cap.empty() ? "" : ". Held back by: " + best->cap);
@@ -165,13 +197,12 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   const pl::Plan& plan = *c.plan;
   const auto& del = c.input->deliveries;
   const int cols = 3 + static_cast<int>(del.size());
-  // The columns are named by pump; say what each pump doses.
-  std::string legend;
-  for (const auto& d : del) legend += (legend.empty() ? "" : "; ") + d.device + ": " + d.additive.name;
-  ui::dim_text(legend.c_str());
+  // The columns are named by pump; say what each pump doses. A pump whose calibration is not 1
+  // shows the amount to SET on it (dose / calibration), and its column says so.
+  ui::dim_text(pump_legend(del).c_str());
   if (ImGui::BeginTable("##days", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
     ImGui::TableSetupColumn("Day");
-    for (const auto& d : del) ImGui::TableSetupColumn((d.device + ", " + tw::additives::to_string(d.additive.unit)).c_str());
+    for (const auto& d : del) ImGui::TableSetupColumn(pump_column_title(d).c_str());
     ImGui::TableSetupColumn(plan.uncertainty ? "dKH end (95%)" : "dKH end");
     ImGui::TableSetupColumn(plan.uncertainty ? "Ca end (95%)" : "Ca end");
     ImGui::TableHeadersRow();
@@ -181,9 +212,9 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
       ImGui::TableNextRow();
       ImGui::TableNextColumn();
       ImGui::Text("%d (%s)", d.day, chart::day_label(c.start_day + d.day - 1 + 0.5, platform::utc_offset_minutes()).c_str());
-      for (double a : d.amount_per_delivery) {
+      for (std::size_t k = 0; k < d.amount_per_delivery.size(); ++k) {
         ImGui::TableNextColumn();
-        ImGui::TextUnformatted(fmtx::fixed(a, 1).c_str());
+        ImGui::TextUnformatted(fmtx::fixed(del[k].set_amount(d.amount_per_delivery[k]), 1).c_str());
       }
       ImGui::TableNextColumn();
       ImGui::TextUnformatted(level_with_band(d.end.alkalinity_dkh, d.end_band[0], 2).c_str());
@@ -206,8 +237,11 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
     const pl::Delivery& dv = del[d.delivery];
     char hm[24];
     std::snprintf(hm, sizeof hm, "%02d:%02d", d.minute / 60, d.minute % 60);
+    const std::string unit = tw::additives::to_string(dv.additive.unit);
     ui::label_value(app, (std::string(hm) + "  " + dv.device + " (" + dv.additive.name + ")").c_str(),
-                    fmtx::fixed(d.amount, 1) + " " + tw::additives::to_string(dv.additive.unit));
+                    dv.calibration != 1.0 ? "set " + fmtx::fixed(dv.set_amount(d.amount), 1) + " " + unit + " (" +
+                                                fmtx::fixed(d.amount, 1) + " to the tank)"
+                                          : fmtx::fixed(d.amount, 1) + " " + unit);
     ui::dim_text(("after: " + fmtx::fixed(d.after.alkalinity_dkh, 2) + " dKH, " + fmtx::fixed(d.after.calcium_mg_l, 0) +
                   " mg/L Ca, pH " + fmtx::fixed(d.after.ph_total, 2) + " total, \u03a9 arag. " +
                   fmtx::fixed(d.after.omega_aragonite, 2) + (d.cap.empty() ? "" : "; held back by " + pl::cap_in_words(d.cap)))
@@ -319,8 +353,15 @@ void draw_verdict(AppState& app, const pl::Plan& plan) {
 void draw_adopt(AppState& app, const PlanCache& c) {
   const bool can = c.plan->verdict.holds && (!c.check || c.check->ok() || c.check->only_floors_and_falls());
   ui::card_begin(app);
-  ui::wrapped("Set the pumps to this plan? Adopting it makes it the schedules in the log from tomorrow; "
-              "the pumps' earlier schedules stop there.");
+  std::string names;
+  for (std::size_t k = 0; k < c.input->deliveries.size(); ++k) {
+    const pl::Delivery& d = c.input->deliveries[k];
+    names += (k == 0 ? "" : k + 1 == c.input->deliveries.size() ? " and " : ", ") + d.device;
+    if (d.calibration != 1.0) names += " (calibration " + fmtx::fixed(d.calibration, 2) + ")";
+  }
+  ui::wrapped(("Set " + names + " to this plan? Adopting it makes it the schedules in the log from tomorrow, with the "
+               "amounts to set on each pump; their earlier schedules stop there.")
+                  .c_str());
   if (ui::button(app, "plan.adopt", "Adopt this plan", 0, can ? ui::Tone::Primary : ui::Tone::Quiet)) {
     adopt_current_plan(app);
   }

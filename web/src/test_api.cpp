@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "actions.hpp"
+#include "actions_dosing.hpp"
 #include "dosing_saved.hpp"
 #include "platform.hpp"
 #include "theme.hpp"
@@ -180,10 +181,32 @@ std::string state_json() {
                             {"salinity", pc.input->system.salinity},
                             {"temperature_c", pc.input->system.temperature_c}};
       j["plan"]["target_alkalinity_dkh"] = pc.input->targets.alkalinity_dkh.target;
+      // The pumps it doses with and every dose: what reaches the tank and what to set.
+      json pumps = json::array();
+      for (const auto& d : pc.input->deliveries) {
+        pumps.push_back({{"device", d.device}, {"calibration", d.calibration}, {"additive", d.additive.name}});
+      }
+      j["plan"]["pumps"] = pumps;
+      json columns = json::array();
+      for (const auto& d : pc.input->deliveries) columns.push_back(pump_column_title(d));
+      j["plan"]["day_columns"] = columns;  // the day table's pump columns, as drawn
+      j["plan"]["legend"] = pump_legend(pc.input->deliveries);
+      json doses = json::array();
+      for (const auto& d : pc.plan->doses) {
+        doses.push_back({{"day", d.day}, {"minute", d.minute}, {"pump", d.delivery}, {"amount", d.amount},
+                         {"amount_set", pc.input->deliveries[d.delivery].set_amount(d.amount)}});
+      }
+      j["plan"]["doses"] = doses;
     }
   }
   if (pc.valid) {
     j["plan_basis"] = {{"flags", pc.flags}, {"assumptions", pc.assumptions}, {"error", pc.error}, {"stale", pc.stale}};
+    // The two stock pumps as the Plan's form shows them (the keeper's, the log's schedule's or the fallback).
+    json pumps = json::array();
+    for (const PlanPump& p : pc.pumps) {
+      pumps.push_back({{"name", p.name}, {"calibration", p.calibration}, {"from_schedule", p.from_schedule}});
+    }
+    j["plan_basis"]["pumps"] = pumps;
   }
   // The Demand screen's estimate (when shown): level, flagged tests and the newest test's
   // disagreement with the log, per parameter.

@@ -7,6 +7,7 @@
 #include <fmt/format.h>
 
 #include "tidewright/common/datetime.hpp"
+#include "tidewright/journal/device_name.hpp"
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/journal/system_name.hpp"
 #include "tidewright/journal/test_precision.hpp"
@@ -179,8 +180,8 @@ Status validate_mark(const Journal& journal, const Event& e, const Dose& d) {
 }
 
 Status validate_schedule(const Event& e, const DoseSchedule& d) {
-  if (d.device.empty() || d.device.size() > 60) {
-    return Error{"device", "device must name the pump or routine in 1 to 60 characters"};
+  if (d.device.empty() || d.device.size() > kMaxDeviceNameChars) {
+    return Error{"device", fmt::format("device must name the pump or routine in 1 to {} characters", kMaxDeviceNameChars)};
   }
   if (Status t = check_text("device", d.device); !t) return t;
   if (d.stock_name.size() > 60) return Error{"stock_name", "stock_name must have at most 60 characters"};

@@ -6,6 +6,7 @@
 
 #include <fmt/format.h>
 
+#include "tidewright/journal/device_name.hpp"
 #include "tidewright/journal/schedule.hpp"
 
 namespace tw::plan {
@@ -45,6 +46,22 @@ Result<DeliveryRecipe> recipe_of(const additives::Additive& a) {
   return DeliveryRecipe{c.key, journal::DoseUnit::Millilitres, g_per_ml * 1000.0};
 }
 
+std::optional<ScheduledPump> scheduled_pump_for(const journal::Journal& journal, journal::SystemId system,
+                                                const additives::Additive& additive, std::int64_t now_s) {
+  auto recipe = recipe_of(additive);
+  if (!recipe) return std::nullopt;
+  const journal::DoseSchedule* found = nullptr;
+  for (const journal::Event* e : journal::schedules_of(journal, system)) {  // in start order
+    const auto& s = std::get<journal::DoseSchedule>(e->data);
+    if (s.additive_id != recipe->additive_id || (s.stop_time_s && *s.stop_time_s <= now_s)) continue;
+    if (e->time_s > now_s && found) break;  // one running now wins over one that starts later
+    found = &s;
+    if (e->time_s > now_s) break;
+  }
+  if (!found) return std::nullopt;
+  return ScheduledPump{found->device, found->calibration};
+}
+
 Result<std::vector<AdoptedSchedule>> schedules_from_plan(const PlanInput& input, const Plan& plan,
                                                          std::int64_t day1_start_s) {
   std::vector<AdoptedSchedule> out;
@@ -61,7 +78,9 @@ Result<std::vector<AdoptedSchedule>> schedules_from_plan(const PlanInput& input,
         first_minute = std::min(first_minute, r.minute);
       }
       const double total = k < day.amount_per_delivery.size() ? day.amount_per_delivery[k] : 0.0;
-      const double per_dose = count > 0 ? step_round(total / count, recipe->unit) : 0.0;
+      // The schedule holds the amount SET on the pump and its calibration, so the journal counts
+      // set x calibration = the plan's dose (within half a step x calibration).
+      const double per_dose = count > 0 ? step_round(d.set_amount(total / count), recipe->unit) : 0.0;
       const std::int64_t start = day1_start_s + static_cast<std::int64_t>(day.day - 1) * 86400 + first_minute * 60;
       if (open && per_dose > 0.0 && open->schedule.amount == per_dose && open->schedule.doses_per_day == count) {
         continue;  // the same program goes on
@@ -73,13 +92,14 @@ Result<std::vector<AdoptedSchedule>> schedules_from_plan(const PlanInput& input,
       }
       if (per_dose > 0.0) {
         journal::DoseSchedule s;
-        s.device = d.device.empty() ? "pump" : d.device.substr(0, 60);
+        s.device = d.device.empty() ? "pump" : d.device.substr(0, journal::kMaxDeviceNameChars);
         s.additive_id = recipe->additive_id;
         s.amount = per_dose;
         s.unit = recipe->unit;
         s.stock_g_per_l = recipe->stock_g_per_l;
         s.stock_name = d.additive.name.substr(0, 60);
         s.doses_per_day = std::clamp(count, 1, journal::kMaxDosesPerDay);
+        s.calibration = d.calibration;
         open = AdoptedSchedule{k, start, s};
       }
     }

@@ -182,9 +182,10 @@ void Engine::end_of_day() {
   const PlanInput& in = *s_->in;
   for (std::size_t i = 0; i < in.deliveries.size(); ++i) {
     const Delivery& dv = in.deliveries[i];
-    if (given_today_[i] > dv.max_per_day * (1 + 1e-12)) {
-      report.other.push_back(fmt::format("day {}: {} gave {:g}, over its {:g} per day", day, dv.additive.name,
-                                         given_today_[i], dv.max_per_day));
+    // The pump's settings are amounts set; what it gave (what reached the tank) is set x calibration.
+    if (dv.set_amount(given_today_[i]) > dv.max_per_day * (1 + 1e-12)) {
+      report.other.push_back(fmt::format("day {}: {} was set to {:g} in all, over its {:g} per day", day,
+                                         dv.additive.name, dv.set_amount(given_today_[i]), dv.max_per_day));
     }
     if (dv.reservoir > 0 && given_total_[i] > dv.reservoir * (1 + 1e-12)) {
       report.other.push_back(fmt::format("day {}: {} used {:g}, more than its reservoir {:g}", day, dv.additive.name,
@@ -216,9 +217,9 @@ void Engine::dose(std::size_t idx, const PlannedDose& d) {
   if (d.minute < dv.first_hour * 60 || d.minute >= (dv.last_hour + 1) * 60) {
     report.other.push_back(fmt::format("dose {} at minute {} is outside the allowed hours", idx, d.minute));
   }
-  if (d.amount > dv.max_dose * (1 + 1e-12) || d.amount < dv.min_dose * (1 - 1e-12)) {
-    report.other.push_back(
-        fmt::format("dose {} of {:g} is outside the pump's {:g}..{:g}", idx, d.amount, dv.min_dose, dv.max_dose));
+  if (dv.set_amount(d.amount) > dv.max_dose * (1 + 1e-12) || dv.set_amount(d.amount) < dv.min_dose * (1 - 1e-12)) {
+    report.other.push_back(fmt::format("dose {} set to {:g} is outside the pump's {:g}..{:g}", idx,
+                                       dv.set_amount(d.amount), dv.min_dose, dv.max_dose));
   }
   given_today_[d.delivery] += d.amount;
   given_total_[d.delivery] += d.amount;

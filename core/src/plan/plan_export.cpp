@@ -57,7 +57,7 @@ std::string plan_to_csv(const PlanInput& in, const Plan& plan) {
   std::string out = csv::format_row({"day", "time", "additive", "device", "amount", "unit", "capped_by",
                                      "alkalinity_dkh_after", "calcium_mg_l_after", "magnesium_mg_l_after",
                                      "ph_total_after", "omega_aragonite_after", "alkalinity_dkh_before_next",
-                                     "ph_total_before_next", "omega_aragonite_before_next"});
+                                     "ph_total_before_next", "omega_aragonite_before_next", "amount_set"});
   for (const auto& d : plan.doses) {
     const Delivery& dv = in.deliveries[d.delivery];
     out += csv::format_row(
@@ -66,7 +66,9 @@ std::string plan_to_csv(const PlanInput& in, const Plan& plan) {
          fmt::format("{:.1f}", d.after.calcium_mg_l), fmt::format("{:.1f}", d.after.magnesium_mg_l),
          fmt::format("{:.4f}", d.after.ph_total), fmt::format("{:.3f}", d.after.omega_aragonite),
          fmt::format("{:.3f}", d.before_next.alkalinity_dkh), fmt::format("{:.4f}", d.before_next.ph_total),
-         fmt::format("{:.3f}", d.before_next.omega_aragonite)},
+         fmt::format("{:.3f}", d.before_next.omega_aragonite),
+         // Last, so the columns before it keep their places: what to set on the pump for `amount`.
+         fmt::format("{:.3f}", dv.set_amount(d.amount))},
         true);
   }
   return out;
@@ -103,6 +105,10 @@ std::string plan_to_text(const PlanInput& in, const Plan& plan) {
   o += "\nDay  start alk  end alk  end Ca  end Mg  end pH  ";
   if (bands) o += "alk 95 %      Ca 95 %   pH 95 %    ";
   for (const auto& d : in.deliveries) o += fmt::format("{} ({})  ", d.additive.name, additives::to_string(d.additive.unit));
+  // A pump that delivers other than it is set gets a second column: what to set on it.
+  for (const auto& d : in.deliveries) {
+    if (d.calibration != 1.0) o += fmt::format("set on {} ({})  ", d.device, additives::to_string(d.additive.unit));
+  }
   o += "\n";
   for (const auto& d : plan.days) {
     o += fmt::format("{:>3}  {:>9.2f}  {:>7.2f}  {:>6.0f}  {:>6.0f}  {:>6.3f}  ", d.day, d.start.alkalinity_dkh,
@@ -114,6 +120,9 @@ std::string plan_to_text(const PlanInput& in, const Plan& plan) {
       o += fmt::format("{:<12}  {:<8}  {:<9}  ", b(d.end_band[0], 1), b(d.end_band[1], 0), b(d.end_ph_band, 2));
     }
     for (double a : d.amount_per_delivery) o += fmt::format("{:>10.2f}  ", a);
+    for (std::size_t k = 0; k < in.deliveries.size() && k < d.amount_per_delivery.size(); ++k) {
+      if (in.deliveries[k].calibration != 1.0) o += fmt::format("{:>10.2f}  ", in.deliveries[k].set_amount(d.amount_per_delivery[k]));
+    }
     o += "\n";
   }
   const char* names[] = {"alkalinity", "calcium", "magnesium"};
@@ -171,7 +180,11 @@ Result<std::string> plan_to_icalendar(const PlanInput& in, const Plan& plan, con
     const auto date = datetime::civil_from_days(day0 + d.day - 1);
     const std::string when = fmt::format("{:04d}{:02d}{:02d}T{:02d}{:02d}00", date.year, date.month, date.day,
                                          d.minute / 60, d.minute % 60);
-    const std::string what = fmt::format("{:.2f} {} {}", d.amount, additives::to_string(dv.additive.unit), dv.additive.name);
+    std::string what = fmt::format("{:.2f} {} {}", d.amount, additives::to_string(dv.additive.unit), dv.additive.name);
+    if (dv.calibration != 1.0) {
+      what += fmt::format(" (set {:.2f} {} at calibration {:g})", dv.set_amount(d.amount), additives::to_string(dv.additive.unit),
+                          dv.calibration);
+    }
     o += ical_line("BEGIN:VEVENT");
     o += ical_line(fmt::format("UID:{:016x}-{}-{}-{}@tidewright.plan", fnv1a64(in.system.name), in.start_date, i,
                                d.delivery));

@@ -14,7 +14,9 @@
 //       {"limewater": {"temperature_c", "fraction_of_saturation"}}                           mL
 //       {"label": {"name", "parameter", "dose_ml", "tank_volume_l", "rise", "dic_per_alkalinity_eq", "caustic"}}
 //     plus delivery fields: "device", "manual", "doses_per_day", "min_dose", "max_dose",
-//     "max_per_day", "first_hour", "last_hour", "reservoir" ],
+//     "max_per_day", "first_hour", "last_hour", "reservoir", "calibration" (what the pump delivers
+//     per amount set, ranges::kPumpCalibration; min_dose, max_dose and max_per_day are amounts
+//     set on the pump, the plan's doses what reaches the tank: Delivery in plan.hpp) ],
 //   "limits": {"<limit key>": value, ...}, "overrides": [{"limit", "value", "reason"}],
 //   "evaporation_l_per_day", "horizon_days", "gas_exchange_hours", "salinity_tolerance",
 //   "start_date" (a real calendar date YYYY-MM-DD) }
@@ -69,7 +71,7 @@ Status read_int(const json& j, const char* key, const std::string& where, int& o
 Result<additives::Additive> read_additive(const json& a, const std::string& f) {
   namespace ad = additives;
   TW_TRY(known_keys(a, f, {"compound", "stock", "limewater", "label", "device", "manual", "doses_per_day", "min_dose",
-                           "max_dose", "max_per_day", "first_hour", "last_hour", "reservoir"}));
+                           "max_dose", "max_per_day", "first_hour", "last_hour", "reservoir", "calibration"}));
   if (a.contains("compound") && a["compound"].is_string()) {
     auto c = ad::find_compound(a["compound"].get<std::string>());
     if (!c) return Error{f + "compound", c.error().message};
@@ -209,6 +211,8 @@ Result<PlanInput> plan_input_from_json(const std::string& text, std::vector<std:
     TW_TRY(read_int(a, "first_hour", f, d.first_hour));
     TW_TRY(read_int(a, "last_hour", f, d.last_hour));
     TW_TRY(read_number(a, "reservoir", f, d.reservoir));
+    TW_TRY(read_number(a, "calibration", f, d.calibration));
+    TW_TRY(ranges::check(f + "calibration", d.calibration, ranges::kPumpCalibration));
     in.deliveries.push_back(d);
   }
   std::vector<LimitSetting> settings;
@@ -318,6 +322,7 @@ Result<json> plan_input_object(const PlanInput& in) {
     x["first_hour"] = d.first_hour;
     x["last_hour"] = d.last_hour;
     if (d.reservoir != unset.reservoir) x["reservoir"] = d.reservoir;
+    if (d.calibration != unset.calibration) x["calibration"] = d.calibration;  // 1 (a true pump) is the default
     j["additives"].push_back(std::move(x));
   }
   // The limits as the keeper set them (the room kept for a journal's estimates is the planner's,
@@ -382,13 +387,18 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
   for (const auto& d : plan.doses) {
     j["doses"].push_back({{"day", d.day}, {"minute", d.minute}, {"additive", in.deliveries[d.delivery].additive.name},
                           {"amount", d.amount}, {"unit", additives::to_string(in.deliveries[d.delivery].additive.unit)},
+                          // What to set on the pump for "amount" (amount / calibration).
+                          {"amount_set", in.deliveries[d.delivery].set_amount(d.amount)},
                           {"capped_by", d.cap}, {"before", ws(d.before)}, {"after", ws(d.after)},
                           {"before_next", ws(d.before_next)}});
   }
   j["days"] = json::array();
   for (const auto& d : plan.days) {
+    std::vector<double> set(d.amount_per_delivery.size());
+    for (std::size_t k = 0; k < set.size() && k < in.deliveries.size(); ++k) set[k] = in.deliveries[k].set_amount(d.amount_per_delivery[k]);
     j["days"].push_back({{"day", d.day}, {"start", ws(d.start)}, {"end", ws(d.end)},
                          {"amount_per_additive", d.amount_per_delivery},
+                         {"amount_set_per_additive", set},
                          {"largest_24h_rise", {{"alkalinity_dkh", d.rise_alkalinity_dkh},
                                                {"calcium_mg_l", d.rise_calcium_mg_l},
                                                {"magnesium_mg_l", d.rise_magnesium_mg_l}}},

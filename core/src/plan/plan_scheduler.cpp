@@ -311,9 +311,10 @@ Result<Plan> make_plan(const PlanInput& in) {
     std::vector<std::string> cap_name(n);
     for (std::size_t i = 0; i < n; ++i) {
       const Delivery& d = in.deliveries[i];
-      cap[i] = std::min({d.max_dose * d.doses_per_day, d.max_per_day, reservoir_left[i]});
+      // The pump's settings bound what it delivers: setting x calibration (Delivery).
+      cap[i] = std::min({d.delivered_max_dose() * d.doses_per_day, d.delivered_max_per_day(), reservoir_left[i]});
       cap_name[i] = cap[i] == reservoir_left[i] && d.reservoir > 0 ? "reservoir"
-                    : cap[i] == d.max_per_day                       ? "max_per_day"
+                    : cap[i] == d.delivered_max_per_day()           ? "max_per_day"
                                                                     : "max_dose x doses_per_day";
     }
     const Allocation alloc = allocate(m, day_start, cap, cap_name, in.evaporation_l_per_day * 1000.0);
@@ -335,14 +336,15 @@ Result<Plan> make_plan(const PlanInput& in) {
       const Delivery& d = in.deliveries[i];
       double per = daily[i] / d.doses_per_day;
       int count = daily[i] > 0 ? d.doses_per_day : 0;
-      if (daily[i] > 0 && per < d.min_dose) {  // fewer, larger doses of the smallest size the pump gives
-        count = static_cast<int>(std::floor(daily[i] / d.min_dose));
-        per = d.min_dose;
+      if (daily[i] > 0 && per < d.delivered_min_dose()) {  // fewer, larger doses of the smallest size the pump gives
+        count = static_cast<int>(std::floor(daily[i] / d.delivered_min_dose()));
+        per = d.delivered_min_dose();
       }
       for (int j = 0; j < d.doses_per_day; ++j) {
         const bool give = (static_cast<long long>(j + 1) * count) / d.doses_per_day >
                           (static_cast<long long>(j) * count) / d.doses_per_day;
-        events.push_back({detail::slot_minute(d, j), i, give ? std::min(per, d.max_dose) : 0.0, per > d.max_dose});
+        events.push_back({detail::slot_minute(d, j), i, give ? std::min(per, d.delivered_max_dose()) : 0.0,
+                          per > d.delivered_max_dose()});
       }
     }
     std::stable_sort(events.begin(), events.end(), [](const Event& a, const Event& b) { return a.minute < b.minute; });
@@ -355,7 +357,7 @@ Result<Plan> make_plan(const PlanInput& in) {
       if (!before) return before.error();
       if (plan.timeline.back().minute != t || plan.timeline.back().after_dose) plan.timeline.push_back({t, *before, false});
       const Delivery& d = in.deliveries[e.delivery];
-      double want = std::min({e.want, reservoir_left[e.delivery], d.max_per_day - ds.amount_per_delivery[e.delivery]});
+      double want = std::min({e.want, reservoir_left[e.delivery], d.delivered_max_per_day() - ds.amount_per_delivery[e.delivery]});
       if (d.additive.limewater) want = std::min(want, evap_left_ml);
       if (want <= 0) continue;
       if (last_dose) plan.doses[*last_dose].before_next = *before;
@@ -364,7 +366,7 @@ Result<Plan> make_plan(const PlanInput& in) {
       if (o.cap.empty() && e.by_max_dose) o.cap = "max_dose";
       if (o.cap.empty() && !alloc.bound[e.delivery].empty()) o.cap = alloc.bound[e.delivery];
       if (!o.cap.empty()) cap_count[o.cap + "|" + d.additive.name]++;
-      if (o.amount < std::max(d.min_dose, 1e-3)) continue;
+      if (o.amount < std::max(d.delivered_min_dose(), 1e-3)) continue;
       add(m, w, d.additive.per_unit.scaled(o.amount));
       added_total += d.additive.per_unit.scaled(o.amount);
       added_per_day.back() += d.additive.per_unit.scaled(o.amount);

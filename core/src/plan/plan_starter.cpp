@@ -26,6 +26,7 @@ struct DosedAdditive {
   std::string stock_name;
   std::string device;
   int doses_per_day = 1;
+  double calibration = 1.0;  // a running schedule's pump calibration
   bool same_as(const DosedAdditive& o) const {
     return std::tie(additive_id, unit, stock_g_per_l) == std::tie(o.additive_id, o.unit, o.stock_g_per_l);
   }
@@ -49,6 +50,7 @@ Result<Delivery> delivery_of(const DosedAdditive& d, double temperature_c) {
     out.additive = std::move(lime).value();
     out.device = d.device;
     out.doses_per_day = d.doses_per_day;
+    out.calibration = d.calibration;
     return out;
   }
   auto c = ad::find_compound(d.additive_id);
@@ -63,6 +65,7 @@ Result<Delivery> delivery_of(const DosedAdditive& d, double temperature_c) {
   }
   out.device = d.device;
   out.doses_per_day = d.doses_per_day;
+  out.calibration = d.calibration;
   return out;
 }
 
@@ -76,10 +79,10 @@ std::vector<DosedAdditive> dosed_additives(const journal::Journal& j, journal::S
   };
   for (const journal::Event* e : journal::schedules_running(j, id, now_s)) {
     const auto& s = std::get<journal::DoseSchedule>(e->data);
-    add(DosedAdditive{s.additive_id, s.unit, s.stock_g_per_l, s.stock_name, s.device, s.doses_per_day});
+    add(DosedAdditive{s.additive_id, s.unit, s.stock_g_per_l, s.stock_name, s.device, s.doses_per_day, s.calibration});
   }
   const std::size_t scheduled = out.size();
-  if (scheduled > 0) sources.push_back(fmt::format("{} from the schedules running now (device, recipe and doses per day)", scheduled));
+  if (scheduled > 0) sources.push_back(fmt::format("{} from the schedules running now (device, recipe, doses per day and calibration)", scheduled));
   const auto since = now_s - static_cast<std::int64_t>(kStarterRecentDoseDays * 86400);
   int pumps = 0;
   for (const journal::Event& e : j.events) {
@@ -87,7 +90,7 @@ std::vector<DosedAdditive> dosed_additives(const journal::Journal& j, journal::S
     const auto* dose = std::get_if<journal::Dose>(&e.data);
     if (!dose || dose->mark != journal::ScheduleMark::None) continue;  // marks belong to a schedule
     const bool hand = dose->unit == journal::DoseUnit::Grams;
-    DosedAdditive d{dose->additive_id, dose->unit, dose->stock_g_per_l, "", "hand", 1};
+    DosedAdditive d{dose->additive_id, dose->unit, dose->stock_g_per_l, "", "hand", 1, 1.0};
     if (std::any_of(out.begin(), out.end(), [&](const DosedAdditive& o) { return o.same_as(d); })) continue;
     if (!hand) d.device = fmt::format("pump {}", scheduled + static_cast<std::size_t>(++pumps));
     out.push_back(d);

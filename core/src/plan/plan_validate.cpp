@@ -108,6 +108,7 @@ Status validate_input(const PlanInput& in) {
     if (auto r = check_range(f + ".min_dose", d.min_dose, 0.0, d.max_dose, u); !r) return r;
     if (auto r = check_range(f + ".max_per_day", d.max_per_day, ranges::kPlannedDailyAmount.lo, ranges::kPlannedDailyAmount.hi, u); !r) return r;
     if (auto r = check_range(f + ".reservoir", d.reservoir, ranges::kReservoirAmount.lo, ranges::kReservoirAmount.hi, u); !r) return r;
+    if (auto r = ranges::check(f + ".calibration", d.calibration, ranges::kPumpCalibration); !r) return r;
   }
   return Ok{};
 }

@@ -123,10 +123,11 @@ double per_unit_amount(const additives::Additive& a, int p) {
 double demand_of(const DailyDemand& d, int p) {
   return p == 0 ? d.alkalinity_meq_per_day : p == 1 ? d.calcium_mg_per_day : d.magnesium_mg_per_day;
 }
-// The most a delivery can give per day (mL or g): every slot at its largest dose, its volume per
-// day, and for limewater the evaporation it replaces.
+// The most a delivery can give per day (mL or g reaching the tank): every slot at its largest
+// setting, its largest setting per day (each times the pump's calibration), and for limewater the
+// evaporation it replaces.
 double most_per_day(const PlanInput& in, const Delivery& d) {
-  double most = std::min(d.max_dose * d.doses_per_day, d.max_per_day);
+  double most = std::min(d.delivered_max_dose() * d.doses_per_day, d.delivered_max_per_day());
   if (d.additive.limewater) most = std::min(most, in.evaporation_l_per_day * 1000.0);
   return most;
 }
@@ -163,11 +164,15 @@ std::string fix_for(const PlanInput& in, const Shortfall& s, int p) {
   const char* unit = additives::to_string(d.additive.unit);
   // Each dose may move the level at most by the single-dose limit: that bounds the dose size.
   const double level_per_unit = p == 0 ? r / units::kMeqPerLPerDKH / in.system.volume_l : r / in.system.volume_l;
-  const double dose_cap = std::min(d.max_dose, in.limits.get(step[p]) / level_per_unit);
+  const double dose_cap = std::min(d.delivered_max_dose(), in.limits.get(step[p]) / level_per_unit);
   const int doses = static_cast<int>(std::ceil(need / dose_cap * 1.0000001));
   std::string out = fmt::format("{} ({}): at least {:.4g} {}/day instead of at most {:.4g} {}/day", d.additive.name,
                                 d.device, need, unit, now, unit);
-  if (need > d.max_per_day) out += fmt::format(" (raise max_per_day from {:g})", d.max_per_day);
+  if (d.calibration != 1.0) {
+    out += fmt::format(" reaching the tank ({:.4g} {}/day set on the pump at calibration {:g})", d.set_amount(need), unit,
+                       d.calibration);
+  }
+  if (need > d.delivered_max_per_day()) out += fmt::format(" (raise max_per_day from {:g})", d.max_per_day);
   if (doses > d.doses_per_day) {
     out += doses <= 288 ? fmt::format(", in at least {} doses/day (now {}) of at most {:.4g} {}", doses,
                                       d.doses_per_day, dose_cap, unit)

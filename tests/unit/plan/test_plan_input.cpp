@@ -103,7 +103,8 @@ TEST_CASE("plan input file written back: read again, it gives the same input and
     "additives": [
       {"stock": {"name": "soda 90", "temperature_c": 21,
                  "ingredients": [{"compound": "sodium_carbonate", "grams_per_l": 90}]},
-       "device": "pump A", "doses_per_day": 6, "min_dose": 0.5, "max_dose": 12, "max_per_day": 60, "reservoir": 1800},
+       "device": "pump A", "doses_per_day": 6, "min_dose": 0.5, "max_dose": 12, "max_per_day": 60, "reservoir": 1800,
+       "calibration": 0.92},
       {"limewater": {"temperature_c": 20, "fraction_of_saturation": 0.8}, "device": "top-off", "max_dose": 5000},
       {"label": {"name": "Mg liquid", "parameter": "magnesium", "dose_ml": 10, "tank_volume_l": 200, "rise": 5}},
       {"compound": "calcium_chloride_dihydrate", "device": "hand", "first_hour": 18, "last_hour": 20}
@@ -129,7 +130,9 @@ TEST_CASE("plan input file written back: read again, it gives the same input and
     CHECK(second->deliveries[i].additive.name == first->deliveries[i].additive.name);
     CHECK(second->deliveries[i].additive.per_unit.alkalinity_eq == first->deliveries[i].additive.per_unit.alkalinity_eq);
     CHECK(second->deliveries[i].max_per_day == first->deliveries[i].max_per_day);
+    CHECK(second->deliveries[i].calibration == first->deliveries[i].calibration);
   }
+  CHECK(second->deliveries[0].calibration == 0.92);
   for (const LimitSpec& spec : limit_specs()) CHECK(second->limits.get(spec.id) == first->limits.get(spec.id));
   CHECK(second->start_date == "2027-01-15");
   // The plans are the same, dose for dose.

@@ -145,17 +145,31 @@ struct DailyDemand {
 DailyDemand demand_from_per_litre(double alkalinity_dkh_per_day, double calcium_mg_l_per_day,
                                   double magnesium_mg_l_per_day, double volume_l);
 
+// One pump (or hand routine) and what it gives. Two kinds of amount:
+// - a dose (DoseRecord::amount, the day totals, the reservoir) is what reaches the tank;
+// - the pump's own settings (min_dose, max_dose, max_per_day) are amounts SET on the pump, as
+//   the keeper types them into its controller; the pump gives setting x calibration.
+// So the amount to set for a dose is set_amount(dose) = dose / calibration, and the scheduler
+// bounds doses by the delivered_* values below.
 struct Delivery {
   additives::Additive additive;
   std::string device = "pump";  // pump or hand, shown in the schedule
   bool manual = false;          // dosed by hand: gets a reminder in iCalendar
   int doses_per_day = 1;        // accepted 1..288, spread evenly over the allowed hours
-  double min_dose = 0;          // smallest dose the pump or scoop can give (mL or g)
-  double max_dose = 100;        // largest single dose (mL or g)
-  double max_per_day = 1e9;     // pump volume per day (mL or g)
+  double min_dose = 0;          // smallest amount the pump or scoop can be set to (mL or g)
+  double max_dose = 100;        // largest single amount set (mL or g)
+  double max_per_day = 1e9;     // largest amount set per day (mL or g)
   int first_hour = 0;           // allowed hours, first_hour..last_hour inclusive, 0..23
   int last_hour = 23;
-  double reservoir = 0;         // volume or mass on hand (mL or g); 0 = not tracked
+  double reservoir = 0;         // volume or mass on hand (mL or g), drained by what is delivered; 0 = not tracked
+  // What the pump delivers per amount set (measured into a cylinder): ranges::kPumpCalibration,
+  // the same range as a journal schedule's calibration.
+  double calibration = 1.0;
+
+  double set_amount(double delivered) const { return delivered / calibration; }
+  double delivered_min_dose() const { return min_dose * calibration; }
+  double delivered_max_dose() const { return max_dose * calibration; }
+  double delivered_max_per_day() const { return max_per_day * calibration; }
 };
 
 struct PlanInput {

@@ -32,8 +32,22 @@ struct DeliveryRecipe {
 };
 Result<DeliveryRecipe> recipe_of(const additives::Additive& additive);
 
+// The pump that a schedule of the system gives this additive with (the same journal additive
+// id as recipe_of names, whatever the stock's strength): its name and calibration. The schedule
+// running at now_s (the latest started), else the first that starts later (a plan adopted for
+// tomorrow); none when every such schedule has stopped. The app's Plan screen takes a pump the
+// keeper has not named from here, so a plan adopted again keeps the pump's name and calibration.
+struct ScheduledPump {
+  std::string device;
+  double calibration = 1.0;
+};
+std::optional<ScheduledPump> scheduled_pump_for(const journal::Journal& journal, journal::SystemId system,
+                                                const additives::Additive& additive, std::int64_t now_s);
+
 // The plan's doses as schedules. day1_start_s: day 1 of the plan at 00:00 in the keeper's
-// time (UTC seconds). Per-dose amounts are rounded to 0.1 mL or 0.01 g (a pump's step).
+// time (UTC seconds). Each schedule's amount is what to SET on the pump (the plan's dose /
+// the delivery's calibration), rounded to 0.1 mL or 0.01 g (a pump's step), and it carries the
+// calibration, so the journal's assumed doses (set x calibration) are the plan's.
 Result<std::vector<AdoptedSchedule>> schedules_from_plan(const PlanInput& input, const Plan& plan,
                                                          std::int64_t day1_start_s);
 
