@@ -1,7 +1,8 @@
 // Shared helpers of the browser tests and the benchmark: Chromium (Debian's, through
 // playwright-core), the app's test interface (Module.ccall('tw_test_*')) and taps by widget name.
 import { chromium } from 'playwright-core';
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { inflateSync } from 'node:zlib';
@@ -53,14 +54,25 @@ export async function frames(page, n = 3) {
 }
 
 // Taps (touch) or clicks (mouse) the centre of a named widget, scrolling it into view first.
+// The tap waits until the widget stays where it is from one frame to the next: a screen's
+// remembered scroll position is put back over a few frames after a tab is opened, a message
+// strip comes and goes, and a tap aimed at the old place misses (it did, now and then, once
+// the phone suites ran at 1x and frames came faster than the scroll settled).
 export async function tap(page, name) {
-  let w = await widget(page, name);
-  for (let i = 0; i < 4 && (!w.found || !w.visible); i++) {
-    await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
-    await frames(page, 3);
+  let w;
+  for (let attempt = 0; ; attempt++) {
     w = await widget(page, name);
+    for (let i = 0; i < 4 && (!w.found || !w.visible); i++) {
+      await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
+      await frames(page, 3);
+      w = await widget(page, name);
+    }
+    if (!w.found || !w.visible) throw new Error(`widget ${name} not on screen: ${JSON.stringify(w)}`);
+    await frames(page, 1);
+    const again = await widget(page, name);
+    if (again.visible && Math.abs(again.x - w.x) < 0.5 && Math.abs(again.y - w.y) < 0.5) break;
+    if (attempt === 5) throw new Error(`widget ${name} keeps moving: ${JSON.stringify(w)} -> ${JSON.stringify(again)}`);
   }
-  if (!w.found || !w.visible) throw new Error(`widget ${name} not on screen: ${JSON.stringify(w)}`);
   const x = w.x + w.w / 2, y = w.y + w.h / 2;
   const touch = await page.evaluate(() => navigator.maxTouchPoints > 0);
   if (touch) await page.touchscreen.tap(x, y); else await page.mouse.click(x, y);
@@ -196,4 +208,21 @@ export async function editSavedSettings(page, systemId, edits) {
       tx.onerror = () => fail(tx.error);
     };
   }), [systemId, edits]);
+}
+
+// The demo journal as the app loaded it (moved forward by whole days: the app's demo_shift_s),
+// imported by the command line `cli` into a new database in `dir`; returns the database's path.
+// For tests that compare the app with the command line on the same data.
+export function cliDemoDatabase(cli, dir, shiftS) {
+  const doc = JSON.parse(readFileSync(join(HERE, '../../assets/demo/demo_journal.json'), 'utf8'));
+  const moved = (iso) => new Date(Date.parse(iso) + shiftS * 1000).toISOString().replace('.000Z', 'Z');
+  for (const e of doc.events) {
+    e.time = moved(e.time);
+    if (e.stop) e.stop = moved(e.stop);
+  }
+  const shifted = join(dir, 'demo.json');
+  writeFileSync(shifted, JSON.stringify(doc));
+  const db = join(dir, 'j.db');
+  execFileSync(cli, ['log', '--journal', db, 'import', shifted], { stdio: 'pipe' });
+  return db;
 }

@@ -13,16 +13,15 @@
 // The command line: TW_CLI, else ../../build/native/shell/tidewright.
 // Screenshot: tests/browser/output/pumps-phone-plan.png (the pump section).
 import { resolve, join } from 'node:path';
-import { execFileSync, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests,
+import { launch, PHONE_1X as PHONE, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase,
   benign, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
-const demo = join(HERE, '../../assets/demo');
 const server = await startServer(site);
 const browser = await launch();
 const tests = [];
@@ -53,16 +52,7 @@ async function refused(page, name, text, pattern, what) {
 function cliPlan(shiftS, planInput) {
   const dir = mkdtempSync(join(tmpdir(), 'tw-pumps-'));
   try {
-    const doc = JSON.parse(readFileSync(join(demo, 'demo_journal.json'), 'utf8'));
-    const moved = (iso) => new Date(Date.parse(iso) + shiftS * 1000).toISOString().replace('.000Z', 'Z');
-    for (const e of doc.events) {
-      e.time = moved(e.time);
-      if (e.stop) e.stop = moved(e.stop);
-    }
-    const shifted = join(dir, 'demo.json');
-    writeFileSync(shifted, JSON.stringify(doc));
-    const db = join(dir, 'j.db');
-    execFileSync(cli, ['log', '--journal', db, 'import', shifted], { stdio: 'pipe' });
+    const db = cliDemoDatabase(cli, dir, shiftS);
     const input = join(dir, 'input.json');
     writeFileSync(input, JSON.stringify(planInput));
     // Exit 0 (holds) or 3 (cannot hold: the plan is still written); the app's verdict is compared.

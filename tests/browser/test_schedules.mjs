@@ -17,11 +17,10 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, state, widget, tap, enter, frames, check, OUTPUT, HERE, openApp, runTests, benign } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, state, widget, tap, enter, frames, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase, benign } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
-const demo = join(HERE, '../../assets/demo');
 const server = await startServer(site);
 const browser = await launch();
 
@@ -63,16 +62,7 @@ async function logTodaysTest(page, value) {
 function cliPlan(testEvent, shiftS, planInput) {
   const dir = mkdtempSync(join(tmpdir(), 'tw-sched-'));
   try {
-    const doc = JSON.parse(readFileSync(join(demo, 'demo_journal.json'), 'utf8'));
-    const moved = (iso) => new Date(Date.parse(iso) + shiftS * 1000).toISOString().replace('.000Z', 'Z');
-    for (const e of doc.events) {
-      e.time = moved(e.time);
-      if (e.stop) e.stop = moved(e.stop);
-    }
-    const shifted = join(dir, 'demo.json');
-    writeFileSync(shifted, JSON.stringify(doc));
-    const db = join(dir, 'j.db');
-    execFileSync(cli, ['log', '--journal', db, 'import', shifted], { stdio: 'pipe' });
+    const db = cliDemoDatabase(cli, dir, shiftS);
     execFileSync(cli, ['log', '--journal', db, 'add', 'test', '--system', 'Living room reef', '--parameter', 'alkalinity',
                        '--value', String(testEvent.value), '--unit', 'dKH', '--precision', String(testEvent.precision ?? 0.2),
                        '--time', testEvent.time], { stdio: 'pipe' });
