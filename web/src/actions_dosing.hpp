@@ -38,6 +38,7 @@ bool set_plan_pump_name(AppState& app, int slot, const std::string& typed);
 // pump's calibration is not 1 and the column shows what to set) and the legend under the table.
 std::string pump_column_title(const tw::plan::Delivery& d);
 std::string pump_legend(const std::vector<tw::plan::Delivery>& deliveries);
+std::string pumps_in_words(const std::vector<tw::plan::Delivery>& deliveries);
 // Downloads the current schedule: format 0 CSV, 1 iCalendar, 2 plain text.
 bool export_plan(AppState& app, int format);
 

@@ -275,6 +275,17 @@ std::string pump_legend(const std::vector<pl::Delivery>& deliveries) {
   return legend;
 }
 
+// "pump 1 (calibration 0.9) and pump 2": the adopt question and its notice name the pumps alike.
+std::string pumps_in_words(const std::vector<pl::Delivery>& deliveries) {
+  std::string out;
+  for (std::size_t k = 0; k < deliveries.size(); ++k) {
+    const pl::Delivery& d = deliveries[k];
+    out += (k == 0 ? "" : k + 1 == deliveries.size() ? " and " : ", ") + d.device;
+    if (d.calibration != 1.0) out += " (calibration " + fmtx_calibration(d.calibration) + ")";
+  }
+  return out;
+}
+
 // ---------------------------------------------------------------- Name a pump
 bool set_plan_pump_name(AppState& app, int slot, const std::string& typed) {
   PlanForm& f = app.ui.dosing.plan;
@@ -320,15 +331,9 @@ bool adopt_current_plan(AppState& app) {
   }
   app.journal = std::move(next);
   ++app.revision;
-  // Name each pump adopted, with its calibration when it is not 1 (the schedules hold the
-  // amounts to set on it).
-  std::string pumps;
-  for (const pl::Delivery& d : c.input->deliveries) {
-    pumps += (pumps.empty() ? "" : ", ") + d.device;
-    if (d.calibration != 1.0) pumps += " (calibration " + fmtx_calibration(d.calibration) + ")";
-  }
-  notify(app, "Adopted: " + std::to_string(ids->size()) + " schedule" + (ids->size() == 1 ? "" : "s") + " for " + pumps +
-                  " from tomorrow, shown on the Log screen");
+  // The schedules hold the amounts to set on each pump (its calibration when it is not 1).
+  notify(app, "Adopted: " + std::to_string(ids->size()) + " schedule" + (ids->size() == 1 ? "" : "s") + " for " +
+                  pumps_in_words(c.input->deliveries) + " from tomorrow, shown on the Log screen");
   save(app);
   return true;
 }

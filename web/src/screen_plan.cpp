@@ -353,13 +353,7 @@ void draw_verdict(AppState& app, const pl::Plan& plan) {
 void draw_adopt(AppState& app, const PlanCache& c) {
   const bool can = c.plan->verdict.holds && (!c.check || c.check->ok() || c.check->only_floors_and_falls());
   ui::card_begin(app);
-  std::string names;
-  for (std::size_t k = 0; k < c.input->deliveries.size(); ++k) {
-    const pl::Delivery& d = c.input->deliveries[k];
-    names += (k == 0 ? "" : k + 1 == c.input->deliveries.size() ? " and " : ", ") + d.device;
-    if (d.calibration != 1.0) names += " (calibration " + fmtx::fixed(d.calibration, 2) + ")";
-  }
-  ui::wrapped(("Set " + names + " to this plan? Adopting it makes it the schedules in the log from tomorrow, with the "
+  ui::wrapped(("Set " + pumps_in_words(c.input->deliveries) + " to this plan? Adopting it makes it the schedules in the log from tomorrow, with the "
                "amounts to set on each pump; their earlier schedules stop there.")
                   .c_str());
   if (ui::button(app, "plan.adopt", "Adopt this plan", 0, can ? ui::Tone::Primary : ui::Tone::Quiet)) {

@@ -62,18 +62,21 @@ void draw_csv_system_choice(AppState& app, ImportPreview& p) {
 }
 
 // Shown when the core could not tell the order of a date like 03/04/2026 (the rows are
-// refused for it), and kept once the keeper chose.
-void draw_date_order_choice(AppState& app, ImportPreview& p, const jn::CsvImportReport& r) {
+// refused for it), and kept once the keeper chose. True when the choice made the preview again
+// (the report passed in is then gone).
+bool draw_date_order_choice(AppState& app, ImportPreview& p, const jn::CsvImportReport& r) {
   bool ambiguous = false;
   for (const jn::RejectedRow& row : r.rejected) ambiguous |= row.field == "time";
-  if (!p.date_order_chosen && !(ambiguous && r.date_order == dt::DateOrder::Unspecified)) return;
+  if (!p.date_order_chosen && !(ambiguous && r.date_order == dt::DateOrder::Unspecified)) return false;
   const char* const orders[] = {"Day first: 03/04 is 3 April", "Month first: 03/04 is March 4"};
   int index = p.date_order == dt::DateOrder::MonthDayYear ? 1 : p.date_order == dt::DateOrder::DayMonthYear ? 0 : -1;
   if (ui::choice(app, "import.date_order", "Dates like 03/04/2026 in this file are", &index, orders, 2)) {
     p.date_order = index == 1 ? dt::DateOrder::MonthDayYear : dt::DateOrder::DayMonthYear;
     p.date_order_chosen = true;
     remake_import_preview(app);
+    return true;
   }
+  return false;
 }
 
 void draw_csv_preview(AppState& app, ImportPreview& p) {
@@ -85,9 +88,8 @@ void draw_csv_preview(AppState& app, ImportPreview& p) {
     if (ui::button(app, "import.cancel", "Close")) cancel_import(app);
     return;
   }
+  if (draw_date_order_choice(app, p, *p.csv_report)) return;  // remade: shown from the next frame
   const jn::CsvImportReport& r = *p.csv_report;
-  draw_date_order_choice(app, p, r);
-  if (!p.csv_report) return;  // remade this frame
   ui::label_value(app, "Entries to add", std::to_string(r.added.size()), theme::kAccent);
   ui::label_value(app, "Already in the log (skipped)", std::to_string(r.duplicates_skipped));
   ui::label_value(app, "Rows refused", std::to_string(r.rejected.size()), r.rejected.empty() ? 0 : theme::kWarning);
