@@ -201,8 +201,7 @@ struct PlanForm {
   bool operator==(const PlanForm&) const = default;
 };
 
-// The Plan's two stock pumps, by slot.
-enum class PlanPumpSlot { Alkalinity = 0, Calcium = 1 };
+// The Plan's two stock pumps, by slot: 0 the alkalinity stock's, 1 the calcium stock's.
 inline constexpr const char* kPlanPumpFallback[2] = {"pump 1", "pump 2"};
 
 // A pump as the plan uses it: the keeper's setting, else the running schedule's, else the fallback.
@@ -226,7 +225,7 @@ struct PlanCache {
   std::optional<tw::plan::PlanInput> input;
   std::optional<tw::plan::Plan> plan;
   std::optional<tw::plan::CheckReport> check;  // the independent checker's replay
-  std::array<PlanPump, 2> pumps;               // by PlanPumpSlot, shown in the form
+  std::array<PlanPump, 2> pumps;               // by slot (0 alkalinity, 1 calcium), shown in the form
   double start_day = 0;                        // days since epoch of day 1, 00:00 local
   int computed_count = 0;
 };
