@@ -114,6 +114,66 @@ test('two tabs adding at the same moment: both entries kept (the later one gets 
   check(allHave(alkValues(await state(a)), [9.11, 9.22]), 'first tab after reload misses an entry');
 });
 
+// The app part as the database holds it (settings, Plan and Hatchery settings per system).
+function storedAppPart(page) {
+  return page.evaluate(() => new Promise((ok, fail) => {
+    const r = indexedDB.open('tidewright');
+    r.onerror = () => fail(r.error);
+    r.onsuccess = () => {
+      const get = r.result.transaction('settings', 'readonly').objectStore('settings').get('app');
+      get.onsuccess = () => { r.result.close(); ok(get.result); };
+    };
+  }));
+}
+
+test('two tabs changing different settings at the same moment: both changes kept, each tab shows both', async () => {
+  const a = shared.page, b = shared.second.page;
+  const before = (await state(a)).settings;
+  check(before.constants_convention === 'co2sys' && before.room_co2_ppm !== 900, `start: ${JSON.stringify(before)}`);
+  // Neither tab hears the other before it writes: each saves its own change over a store that
+  // lacks the other's, as two phones on one farm tablet's data could.
+  await b.evaluate(() => { window.__heldMessage = Module.twStore.channel.onmessage; Module.twStore.channel.onmessage = null; });
+  await a.bringToFront();
+  await tap(a, 'tab.settings');
+  await tap(a, 'settings.conventions.1');
+  await flushed(a);
+  await b.bringToFront();
+  await tap(b, 'tab.settings');
+  await tap(b, 'settings.room_co2');
+  await enter(b, '900');
+  await flushed(b);
+  await b.evaluate(() => { Module.twStore.channel.onmessage = window.__heldMessage; });
+  const db = await storedAppPart(a);
+  check(db.settings.constants_convention === 'guide2007' && db.settings.room_co2_ppm === 900,
+    `database settings ${JSON.stringify(db.settings)}: a change was overwritten`);
+  for (const [name, page] of [['first', a], ['second', b]]) {
+    await page.bringToFront();
+    await frames(page, 4);
+    const s = (await state(page)).settings;
+    check(s.constants_convention === 'guide2007' && s.room_co2_ppm === 900,
+      `${name} tab shows ${s.constants_convention}, ${s.room_co2_ppm} ppm without reloading`);
+  }
+  // The same setting in both: the later change wins, in the database and in both tabs.
+  await a.bringToFront();
+  await tap(a, 'settings.room_co2');
+  await enter(a, '650');
+  await flushed(a);
+  await b.bringToFront();
+  await frames(b, 4);
+  check((await state(b)).settings.room_co2_ppm === 650, 'second tab missed the later change');
+  await a.reload();
+  await waitReady(a);
+  await frames(a, 2);
+  const after = (await state(a)).settings;
+  check(after.constants_convention === 'guide2007' && after.room_co2_ppm === 650, `after reload ${JSON.stringify(after)}`);
+  // Back as it was for the tests below.
+  await tap(a, 'tab.settings');
+  await tap(a, 'settings.conventions.0');
+  await tap(a, 'settings.room_co2');
+  await enter(a, String(before.room_co2_ppm));
+  await flushed(a);
+});
+
 test('time of a write after a tap (figures)', async () => {
   const a = shared.page;
   // The second tab was opened last, so it is the one in front; a tab behind it gets about one

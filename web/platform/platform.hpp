@@ -81,9 +81,11 @@ bool store_save(const std::string& name, const tw::journal::Journal& saved, cons
 // What another copy of the app (another browser tab) stored, or what a save here turned out
 // to be, since the last poll (browser only; natively always nullopt).
 struct StoreUpdate {
-  enum class Kind { Records, Everything, Message };
+  enum class Kind { Records, Everything, Message, AppPart };
   Kind kind = Kind::Message;
-  std::string text;     // Records: changes_to_text's layout (store.hpp); Everything: a store text
+  // Records: changes_to_text's layout (store.hpp); Everything: a store text; AppPart: the app
+  // part as stored (after another tab's settings change or this tab's own, merged in the write).
+  std::string text;
   bool is_error = false;  // Message: a failed save or a closed database
 };
 std::optional<StoreUpdate> poll_store_update();

@@ -61,7 +61,7 @@ EM_JS(int, js_keep_text, (const char* name, const char* text), {
 EM_JS(char*, js_take_update, (int* kind, int* is_error), {
   var u = Module.twStore.takeUpdate();
   if (!u) return 0;
-  HEAP32[kind >> 2] = u.kind === 'records' ? 1 : u.kind === 'all' ? 2 : 3;
+  HEAP32[kind >> 2] = u.kind === 'records' ? 1 : u.kind === 'all' ? 2 : u.kind === 'app' ? 4 : 3;
   HEAP32[is_error >> 2] = u.error ? 1 : 0;
   var n = lengthBytesUTF8(u.text) + 1, p = _malloc(n);
   stringToUTF8(u.text, p, n);
@@ -214,7 +214,9 @@ bool g_legacy_import_pending = false;  // the first save copies the older IDBFS 
 // The database held records when the app started and nothing was saved since: a first save
 // from an empty journal means the app could not read them (and kept a copy): replace them.
 bool g_store_had_records = false;
-std::string g_saved_app_part;          // the app part as last written
+// The app part as this tab last wrote or read it: a save sends only what changed since
+// (store.hpp app_part_patch). Empty: the database holds none from this tab yet; send it all.
+std::string g_saved_app_part;
 }  // namespace
 
 std::optional<std::string> storage_read(const std::string&) { return std::nullopt; }
@@ -234,6 +236,10 @@ std::optional<StoreLoad> store_load(const std::string&) {
   g_store_had_records = js_store_had_records() != 0;
   StoreLoad out{text, false, ""};
   std::free(text);
+  if (!legacy) {  // the older store's app part is not in the database yet: the first save writes it whole
+    const auto doc = nlohmann::json::parse(out.text, nullptr, false);
+    if (doc.is_object() && doc.contains("app")) g_saved_app_part = doc["app"].dump();
+  }
   if (legacy) {
     g_legacy_import_pending = true;
     out.first_save_needed = true;
@@ -246,11 +252,12 @@ bool store_save(const std::string&, const tw::journal::Journal& saved, const tw:
                 const std::function<std::string()>&, const std::string& app_part, bool* reload, std::string* error) {
   if (reload) *reload = false;  // ids another tab took are moved in the transaction (web_store.js)
   const tw::journal::JournalChanges changes = tw::journal::diff_journals(saved, now);
-  const bool app_changed = app_part != g_saved_app_part;
+  const std::string app_patch = app_part_patch(g_saved_app_part, app_part);
+  const bool app_changed = !app_patch.empty();
   const bool replace_all = saved.systems.empty() && saved.events.empty() && g_store_had_records && !g_legacy_import_pending;
   if (changes.empty() && !app_changed && !g_legacy_import_pending && !replace_all) return true;
   auto doc = nlohmann::json::parse(changes_to_text(changes));
-  if (app_changed) doc["app"] = nlohmann::json::parse(app_part, nullptr, false);
+  if (app_changed) doc["app_patch"] = nlohmann::json::parse(app_patch);
   if (g_legacy_import_pending) doc["legacy_import"] = true;
   // The app started empty over records it could not read (a copy was kept): they go.
   if (replace_all) doc["replace_all"] = true;
@@ -270,7 +277,11 @@ std::optional<StoreUpdate> poll_store_update() {
   char* text = js_take_update(&kind, &is_error);
   if (!text) return std::nullopt;
   StoreUpdate u;
-  u.kind = kind == 1 ? StoreUpdate::Kind::Records : kind == 2 ? StoreUpdate::Kind::Everything : StoreUpdate::Kind::Message;
+  u.kind = kind == 1   ? StoreUpdate::Kind::Records
+           : kind == 2 ? StoreUpdate::Kind::Everything
+           : kind == 4 ? StoreUpdate::Kind::AppPart
+                       : StoreUpdate::Kind::Message;
+  if (u.kind == StoreUpdate::Kind::AppPart) g_saved_app_part = text;  // what the database holds now
   u.text = text;
   u.is_error = is_error != 0;
   std::free(text);

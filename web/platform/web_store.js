@@ -4,8 +4,9 @@
 //   2. start: open, read every record into one store text; the one-time import of the older
 //      store (one JSON text in Emscripten's IDBFS database "/persist")
 //   3. a save: one readwrite transaction with only the records that changed
-//   4. other tabs: a BroadcastChannel message names the records a tab wrote; the others read
-//      just those records again; a newer version in another tab closes this one with a message
+//   4. other tabs: a BroadcastChannel message names the records a tab wrote (and whether it
+//      changed the app part); the others read just those again; a newer version in another
+//      tab closes this one with a message
 //   5. small named texts (the copy kept of a damaged store)
 // Results for the app wait in S.updates until platform_web.cpp polls them (one per frame).
 
@@ -30,7 +31,7 @@ var TW_LEGACY_KEY = '/persist/tidewright.json';
 
 Module.twStore = (function () {
   var S = { db: null, loaded: null, updates: [], pending: 0, rereading: 0, closed: '', writes: 0,
-    lastWriteMs: 0, lastCommitAt: 0, hadRecords: false, tabId: Math.random().toString(36).slice(2) };
+    lastWriteMs: 0, lastCommitAt: 0, hadRecords: false, appWanted: false, tabId: Math.random().toString(36).slice(2) };
   var channel = typeof BroadcastChannel === 'function' ? new BroadcastChannel('tidewright-journal') : null;
   S.channel = channel;
 
@@ -134,7 +135,10 @@ Module.twStore = (function () {
 
   // ---------------------------------------------------------------- 3. a save
   // c: {schema_version, first_new_id, next_id, systems_put, systems_removed, events_put,
-  //     events_removed, description?, app?, legacy_import?, replace_all?} (platform_web.cpp).
+  //     events_removed, description?, app_patch?, legacy_import?, replace_all?} (platform_web.cpp).
+  // app_patch: what changed in the app part since this tab last wrote or read it (store.hpp
+  // app_part_patch), applied to the stored part inside this transaction, so two tabs changing
+  // different settings at once both keep theirs.
   // Ids the app handed out itself (>= first_new_id) that another tab took meanwhile (below the
   // stored counter) are moved to fresh ones; the app then reads those records again.
   S.write = function (text) {
@@ -194,7 +198,10 @@ Module.twStore = (function () {
       meta.put(next, 'next_id');
       meta.put(c.schema_version, 'record_version');
       if (c.description !== undefined) meta.put(c.description, 'description');
-      if (c.app !== undefined) tx.objectStore('settings').put(c.app, 'app');
+      if (c.app_patch) {
+        var settings = tx.objectStore('settings');
+        settings.get('app').onsuccess = function (e) { settings.put(applyAppPatch(e.target.result, c.app_patch), 'app'); };
+      }
       if (c.legacy_import) meta.put({ from: TW_LEGACY_KEY + ' (IDBFS)', at: new Date().toISOString() }, 'legacy_import');
     };
     tx.oncomplete = function () {
@@ -202,8 +209,10 @@ Module.twStore = (function () {
       S.writes++;
       S.lastWriteMs = performance.now() - t0;
       S.lastCommitAt = performance.now();
-      if (channel) channel.postMessage({ from: S.tabId, systems: touched.systems, events: touched.events });
+      if (channel) channel.postMessage({ from: S.tabId, systems: touched.systems, events: touched.events, app: !!c.app_patch });
       if (moved) reread(touched);  // our own records under their new ids, and what took the old ones
+      if (c.app_patch) S.appWanted = true;  // the stored part may hold another tab's changes too
+      rereadApp();
     };
     tx.onabort = function () {
       S.pending--;
@@ -212,6 +221,8 @@ Module.twStore = (function () {
       if (!why && e && e.name === 'QuotaExceededError') why = "this browser's storage is full";
       say('Not saved: ' + (why || (e ? e.message : 'the browser refused the change')) + '. The saved data is shown again.', true);
       reloadAll();
+      if (c.app_patch) S.appWanted = true;
+      rereadApp();
     };
   };
 
@@ -244,6 +255,42 @@ Module.twStore = (function () {
     tx.onabort = function () { S.rereading--; reloadAll(); };
   }
 
+  // RFC 6902 "add" and "remove" on objects, the only operations app_part_patch writes. A parent
+  // object the stored part lacks is made (it may be older than this tab's); removing a member
+  // already gone does nothing.
+  function applyAppPatch(stored, ops) {
+    var root = stored && typeof stored === 'object' && !Array.isArray(stored) ? stored : {};
+    ops.forEach(function (op) {
+      var keys = op.path.split('/').slice(1).map(function (k) { return k.replace(/~1/g, '/').replace(/~0/g, '~'); });
+      var at = root;
+      for (var i = 0; i < keys.length - 1; i++) {
+        var next = at[keys[i]];
+        if (!next || typeof next !== 'object' || Array.isArray(next)) {
+          if (op.op === 'remove') return;
+          next = at[keys[i]] = {};
+        }
+        at = next;
+      }
+      if (op.op === 'remove') delete at[keys[keys.length - 1]]; else at[keys[keys.length - 1]] = op.value;
+    });
+    return root;
+  }
+
+  // Reads the stored app part for the app once no write of this tab is in flight (a write
+  // still to come would make it stale; its completion asks again).
+  function rereadApp() {
+    if (!S.appWanted || !S.db || S.pending > 0) return;
+    S.appWanted = false;
+    var tx = S.db.transaction('settings', 'readonly'), part;
+    tx.objectStore('settings').get('app').onsuccess = function (e) { part = e.target.result; };
+    tx.oncomplete = function () {
+      if (S.pending > 0) { S.appWanted = true; return; }
+      if (part === undefined) return;
+      S.updates.push({ kind: 'app', text: JSON.stringify(part) });
+      Module.tw.dirty = true;
+    };
+  }
+
   function reloadAll() {
     if (!S.db) return;
     S.rereading++;
@@ -256,7 +303,9 @@ Module.twStore = (function () {
 
   if (channel) {
     channel.onmessage = function (e) {
-      if (e.data && e.data.from !== S.tabId) reread(e.data);
+      if (!e.data || e.data.from === S.tabId) return;
+      reread(e.data);
+      if (e.data.app) { S.appWanted = true; rereadApp(); }
     };
   }
 
@@ -266,8 +315,8 @@ Module.twStore = (function () {
     S.pending++;
     var tx = S.db.transaction('files', 'readwrite');
     tx.objectStore('files').put(text, name);
-    tx.oncomplete = function () { S.pending--; };
-    tx.onabort = function () { S.pending--; say('Could not keep ' + name + ' in this browser: ' + tx.error, true); };
+    tx.oncomplete = function () { S.pending--; rereadApp(); };
+    tx.onabort = function () { S.pending--; rereadApp(); say('Could not keep ' + name + ' in this browser: ' + tx.error, true); };
     return true;
   };
 

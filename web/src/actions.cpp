@@ -106,6 +106,19 @@ void apply_store_update(AppState& app, const platform::StoreUpdate& update) {
     notify(app, update.text, update.is_error);
     return;
   }
+  if (update.kind == Kind::AppPart) {
+    // Settings changed in another tab (or merged into this tab's own write): take them; the
+    // system this tab shows stays its own.
+    if (app_parts_agree(update.text, app_part_to_text(app))) return;
+    auto part = app_part_from_text(update.text, app.journal);
+    if (!part) return;  // the next start reports it
+    app.settings = part->settings;
+    app.demo_system_ids = part->demo_system_ids;
+    app.dosing_by_system = std::move(part->dosing_by_system);
+    app.ui.dosing.forms_for.reset();  // filled again from the settings just read
+    ++app.revision;
+    return;
+  }
   if (update.kind == Kind::Everything) {
     auto stored = store_from_text(update.text);
     if (!stored) return;  // the next start reports it (and keeps a copy)

@@ -81,22 +81,11 @@ std::string store_to_text(const AppState& app) {
 }
 
 namespace {
-tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
-  json doc = json::parse(text, nullptr, false);
-  if (doc.is_discarded() || !doc.is_object()) {
-    return tw::Error{"json", "the file is not a JSON object (damaged or not a Tidewright file)"};
-  }
-  StoredApp out;
-  json app_part;
-  if (doc.contains("app")) {
-    app_part = doc["app"];
-    doc.erase("app");
-    out.had_app_part = true;
-  }
-  auto journal = jn::parse_journal(doc.dump());
-  if (!journal) return journal.error();
-  out.journal = std::move(journal).value();
-  if (!out.had_app_part) return out;
+// The app part's members into out (its journal already read): settings, the system shown, the
+// demo's systems, the Plan and Hatchery settings per system. A value out of range keeps the
+// default (refused Plan and Hatchery values are listed in out.refused by dosing_from_json).
+tw::Result<bool> read_app_part(const json& app_part, StoredApp& out) {
+  const jn::Journal& journal = out.journal;
   if (!app_part.is_object()) return tw::Error{"app", "the app part is not a JSON object"};
   const int version = app_part.value("schema_version", 0);
   if (version > kAppSchemaVersion) {
@@ -121,17 +110,37 @@ tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
     if (s.contains("safety_limits")) limits_from_json(s["safety_limits"], out.settings.safety_limits);
   }
   const jn::SystemId current = app_part.value("current_system", jn::SystemId{0});
-  if (jn::find_system(out.journal, current)) out.current_system = current;
+  if (jn::find_system(journal, current)) out.current_system = current;
   if (app_part.contains("demo_system_ids") && app_part["demo_system_ids"].is_array()) {
     for (const auto& id : app_part["demo_system_ids"]) {
-      if (id.is_number_integer() && jn::find_system(out.journal, id.get<jn::SystemId>())) {
+      if (id.is_number_integer() && jn::find_system(journal, id.get<jn::SystemId>())) {
         out.demo_system_ids.push_back(id.get<jn::SystemId>());
       }
     }
   }
   if (app_part.contains("dosing_by_system")) {
-    out.dosing_by_system = dosing_from_json(app_part["dosing_by_system"], out.journal, &out.refused);
+    out.dosing_by_system = dosing_from_json(app_part["dosing_by_system"], journal, &out.refused);
   }
+  return true;
+}
+
+tw::Result<StoredApp> store_from_text_unchecked(const std::string& text) {
+  json doc = json::parse(text, nullptr, false);
+  if (doc.is_discarded() || !doc.is_object()) {
+    return tw::Error{"json", "the file is not a JSON object (damaged or not a Tidewright file)"};
+  }
+  StoredApp out;
+  json app_part;
+  if (doc.contains("app")) {
+    app_part = doc["app"];
+    doc.erase("app");
+    out.had_app_part = true;
+  }
+  auto journal = jn::parse_journal(doc.dump());
+  if (!journal) return journal.error();
+  out.journal = std::move(journal).value();
+  if (!out.had_app_part) return out;
+  if (auto read = read_app_part(app_part, out); !read) return read.error();
   return out;
 }
 }  // namespace
@@ -174,6 +183,54 @@ tw::Result<jn::JournalChanges> changes_from_text(const std::string& text) {
   } catch (const nlohmann::json::exception& e) {
     return tw::Error{"records", std::string("the records read back could not be read: ") + e.what()};
   }
+}
+
+tw::Result<StoredApp> app_part_from_text(const std::string& text, const jn::Journal& journal) {
+  try {
+    StoredApp out;
+    out.journal = journal;
+    out.had_app_part = true;
+    if (auto read = read_app_part(json::parse(text), out); !read) return read.error();
+    return out;
+  } catch (const nlohmann::json::exception& e) {
+    return tw::Error{"app", std::string("the app part could not be read: ") + e.what()};
+  }
+}
+
+namespace {
+// RFC 6902 operations taking base to now: objects member by member, anything else whole.
+void patch_members(const json& base, const json& now, const json::json_pointer& at, json& ops) {
+  for (auto it = now.begin(); it != now.end(); ++it) {
+    const json::json_pointer path = at / it.key();
+    const auto was = base.find(it.key());
+    if (was != base.end() && was->is_object() && it->is_object()) {
+      patch_members(*was, *it, path, ops);
+    } else if (was == base.end() || *was != *it) {
+      ops.push_back({{"op", "add"}, {"path", path.to_string()}, {"value", *it}});
+    }
+  }
+  for (auto it = base.begin(); it != base.end(); ++it) {
+    if (!now.contains(it.key())) ops.push_back({{"op", "remove"}, {"path", (at / it.key()).to_string()}});
+  }
+}
+
+json object_or_empty(const std::string& text) {
+  json j = json::parse(text, nullptr, false);
+  return j.is_object() ? j : json::object();
+}
+}  // namespace
+
+std::string app_part_patch(const std::string& base, const std::string& now) {
+  json ops = json::array();
+  patch_members(object_or_empty(base), object_or_empty(now), json::json_pointer(), ops);
+  return ops.empty() ? std::string() : ops.dump();
+}
+
+bool app_parts_agree(const std::string& a, const std::string& b) {
+  json ja = object_or_empty(a), jb = object_or_empty(b);
+  ja.erase("current_system");
+  jb.erase("current_system");
+  return ja == jb;
 }
 
 tw::Result<StoredApp> store_from_text(const std::string& text) {

@@ -36,6 +36,21 @@ std::string store_to_text(const AppState& app);
 std::string app_part_to_text(const AppState& app);  // the "app" member alone, JSON
 tw::Result<StoredApp> store_from_text(const std::string& text);
 
+// The app part alone (another tab's, read back from the browser's database) for this journal:
+// settings, demo systems and the Plan and Hatchery settings as store_from_text reads them.
+tw::Result<StoredApp> app_part_from_text(const std::string& text, const tw::journal::Journal& journal);
+
+// Two tabs changing settings at the same moment (issue 15): a save sends only what changed in
+// the app part since this tab last wrote or read it, as RFC 6902 JSON Patch operations ("add"
+// for a new or changed member, "remove" for a gone one; objects compared member by member,
+// anything else as one value). web_store.js applies them to the stored part inside its write,
+// so changes to different settings, or to different systems' Plan settings, are all kept; the
+// last writer wins only for the same setting. Empty text: nothing changed.
+std::string app_part_patch(const std::string& base, const std::string& now);
+
+// Whether two app parts say the same, apart from the system each tab shows (a tab's own).
+bool app_parts_agree(const std::string& a, const std::string& b);
+
 // A change record by record, as JSON text: what the browser's database writes after a tap and
 // what another tab reads back (web_store.js). Records are the journal format's (journal_file.hpp):
 //   { "schema_version": 3, "first_new_id": N, "next_id": N, "systems_put": [system...],
