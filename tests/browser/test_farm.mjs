@@ -208,6 +208,60 @@ test('round of tests: several systems in one save, an out-of-range value refused
   noErrors(errors);
 });
 
+test('round of tests: only the systems due a test, or a chosen rack kept after a reload; a typed value is never hidden (phone)', async () => {
+  const { context, page, errors } = await openFarm(PHONE);
+  await tap(page, 'tab.systems');
+  await tap(page, 'systems.view.2');
+  const listed = async () => {
+    const out = [];
+    for (let sys = 1; sys <= SYSTEMS; sys++) if ((await widget(page, `round.${sys}.alk`)).found) out.push(sys);
+    return out;
+  };
+  check((await listed()).length === SYSTEMS, 'the round does not list every system at first');
+  // Due a test: the one system whose tests are 40 days old (the others were tested 3 h ago).
+  await tap(page, 'round.scope.1');
+  await page.waitForFunction(() => !/Reading the logs/.test(JSON.parse(Module.ccall('tw_test_widget', 'string', ['string'], ['round.listed'])).text),
+    null, { timeout: 60000 });
+  await frames(page, 2);
+  let shown = await listed();
+  console.log(`     due a test: ${shown.join(', ')}; "${(await widget(page, 'round.listed')).text}"`);
+  check(shown.length === 1 && shown[0] === OLD_TESTS, `due a test lists ${shown}, expected only ${OLD_TESTS}`);
+  // A value typed for a system, then a choice that leaves it out: it stays listed (and says why).
+  await tap(page, 'round.7.alk');
+  await enter(page, '7.9');
+  await tap(page, 'round.scope.2');  // chosen: none yet, so the list to choose opens
+  check((await widget(page, 'round.choose.3')).found, 'choosing nothing yet did not open the list to choose');
+  await tap(page, 'round.choose.3');
+  await tap(page, 'round.choose.28');
+  check((await widget(page, 'round.choose.28')).text === 'chosen', 'a tapped system is not marked chosen');
+  await page.screenshot({ path: join(OUTPUT, 'farm-phone-round-choosing.png') });
+  await tap(page, 'round.choose.done');
+  shown = await listed();
+  check(shown.join(',') === '3,7,28', `chosen 3 and 28 with a value typed for 7: listed ${shown}`);
+  check(/only because values are typed/.test((await widget(page, 'round.listed')).text), 'the typed-only system is not explained');
+  await page.screenshot({ path: join(OUTPUT, 'farm-phone-round-chosen.png') });
+  await tap(page, 'round.3.ca');
+  await enter(page, '431');
+  const before = (await state(page)).events;
+  await tap(page, 'round.save');
+  const saved = await state(page);
+  check(saved.events === before + 2, `saved ${saved.events - before} tests, expected 2 (systems 3 and 7)`);
+  // Saved: system 7 is no longer typed, so only the chosen two remain; the choice survives a reload.
+  shown = await listed();
+  check(shown.join(',') === '3,28', `after the save listed ${shown}`);
+  await flushed(page);
+  await page.reload();
+  await waitReady(page, 60000);
+  await frames(page, 3);
+  await tap(page, 'tab.systems');
+  await tap(page, 'systems.view.2');
+  shown = await listed();
+  check(shown.join(',') === '3,28', `after a reload listed ${shown}`);
+  check((await state(page)).events === saved.events, 'the saved round is not all there after a reload');
+  await context.close();
+  noErrors(errors);
+});
+
 test('farm overview on a desktop (1280x800): the flagged systems first, readable', async () => {
   const { context, page, errors } = await openFarm(DESKTOP);
   const s = await showOverview(page);

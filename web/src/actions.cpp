@@ -61,6 +61,7 @@ void adopt(AppState& app, StoredApp stored) {
     app.demo_system_ids = stored.demo_system_ids;
     app.current_system = stored.current_system;
     app.dosing_by_system = std::move(stored.dosing_by_system);
+    app.round_choice = std::move(stored.round_choice);
   }
   app.ui.dosing.forms_for.reset();  // filled again from what was read (sync_dosing_forms)
   if (!stored.refused.empty()) {
@@ -115,6 +116,7 @@ void apply_store_update(AppState& app, const platform::StoreUpdate& update) {
     app.settings = part->settings;
     app.demo_system_ids = part->demo_system_ids;
     app.dosing_by_system = std::move(part->dosing_by_system);
+    app.round_choice = std::move(part->round_choice);
     app.ui.dosing.forms_for.reset();  // filled again from the settings just read
     ++app.revision;
     return;
@@ -124,10 +126,12 @@ void apply_store_update(AppState& app, const platform::StoreUpdate& update) {
     if (!stored) return;  // the next start reports it (and keeps a copy)
     const Settings keep = app.settings;  // this tab's settings stay as they are
     auto keep_dosing = app.dosing_by_system;  // and so do its Plan and Hatchery settings
+    auto keep_round = app.round_choice;
     const jn::SystemId current = app.current_system;
     adopt(app, std::move(stored).value());
     app.settings = keep;
     app.dosing_by_system = std::move(keep_dosing);
+    app.round_choice = std::move(keep_round);
     if (jn::find_system(app.journal, current)) app.current_system = current;
   } else {
     auto changes = changes_from_text(update.text);

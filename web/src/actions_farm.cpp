@@ -2,6 +2,8 @@
 // typed value is read by the core's number rule and checked by the core's own validate_event
 // (range in the unit typed, the kit precision's range) before any is added; the first refusal
 // leaves the journal as it was and names the system, the field and the accepted range.
+#include <algorithm>
+#include <map>
 #include <variant>
 
 #include "actions.hpp"
@@ -52,6 +54,60 @@ std::string round_unit(const jn::System& sys, int field) {
 
 std::string round_field_name(jn::SystemId id, int field) {
   return "round." + std::to_string(id) + "." + kFieldKeys[field];
+}
+
+bool due_a_test(const FarmRow& row) {
+  bool any_test = false;
+  for (const FarmLevel& l : row.levels) {
+    if (l.tested && l.stale) return true;
+    any_test = any_test || l.tested;
+  }
+  return !any_test;
+}
+
+std::vector<jn::SystemId> round_systems(const AppState& app) {
+  const RoundChoice& choice = app.round_choice;
+  std::map<jn::SystemId, bool> due;  // from the overview's rows, when built
+  if (choice.scope == RoundScope::Due) {
+    for (const FarmRow& row : app.ui.farm.cache.rows) due[row.id] = due_a_test(row);
+  }
+  std::vector<jn::SystemId> out;
+  for (const jn::System& sys : app.journal.systems) {
+    const auto typed = app.ui.farm.round.typed.find(sys.id);
+    const bool has_typed = typed != app.ui.farm.round.typed.end() &&
+                           std::any_of(typed->second.begin(), typed->second.end(),
+                                       [](const std::string& t) { return !trimmed(t).empty(); });
+    bool listed = has_typed;
+    switch (choice.scope) {
+      case RoundScope::All: listed = true; break;
+      case RoundScope::Due: {
+        const auto d = due.find(sys.id);
+        listed = listed || d == due.end() || d->second;
+        break;
+      }
+      case RoundScope::Chosen:
+        listed = listed || std::binary_search(choice.chosen.begin(), choice.chosen.end(), sys.id);
+        break;
+    }
+    if (listed) out.push_back(sys.id);
+  }
+  return out;
+}
+
+void toggle_round_system(AppState& app, jn::SystemId id) {
+  auto& chosen = app.round_choice.chosen;
+  const auto at = std::lower_bound(chosen.begin(), chosen.end(), id);
+  if (at != chosen.end() && *at == id) {
+    chosen.erase(at);
+  } else {
+    chosen.insert(at, id);
+  }
+  save(app);  // a preference: no result depends on it (no new revision)
+}
+
+void set_round_scope(AppState& app, RoundScope scope) {
+  app.round_choice.scope = scope;
+  save(app);
 }
 
 int save_round(AppState& app) {

@@ -254,6 +254,7 @@ struct AppState {
   std::vector<tw::journal::SystemId> demo_system_ids;  // systems that came from the demo
   // The Plan and Hatchery settings of each system that has any other than the defaults (saved).
   std::map<tw::journal::SystemId, SystemDosing> dosing_by_system;
+  RoundChoice round_choice;  // which systems the round of tests lists (saved)
   std::int64_t demo_shift_s = 0;  // how far the demo's times were moved forward when loaded (whole days)
   WaterInputs water;
   WaterPrecision water_precision;

@@ -3,6 +3,7 @@
 
 #include <cstdint>
 #include <string>
+#include <vector>
 
 #include "app_state.hpp"
 
@@ -24,6 +25,20 @@ std::string farm_demand_text(const FarmRow& row, size_t i);
 // each first; on the first refusal nothing is saved and the form's error names the system, the
 // field and the accepted range. Empty fields are skipped. Returns how many tests were saved.
 int save_round(AppState& app);
+
+// A system is due a test when it has no test of alkalinity, calcium or magnesium, or the newest
+// test of one it is tested for is too old to say today's level (estimate::is_stale, the rule
+// that marks a level "old" on the overview).
+bool due_a_test(const FarmRow& row);
+
+// The systems the round of tests lists, in journal order: app.round_choice's, plus every system
+// with a value typed. Due a test needs the overview's rows (refresh_farm builds them over a few
+// frames); a system they do not cover yet counts as due.
+std::vector<tw::journal::SystemId> round_systems(const AppState& app);
+
+// Adds or takes away a system from the keeper's choice of the round's systems, and saves it.
+void toggle_round_system(AppState& app, tw::journal::SystemId id);
+void set_round_scope(AppState& app, RoundScope scope);
 
 // A round field's parameter (alkalinity, calcium, magnesium, pH) and the unit it is typed in:
 // the system's own (journal spelling, as the Log form logs it).

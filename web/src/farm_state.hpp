@@ -71,6 +71,17 @@ struct FarmBuild {
   int frames = 0;
 };
 
+// Which systems the round of tests lists (saved in the app part, store.hpp "round"): every
+// system, those due a test (due_a_test, farm.hpp), or the keeper's own choice (a rack tested
+// together each morning). A system with a value typed stays listed whatever the choice, so Save
+// never saves a value the screen does not show.
+enum class RoundScope { All, Due, Chosen };
+struct RoundChoice {
+  RoundScope scope = RoundScope::All;
+  std::vector<tw::journal::SystemId> chosen;  // ascending
+  bool operator==(const RoundChoice&) const = default;
+};
+
 // The round of tests: one time for all, and per system the text typed for alkalinity,
 // calcium, magnesium and pH (kept as typed; the core checks them all on Save).
 inline constexpr int kRoundFields = 4;
@@ -79,6 +90,7 @@ struct RoundForm {
   std::map<tw::journal::SystemId, std::array<std::string, kRoundFields>> typed;
   std::string error;       // the refusal of the last Save, naming system, field and range
   std::string error_field; // widget name of the refused field (drawn with the error)
+  bool choosing = false;   // the list to choose the round's systems is open
 };
 
 struct FarmState {

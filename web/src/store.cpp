@@ -2,6 +2,8 @@
 // read by the core (journal_file.hpp); this file only adds the "app" member.
 #include "store.hpp"
 
+#include <algorithm>
+
 #include <nlohmann/json.hpp>
 
 #include "dosing_saved.hpp"
@@ -56,6 +58,34 @@ void limits_from_json(const json& j, std::array<double, tw::plan::kLimitCount>& 
 }  // namespace
 
 namespace {
+const char* const kRoundScopeNames[] = {"all", "due", "chosen"};
+
+json round_choice_to_json(const RoundChoice& r, const jn::Journal& journal) {
+  json ids = json::array();
+  for (jn::SystemId id : r.chosen) {
+    if (jn::find_system(journal, id)) ids.push_back(id);  // a removed system's id goes
+  }
+  return {{"scope", kRoundScopeNames[static_cast<int>(r.scope)]}, {"systems", ids}};
+}
+
+// An unknown scope keeps All; ids of systems not in the journal are dropped.
+RoundChoice round_choice_from_json(const json& j, const jn::Journal& journal) {
+  RoundChoice r;
+  if (!j.is_object()) return r;
+  const std::string scope = j.contains("scope") && j["scope"].is_string() ? j["scope"].get<std::string>() : "";
+  for (int i = 0; i < 3; ++i) {
+    if (scope == kRoundScopeNames[i]) r.scope = static_cast<RoundScope>(i);
+  }
+  if (j.contains("systems") && j["systems"].is_array()) {
+    for (const auto& id : j["systems"]) {
+      if (id.is_number_integer() && jn::find_system(journal, id.get<jn::SystemId>())) r.chosen.push_back(id.get<jn::SystemId>());
+    }
+  }
+  std::sort(r.chosen.begin(), r.chosen.end());
+  r.chosen.erase(std::unique(r.chosen.begin(), r.chosen.end()), r.chosen.end());
+  return r;
+}
+
 json app_part_json(const AppState& app) {
   json a;
   a["schema_version"] = kAppSchemaVersion;
@@ -68,6 +98,7 @@ json app_part_json(const AppState& app) {
   a["current_system"] = app.current_system;
   a["demo_system_ids"] = app.demo_system_ids;
   a["dosing_by_system"] = dosing_to_json(app.dosing_by_system, app.journal);
+  a["round"] = round_choice_to_json(app.round_choice, app.journal);
   return a;
 }
 }  // namespace
@@ -121,6 +152,7 @@ tw::Result<bool> read_app_part(const json& app_part, StoredApp& out) {
   if (app_part.contains("dosing_by_system")) {
     out.dosing_by_system = dosing_from_json(app_part["dosing_by_system"], journal, &out.refused);
   }
+  if (app_part.contains("round")) out.round_choice = round_choice_from_json(app_part["round"], journal);
   return true;
 }
 

@@ -3,9 +3,11 @@
 // own part, schema-versioned:
 //   { "format": "tidewright-journal", "schema_version": 2, ...systems, events...,
 //     "app": { "schema_version": 1, "settings": {...}, "current_system": 3, "demo_system_ids": [1],
-//              "dosing_by_system": {"3": {"plan": {...}, "hatchery": {...}}} } }
-// (dosing_by_system: the Plan and Hatchery settings per system, dosing_saved.hpp; added without
-// a new schema_version: an older build ignores it.)
+//              "dosing_by_system": {"3": {"plan": {...}, "hatchery": {...}}},
+//              "round": {"scope": "all"|"due"|"chosen", "systems": [3, 5]} } }
+// (dosing_by_system: the Plan and Hatchery settings per system, dosing_saved.hpp; round: which
+// systems the round of tests lists, farm_state.hpp RoundChoice. Both added without a new
+// schema_version: an older build ignores them.)
 // The same text is what Export writes and Import reads (Import also takes a bare journal).
 #pragma once
 
@@ -28,6 +30,7 @@ struct StoredApp {
   tw::journal::SystemId current_system = 0;
   std::vector<tw::journal::SystemId> demo_system_ids;
   std::map<tw::journal::SystemId, SystemDosing> dosing_by_system;
+  RoundChoice round_choice;
   std::vector<std::string> refused;  // saved settings refused (default used), one line each
   bool had_app_part = false;  // false for a bare journal file
 };
