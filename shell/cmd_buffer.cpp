@@ -303,35 +303,24 @@ std::string notes_text(const std::vector<std::string>& warnings, const std::vect
   return out;
 }
 
-void run_flow(const BufferOptions& o) {
-  const hy::Water w = water_of(o, false);
-  hy::Settings s = settings_of(o);
-  add_confidence(o, w, s);
-  const double flow = flow_l_per_min(o);
-  const hy::FlowPlan p = or_fail(hy::plan_flow(w, flow, s));
-  if (o.json) {
-    json lines = json::array();
-    for (const auto& l : p.lines) {
-      lines.push_back({{"compound", hy::to_string(l.compound)}, {"formula", hy::formula_of(l.compound)},
-                       {"umol_per_kg", l.umol_per_kg}, {"grams_per_hour", l.grams_per_hour},
-                       {"grams_per_day", l.grams_per_day}, {"stock_g_per_l", l.stock_g_per_l},
-                       {"stock_saturation_g_per_l", l.saturation_g_per_l},
-                       {"stock_temperature_c", s.stock.temperature_c}, {"pump_ml_per_min", l.pump_ml_per_min},
-                       {"stock_litres_per_day", l.stock_litres_per_day},
-                       {"injection_dilution_needed", l.injection_dilution_needed},
-                       {"full_mixing_dilution", l.full_mixing_dilution}});
-    }
-    json out = {{"mode", "flow"}, {"flow_l_per_min", flow}, {"additive", hy::to_string(s.buffer)},
-                {"treatment", treatment_json(p.treatment)}, {"lines", lines},
-                {"salt_mix", salt_mix_json(w)}, {"confidence", confidence_json(p.treatment)},
-                {"warnings", p.warnings}, {"cautions", p.cautions}};
-    std::cout << out.dump(2) << "\n";
-    return;
+// One metering pump per compound, as `buffer flow --json` and `buffer line --flow --json` print it.
+json stock_lines_json(const hy::FlowPlan& p, const hy::Settings& s) {
+  json lines = json::array();
+  for (const auto& l : p.lines) {
+    lines.push_back({{"compound", hy::to_string(l.compound)}, {"formula", hy::formula_of(l.compound)},
+                     {"umol_per_kg", l.umol_per_kg}, {"grams_per_hour", l.grams_per_hour},
+                     {"grams_per_day", l.grams_per_day}, {"stock_g_per_l", l.stock_g_per_l},
+                     {"stock_saturation_g_per_l", l.saturation_g_per_l},
+                     {"stock_temperature_c", s.stock.temperature_c}, {"pump_ml_per_min", l.pump_ml_per_min},
+                     {"stock_litres_per_day", l.stock_litres_per_day},
+                     {"injection_dilution_needed", l.injection_dilution_needed},
+                     {"full_mixing_dilution", l.full_mixing_dilution}});
   }
-  std::string out = "Intake buffering, flow-through\n";
-  out += fmt::format("  flow: {:.2f} L/min ({:.3f} m3/h)\n", flow, hy::flow_from_l_per_min(flow, hy::FlowUnit::CubicMetrePerHour));
-  out += header_text(w, s);
-  out += "\nDose\n";
+  return lines;
+}
+
+std::string stock_lines_text(const hy::FlowPlan& p, const hy::Settings& s) {
+  std::string out;
   if (p.lines.empty()) out += "  none needed\n";
   for (const auto& l : p.lines) {
     out += fmt::format("  {:<7} {:8.1f} umol/kg  {:9.2f} g/h  ({:.0f} g/day)\n", hy::formula_of(l.compound),
@@ -341,6 +330,27 @@ void run_flow(const BufferOptions& o) {
     out += fmt::format("          metering pump {:.2f} mL/min ({:.1f} L of stock per day)\n", l.pump_ml_per_min,
                        l.stock_litres_per_day);
   }
+  return out;
+}
+
+void run_flow(const BufferOptions& o) {
+  const hy::Water w = water_of(o, false);
+  hy::Settings s = settings_of(o);
+  add_confidence(o, w, s);
+  const double flow = flow_l_per_min(o);
+  const hy::FlowPlan p = or_fail(hy::plan_flow(w, flow, s));
+  if (o.json) {
+    json out = {{"mode", "flow"}, {"flow_l_per_min", flow}, {"additive", hy::to_string(s.buffer)},
+                {"treatment", treatment_json(p.treatment)}, {"lines", stock_lines_json(p, s)},
+                {"salt_mix", salt_mix_json(w)}, {"confidence", confidence_json(p.treatment)},
+                {"warnings", p.warnings}, {"cautions", p.cautions}};
+    std::cout << out.dump(2) << "\n";
+    return;
+  }
+  std::string out = "Intake buffering, flow-through\n";
+  out += fmt::format("  flow: {:.2f} L/min ({:.3f} m3/h)\n", flow, hy::flow_from_l_per_min(flow, hy::FlowUnit::CubicMetrePerHour));
+  out += header_text(w, s);
+  out += "\nDose\n" + stock_lines_text(p, s);
   if (p.treatment.confidence) out += "\nConfidence\n  " + p.treatment.confidence->summary + "\n";
   out += chemistry_text(p.treatment) + notes_text(p.warnings, p.cautions, p.treatment.calcium_source);
   std::fwrite(out.data(), 1, out.size(), stdout);
@@ -442,7 +452,11 @@ void run_line(const BufferOptions& o) {
     other.calcium_umol_kg = o.mix_calcium;
     c.mix = other;
   }
-  const hy::HatcheryLine line = or_fail(hy::plan_line(w, c, s));
+  // With --flow: the pump rates too, for the conditioned water at the flow through the dose
+  // point (the app's Hatchery screen with the line shown gives the same).
+  std::optional<hy::LineFlowPlan> lf;
+  if (o.flow) lf = or_fail(hy::plan_line_flow(w, c, flow_l_per_min(o), s));
+  const hy::HatcheryLine line = lf ? lf->line : or_fail(hy::plan_line(w, c, s));
   if (o.json) {
     json points = json::array();
     for (const auto& p : line.points) {
@@ -452,6 +466,11 @@ void run_line(const BufferOptions& o) {
     json out = {{"mode", "line"}, {"points", points}, {"treatment", treatment_json(line.treatment)},
                 {"salt_mix", salt_mix_json(line.conditioned)},
                 {"notes", line.notes}, {"warnings", line.treatment.warnings}};
+    if (lf) {
+      out["flow_l_per_min"] = flow_l_per_min(o);
+      out["dosed_flow_l_per_min"] = lf->dosed_flow_l_per_min;
+      out["lines"] = stock_lines_json(lf->flow, s);
+    }
     std::cout << out.dump(2) << "\n";
     return;
   }
@@ -467,6 +486,11 @@ void run_line(const BufferOptions& o) {
   out += "  (TA, DIC and Ca in umol/kg; Omega aragonite)\n";
   out += fmt::format("\nDose on the conditioned water: +{:.1f} umol/kg alkalinity ({})\n",
                      line.treatment.dose.alkalinity_umol_kg(), hy::to_string(s.buffer));
+  if (lf) {
+    out += fmt::format("  at the dose point {:.2f} L/min (intake {:.2f} L/min and the water mixed in)\n",
+                       lf->dosed_flow_l_per_min, flow_l_per_min(o));
+    out += stock_lines_text(lf->flow, s);
+  }
   out += notes_text(line.treatment.warnings,
                     hy::cautions_for(s.buffer == hy::Buffer::SodiumHydroxide ? std::vector{hy::Compound::SodiumHydroxide}
                                      : s.buffer == hy::Buffer::SodiumBicarbonate ? std::vector{hy::Compound::SodiumBicarbonate}
@@ -565,6 +589,8 @@ void register_buffer(CLI::App& app) {
   l->add_option("--mix-dic", line->mix_dic,
                 fmt::format("Its DIC [umol/kg] ({:g}..{:g})", ranges::kMixWaterCarbonUmolKg.lo, ranges::kMixWaterCarbonUmolKg.hi))->default_str("0");
   l->add_option("--mix-calcium", line->mix_calcium, "Its calcium [umol/kg] (0..50000)")->default_str("0");
+  l->add_option("--flow", line->flow, "Intake flow, in --flow-unit: adds the pump rates for the conditioned water");
+  l->add_option("--flow-unit", line->flow_unit, "L/min or m3/h")->default_str("L/min");
   l->add_option("--tank-temperature", line->tank_temperature, fmt::format("Temperature at the tanks after heating or cooling [C] ({:g}..{:g})",
                             ranges::kTemperatureC.lo, ranges::kTemperatureC.hi));
   l->callback([line] { run_line(*line); });

@@ -90,11 +90,13 @@ test('salt mix: measured boron and the Mg/Ca correction change the dose and are 
 });
 
 // The same intake and conditioning through the command line.
-function cliLine(tankC, fraction) {
+// With flow (L/min at the intake), its pump rates for the conditioned water too.
+function cliLine(tankC, fraction, flow) {
   const out = execFileSync(cli, ['buffer', 'line', '--salinity', '33', '--temperature', '18', '--alkalinity', '6.2',
     '--alkalinity-unit', 'dKH', '--ph', '7.75', '--ph-scale', 'total', '--target-omega', '2', '--tank-temperature', String(tankC),
-    '--mix-fraction', String(fraction), '--mix-salinity', '0', '--mix-temperature', '20', '--json'], { encoding: 'utf8' });
-  return JSON.parse(out).points;
+    '--mix-fraction', String(fraction), '--mix-salinity', '0', '--mix-temperature', '20', '--json',
+    ...(flow ? ['--flow', String(flow)] : [])], { encoding: 'utf8' });
+  return JSON.parse(out);
 }
 
 for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
@@ -109,8 +111,20 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(h.line_error === '' && h.line.length === 4, `line: ${h.line_error} ${h.line.length} points`);
     check(h.line[1].temperature_c === 24, `conditioned temperature ${h.line[1].temperature_c}, typed 24`);
     check(h.line[1].salinity < h.line[0].salinity, 'mixing with fresh water did not lower the salinity');
-    const ref = cliLine(24, 0.2);
+    const full = cliLine(24, 0.2, 100);  // the form's intake flow, 100 L/min
+    const ref = full.points;
     check(ref.length === 4, `the command line gave ${ref.length} points`);
+    // The pump rates follow the line: the conditioned water at the intake flow plus the fresh
+    // water mixed in (100 / 0.8 L/min), as the command line's `buffer line --flow` gives them.
+    check(Math.abs(h.dosed_flow_l_per_min - 125) < 1e-9 && Math.abs(full.dosed_flow_l_per_min - 125) < 1e-9,
+      `dosed flow: app ${h.dosed_flow_l_per_min}, command line ${full.dosed_flow_l_per_min}, expected 125 L/min`);
+    check(h.pumps.length === full.lines.length && h.pumps.length > 0, `pumps: app ${JSON.stringify(h.pumps)}, command line ${full.lines.length}`);
+    for (let i = 0; i < h.pumps.length; i++) {
+      const a = h.pumps[i], b = full.lines[i];
+      check(a.formula === b.formula && Math.abs(a.pump_ml_per_min - b.pump_ml_per_min) < 1e-9 && Math.abs(a.grams_per_hour - b.grams_per_hour) < 1e-9,
+        `pump ${i}: app ${JSON.stringify(a)} vs command line ${b.formula} ${b.pump_ml_per_min} mL/min ${b.grams_per_hour} g/h`);
+    }
+    console.log(`     pump through the line: ${h.pumps.map((p) => `${p.formula} ${p.pump_ml_per_min.toFixed(2)} mL/min`).join(', ')} at ${h.dosed_flow_l_per_min} L/min (command line ${full.lines.map((p) => p.pump_ml_per_min.toFixed(2)).join(', ')})`);
     for (let i = 0; i < 4; i++) {
       const a = h.line[i], b = ref[i];
       check(a.omega_aragonite.toFixed(2) === b.state.omega_aragonite.toFixed(2) && a.ph_total.toFixed(2) === b.state.ph_total.toFixed(2) &&

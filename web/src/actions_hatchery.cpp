@@ -113,30 +113,38 @@ hat::Settings settings_of(const HatcheryForm& f) {
   return s;
 }
 
+// Flow-through: the dose and pump rates on the intake as read, or, with the line shown, on the
+// conditioned water at the flow through the dose point (hatchery::plan_line_flow), and the
+// pump-side table likewise; a refused line gives no pump rates (they would be the intake's).
 void compute_flow(const HatcheryForm& f, const hat::Water& water, const hat::Settings& s, HatcheryCache& out) {
-  auto plan = hat::plan_flow(water, f.flow_l_per_min, s);
-  if (plan) {
-    out.flow = std::move(plan).value();
+  if (f.line_shown) {
+    auto lf = hat::plan_line_flow(water, conditioning_of(f), f.flow_l_per_min, s);
+    if (lf) {
+      out.dosed_flow_l_per_min = lf->dosed_flow_l_per_min;
+      out.flow = std::move(lf->flow);
+      out.line = std::move(lf->line);
+    } else {
+      out.line_error = refusal_text(lf.error(), f);
+      out.error = "No pump rates while the line is refused (see the line): " + out.line_error;
+    }
   } else {
-    out.error = refusal_text(plan.error(), f);
+    auto plan = hat::plan_flow(water, f.flow_l_per_min, s);
+    if (plan) {
+      out.flow = std::move(plan).value();
+    } else {
+      out.error = refusal_text(plan.error(), f);
+    }
   }
   if (f.show_table) {
     hat::Water varied = water;
     varied.measurements = {{cb::Quantity::PH, f.ph}, water.measurements.first, f.ph_scale};
     const hat::TableRange range{cb::Quantity::PH, f.table_from_ph, f.table_to_ph, f.table_step_ph};
-    auto table = hat::build_pump_table(varied, f.flow_l_per_min, range, s);
+    auto table = f.line_shown ? hat::build_line_pump_table(varied, conditioning_of(f), f.flow_l_per_min, range, s)
+                              : hat::build_pump_table(varied, f.flow_l_per_min, range, s);
     if (table) {
       out.table = std::move(table).value();
     } else {
       out.table_error = refusal_text(table.error(), f);
-    }
-  }
-  if (f.line_shown) {
-    auto line = hat::plan_line(water, conditioning_of(f), s);
-    if (line) {
-      out.line = std::move(line).value();
-    } else {
-      out.line_error = refusal_text(line.error(), f);
     }
   }
 }

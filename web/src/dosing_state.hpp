@@ -139,6 +139,7 @@ struct HatcheryCache {
   // The line, when shown (flow-through): its four points, or the core's refusal.
   std::optional<tw::hatchery::HatcheryLine> line;
   std::string line_error;
+  double dosed_flow_l_per_min = 0;  // with the line: the flow at the dose point (intake + mixed-in water)
   // Where total boron came from for the dose (carbonate::boron_source of the intake water).
   tw::carbonate::BoronSource boron;
   // The core's suggestion of another K1 K2 set for this water (carbonate::suggest_k1k2).

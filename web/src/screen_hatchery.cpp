@@ -264,10 +264,16 @@ void confidence_line(AppState& app, const hat::Treatment& t) {
   ui::record(app, "hatchery.confidence_result");
 }
 
-void draw_flow_result(AppState& app, const hat::FlowPlan& p) {
+void draw_flow_result(AppState& app, const hat::FlowPlan& p, const HatcheryCache& c) {
   ui::card_begin(app);
   ui::heading(app, p.treatment.dose_needed ? "Dose" : "No dose needed");
-  if (!p.treatment.dose_needed) ui::wrapped("The intake already meets the target.");
+  if (c.line) {
+    ui::dim_text("Through the line: for the conditioned water, at the flow where the dose goes in.");
+    ui::label_value(app, "Flow at the dose", fmtx::fixed(c.dosed_flow_l_per_min, 1) + " L/min");
+    ui::record(app, "hatchery.dosed_flow");
+    app.ui.widgets["hatchery.dosed_flow"].text = fmtx::fixed(c.dosed_flow_l_per_min, 3);
+  }
+  if (!p.treatment.dose_needed) ui::wrapped(c.line ? "The conditioned water already meets the target." : "The intake already meets the target.");
   for (const hat::StockLine& l : p.lines) {
     ImGui::PushFont(app.ui.fonts.bold);
     ImGui::TextUnformatted((std::string(hat::to_string(l.compound)) + " (" + hat::formula_of(l.compound) + ")").c_str());
@@ -382,8 +388,8 @@ void draw_line_result(AppState& app, const HatcheryCache& c) {
   const double dkh = tw::units::alkalinity_from_umol_kg(line.treatment.dose.alkalinity_umol_kg(), tw::units::AlkalinityUnit::DKH,
                                                         tw::seawater::density_kg_per_l(dosed.salinity, dosed.temperature_c));
   ui::wrapped(("Dose planned on the conditioned water: +" + fmtx::alkalinity_text(dkh, u.alkalinity) +
-               " of alkalinity. The pump rates above are for the intake "
-               "as read; when the water is heated, cooled or mixed before the dose, this is what the dose must add.")
+               " of alkalinity. The pump rates and the pump-side table follow the line while it is shown: "
+               "they are for this water, at the intake flow plus any water mixed in.")
                   .c_str());
   ui::record(app, "hatchery.line.dose");
   for (const std::string& n : line.notes) ui::dim_text(("\u2022 " + n).c_str());
@@ -499,7 +505,7 @@ void draw_hatchery(AppState& app) {
   }
   const std::vector<std::string>* cautions = nullptr;
   if (c.flow) {
-    draw_flow_result(app, *c.flow);
+    draw_flow_result(app, *c.flow, c);
     cautions = &c.flow->cautions;
   }
   if (c.batch) {

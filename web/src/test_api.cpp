@@ -254,6 +254,16 @@ std::string state_json() {
       }
     }
     h["line"] = points;
+    // The pump rates shown (for the line's conditioned water while the line is shown).
+    json pumps = json::array();
+    if (hc.flow) {
+      for (const auto& l : hc.flow->lines) {
+        pumps.push_back({{"formula", tw::hatchery::formula_of(l.compound)}, {"pump_ml_per_min", l.pump_ml_per_min},
+                         {"grams_per_hour", l.grams_per_hour}});
+      }
+    }
+    h["pumps"] = pumps;
+    h["dosed_flow_l_per_min"] = hc.dosed_flow_l_per_min;
     j["hatchery"] = h;
   }
   // The current system's schedules running now or starting later (as the Log screen lists them).

@@ -2,6 +2,7 @@
 // flow-through, batch and table modes share (hatchery_dose.cpp).
 #pragma once
 
+#include <functional>
 #include <string>
 
 #include "tidewright/carbonate/carbonate.hpp"
@@ -59,5 +60,11 @@ Result<BlendSearch> blend_for_target(const Line& line, const Settings& settings,
 // Settings::confidence set: the dose for the raised target under the lowered ceiling
 // (hatchery_confidence.cpp); plan_treatment calls it.
 Result<Treatment> treatment_to_confidence(const Water& water, const Settings& settings);
+
+// The pump-side table with each row's plan made by row_plan from the water with that row's
+// reading (plan_flow for the intake; plan_line_flow for the water through the line).
+using RowPlan = std::function<Result<FlowPlan>(const Water& water_with_reading)>;
+Result<PumpTable> build_table_with(const Water& intake, double flow_l_per_min, const TableRange& range,
+                                   const Settings& settings, const RowPlan& row_plan);
 
 }  // namespace tw::hatchery::detail

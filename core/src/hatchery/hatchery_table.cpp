@@ -49,8 +49,9 @@ int decimals_of(cb::Quantity q) { return q == cb::Quantity::PH ? 2 : 0; }
 
 }  // namespace
 
-Result<PumpTable> build_pump_table(const Water& intake, double flow_l_per_min,
-                                   const TableRange& range, const Settings& settings) {
+namespace detail {
+Result<PumpTable> build_table_with(const Water& intake, double flow_l_per_min, const TableRange& range,
+                                   const Settings& settings, const RowPlan& row_plan) {
   if (auto r = ranges::check("flow", flow_l_per_min, ranges::kIntakeFlowLPerMin); !r) return r.error();
   if (auto v = detail::validate_settings(settings); !v) return v.error();
   if (!std::isfinite(range.step) || range.step <= 0.0) {
@@ -88,7 +89,7 @@ Result<PumpTable> build_pump_table(const Water& intake, double flow_l_per_min,
     row.grams_per_hour.assign(t.columns.size(), 0.0);
     Water w = intake;
     w.measurements.first.value = row.reading;
-    auto plan = plan_flow(w, flow_l_per_min, settings);
+    auto plan = row_plan(w);
     if (!plan) {
       row.note = plan.error().message;
       t.rows.push_back(row);
@@ -115,6 +116,13 @@ Result<PumpTable> build_pump_table(const Water& intake, double flow_l_per_min,
     t.rows.push_back(row);
   }
   return t;
+}
+}  // namespace detail
+
+Result<PumpTable> build_pump_table(const Water& intake, double flow_l_per_min,
+                                   const TableRange& range, const Settings& settings) {
+  return detail::build_table_with(intake, flow_l_per_min, range, settings,
+                                  [&](const Water& w) { return plan_flow(w, flow_l_per_min, settings); });
 }
 
 std::string pump_table_csv(const PumpTable& t) {
@@ -169,6 +177,7 @@ std::string pump_table_text(const PumpTable& t) {
                      t.settings.target_point == TargetPoint::AtTanks ? "at the tanks" : "after mixing",
                      t.settings.limits.ph_ceiling, cb::to_string(t.settings.limits.ph_ceiling_scale),
                      to_string(t.settings.buffer));
+  if (!t.line_note.empty()) out += "  " + t.line_note + "\n";
   out += fmt::format("  K1 K2 {}; {}\n", cb::to_string(t.fixed.k1k2), t.calcium_source);
   for (size_t k = 0; k < t.columns.size(); ++k) {
     out += fmt::format("  stock {}: {:.1f} g/L (anhydrous, made up to volume, kept at {:g} C)\n",

@@ -2,7 +2,10 @@
 // saturation at each point. Check values worked by hand.
 #include <doctest/doctest.h>
 
+#include <cmath>
+
 #include "tidewright/hatchery/hatchery_line.hpp"
+#include "tidewright/seawater/seawater.hpp"
 
 using namespace tw::hatchery;
 namespace cb = tw::carbonate;
@@ -158,5 +161,88 @@ TEST_CASE("hatchery: a salt mix's measured boron and magnesium mix by mass along
     // at 15 C, 0 dbar, UNESCO 1983) = 0.250706.
     const double x = 0.250706;
     CHECK(*line->conditioned.magnesium_umol_kg == doctest::Approx((1 - x) * 40000 + x * 52817.1).epsilon(1e-6));
+  }
+}
+
+TEST_CASE("hatchery: pump rates through the line are for the conditioned water at the dosed flow") {
+  Settings s;
+  s.target = {TargetKind::OmegaAragonite, 1.5, cb::PhScale::Total};
+  Water in = intake_s30();
+  in.k1k2 = cb::K1K2Option::Millero2010;
+  const double intake_flow = 100;  // L/min
+
+  SUBCASE("without conditioning the line's rates are plan_flow's on the intake") {
+    auto lf = plan_line_flow(in, Conditioning{}, intake_flow, s);
+    auto direct = plan_flow(in, intake_flow, s);
+    REQUIRE(lf.ok());
+    REQUIRE(direct.ok());
+    CHECK(lf->dosed_flow_l_per_min == doctest::Approx(intake_flow));
+    REQUIRE(lf->flow.lines.size() == direct->lines.size());
+    for (size_t i = 0; i < direct->lines.size(); ++i) {
+      CHECK(lf->flow.lines[i].pump_ml_per_min == doctest::Approx(direct->lines[i].pump_ml_per_min).epsilon(1e-9));
+    }
+  }
+
+  SUBCASE("a quarter fresh water: a third more flow, the line's dose, g/h worked from it") {
+    OtherWater fresh;
+    fresh.volume_fraction = 0.25;
+    fresh.temperature_c = 15;
+    fresh.alkalinity_umol_kg = 800;
+    fresh.dic_umol_kg = 850;
+    fresh.calcium_umol_kg = 1000;
+    Conditioning c;
+    c.mix = fresh;
+    auto lf = plan_line_flow(in, c, intake_flow, s);
+    REQUIRE(lf.ok());
+    // 100 L/min of intake is 3/4 of the dosed flow: 133.33 L/min at the dose point.
+    CHECK(lf->dosed_flow_l_per_min == doctest::Approx(133.3333).epsilon(1e-6));
+    REQUIRE(lf->flow.lines.size() == 1);
+    const StockLine& soda = lf->flow.lines[0];
+    // The dose is the line's own (planned on the conditioned water), not the intake's.
+    CHECK(soda.umol_per_kg == doctest::Approx(lf->line.treatment.dose.alkalinity_umol_kg() / 2).epsilon(1e-9));
+    // g/h = umol/kg x 1e-6 x 105.988 g/mol (Na2CO3, IUPAC atomic weights) x kg/h of the dosed
+    // flow, its density that of the conditioned water (EOS-80 at S 22.63, 15 C).
+    const double rho = tw::seawater::density_kg_per_l(lf->line.conditioned.salinity, lf->line.conditioned.temperature_c);
+    CHECK(soda.grams_per_hour == doctest::Approx(soda.umol_per_kg * 1e-6 * 105.988 * 133.3333 * 60 * rho).epsilon(1e-4));
+    // What a plan on the intake as read would meter (the defect this fixes): the intake is
+    // already above the target, so it doses nothing, while the diluted water needs a dose.
+    auto intake_only = plan_flow(in, intake_flow, s);
+    REQUIRE(intake_only.ok());
+    double intake_only_g_h = 0;
+    for (const StockLine& l : intake_only->lines) intake_only_g_h += l.grams_per_hour;
+    MESSAGE("through the line " << soda.grams_per_hour << " g/h; on the intake as read " << intake_only_g_h << " g/h");
+    CHECK_FALSE(intake_only->treatment.dose_needed);
+    CHECK(soda.grams_per_hour > 1);
+  }
+
+  SUBCASE("the other water as the whole flow is refused, naming the field") {
+    OtherWater sea;
+    sea.volume_fraction = 0.995;
+    sea.salinity = 30;
+    Conditioning c;
+    c.mix = sea;
+    auto lf = plan_line_flow(in, c, intake_flow, s);
+    REQUIRE_FALSE(lf.ok());
+    CHECK(lf.error().field == "mix_fraction");
+    CHECK(lf.error().message.find("accepted 0 to 0.99") != std::string::npos);
+  }
+
+  SUBCASE("the pump-side table through the line: each row conditioned first, as plan_line_flow") {
+    Water ph_in;
+    ph_in.salinity = 30;
+    ph_in.temperature_c = 15;
+    ph_in.k1k2 = cb::K1K2Option::Millero2010;
+    ph_in.measurements = {{cb::Quantity::PH, 7.80}, {cb::Quantity::Alkalinity, 2100}, cb::PhScale::Total};
+    Conditioning c;
+    c.tank_temperature_c = 22;
+    auto table = build_line_pump_table(ph_in, c, intake_flow, {cb::Quantity::PH, 7.70, 7.90, 0.10}, s);
+    REQUIRE(table.ok());
+    REQUIRE(table->rows.size() == 3);
+    auto middle = plan_line_flow(ph_in, c, intake_flow, s);
+    REQUIRE(middle.ok());
+    REQUIRE(table->rows[1].ok);
+    CHECK(table->rows[1].pump_ml_per_min[0] == doctest::Approx(middle->flow.lines[0].pump_ml_per_min).epsilon(1e-9));
+    CHECK(table->line_note.find("brought to 22 C") != std::string::npos);
+    CHECK(pump_table_text(*table).find("through the line") != std::string::npos);
   }
 }

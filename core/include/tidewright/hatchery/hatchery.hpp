@@ -258,6 +258,7 @@ struct PumpTable {
   std::vector<TableRow> rows;
   std::string calcium_source;          // carbonate::calcium_source(...).note for the fixed water
   std::vector<std::string> cautions;
+  std::string line_note;               // build_line_pump_table: the conditioning and the dosed flow
 };
 // `intake.measurements.first` is the varied reading (its value is ignored); the second is
 // held fixed.

@@ -54,4 +54,25 @@ struct HatcheryLine {
 };
 Result<HatcheryLine> plan_line(const Water& intake, const Conditioning& conditioning, const Settings& settings);
 
+// Pump rates for the line (flow-through): the dose plan_line finds on the conditioned water,
+// metered into the flow at the dose point. intake_flow_l_per_min is the intake's own flow; mixing
+// adds the other water's share, so the dosed flow is intake / (1 - volume fraction). The small
+// change of volume on mixing is neglected (our choice: it is far inside a flow meter's error).
+// Errors: the line's, plan_flow's, and field "mix_fraction" when the other water is the whole
+// flow (fraction 1: the intake's flow then says nothing of the dosed flow).
+struct LineFlowPlan {
+  HatcheryLine line;
+  FlowPlan flow;                    // on line.conditioned at dosed_flow_l_per_min
+  double dosed_flow_l_per_min = 0;
+};
+Result<LineFlowPlan> plan_line_flow(const Water& intake, const Conditioning& conditioning,
+                                    double intake_flow_l_per_min, const Settings& settings);
+
+// The pump-side table (build_pump_table) through the line: each row's intake reading is
+// conditioned first, then dosed as plan_line_flow doses it. The table's flow is the dosed flow;
+// line_note says what the conditioning was.
+Result<PumpTable> build_line_pump_table(const Water& intake, const Conditioning& conditioning,
+                                        double intake_flow_l_per_min, const TableRange& range,
+                                        const Settings& settings);
+
 }  // namespace tw::hatchery
