@@ -235,12 +235,21 @@ function checkNoOverlaps(all, where) {
 // top) when the page is wide enough, and keep one column in the same order on a phone. Each
 // pair is a widget of the first pane and one of the second (widget rectangles from the test
 // interface, page coordinates).
-test('wide desktop: two panes side by side on Water, Demand, Plan and Hatchery; one column on a phone', async () => {
+test('wide desktop: two panes side by side on Water, Demand, Plan, Hatchery, Log, Mixes and Settings; one column on a phone', async () => {
   const pairs = {
     water: ['water.omega', 'water.pair.0'],
     demand: ['demand.chart.level', 'demand.forecast_table'],
     plan: ['plan.verdict', 'plan.chart'],
     hatchery: ['hatchery.salinity', 'hatchery.water_table'],
+    log: ['log.parameter.0', 'log.schedule.*'],      // the form; the first running schedule
+    mixes: ['mixes.direction.1', 'mixes.per_ml'],
+    settings: ['settings.alkalinity.0', 'settings.limit.*'],
+  };
+  // A name, or a prefix ending in '*' for the topmost widget whose name starts with it.
+  const pick = (all, name) => {
+    if (!name.endsWith('*')) return all[name];
+    const found = Object.entries(all).filter(([k]) => k.startsWith(name.slice(0, -1))).map(([, r]) => r);
+    return found.sort((p, q) => p.y - q.y)[0];
   };
   for (const [label, size] of [['desktop', DESKTOP], ['phone', PHONE]]) {
     const { context, page } = await open(size);
@@ -248,7 +257,7 @@ test('wide desktop: two panes side by side on Water, Demand, Plan and Hatchery; 
       await tap(page, 'tab.' + screen);
       await frames(page, 4);
       const all = JSON.parse(await page.evaluate(() => Module.ccall('tw_test_widgets', 'string', [], [])));
-      const a = all[first], b = all[second];
+      const a = pick(all, first), b = pick(all, second);
       check(a && b, `${label} ${screen}: ${first} or ${second} not drawn`);
       if (label === 'desktop') {
         check(b.x >= a.x + a.w, `${label} ${screen}: ${second} (x ${b.x.toFixed(0)}) is not right of ${first} (ends at ${(a.x + a.w).toFixed(0)})`);

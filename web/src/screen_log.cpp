@@ -104,8 +104,8 @@ void draw_history(AppState& app, const jn::System& sys) {
 
 void draw_log(AppState& app) {
   const jn::System* sys = current_system(app);
-  ui::heading(app, app.ui.log.editing ? "Change an entry" : "Log");
   if (!sys) {
+    ui::heading(app, "Log");
     ui::dim_text("Add a system first (Systems tab): every entry belongs to one system.");
     return;
   }
@@ -114,9 +114,13 @@ void draw_log(AppState& app) {
     const jn::Event* e = jn::find_event(app.journal, f.editing);
     if (!e || e->system_id != sys->id) f = LogForm{};
   }
+  ui::panes_begin(app);  // wide: the form beside the schedules and the recent entries
+  ui::heading(app, f.editing ? "Change an entry" : "Log");
   draw_entry_form(app, *sys, f);
+  ui::panes_next(app);
   draw_schedules(app, *sys);
   draw_history(app, *sys);
+  ui::panes_end(app);
 }
 
 }  // namespace twapp

@@ -189,11 +189,13 @@ void draw_solubility(AppState& app, const MixesCache& c) {
 // ---------------------------------------------------------------- 4. The screen
 void draw_mixes(AppState& app) {
   MixesForm& f = app.ui.dosing.mixes;
+  ui::panes_begin(app);  // wide: the recipe beside what it makes
   ui::heading(app, "Stock solutions");
   int dir = static_cast<int>(f.direction);
   const char* const dirs[] = {"From a recipe", "For an effect"};
   if (ui::choice(app, "mixes.direction", "", &dir, dirs, 2)) f.direction = static_cast<MixDirection>(dir);
   draw_form(app, f);
+  ui::panes_next(app);
   refresh_mixes(app);
   const MixesCache& c = app.ui.dosing.mixes_cache;
   if (!c.error.empty()) {
@@ -209,6 +211,7 @@ void draw_mixes(AppState& app) {
     for (const std::string& line : c.cautions) ui::colored_wrapped(theme::kWarning, ("\u2022 " + line).c_str());
     ui::record(app, "mixes.cautions");
   }
+  ui::panes_end(app);
 }
 
 }  // namespace twapp

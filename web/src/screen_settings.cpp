@@ -104,6 +104,7 @@ int index_of(const T (&values)[N], T v) {
 void draw_settings(AppState& app) {
   const jn::System* sys = current_system(app);
   jn::UnitPreferences u = sys ? sys->units : app.settings.units;
+  ui::panes_begin(app);  // wide: how the app shows things beside the limits and the data
   ui::heading(app, "Units");
   ui::dim_text(sys ? ("Used for " + sys->name + " and for new systems.").c_str() : "Used for new systems.");
   bool units_changed = false;
@@ -150,12 +151,14 @@ void draw_settings(AppState& app) {
   }
   ui::dim_text("How the Water screen puts its constants on the total pH scale. CO2SYS / PyCO2SYS: as the reference software of oceanography does (the default). 2007 Guide: as printed in Dickson, Sabine & Christian (2007). They differ by at most 0.004 in pH on the seawater and NBS scales.");
 
+  ui::panes_next(app);
   draw_safety_limits(app);
 
   draw_settings_data(app);  // settings_data.cpp: exports, import and its preview
 
   ui::heading(app, "Care");
   ui::dim_text("Tidewright's numbers come from published seawater chemistry, but your test kits, your animals and your dosing are your responsibility. Change alkalinity slowly; sodium hydroxide and limewater are caustic (wear eye protection, add slowly, never into a tank with the pump off). Hatcheries and farms producing food follow their local codes and licensed practice.");
+  ui::panes_end(app);
 }
 
 }  // namespace twapp
