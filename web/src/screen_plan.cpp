@@ -152,15 +152,19 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   // The magnesium level gets its own column when a pump doses it.
   const bool mg = std::any_of(del.begin(), del.end(), [](const pl::Delivery& d) { return d.additive.per_unit.magnesium_mol > 0; });
   const int cols = 3 + static_cast<int>(del.size()) + (mg ? 1 : 0);
+  // On a phone, three pumps and three levels leave no room for the 95 % bands: the levels
+  // alone (the chart above shades the bands).
+  const bool bands = plan.uncertainty && ImGui::GetContentRegionAvail().x >= 7.0f * ui::em(app) * static_cast<float>(cols);
+  const std::optional<pl::Band95> none;
   // The columns are named by pump; say what each pump doses. A pump whose calibration is not 1
   // shows the amount to SET on it (dose / calibration), and its column says so.
   ui::dim_text(pump_legend(del).c_str());
   if (ImGui::BeginTable("##days", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
     ImGui::TableSetupColumn("Day");
     for (const auto& d : del) ImGui::TableSetupColumn(pump_column_title(d).c_str());
-    ImGui::TableSetupColumn(plan.uncertainty ? "dKH end (95%)" : "dKH end");
-    ImGui::TableSetupColumn(plan.uncertainty ? "Ca end (95%)" : "Ca end");
-    if (mg) ImGui::TableSetupColumn(plan.uncertainty ? "Mg end (95%)" : "Mg end");
+    ImGui::TableSetupColumn(bands ? "dKH end (95%)" : "dKH end");
+    ImGui::TableSetupColumn(bands ? "Ca end (95%)" : "Ca end");
+    if (mg) ImGui::TableSetupColumn(bands ? "Mg end (95%)" : "Mg end");
     ImGui::TableHeadersRow();
     const size_t shown = f.show_all_days ? plan.days.size() : std::min<size_t>(plan.days.size(), 7);
     for (size_t i = 0; i < shown; ++i) {
@@ -173,12 +177,12 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
         ImGui::TextUnformatted(fmtx::fixed(del[k].set_amount(d.amount_per_delivery[k]), 1).c_str());
       }
       ImGui::TableNextColumn();
-      ImGui::TextUnformatted(level_with_band(d.end.alkalinity_dkh, d.end_band[0], 2).c_str());
+      ImGui::TextUnformatted(level_with_band(d.end.alkalinity_dkh, bands ? d.end_band[0] : none, 2).c_str());
       ImGui::TableNextColumn();
-      ImGui::TextUnformatted(level_with_band(d.end.calcium_mg_l, d.end_band[1], 0).c_str());
+      ImGui::TextUnformatted(level_with_band(d.end.calcium_mg_l, bands ? d.end_band[1] : none, 0).c_str());
       if (mg) {
         ImGui::TableNextColumn();
-        ImGui::TextUnformatted(level_with_band(d.end.magnesium_mg_l, d.end_band[2], 0).c_str());
+        ImGui::TextUnformatted(level_with_band(d.end.magnesium_mg_l, bands ? d.end_band[2] : none, 0).c_str());
       }
     }
     ImGui::EndTable();
