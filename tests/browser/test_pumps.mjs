@@ -11,13 +11,21 @@
 //    0.9 and set amounts of the plan's dose / 0.9 on the pump's 0.1 mL step.
 //   node test_pumps.mjs [site-dir]      (default ../../build/web/site)
 // The command line: TW_CLI, else ../../build/native/shell/tidewright.
-// Screenshot: tests/browser/output/pumps-phone-plan.png (the pump section).
+//  - a magnesium stock and pump set by taps (the demo's hand-dosed magnesium chloride is the
+//    default): Epsom salt shows its sulfate caution, a strength over the solubility is refused
+//    with field and range, a name another pump has is refused; each pump's own doses a day and
+//    largest dose (alkalinity 2 a day, calcium 6) show in the legend and the day's doses; a
+//    reload keeps them; the command line's plan of the same input gives the same doses, the
+//    magnesium pump's too; adopting writes the three schedules;
+//  - an old saved store with one doses a day and largest dose for both pumps gives each pump those.
+// Screenshots: tests/browser/output/pumps-phone-plan.png (the pump section),
+// pumps-phone-magnesium.png (the magnesium card), pumps-phone-days.png (the day table).
 import { resolve, join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, waitReady, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase,
+import { launch, PHONE_1X as PHONE, waitReady, editSavedSettings, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase,
   benign, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
@@ -89,6 +97,11 @@ test('pumps: name and calibration of the alkalinity pump on the Plan, refused va
   check(pump.name === demoPump.device && pump.calibration === demoPump.calibration && pump.from_schedule,
         `default alkalinity pump ${JSON.stringify(pump)}, schedule ${demoPump.device} ${demoPump.calibration}`);
   check(s.dosing_forms.plan.alkalinity_pump_name === null, 'a name is stored before the keeper set one');
+  // The demo's soda-ash pump doses twice a day (its schedule, so the plan's default); at that
+  // the largest change of alkalinity from one dose holds doses back and the plan cannot hold
+  // (the next test shows it). Four a day, as the keeper's own, holds.
+  check(s.plan_basis.pumps[0].doses_per_day === demoPump.doses_per_day, `alkalinity pump doses a day ${s.plan_basis.pumps[0].doses_per_day}, schedule ${demoPump.doses_per_day}`);
+  await type(page, 'plan.alk_pump.doses_per_day', '4');
 
   await type(page, 'plan.alk_pump.name', '  Left doser ');
   await type(page, 'plan.alk_pump.calibration', '0.9');
@@ -178,6 +191,199 @@ test('pumps: name and calibration of the alkalinity pump on the Plan, refused va
   const calcium = s.schedules.filter((e) => e.additive === 'calcium_chloride_dihydrate' && Date.parse(e.time) > Date.now());
   check(calcium.length >= 1 && calcium.every((e) => e.device === 'pump 2' && e.calibration === 1),
         `calcium schedules ${JSON.stringify(calcium.map((e) => [e.device, e.calibration]))}`);
+  await context.close();
+  const real = errors.filter((e) => !benign(e));
+  check(real.length === 0, `console errors: ${real.join(' | ')}`);
+});
+
+// The app's doses against the command line's on the app's own input, dose for dose; returns
+// the largest difference of an amount to set, over all pumps and over the pump `only`.
+function compareWithCli(app, other, only) {  // only: a test of the additive's name
+  check(other.doses.length === app.doses.length, `doses: app ${app.doses.length}, command line ${other.doses.length}`);
+  let largest = 0, largestOnly = 0, countOnly = 0;
+  for (let i = 0; i < Math.min(app.doses.length, other.doses.length); ++i) {
+    const a = app.doses[i], b = other.doses[i];
+    const diff = Math.abs(a.amount_set - b.amount_set);
+    largest = Math.max(largest, diff);
+    if (only.test(b.additive)) {
+      largestOnly = Math.max(largestOnly, diff);
+      ++countOnly;
+    }
+    check(a.additive === b.additive && diff <= 0.01 + 0.01 * Math.abs(b.amount_set),
+          `dose ${i} (${b.additive}, day ${b.day}): set ${a.amount_set} in the app, ${b.amount_set} on the command line`);
+  }
+  return { largest, largestOnly, countOnly };
+}
+
+test('pumps: a magnesium stock and pump by taps, each pump its own doses a day and largest dose, a reload, the command line, adopting three (phone)', async () => {
+  const { context, page, errors } = await openApp(browser, server.url, PHONE);
+  let s = await state(page);
+  const shift = s.demo_shift_s;
+  await tap(page, 'tab.plan');
+  s = await state(page);
+  // The demo reef doses magnesium chloride by hand: the magnesium card starts with it, from the log.
+  check(s.plan_basis.magnesium === 'magnesium_chloride_hexahydrate' && s.plan_basis.magnesium_from_log,
+        `default magnesium ${s.plan_basis.magnesium} (from the log: ${s.plan_basis.magnesium_from_log})`);
+  check(s.dosing_forms.plan.magnesium_from === null, 'a magnesium choice is stored before the keeper made one');
+  // Each pump's program starts from its schedule: the demo's pumps dose twice a day.
+  check(s.plan_basis.pumps[0].doses_per_day === 2 && s.plan_basis.pumps[0].program_from_schedule,
+        `alkalinity pump program ${JSON.stringify(s.plan_basis.pumps[0])}`);
+  check(s.plan_basis.pumps[2].doses_per_day === 4 && s.plan_basis.pumps[2].max_dose_ml === 50 && !s.plan_basis.pumps[2].program_from_schedule,
+        `magnesium pump program ${JSON.stringify(s.plan_basis.pumps[2])}`);
+
+  // Epsom salt: its sulfate caution shows on the card and among the plan's cautions.
+  await reveal(page, 'plan.magnesium.1');
+  await tap(page, 'plan.magnesium.1');
+  s = await state(page);
+  check(s.dosing_forms.plan.magnesium_from === 'magnesium_sulfate_heptahydrate', `after the tap: ${s.dosing_forms.plan.magnesium_from}`);
+  check((await widget(page, 'plan.mg_cautions')).found, 'no caution on the magnesium card');
+  check(s.plan && s.plan.pumps.some((p) => /sulfate/i.test(p.additive)), `no sulfate pump: ${JSON.stringify(s.plan && s.plan.pumps)}`);
+  await tap(page, 'plan.magnesium.0');
+
+  // A strength over the solubility is refused with the field and its range; the one kept stays.
+  await refused(page, 'plan.mg_strength', '2000', /^Magnesium stock strength 2000 g\/L is outside the accepted range 1 to 10\d\d g\/L/, 'magnesium 2000 g/L');
+  await type(page, 'plan.mg_strength', '250');
+  await type(page, 'plan.mg_pump.name', 'Mg doser');
+  await type(page, 'plan.mg_pump.calibration', '0.95');
+  await type(page, 'plan.mg_pump.doses_per_day', '3');
+  await type(page, 'plan.mg_pump.max_dose', '20');
+  await refused(page, 'plan.mg_pump.name', 'pump 2', /Magnesium pump name: "pump 2" already names another pump/, "the calcium pump's name");
+  await refused(page, 'plan.mg_pump.doses_per_day', '300', /Doses per day 300 .*1 to 288/, 'magnesium 300 doses a day');
+  // Two pumps on different programs: alkalinity 2 a day (its schedule's), calcium 6.
+  await type(page, 'plan.alk_pump.doses_per_day', '2');
+  await type(page, 'plan.alk_pump.max_dose', '60');
+  await type(page, 'plan.ca_pump.doses_per_day', '6');
+  await type(page, 'plan.ca_pump.max_dose', '30');
+  s = await state(page);
+  const f = s.dosing_forms.plan;
+  check(f.magnesium_from === 'magnesium_chloride_hexahydrate' && f.magnesium_stock_g_per_l === 250, `magnesium stored ${f.magnesium_from} ${f.magnesium_stock_g_per_l}`);
+  check(s.plan, `no plan: ${s.plan_basis.error}`);
+  const devices = s.plan.pumps.map((p) => p.device);
+  check(JSON.stringify(devices) === JSON.stringify(['pump 1', 'pump 2', 'Mg doser']), `pumps ${devices}`);
+  check(JSON.stringify(s.plan.pumps.map((p) => p.doses_per_day)) === '[2,6,3]', `doses a day ${s.plan.pumps.map((p) => p.doses_per_day)}`);
+  check(JSON.stringify(s.plan.pumps.map((p) => p.max_dose)) === '[60,30,20]', `largest doses ${s.plan.pumps.map((p) => p.max_dose)}`);
+  check(s.plan.day_columns[2] === 'Mg doser, mL set', `magnesium column "${s.plan.day_columns[2]}"`);
+  check(/pump 1: .*, 2 doses a day; pump 2: .*, 6 doses a day; Mg doser: Magnesium chloride hexahydrate 250 g\/L, calibration 0\.95: amounts to set, 3 doses a day$/.test(s.plan.legend),
+        `legend "${s.plan.legend}"`);
+  // The day's doses follow each pump's own program: never more a day than it is set to.
+  for (const [pump, n] of [[0, 2], [1, 6], [2, 3]]) {
+    for (const day of [...new Set(s.plan.doses.map((d) => d.day))]) {
+      const count = s.plan.doses.filter((d) => d.day === day && d.pump === pump && d.amount > 0).length;
+      check(count <= n, `pump ${pump} day ${day}: ${count} doses, set to ${n}`);
+    }
+  }
+  const day1 = (pump) => s.plan.doses.filter((d) => d.day === 1 && d.pump === pump && d.amount > 0).length;
+  console.log(`     2 and 6 a day: day 1 doses alkalinity ${day1(0)}, calcium ${day1(1)}, magnesium ${day1(2)}; holds: ${s.plan.verdict.holds}`);
+  check(day1(0) === 2 && day1(1) === 6, `day 1: alkalinity ${day1(0)} doses (2 a day), calcium ${day1(1)} (6 a day)`);
+  check(s.plan.doses.some((d) => d.pump === 2 && d.amount > 0), 'the magnesium pump gives no dose');
+  for (const d of s.plan.doses.filter((x) => x.pump === 2)) {
+    check(Math.abs(d.amount_set - d.amount / 0.95) < 1e-9 && d.amount_set <= 20 + 1e-9, `magnesium dose set ${d.amount_set} for ${d.amount}`);
+  }
+  await reveal(page, 'plan.mg_strength');
+  await frames(page, 4);
+  await page.screenshot({ path: join(OUTPUT, 'pumps-phone-magnesium.png') });
+  await reveal(page, 'plan.days');
+  await frames(page, 4);
+  await page.screenshot({ path: join(OUTPUT, 'pumps-phone-days.png') });
+  // Twice a day, the largest change of alkalinity from one dose holds the soda ash back (the
+  // verdict says so); four a day holds, and the rest of the test adopts that.
+  if (!s.plan.verdict.holds) check(/largest change of alkalinity from one dose/.test(s.plan.verdict.headline), `verdict: ${s.plan.verdict.headline}`);
+  await type(page, 'plan.alk_pump.doses_per_day', '4');
+
+  // A reload keeps every pump's own settings.
+  await flushed(page);
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 3);
+  s = await state(page);
+  if (!s.plan) {
+    await tap(page, 'tab.plan');
+    s = await state(page);
+  }
+  const g = s.dosing_forms.plan;
+  const kept = [g.alkalinity_doses_per_day, g.calcium_doses_per_day, g.magnesium_doses_per_day,
+                g.alkalinity_max_dose_ml, g.calcium_max_dose_ml, g.magnesium_max_dose_ml];
+  check(JSON.stringify(kept) === '[4,6,3,60,30,20]', `after a reload: ${kept}`);
+  check(g.magnesium_pump_name === 'Mg doser' && g.magnesium_pump_calibration === 0.95 && g.magnesium_stock_g_per_l === 250,
+        `magnesium pump after a reload: ${g.magnesium_pump_name} ${g.magnesium_pump_calibration} ${g.magnesium_stock_g_per_l}`);
+  check(s.plan && JSON.stringify(s.plan.pumps.map((p) => p.doses_per_day)) === '[4,6,3]', 'the plan after a reload');
+
+  // The command line on the app's own input: the same doses, the magnesium pump's included.
+  await reveal(page, 'plan.export_format.3');
+  await tap(page, 'plan.export_format.3');
+  await reveal(page, 'plan.export');
+  const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }), tap(page, 'plan.export')]);
+  const app = JSON.parse(readFileSync(await download.path(), 'utf8'));
+  check(app.input.additives.length === 3 && app.input.additives[2].device === 'Mg doser' && app.input.additives[2].calibration === 0.95 &&
+        app.input.additives[2].doses_per_day === 3, `the download's magnesium pump: ${JSON.stringify(app.input.additives[2]).slice(0, 300)}`);
+  const other = cliPlan(shift, app.input);
+  const { largest, largestOnly, countOnly } = compareWithCli(app, other, /^Magnesium/);
+  check(countOnly > 0, 'the command line gives the magnesium pump no dose');
+  console.log(`     app vs command line, three pumps: ${other.doses.length} doses, largest difference of an amount to set ${largest.toFixed(4)} mL; ` +
+              `magnesium pump ${countOnly} doses, largest difference ${largestOnly.toFixed(4)} mL`);
+
+  // Adopt: three schedules, each pump's name, calibration, doses a day and the amounts to set.
+  await messageGone(page);
+  s = await state(page);
+  check(s.plan.verdict.holds, `the plan cannot hold: ${s.plan.verdict.headline}`);
+  const planned3 = s.plan;  // as adopted
+  const mgDay1 = planned3.doses.filter((d) => d.day === 1 && d.pump === 2 && d.amount > 0);
+  await reveal(page, 'plan.adopt');
+  await tap(page, 'plan.adopt');
+  s = await state(page);
+  check(!s.message_is_error && /pump 1, pump 2 and Mg doser \(calibration 0\.95\)/.test(s.message), `adopt: "${s.message}"`);
+  const from = (device) => s.schedules.filter((e) => e.device === device && Date.parse(e.time) > Date.now());
+  const firstOf = (list) => list.reduce((a, b) => (Date.parse(a.time) <= Date.parse(b.time) ? a : b));
+  for (const [device, additive, n, k] of [['pump 1', 'sodium_carbonate', 4, 1], ['pump 2', 'calcium_chloride_dihydrate', 6, 1],
+                                          ['Mg doser', 'magnesium_chloride_hexahydrate', 3, 0.95]]) {
+    const list = from(device);
+    check(list.length >= 1, `no schedule of ${device}: ${s.schedules.map((e) => e.device).join(', ')}`);
+    for (const e of list) {
+      check(e.additive === additive && e.calibration === k && e.doses_per_day <= n,
+            `${device} schedule ${e.id}: ${e.additive}, calibration ${e.calibration}, ${e.doses_per_day} a day`);
+    }
+  }
+  const mgFirst = firstOf(from('Mg doser'));
+  const mgExpected = Math.round(mgDay1.reduce((t, x) => t + x.amount, 0) / mgDay1.length / 0.95 * 10) / 10;
+  check(mgFirst.doses_per_day === mgDay1.length && Math.abs(mgFirst.amount - mgExpected) < 1e-9 && mgFirst.stock_g_per_l === 250,
+        `Mg doser day 1: ${mgFirst.doses_per_day} x ${mgFirst.amount} mL of ${mgFirst.stock_g_per_l} g/L, the plan's ${mgDay1.length} x ${mgExpected}`);
+  const day1Of = (pump) => planned3.doses.filter((d) => d.day === 1 && d.pump === pump && d.amount > 0).length;
+  check(firstOf(from('pump 1')).doses_per_day === day1Of(0) && firstOf(from('pump 2')).doses_per_day === day1Of(1),
+        `the first schedules of pumps 1 and 2: ${firstOf(from('pump 1')).doses_per_day}, ${firstOf(from('pump 2')).doses_per_day} a day`);
+  await context.close();
+  const real = errors.filter((e) => !benign(e));
+  check(real.length === 0, `console errors: ${real.join(' | ')}`);
+});
+
+test("pumps: an old saved store's one doses a day and largest dose go to both stock pumps (phone)", async () => {
+  const { context, page, errors } = await openApp(browser, server.url, PHONE);
+  let s = await state(page);
+  const id = s.current_system;
+  await tap(page, 'tab.plan');
+  await type(page, 'plan.horizon', '10');  // something saved for the system
+  await flushed(page);
+  // As the store was before each pump had its own: shared values, no per-pump keys.
+  const old = { 'plan.doses_per_day': 3, 'plan.max_dose_ml': 25 };
+  for (const p of ['alkalinity', 'calcium', 'magnesium']) {
+    old[`plan.${p}_doses_per_day`] = null;
+    old[`plan.${p}_max_dose_ml`] = null;
+  }
+  await editSavedSettings(page, id, old);
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 3);
+  s = await state(page);
+  check(!s.message_is_error, `refused: ${s.message}`);
+  const f = s.dosing_forms.plan;
+  check(f.alkalinity_doses_per_day === 3 && f.calcium_doses_per_day === 3 && f.alkalinity_max_dose_ml === 25 &&
+        f.calcium_max_dose_ml === 25 && f.horizon_days === 10, `read back: ${JSON.stringify(f)}`);
+  check(f.magnesium_doses_per_day === null, `the magnesium pump did not exist then: ${f.magnesium_doses_per_day}`);
+  if (!s.plan) {
+    await tap(page, 'tab.plan');
+    s = await state(page);
+  }
+  check(s.plan && s.plan.pumps[0].doses_per_day === 3 && s.plan.pumps[1].doses_per_day === 3 && s.plan.pumps[0].max_dose === 25,
+        `the plan's pumps: ${JSON.stringify(s.plan && s.plan.pumps)}`);
   await context.close();
   const real = errors.filter((e) => !benign(e));
   check(real.length === 0, `console errors: ${real.join(' | ')}`);

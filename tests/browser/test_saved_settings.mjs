@@ -39,7 +39,7 @@ const SETTINGS = [
 
 async function setOn(page, s) {
   await tap(page, 'tab.plan');
-  await type(page, 'plan.doses_per_day', s.plan.doses);
+  await type(page, 'plan.alk_pump.doses_per_day', s.plan.doses);
   await type(page, 'plan.alk_strength', s.plan.strength);
   await type(page, 'plan.horizon', s.plan.horizon);
   await tap(page, 'tab.hatchery');
@@ -54,7 +54,7 @@ async function setOn(page, s) {
 
 function expectForms(f, s, who) {
   const near = (a, b) => Math.abs(a - Number(b)) < 1e-6;
-  check(near(f.plan.doses_per_day, s.plan.doses), `${who}: doses per day ${f.plan.doses_per_day}, expected ${s.plan.doses}`);
+  check(near(f.plan.alkalinity_doses_per_day, s.plan.doses), `${who}: doses per day ${f.plan.alkalinity_doses_per_day}, expected ${s.plan.doses}`);
   check(near(f.plan.alkalinity_stock_g_per_l, s.plan.strength), `${who}: stock ${f.plan.alkalinity_stock_g_per_l}`);
   check(near(f.plan.horizon_days, s.plan.horizon), `${who}: horizon ${f.plan.horizon_days}`);
   check(f.hatchery.mode === (s.hatchery.batch ? 'batch' : 'flow_through'), `${who}: hatchery mode ${f.hatchery.mode}`);
@@ -94,14 +94,14 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await switchTo(page, ids[1]);
     expectForms((await state(page)).dosing_forms, SETTINGS[1], `system ${ids[1]}`);
     await tap(page, 'tab.plan');
-    await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), 'plan.doses_per_day');
+    await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), 'plan.alk_pump.doses_per_day');
     await frames(page, 4);
     await page.screenshot({ path: join(OUTPUT, `saved-${label}-plan.png`) });
     // A third system was never changed: it shows the defaults.
     if (ids.length > 2) {
       await switchTo(page, ids[2]);
       const f = (await state(page)).dosing_forms;
-      check(f.plan.doses_per_day === 4 && f.hatchery.stock_g_per_l === null, `untouched system: ${JSON.stringify(f.plan)}`);
+      check(f.plan.alkalinity_doses_per_day === null && f.hatchery.stock_g_per_l === null, `untouched system: ${JSON.stringify(f.plan)}`);
     }
     await context.close();
     const real = errors.filter((e) => !benign(e));
@@ -117,15 +117,15 @@ test('a damaged saved setting is refused with its name and range; the default is
   await flushed(page);
   const events = (await state(page)).events;
   // Change the stored record by hand, as a damaged or hand-edited store would have it.
-  await editSavedSettings(page, ids[0], { 'plan.doses_per_day': 999, 'hatchery.stock_g_per_l': 'strong' });
+  await editSavedSettings(page, ids[0], { 'plan.alkalinity_doses_per_day': 999, 'hatchery.stock_g_per_l': 'strong' });
   await page.reload();
   await waitReady(page);
   await frames(page, 3);
   const s = await state(page);
-  check(s.message_is_error && /Doses per day per pump 999/.test(s.message) && /1 to 288/.test(s.message),
+  check(s.message_is_error && /Alkalinity pump doses per day 999/.test(s.message) && /1 to 288/.test(s.message),
     `no refusal naming the setting and its range: "${s.message}"`);
   check(/and 1 more/.test(s.message), `the second refused value is not counted: "${s.message}"`);
-  check(s.dosing_forms.plan.doses_per_day === 4, `doses per day not back to its default: ${s.dosing_forms.plan.doses_per_day}`);
+  check(s.dosing_forms.plan.alkalinity_doses_per_day === null, `doses per day not back to its default: ${s.dosing_forms.plan.alkalinity_doses_per_day}`);
   check(s.dosing_forms.hatchery.stock_g_per_l === null, `stock strength not back to its default`);
   check(Math.abs(s.dosing_forms.plan.alkalinity_stock_g_per_l - 123) < 1e-9, 'a good setting beside the bad one was lost');
   check(s.events === events, `events ${events} -> ${s.events}`);

@@ -311,7 +311,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await tap(page, 'plan.demand_source.1');
     await tap(page, 'plan.alk_demand');
     await enter(page, '5');
-    await tap(page, 'plan.max_dose');
+    await tap(page, 'plan.alk_pump.max_dose');
     await enter(page, '1');
     await frames(page, 3);
     const s = await state(page);
@@ -322,7 +322,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(s.plan.check_explained, 'the independent check does not confirm the floors the verdict names');
     // At the top: drawn above the form and the summary, visible without scrolling.
     const v = await reveal(page, 'plan.verdict');
-    const form = await widget(page, 'plan.max_dose');
+    const form = await widget(page, 'plan.alk_pump.max_dose');
     check(v.found && v.visible, 'verdict not visible at the top of the Plan screen');
     check(v.y < form.y, `verdict at y=${v.y} is not above the form at y=${form.y}`);
     await shot(page, `${label}-plan-cannot-hold`);

@@ -30,12 +30,16 @@ void refresh_plan(AppState& app);
 // pumps' earlier schedules stop there), by the core's plan::adopt_plan as `plan --adopt`.
 // Refused when the plan cannot hold or its check fails.
 bool adopt_current_plan(AppState& app);
-// Names a stock pump of the Plan (slot 0 alkalinity, 1 calcium) as typed: trimmed, 1 to 60
-// characters by the core's rule (journal/device_name.hpp), not the other pump's name. A refused
-// name says why and keeps the name stored.
+// Names a stock pump of the Plan (slot 0 alkalinity, 1 calcium, 2 magnesium) as typed: trimmed,
+// 1 to 60 characters by the core's rule (journal/device_name.hpp), not another pump's name. A
+// refused name leaves the one kept as it was.
 bool set_plan_pump_name(AppState& app, int slot, const std::string& typed);
+// The Plan's magnesium choices as the core's compounds (plan::magnesium_stocks order) and back.
+tw::additives::CompoundId magnesium_compound(PlanMagnesium m);
+PlanMagnesium magnesium_choice(tw::additives::CompoundId id);
 // The Plan's day table, by pump: a column's title ("pump 1, mL", "Left doser, mL set" when the
-// pump's calibration is not 1 and the column shows what to set) and the legend under the table.
+// pump's calibration is not 1 and the column shows what to set) and the legend above the table
+// (each pump's additive, calibration and doses a day).
 std::string pump_column_title(const tw::plan::Delivery& d);
 std::string pump_legend(const std::vector<tw::plan::Delivery>& deliveries);
 std::string pumps_in_words(const std::vector<tw::plan::Delivery>& deliveries);

@@ -14,11 +14,19 @@
 #include "tidewright/plan/plan.hpp"
 #include "tidewright/plan/plan_adopt.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
+#include "tidewright/plan/plan_stocks.hpp"
 
 namespace twapp {
 
 namespace add = tw::additives;
 namespace pl = tw::plan;
+
+add::CompoundId magnesium_compound(PlanMagnesium m) {
+  return pl::magnesium_stocks()[m == PlanMagnesium::MagnesiumSulfate ? 1 : 0].compound;
+}
+PlanMagnesium magnesium_choice(add::CompoundId id) {
+  return id == pl::magnesium_stocks()[1].compound ? PlanMagnesium::MagnesiumSulfate : PlanMagnesium::MagnesiumChloride;
+}
 
 namespace {
 std::string fmtx_g_per_l(double g) { return std::to_string(static_cast<long long>(std::llround(g))) + " g/L"; }
@@ -83,7 +91,8 @@ tw::Result<add::Additive> stock_additive(add::CompoundId id, double g_per_l, con
   return add::additive_from_stock(r);
 }
 
-tw::Result<add::Additive> alkalinity_stock(const PlanForm& f) {
+tw::Result<add::Additive> alkalinity_stock(const PlanForm& f, double temperature_c) {
+  if (f.alkalinity == PlanAlkalinity::Limewater) return add::limewater_additive(temperature_c);
   const bool carb = f.alkalinity == PlanAlkalinity::SodiumCarbonate;
   return stock_additive(carb ? add::CompoundId::SodiumCarbonate : add::CompoundId::SodiumBicarbonate,
                         f.alkalinity_g_per_l, carb ? "Sodium carbonate" : "Sodium bicarbonate");
@@ -91,23 +100,76 @@ tw::Result<add::Additive> alkalinity_stock(const PlanForm& f) {
 tw::Result<add::Additive> calcium_stock(const PlanForm& f) {
   return stock_additive(add::CompoundId::CalciumChlorideDihydrate, f.calcium_g_per_l, "Calcium chloride dihydrate");
 }
+tw::Result<add::Additive> magnesium_stock(PlanMagnesium m, double g_per_l) {
+  const add::CompoundId id = magnesium_compound(m);
+  return stock_additive(id, g_per_l, add::compound(id).name);
+}
 
-// Each stock pump's name and calibration: the keeper's, else those of the system's schedule
-// that gives the same compound (running now, or adopted for later), else the fallback.
-std::array<PlanPump, 2> resolve_pumps(const AppState& app, const PlanForm& f, tw::journal::SystemId system) {
-  std::array<PlanPump, 2> out;
+// The magnesium stock as planned: the keeper's choice and strength, else what the log shows
+// dosed (a schedule, else a dose in the last weeks: the core's dosed_stock_for), else none.
+void resolve_magnesium(const AppState& app, const PlanForm& f, tw::journal::SystemId system, PlanCache& out) {
+  std::vector<add::CompoundId> ids;
+  for (const pl::PlanStock& s : pl::magnesium_stocks()) ids.push_back(s.compound);
+  const auto dosed = pl::dosed_stock_for(app.journal, system, ids, platform::now_unix_seconds());
+  out.magnesium = PlanMagnesium::None;
+  if (f.magnesium) {
+    out.magnesium = *f.magnesium;
+  } else if (dosed) {
+    out.magnesium = magnesium_choice(dosed->compound);
+    out.magnesium_from_log = true;
+  }
+  if (out.magnesium == PlanMagnesium::None) return;
+  const add::CompoundId id = magnesium_compound(out.magnesium);
+  if (f.magnesium_g_per_l) {
+    out.magnesium_g_per_l = *f.magnesium_g_per_l;
+  } else if (dosed && dosed->compound == id && dosed->stock_g_per_l) {
+    out.magnesium_g_per_l = *dosed->stock_g_per_l;
+  } else {
+    for (const pl::PlanStock& s : pl::magnesium_stocks()) {
+      if (s.compound == id) out.magnesium_g_per_l = s.starter_g_per_l;
+    }
+  }
+}
+
+// Each stock pump's name, calibration, doses a day and largest dose: the keeper's, else those
+// of the system's schedule that gives the same compound (running now, or adopted for later),
+// else the fallback and the core's defaults. A fallback name another pump already has moves on
+// to the next free "pump N", so the three stay apart.
+std::array<PlanPump, kPlanPumps> resolve_pumps(const AppState& app, const PlanForm& f, const PlanCache& c,
+                                               const tw::journal::System& sys) {
+  std::array<PlanPump, kPlanPumps> out;
   const std::int64_t now = platform::now_unix_seconds();
-  auto one = [&](int slot, tw::Result<add::Additive> additive, const std::optional<std::string>& name,
-                 const std::optional<double>& calibration) {
+  std::array<bool, kPlanPumps> fallback{};
+  auto one = [&](int slot, tw::Result<add::Additive> additive) {
+    const PlanPumpSetting& set = f.pumps[static_cast<std::size_t>(slot)];
     std::optional<pl::ScheduledPump> sched;
-    if (additive) sched = pl::scheduled_pump_for(app.journal, system, *additive, now);
+    if (additive) sched = pl::scheduled_pump_for(app.journal, sys.id, *additive, now);
+    const pl::PumpProgram program = pl::pump_program_from(sched);
     PlanPump& p = out[static_cast<std::size_t>(slot)];
-    p.name = name ? *name : sched ? sched->device : kPlanPumpFallback[slot];
-    p.calibration = calibration ? *calibration : sched ? sched->calibration : 1.0;
-    p.from_schedule = sched && (!name || !calibration);
+    p.name = set.name ? *set.name : sched ? sched->device : kPlanPumpFallback[slot];
+    fallback[static_cast<std::size_t>(slot)] = !set.name && !sched;
+    p.calibration = set.calibration ? *set.calibration : sched ? sched->calibration : 1.0;
+    p.from_schedule = sched && (!set.name || !set.calibration);
+    p.doses_per_day = set.doses_per_day.value_or(program.doses_per_day);
+    p.max_dose_ml = set.max_dose_ml.value_or(program.max_dose);
+    p.program_from_schedule = sched && (!set.doses_per_day || !set.max_dose_ml);
   };
-  one(0, alkalinity_stock(f), f.alkalinity_pump_name, f.alkalinity_pump_calibration);
-  one(1, calcium_stock(f), f.calcium_pump_name, f.calcium_pump_calibration);
+  one(0, alkalinity_stock(f, sys.default_temperature_c));
+  one(1, calcium_stock(f));
+  one(2, c.magnesium == PlanMagnesium::None ? tw::Result<add::Additive>(tw::Error{"magnesium", "none"})
+                                            : magnesium_stock(c.magnesium, c.magnesium_g_per_l));
+  if (f.alkalinity == PlanAlkalinity::Limewater) {  // rides on the top-off
+    out[0].name = "top-off";
+    out[0].calibration = 1.0;
+  }
+  for (std::size_t k = 0; k < out.size(); ++k) {
+    if (!fallback[k]) continue;
+    const auto taken = [&](const std::string& n) {
+      for (std::size_t o = 0; o < out.size(); ++o) if (o != k && out[o].name == n) return true;
+      return false;
+    };
+    for (int n = 1; taken(out[k].name) && n < 100; ++n) out[k].name = "pump " + std::to_string(n);
+  }
   return out;
 }
 
@@ -143,7 +205,8 @@ void refresh_plan(AppState& app) {
     c = std::move(out);
     return;
   }
-  out.pumps = resolve_pumps(app, f, sys->id);
+  resolve_magnesium(app, f, sys->id, out);
+  out.pumps = resolve_pumps(app, f, out, *sys);
   pl::PlanInput in;
   in.system.name = sys->name;
   in.system.volume_l = sys->volume_l;
@@ -165,8 +228,8 @@ void refresh_plan(AppState& app) {
   in.system.alkalinity_dkh = alk_t;
   in.system.calcium_mg_l = ca_t;
   in.system.magnesium_mg_l = mg_t;
-  in.demand = pl::demand_from_per_litre(f.alkalinity_demand_dkh_per_day, f.calcium_demand_mg_l_per_day, 0,
-                                        sys->volume_l);
+  in.demand = pl::demand_from_per_litre(f.alkalinity_demand_dkh_per_day, f.calcium_demand_mg_l_per_day,
+                                        f.magnesium_demand_mg_l_per_day, sys->volume_l);
   // The limits first: the basis keeps room in them for the estimates' uncertainty.
   auto limits = pl::make_limits(safety_limit_settings(app.settings));
   if (!limits) {  // cannot happen for stored values (checked when set and when loaded)
@@ -195,52 +258,41 @@ void refresh_plan(AppState& app) {
     in.demand = typed;
     out.assumptions.push_back("Consumption: typed here, not the log's estimate.");
   }
-  // Deliveries.
-  auto pump = [&](add::Additive a, const std::string& device, double calibration = 1.0) {
+  // Deliveries: each pump with its own doses a day and largest dose (PlanCache::pumps).
+  auto pump = [&](add::Additive a, int slot) {
+    const PlanPump& p = out.pumps[static_cast<std::size_t>(slot)];
     pl::Delivery d;
     d.additive = std::move(a);
-    d.device = device;
-    d.calibration = calibration;  // max_dose below is the largest amount SET on the pump (plan.hpp Delivery)
-    d.doses_per_day = std::clamp(f.doses_per_day, static_cast<int>(tw::ranges::kDosesPerDay.lo),
+    d.device = p.name;
+    d.calibration = p.calibration;  // max_dose below is the largest amount SET on the pump (plan.hpp Delivery)
+    d.doses_per_day = std::clamp(p.doses_per_day, static_cast<int>(tw::ranges::kDosesPerDay.lo),
                                  static_cast<int>(tw::ranges::kDosesPerDay.hi));
-    d.max_dose = f.max_dose_ml;
+    d.max_dose = p.max_dose_ml;
     return d;
   };
-  switch (f.alkalinity) {
-    case PlanAlkalinity::SodiumCarbonate:
-    case PlanAlkalinity::SodiumBicarbonate: {
-      auto a = alkalinity_stock(f);
-      if (!a) {
-        out.error = "Alkalinity stock: " + a.error().message;
-        c = std::move(out);
-        return;
-      }
-      in.deliveries.push_back(pump(std::move(a).value(), out.pumps[0].name, out.pumps[0].calibration));
-      break;
-    }
-    case PlanAlkalinity::Limewater: {
-      auto a = add::limewater_additive(sys->default_temperature_c);
-      if (!a) {
-        out.error = "Limewater: " + a.error().message;
-        c = std::move(out);
-        return;
-      }
-      pl::Delivery d = pump(std::move(a).value(), "top-off");
+  const auto refuse = [&](const std::string& what, const tw::Error& e) {
+    out.error = what + ": " + e.message;
+    c = std::move(out);
+  };
+  if (f.alkalinity != PlanAlkalinity::None) {
+    auto a = alkalinity_stock(f, sys->default_temperature_c);
+    if (!a) return refuse(f.alkalinity == PlanAlkalinity::Limewater ? "Limewater" : "Alkalinity stock", a.error());
+    pl::Delivery d = pump(std::move(a).value(), 0);
+    if (f.alkalinity == PlanAlkalinity::Limewater) {
       d.max_dose = tw::ranges::kPlannedDoseMax.hi;  // bounded by the evaporation it replaces
-      in.deliveries.push_back(std::move(d));
       in.evaporation_l_per_day = f.evaporation_l_per_day;
-      break;
     }
-    case PlanAlkalinity::None: break;
+    in.deliveries.push_back(std::move(d));
   }
   if (f.calcium == PlanCalcium::CalciumChloride) {
     auto a = calcium_stock(f);
-    if (!a) {
-      out.error = "Calcium stock: " + a.error().message;
-      c = std::move(out);
-      return;
-    }
-    in.deliveries.push_back(pump(std::move(a).value(), out.pumps[1].name, out.pumps[1].calibration));
+    if (!a) return refuse("Calcium stock", a.error());
+    in.deliveries.push_back(pump(std::move(a).value(), 1));
+  }
+  if (out.magnesium != PlanMagnesium::None) {
+    auto a = magnesium_stock(out.magnesium, out.magnesium_g_per_l);
+    if (!a) return refuse("Magnesium stock", a.error());
+    in.deliveries.push_back(pump(std::move(a).value(), 2));
   }
   in.horizon_days = std::clamp(f.horizon_days, static_cast<int>(tw::ranges::kPlanHorizonDays.lo),
                                static_cast<int>(tw::ranges::kPlanHorizonDays.hi));
@@ -271,6 +323,8 @@ std::string pump_legend(const std::vector<pl::Delivery>& deliveries) {
   for (const auto& d : deliveries) {
     legend += (legend.empty() ? "" : "; ") + d.device + ": " + d.additive.name;
     if (d.calibration != 1.0) legend += ", calibration " + fmtx_calibration(d.calibration) + ": amounts to set";
+    // Each pump has its own program: say how often it doses (the columns are day totals).
+    legend += ", " + std::to_string(d.doses_per_day) + (d.doses_per_day == 1 ? " dose" : " doses") + " a day";
   }
   return legend;
 }
@@ -289,18 +343,21 @@ std::string pumps_in_words(const std::vector<pl::Delivery>& deliveries) {
 // ---------------------------------------------------------------- Name a pump
 bool set_plan_pump_name(AppState& app, int slot, const std::string& typed) {
   PlanForm& f = app.ui.dosing.plan;
-  const char* which = slot == 0 ? "Alkalinity pump name" : "Calcium pump name";
+  const char* const labels[kPlanPumps] = {"Alkalinity pump name", "Calcium pump name", "Magnesium pump name"};
+  const char* which = labels[slot];
   auto name = tw::journal::device_name_from_text(typed, which);
   if (!name) {
     notify(app, name.error().message + "; the name stays as it was", true);
     return false;
   }
   const PlanCache& c = app.ui.dosing.plan_cache;
-  if (*name == c.pumps[static_cast<std::size_t>(1 - slot)].name) {
-    notify(app, std::string(which) + ": \"" + *name + "\" already names the other pump; each pump needs its own name", true);
-    return false;
+  for (int other = 0; other < kPlanPumps; ++other) {
+    if (other != slot && *name == c.pumps[static_cast<std::size_t>(other)].name) {
+      notify(app, std::string(which) + ": \"" + *name + "\" already names another pump; each pump needs its own name", true);
+      return false;
+    }
   }
-  (slot == 0 ? f.alkalinity_pump_name : f.calcium_pump_name) = *name;
+  f.pumps[static_cast<std::size_t>(slot)].name = *name;
   return true;
 }
 

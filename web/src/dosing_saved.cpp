@@ -9,6 +9,8 @@
 #include <iterator>
 #include <utility>
 
+#include "actions_dosing.hpp"
+#include "tidewright/additives/additives.hpp"
 #include "tidewright/carbonate/measurement_precision.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "tidewright/common/units.hpp"
@@ -37,6 +39,21 @@ constexpr Named<PlanAlkalinity> kPlanAlkalinity[] = {{PlanAlkalinity::SodiumCarb
                                                      {PlanAlkalinity::Limewater, "limewater"},
                                                      {PlanAlkalinity::None, "none"}};
 constexpr Named<PlanCalcium> kPlanCalcium[] = {{PlanCalcium::CalciumChloride, "calcium_chloride"}, {PlanCalcium::None, "none"}};
+constexpr Named<PlanMagnesium> kPlanMagnesium[] = {{PlanMagnesium::MagnesiumChloride, "magnesium_chloride_hexahydrate"},
+                                                   {PlanMagnesium::MagnesiumSulfate, "magnesium_sulfate_heptahydrate"},
+                                                   {PlanMagnesium::None, "none"}};
+// The saved keys of each stock pump, by slot, and how a refusal names it.
+struct PumpKeys {
+  const char *name, *calibration, *doses_per_day, *max_dose_ml;
+  const char *name_label, *calibration_label, *doses_label, *max_dose_label;
+};
+constexpr PumpKeys kPumpKeys[kPlanPumps] = {
+    {"alkalinity_pump_name", "alkalinity_pump_calibration", "alkalinity_doses_per_day", "alkalinity_max_dose_ml",
+     "Alkalinity pump name", "Alkalinity pump calibration", "Alkalinity pump doses per day", "Alkalinity pump largest dose"},
+    {"calcium_pump_name", "calcium_pump_calibration", "calcium_doses_per_day", "calcium_max_dose_ml", "Calcium pump name",
+     "Calcium pump calibration", "Calcium pump doses per day", "Calcium pump largest dose"},
+    {"magnesium_pump_name", "magnesium_pump_calibration", "magnesium_doses_per_day", "magnesium_max_dose_ml",
+     "Magnesium pump name", "Magnesium pump calibration", "Magnesium pump doses per day", "Magnesium pump largest dose"}};
 constexpr Named<HatcheryMode> kModes[] = {{HatcheryMode::FlowThrough, "flow_through"}, {HatcheryMode::Batch, "batch"}};
 constexpr Named<hat::TargetPoint> kPoints[] = {{hat::TargetPoint::AfterMixing, "after_mixing"},
                                                {hat::TargetPoint::AtTanks, "at_tanks"}};
@@ -62,25 +79,33 @@ const char* name_of(const Named<E> (&table)[N], E value) {
 
 json opt(const std::optional<double>& v) { return v ? json(*v) : json(nullptr); }
 json opt(const std::optional<std::string>& v) { return v ? json(*v) : json(nullptr); }
+json opt(const std::optional<int>& v) { return v ? json(*v) : json(nullptr); }
 
 // ---------------------------------------------------------------- 2. Writing
 json plan_to_json(const PlanForm& f) {
-  return {{"alkalinity_from", name_of(kPlanAlkalinity, f.alkalinity)},
-          {"alkalinity_stock_g_per_l", f.alkalinity_g_per_l},
-          {"calcium_from", name_of(kPlanCalcium, f.calcium)},
-          {"calcium_stock_g_per_l", f.calcium_g_per_l},
-          // null: not set by the keeper (taken from the log's schedule, or the fallback)
-          {"alkalinity_pump_name", opt(f.alkalinity_pump_name)},
-          {"alkalinity_pump_calibration", opt(f.alkalinity_pump_calibration)},
-          {"calcium_pump_name", opt(f.calcium_pump_name)},
-          {"calcium_pump_calibration", opt(f.calcium_pump_calibration)},
-          {"doses_per_day", f.doses_per_day},
-          {"max_dose_ml", f.max_dose_ml},
-          {"evaporation_l_per_day", f.evaporation_l_per_day},
-          {"horizon_days", f.horizon_days},
-          {"consumption_from_log", f.use_estimate},
-          {"alkalinity_consumption_dkh_per_day", f.alkalinity_demand_dkh_per_day},
-          {"calcium_consumption_mg_l_per_day", f.calcium_demand_mg_l_per_day}};
+  json j = {{"alkalinity_from", name_of(kPlanAlkalinity, f.alkalinity)},
+            {"alkalinity_stock_g_per_l", f.alkalinity_g_per_l},
+            {"calcium_from", name_of(kPlanCalcium, f.calcium)},
+            {"calcium_stock_g_per_l", f.calcium_g_per_l},
+            // null: from the log (what it shows dosed), else none / the stock's starting strength
+            {"magnesium_from", f.magnesium ? json(name_of(kPlanMagnesium, *f.magnesium)) : json(nullptr)},
+            {"magnesium_stock_g_per_l", opt(f.magnesium_g_per_l)},
+            {"evaporation_l_per_day", f.evaporation_l_per_day},
+            {"horizon_days", f.horizon_days},
+            {"consumption_from_log", f.use_estimate},
+            {"alkalinity_consumption_dkh_per_day", f.alkalinity_demand_dkh_per_day},
+            {"calcium_consumption_mg_l_per_day", f.calcium_demand_mg_l_per_day},
+            {"magnesium_consumption_mg_l_per_day", f.magnesium_demand_mg_l_per_day}};
+  // Each pump's own settings; null: not set by the keeper (the log's schedule, or the fallback).
+  for (int k = 0; k < kPlanPumps; ++k) {
+    const PumpKeys& key = kPumpKeys[k];
+    const PlanPumpSetting& p = f.pumps[static_cast<std::size_t>(k)];
+    j[key.name] = opt(p.name);
+    j[key.calibration] = opt(p.calibration);
+    j[key.doses_per_day] = opt(p.doses_per_day);
+    j[key.max_dose_ml] = opt(p.max_dose_ml);
+  }
+  return j;
 }
 
 json hatchery_to_json(const HatcheryForm& f) {
@@ -160,6 +185,30 @@ class Reader {
     number(key, label, range, &v, above_zero);
     if (refused_->size() == before) *out = v;
   }
+  void optional_whole(const char* key, const char* label, const rg::Range& range, std::optional<int>* out) {
+    if (!j_.contains(key)) return;
+    if (j_[key].is_null()) {
+      out->reset();
+      return;
+    }
+    int v = 0;
+    const auto before = refused_->size();
+    whole(key, label, range, &v);
+    if (refused_->size() == before) *out = v;
+  }
+  // A choice that may be null (not set).
+  template <class E, std::size_t N>
+  void optional_choice(const char* key, const char* label, const Named<E> (&table)[N], std::optional<E>* out) {
+    if (!j_.contains(key)) return;
+    if (j_[key].is_null()) {
+      out->reset();
+      return;
+    }
+    E v = table[0].value;
+    const auto before = refused_->size();
+    choice(key, label, table, &v);
+    if (refused_->size() == before) *out = v;
+  }
   // A pump's name by the core's rule (trimmed, 1 to 60 characters); null = not set.
   void device_name(const char* key, const char* label, std::optional<std::string>* out) {
     if (!j_.contains(key)) return;
@@ -222,12 +271,40 @@ PlanForm plan_from_json(const json& j, const jn::System& sys, std::vector<std::s
   r.number("alkalinity_stock_g_per_l", "Alkalinity stock strength", rg::kStockGPerL, &f.alkalinity_g_per_l, true);
   r.choice("calcium_from", "Calcium from", kPlanCalcium, &f.calcium);
   r.number("calcium_stock_g_per_l", "Calcium stock strength", rg::kStockGPerL, &f.calcium_g_per_l, true);
-  r.device_name("alkalinity_pump_name", "Alkalinity pump name", &f.alkalinity_pump_name);
-  r.optional("alkalinity_pump_calibration", "Alkalinity pump calibration", rg::kPumpCalibration, &f.alkalinity_pump_calibration);
-  r.device_name("calcium_pump_name", "Calcium pump name", &f.calcium_pump_name);
-  r.optional("calcium_pump_calibration", "Calcium pump calibration", rg::kPumpCalibration, &f.calcium_pump_calibration);
-  r.whole("doses_per_day", "Doses per day per pump", rg::kDosesPerDay, &f.doses_per_day);
-  r.number("max_dose_ml", "Largest single dose", rg::kPlannedDoseMax, &f.max_dose_ml);
+  r.optional_choice("magnesium_from", "Magnesium from", kPlanMagnesium, &f.magnesium);
+  r.optional("magnesium_stock_g_per_l", "Magnesium stock strength", rg::kStockGPerL, &f.magnesium_g_per_l, true);
+  // Within the compound's solubility (the core's strongest stock, as the screen's field takes it).
+  if (f.magnesium && *f.magnesium != PlanMagnesium::None && f.magnesium_g_per_l) {
+    const auto max = tw::additives::max_stock_g_per_l(magnesium_compound(*f.magnesium), 25.0);
+    if (max && *f.magnesium_g_per_l > std::floor(*max)) {
+      r.refuse("Magnesium stock strength " + std::to_string(static_cast<long long>(*f.magnesium_g_per_l)) +
+               " g/L is outside the accepted range 1 to " + std::to_string(static_cast<long long>(std::floor(*max))) +
+               " g/L (its solubility at 25 C)");
+      f.magnesium_g_per_l.reset();
+    }
+  }
+  // Before each pump had its own: one doses a day and largest dose for both pumps.
+  std::optional<int> shared_doses;
+  std::optional<double> shared_max;
+  r.optional_whole("doses_per_day", "Doses per day per pump", rg::kDosesPerDay, &shared_doses);
+  r.optional("max_dose_ml", "Largest single dose", rg::kPlannedDoseMax, &shared_max);
+  for (int k = 0; k < 2; ++k) {
+    f.pumps[static_cast<std::size_t>(k)].doses_per_day = shared_doses;
+    f.pumps[static_cast<std::size_t>(k)].max_dose_ml = shared_max;
+  }
+  for (int k = 0; k < kPlanPumps; ++k) {
+    const PumpKeys& key = kPumpKeys[k];
+    PlanPumpSetting& p = f.pumps[static_cast<std::size_t>(k)];
+    r.device_name(key.name, key.name_label, &p.name);
+    r.optional(key.calibration, key.calibration_label, rg::kPumpCalibration, &p.calibration);
+    // null: not set by the keeper, so an older store's shared values (above) stay.
+    if (j.contains(key.doses_per_day) && !j[key.doses_per_day].is_null()) {
+      r.optional_whole(key.doses_per_day, key.doses_label, rg::kDosesPerDay, &p.doses_per_day);
+    }
+    if (j.contains(key.max_dose_ml) && !j[key.max_dose_ml].is_null()) {
+      r.optional(key.max_dose_ml, key.max_dose_label, rg::kPlannedDoseMax, &p.max_dose_ml);
+    }
+  }
   const rg::Range evaporation{rg::kEvaporationFractionPerDay.lo * sys.volume_l,
                               rg::kEvaporationFractionPerDay.hi * sys.volume_l, "L/day"};
   r.number("evaporation_l_per_day", "Evaporation", evaporation, &f.evaporation_l_per_day);
@@ -238,6 +315,8 @@ PlanForm plan_from_json(const json& j, const jn::System& sys, std::vector<std::s
   r.number("alkalinity_consumption_dkh_per_day", "Alkalinity consumption", alk_demand, &f.alkalinity_demand_dkh_per_day);
   r.number("calcium_consumption_mg_l_per_day", "Calcium consumption", rg::kCalciumDemandMgPerLDay,
            &f.calcium_demand_mg_l_per_day);
+  r.number("magnesium_consumption_mg_l_per_day", "Magnesium consumption", rg::kMagnesiumDemandMgPerLDay,
+           &f.magnesium_demand_mg_l_per_day);
   return f;
 }
 

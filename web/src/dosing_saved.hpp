@@ -1,7 +1,7 @@
 // The Plan and Hatchery settings of each system as the saved store keeps them: a member
 // "dosing_by_system" of the app part (store.hpp), keyed by system id:
 //   "dosing_by_system": { "3": { "plan": { "alkalinity_from": "sodium_carbonate",
-//                                           "alkalinity_stock_g_per_l": 120, "doses_per_day": 6,
+//                                           "alkalinity_stock_g_per_l": 120, "alkalinity_doses_per_day": 6,
 //                                           "alkalinity_pump_name": "Left doser" (null: not set),
 //                                           "alkalinity_pump_calibration": 0.9 (null: not set), ... },
 //                                 "hatchery": { "mode": "flow_through", "stock_g_per_l": 120, ... } } }
@@ -9,7 +9,9 @@
 // core's range table (tidewright/common/ranges.hpp) and the kit precision table; a value out
 // of range, of the wrong type or an unknown name is refused with a message naming the setting
 // and its accepted range, and the setting keeps its default. Systems the journal does not hold
-// are dropped. A member missing keeps its default (an older store has none).
+// are dropped. A member missing keeps its default (an older store has none); a store from before
+// each pump had its own program ("doses_per_day", "max_dose_ml" for both) gives both its
+// stock pumps those values.
 #pragma once
 
 #include <map>
@@ -30,7 +32,7 @@ nlohmann::json dosing_to_json(const std::map<tw::journal::SystemId, SystemDosing
 // One system's settings: {"plan": {...}, "hatchery": {...}} (also what the test interface shows).
 nlohmann::json system_dosing_to_json(const SystemDosing& d);
 
-// refused: one line per refused value ("Plan settings of Reef 2: Doses per day per pump 999 is
+// refused: one line per refused value ("Plan settings of Reef 2: Alkalinity pump doses per day 999 is
 // outside the accepted range 1 to 288; its default is used").
 std::map<tw::journal::SystemId, SystemDosing> dosing_from_json(const nlohmann::json& j,
                                                                const tw::journal::Journal& journal,

@@ -25,6 +25,7 @@
 #include "tidewright/journal/journal.hpp"
 #include "tidewright/plan/plan.hpp"
 #include "tidewright/plan/plan_starter.hpp"
+#include "tidewright/plan/plan_stocks.hpp"
 
 namespace twapp {
 
@@ -178,38 +179,59 @@ struct MixesCache {
 // ---------------------------------------------------------------- Plan
 enum class PlanAlkalinity { SodiumCarbonate, SodiumBicarbonate, Limewater, None };
 enum class PlanCalcium { CalciumChloride, None };
+// In the order of the core's plan::magnesium_stocks(), then None.
+enum class PlanMagnesium { MagnesiumChloride, MagnesiumSulfate, None };
+
+// The Plan's three stock pumps, by slot: 0 the alkalinity stock's, 1 the calcium stock's, 2 the
+// magnesium stock's.
+inline constexpr int kPlanPumps = 3;
+inline constexpr const char* kPlanPumpFallback[kPlanPumps] = {"pump 1", "pump 2", "pump 3"};
+
+// One stock pump as the keeper set it. Unset = taken from the system's schedule that gives the
+// same additive (plan::scheduled_pump_for; doses a day and largest dose by
+// plan::pump_program_from), else kPlanPumpFallback and the core's defaults. Limewater keeps its
+// top-off (name "top-off", calibration 1, no largest dose) and its doses a day.
+struct PlanPumpSetting {
+  std::optional<std::string> name;
+  std::optional<double> calibration;
+  std::optional<int> doses_per_day;      // 1..288 (ranges::kDosesPerDay)
+  std::optional<double> max_dose_ml;     // largest single amount set on the pump (ranges::kPlannedDoseMax)
+  bool operator==(const PlanPumpSetting&) const = default;
+};
 
 struct PlanForm {
   PlanAlkalinity alkalinity = PlanAlkalinity::SodiumCarbonate;
   double alkalinity_g_per_l = tw::plan::kStarterSodaAshGPerL;  // stock strength (as sold, per L of solution)
   PlanCalcium calcium = PlanCalcium::CalciumChloride;
   double calcium_g_per_l = tw::plan::kStarterCalciumChlorideGPerL;  // CaCl2.2H2O per L of solution
-  // The two stock pumps' names and calibrations as the keeper set them; unset = the pump of the
-  // system's schedule that gives the same additive (plan::scheduled_pump_for), else
-  // kPlanPumpFallback. Limewater keeps its top-off (name "top-off", calibration 1).
-  std::optional<std::string> alkalinity_pump_name, calcium_pump_name;
-  std::optional<double> alkalinity_pump_calibration, calcium_pump_calibration;
-  int doses_per_day = 4;              // per pump, 1..24
-  double max_dose_ml = 50.0;          // largest single dose of a pump
+  // Unset = the magnesium stock the log shows dosed (plan::dosed_stock_for: a schedule, else a
+  // dose in the last weeks), else None; its strength unset = that schedule's or dose's stock,
+  // else the core's starting strength of the compound.
+  std::optional<PlanMagnesium> magnesium;
+  std::optional<double> magnesium_g_per_l;
+  std::array<PlanPumpSetting, kPlanPumps> pumps{};
   double evaporation_l_per_day = 2.0; // bounds limewater
   int horizon_days = 14;              // 1..60
   bool use_estimate = true;           // consumption from the log's estimate (else typed below)
   bool accept_stale = false;          // plan from a level the log cannot vouch for today (flagged; not saved)
   double alkalinity_demand_dkh_per_day = 1.0;  // when not from the estimate
   double calcium_demand_mg_l_per_day = 7.0;
+  // Magnesium is taken up far slower than calcium (common practice: about 1 mg/L a day in a
+  // stony-coral tank).
+  double magnesium_demand_mg_l_per_day = 1.0;
   bool show_all_days = false;         // not saved, nor export_index (what the screen shows)
   int export_index = 0;               // 0 CSV, 1 iCalendar, 2 text, 3 JSON
   bool operator==(const PlanForm&) const = default;
 };
 
-// The Plan's two stock pumps, by slot: 0 the alkalinity stock's, 1 the calcium stock's.
-inline constexpr const char* kPlanPumpFallback[2] = {"pump 1", "pump 2"};
-
 // A pump as the plan uses it: the keeper's setting, else the running schedule's, else the fallback.
 struct PlanPump {
   std::string name;
   double calibration = 1.0;
-  bool from_schedule = false;  // name or calibration taken from a schedule in the log
+  int doses_per_day = tw::plan::kDefaultDosesPerDay;
+  double max_dose_ml = tw::plan::kDefaultMaxDoseMl;
+  bool from_schedule = false;          // name or calibration taken from a schedule in the log
+  bool program_from_schedule = false;  // doses a day or largest dose taken from a schedule
 };
 
 struct PlanCache {
@@ -226,7 +248,11 @@ struct PlanCache {
   std::optional<tw::plan::PlanInput> input;
   std::optional<tw::plan::Plan> plan;
   std::optional<tw::plan::CheckReport> check;  // the independent checker's replay
-  std::array<PlanPump, 2> pumps;               // by slot (0 alkalinity, 1 calcium), shown in the form
+  std::array<PlanPump, kPlanPumps> pumps;      // by slot (0 alkalinity, 1 calcium, 2 magnesium), shown in the form
+  // The magnesium stock as planned: the keeper's choice, else the log's (magnesium_from_log).
+  PlanMagnesium magnesium = PlanMagnesium::None;
+  double magnesium_g_per_l = tw::plan::kStarterMagnesiumChlorideGPerL;
+  bool magnesium_from_log = false;
   double start_day = 0;                        // days since epoch of day 1, 00:00 local
   int computed_count = 0;
 };

@@ -27,61 +27,11 @@ namespace {
 namespace pl = tw::plan;
 
 // ---------------------------------------------------------------- 1. Form
-// A stock pump's name and calibration, under the stock it gives (one card per pump). The shown
-// values are the plan's (the keeper's, else the log's schedule, PlanCache::pumps); a change is
-// kept as the keeper's own.
-void draw_pump_fields(AppState& app, int slot, const PlanPump& shown, std::optional<double>* calibration) {
-  namespace rg = tw::ranges;
-  const std::string id = slot == 0 ? "plan.alk_pump" : "plan.ca_pump";
-  ui::divider(app);  // the pump below the stock it gives, in the same card
-  std::string name = shown.name;
-  if (ui::text_field(app, id + ".name", "Pump name", &name, "1 to 60 characters")) set_plan_pump_name(app, slot, name);
-  double k = shown.calibration;
-  if (ui::number_field(app, id + ".calibration", {"Calibration (delivered per mL set)", "", 2, 0.01,
-                                                   rg::kPumpCalibration.lo, rg::kPumpCalibration.hi},
-                       &k)) {
-    *calibration = k;
-  }
-  if (shown.from_schedule) ui::dim_text("Taken from this pump's schedule in the log until you change it.");
-  if (shown.calibration != 1.0) {
-    ui::dim_text(("The plan's doses are what reaches the tank; set " + fmtx::fixed(1.0 / shown.calibration, 2) +
-                  " mL on the pump for each mL. The day table shows the amounts to set.")
-                     .c_str());
-  }
-}
-
+// The stock cards (plan_stock_cards.cpp), then how far ahead and where the consumption comes from.
 void draw_form(AppState& app, PlanForm& f) {
   namespace rg = tw::ranges;
-  const tw::journal::System* sys = tw::journal::find_system(app.journal, app.current_system);
-  const double volume_l = sys ? sys->volume_l : 100.0;  // the bounds only; no system, no plan
-  const auto& pumps = app.ui.dosing.plan_cache.pumps;
+  draw_plan_stock_cards(app, f);
   ui::card_begin(app);
-  int alk = static_cast<int>(f.alkalinity);
-  const char* const alks[] = {"Na\u2082CO\u2083 stock", "NaHCO\u2083 stock", "Limewater", "None"};
-  if (ui::choice(app, "plan.alkalinity", "Alkalinity from", &alk, alks, 4)) f.alkalinity = static_cast<PlanAlkalinity>(alk);
-  if (f.alkalinity == PlanAlkalinity::SodiumCarbonate || f.alkalinity == PlanAlkalinity::SodiumBicarbonate) {
-    ui::number_field(app, "plan.alk_strength", {"Stock strength", "g/L", 0, 5, 1, rg::kStockGPerL.hi}, &f.alkalinity_g_per_l);
-    draw_pump_fields(app, 0, pumps[0], &f.alkalinity_pump_calibration);
-  } else if (f.alkalinity == PlanAlkalinity::Limewater) {
-    ui::number_field(app, "plan.evaporation", {"Evaporation (top-off per day)", "L/day", 1, 0.5,
-                                               rg::kEvaporationFractionPerDay.lo * volume_l,
-                                               rg::kEvaporationFractionPerDay.hi * volume_l},
-                     &f.evaporation_l_per_day);
-  }
-  ui::card_end(app);
-  ui::card_begin(app);
-  int ca = static_cast<int>(f.calcium);
-  const char* const cas[] = {"CaCl\u2082\u00b72H\u2082O stock", "None"};
-  if (ui::choice(app, "plan.calcium", "Calcium from", &ca, cas, 2)) f.calcium = static_cast<PlanCalcium>(ca);
-  if (f.calcium == PlanCalcium::CalciumChloride) {
-    ui::number_field(app, "plan.ca_strength", {"Stock strength", "g/L", 0, 10, 1, rg::kStockGPerL.hi}, &f.calcium_g_per_l);
-    draw_pump_fields(app, 1, pumps[1], &f.calcium_pump_calibration);
-  }
-  ui::card_end(app);
-  ui::card_begin(app);
-  double n = f.doses_per_day;
-  if (ui::number_field(app, "plan.doses_per_day", {"Doses per day per pump", "", 0, 1, rg::kDosesPerDay.lo, rg::kDosesPerDay.hi}, &n)) f.doses_per_day = static_cast<int>(n);
-  ui::number_field(app, "plan.max_dose", {"Largest single dose (as set on a pump)", "mL", 0, 5, 1, rg::kPlannedDoseMax.hi}, &f.max_dose_ml);
   double h = f.horizon_days;
   if (ui::number_field(app, "plan.horizon", {"Days to plan", "days", 0, 1, rg::kPlanHorizonDays.lo, rg::kPlanHorizonDays.hi}, &h)) f.horizon_days = static_cast<int>(h);
   int src = f.use_estimate ? 0 : 1;
@@ -99,6 +49,9 @@ void draw_form(AppState& app, PlanForm& f) {
     ui::number_field(app, "plan.ca_demand", {"Calcium consumption", "mg/L/day", 1, 1, rg::kCalciumDemandMgPerLDay.lo,
                                                 rg::kCalciumDemandMgPerLDay.hi},
                      &f.calcium_demand_mg_l_per_day);
+    ui::number_field(app, "plan.mg_demand", {"Magnesium consumption", "mg/L/day", 1, 0.5, rg::kMagnesiumDemandMgPerLDay.lo,
+                                               rg::kMagnesiumDemandMgPerLDay.hi},
+                     &f.magnesium_demand_mg_l_per_day);
   }
   ui::card_end(app);
 }
@@ -196,15 +149,22 @@ std::string level_with_band(double level, const std::optional<pl::Band95>& band,
 void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   const pl::Plan& plan = *c.plan;
   const auto& del = c.input->deliveries;
-  const int cols = 3 + static_cast<int>(del.size());
+  // The magnesium level gets its own column when a pump doses it.
+  const bool mg = std::any_of(del.begin(), del.end(), [](const pl::Delivery& d) { return d.additive.per_unit.magnesium_mol > 0; });
+  const int cols = 3 + static_cast<int>(del.size()) + (mg ? 1 : 0);
+  // On a phone, three pumps and three levels leave no room for the 95 % bands: the levels
+  // alone (the chart above shades the bands).
+  const bool bands = plan.uncertainty && ImGui::GetContentRegionAvail().x >= 7.0f * ui::em(app) * static_cast<float>(cols);
+  const std::optional<pl::Band95> none;
   // The columns are named by pump; say what each pump doses. A pump whose calibration is not 1
   // shows the amount to SET on it (dose / calibration), and its column says so.
   ui::dim_text(pump_legend(del).c_str());
   if (ImGui::BeginTable("##days", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
     ImGui::TableSetupColumn("Day");
     for (const auto& d : del) ImGui::TableSetupColumn(pump_column_title(d).c_str());
-    ImGui::TableSetupColumn(plan.uncertainty ? "dKH end (95%)" : "dKH end");
-    ImGui::TableSetupColumn(plan.uncertainty ? "Ca end (95%)" : "Ca end");
+    ImGui::TableSetupColumn(bands ? "dKH end (95%)" : "dKH end");
+    ImGui::TableSetupColumn(bands ? "Ca end (95%)" : "Ca end");
+    if (mg) ImGui::TableSetupColumn(bands ? "Mg end (95%)" : "Mg end");
     ImGui::TableHeadersRow();
     const size_t shown = f.show_all_days ? plan.days.size() : std::min<size_t>(plan.days.size(), 7);
     for (size_t i = 0; i < shown; ++i) {
@@ -217,9 +177,13 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
         ImGui::TextUnformatted(fmtx::fixed(del[k].set_amount(d.amount_per_delivery[k]), 1).c_str());
       }
       ImGui::TableNextColumn();
-      ImGui::TextUnformatted(level_with_band(d.end.alkalinity_dkh, d.end_band[0], 2).c_str());
+      ImGui::TextUnformatted(level_with_band(d.end.alkalinity_dkh, bands ? d.end_band[0] : none, 2).c_str());
       ImGui::TableNextColumn();
-      ImGui::TextUnformatted(level_with_band(d.end.calcium_mg_l, d.end_band[1], 0).c_str());
+      ImGui::TextUnformatted(level_with_band(d.end.calcium_mg_l, bands ? d.end_band[1] : none, 0).c_str());
+      if (mg) {
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(level_with_band(d.end.magnesium_mg_l, bands ? d.end_band[2] : none, 0).c_str());
+      }
     }
     ImGui::EndTable();
   }
@@ -243,7 +207,9 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
                                                 fmtx::fixed(d.amount, 1) + " to the tank)"
                                           : fmtx::fixed(d.amount, 1) + " " + unit);
     ui::dim_text(("after: " + fmtx::fixed(d.after.alkalinity_dkh, 2) + " dKH, " + fmtx::fixed(d.after.calcium_mg_l, 0) +
-                  " mg/L Ca, pH " + fmtx::fixed(d.after.ph_total, 2) + " total, \u03a9 arag. " +
+                  " mg/L Ca, " +
+                  (dv.additive.per_unit.magnesium_mol > 0 ? fmtx::fixed(d.after.magnesium_mg_l, 0) + " mg/L Mg, " : std::string()) +
+                  "pH " + fmtx::fixed(d.after.ph_total, 2) + " total, \u03a9 arag. " +
                   fmtx::fixed(d.after.omega_aragonite, 2) + (d.cap.empty() ? "" : "; held back by " + pl::cap_in_words(d.cap)))
                      .c_str());
     if (++count >= 24) break;

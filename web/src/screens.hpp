@@ -28,6 +28,10 @@ void draw_reactor_check(AppState& app);
 // (settings_data.cpp).
 void draw_settings_data(AppState& app);
 
+// The Plan's stock cards: alkalinity, calcium and magnesium, each with its pump
+// (plan_stock_cards.cpp).
+void draw_plan_stock_cards(AppState& app, PlanForm& f);
+
 // Carbonate species across pH with this water marked (chart_species.cpp).
 void draw_species_chart(AppState& app);
 

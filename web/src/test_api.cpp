@@ -184,7 +184,8 @@ std::string state_json() {
       // The pumps it doses with and every dose: what reaches the tank and what to set.
       json pumps = json::array();
       for (const auto& d : pc.input->deliveries) {
-        pumps.push_back({{"device", d.device}, {"calibration", d.calibration}, {"additive", d.additive.name}});
+        pumps.push_back({{"device", d.device}, {"calibration", d.calibration}, {"additive", d.additive.name},
+                         {"doses_per_day", d.doses_per_day}, {"max_dose", d.max_dose}});
       }
       j["plan"]["pumps"] = pumps;
       json columns = json::array();
@@ -201,12 +202,19 @@ std::string state_json() {
   }
   if (pc.valid) {
     j["plan_basis"] = {{"flags", pc.flags}, {"assumptions", pc.assumptions}, {"error", pc.error}, {"stale", pc.stale}};
-    // The two stock pumps as the Plan's form shows them (the keeper's, the log's schedule's or the fallback).
+    // The three stock pumps as the Plan's form shows them (the keeper's, the log's schedule's or the fallback).
     json pumps = json::array();
     for (const PlanPump& p : pc.pumps) {
-      pumps.push_back({{"name", p.name}, {"calibration", p.calibration}, {"from_schedule", p.from_schedule}});
+      pumps.push_back({{"name", p.name}, {"calibration", p.calibration}, {"from_schedule", p.from_schedule},
+                       {"doses_per_day", p.doses_per_day}, {"max_dose_ml", p.max_dose_ml},
+                       {"program_from_schedule", p.program_from_schedule}});
     }
     j["plan_basis"]["pumps"] = pumps;
+    j["plan_basis"]["magnesium"] = pc.magnesium == PlanMagnesium::None ? std::string("none")
+                                   : pc.magnesium == PlanMagnesium::MagnesiumSulfate ? std::string("magnesium_sulfate_heptahydrate")
+                                                                                     : std::string("magnesium_chloride_hexahydrate");
+    j["plan_basis"]["magnesium_g_per_l"] = pc.magnesium_g_per_l;
+    j["plan_basis"]["magnesium_from_log"] = pc.magnesium_from_log;
   }
   // The Demand screen's estimate (when shown): level, flagged tests and the newest test's
   // disagreement with the log, per parameter.

@@ -175,6 +175,23 @@ Result<RecipeForEffect> recipe_for_effect(CompoundId id, const TargetEffect& tar
   return RecipeForEffect{id, grams_per_l, *strength};
 }
 
+Result<double> max_stock_g_per_l(CompoundId id, double temperature_c) {
+  const Compound& c = compound(id);
+  if (id == CompoundId::CalciumHydroxide || c.phase == Phase::Gas) {
+    return Error{"compound", fmt::format("{} has no stock strength limit to type (accepted: a dissolvable solid)", c.key)};
+  }
+  if (auto s = ranges::check("temperature_c", temperature_c, ranges::kStockTemperatureC); !s) return s.error();
+  if (auto sol = solubility_at(c, temperature_c); !sol) return sol.error();
+  const auto passes = [&](double g) { return stock_strength(StockRecipe{"", {{id, g}}, temperature_c}).ok(); };
+  double lo = 0.0, hi = ranges::kStockGPerL.hi;
+  if (passes(hi)) return hi;
+  while (hi - lo > 0.005) {
+    const double mid = 0.5 * (lo + hi);
+    (passes(mid) ? lo : hi) = mid;
+  }
+  return std::floor(lo * 100.0) / 100.0;  // down to the 0.01 g/L: the value itself passes
+}
+
 // A label claim fixes the strength per mL of the claimed parameter; the rest of the chemistry
 // is assumed: alkalinity products are sodium salts with the given DIC per equivalent, calcium
 // and magnesium products are chlorides. The notes say so.

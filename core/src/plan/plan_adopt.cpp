@@ -59,7 +59,7 @@ std::optional<ScheduledPump> scheduled_pump_for(const journal::Journal& journal,
     if (e->time_s > now_s) break;
   }
   if (!found) return std::nullopt;
-  return ScheduledPump{found->device, found->calibration};
+  return ScheduledPump{found->device, found->calibration, found->doses_per_day, found->amount, found->stock_g_per_l};
 }
 
 Result<std::vector<AdoptedSchedule>> schedules_from_plan(const PlanInput& input, const Plan& plan,

@@ -227,6 +227,15 @@ struct RecipeForEffect {
 Result<RecipeForEffect> recipe_for_effect(CompoundId compound, const TargetEffect& target,
                                           double temperature_c);
 
+// The strongest stock of one compound that stock_strength accepts at temperature_c: grams of
+// the compound as sold per litre of finished solution, just under its solubility as
+// stock_strength judges it (crystal-volume water estimate included), found by bisection to
+// 0.01 g/L and capped at ranges::kStockGPerL. For a field's accepted range, so a strength too
+// strong is refused as it is typed. Errors: temperature outside the compound's solubility
+// table (field "temperature_c"); calcium hydroxide and gases (field "compound": limewater has
+// its own strength, saturated_limewater).
+Result<double> max_stock_g_per_l(CompoundId compound, double temperature_c);
+
 // ---------------------------------------------------------------- 6. A user's own product
 // Described by its label only: "dose_ml raises tank_volume_l litres by rise units".
 struct LabelClaim {

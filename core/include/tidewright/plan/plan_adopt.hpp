@@ -6,6 +6,7 @@
 #pragma once
 
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -40,6 +41,9 @@ Result<DeliveryRecipe> recipe_of(const additives::Additive& additive);
 struct ScheduledPump {
   std::string device;
   double calibration = 1.0;
+  int doses_per_day = 1;      // the schedule's program: doses a day and the amount SET per dose
+  double amount = 0;          // (mL or g, journal::DoseSchedule::amount)
+  std::optional<double> stock_g_per_l;  // its stock's strength (mL doses)
 };
 std::optional<ScheduledPump> scheduled_pump_for(const journal::Journal& journal, journal::SystemId system,
                                                 const additives::Additive& additive, std::int64_t now_s);
