@@ -97,6 +97,12 @@ test('pumps: name and calibration of the alkalinity pump on the Plan, refused va
   check(pump.name === demoPump.device && pump.calibration === demoPump.calibration && pump.from_schedule,
         `default alkalinity pump ${JSON.stringify(pump)}, schedule ${demoPump.device} ${demoPump.calibration}`);
   check(s.dosing_forms.plan.alkalinity_pump_name === null, 'a name is stored before the keeper set one');
+  // Not set by the keeper: the stocks' strengths are those the log's pumps dose (issue 15: the
+  // calcium stock was planned at the starting 200 g/L while the pump doses 250 g/L).
+  const demoCalcium = s.schedules.find((e) => e.additive === 'calcium_chloride_dihydrate');
+  check(demoCalcium && s.plan_basis.calcium_g_per_l === demoCalcium.stock_g_per_l && s.plan_basis.alkalinity_g_per_l === demoPump.stock_g_per_l,
+        `planned strengths ${s.plan_basis.alkalinity_g_per_l} and ${s.plan_basis.calcium_g_per_l} g/L; the log's pumps dose ${demoPump.stock_g_per_l} and ${demoCalcium && demoCalcium.stock_g_per_l}`);
+  check(s.dosing_forms.plan.calcium_stock_g_per_l === null, 'a calcium strength is stored before the keeper set one');
   // The demo's soda-ash pump doses twice a day (its schedule, so the plan's default); at that
   // the largest change of alkalinity from one dose holds doses back and the plan cannot hold
   // (the next test shows it). Four a day, as the keeper's own, holds.

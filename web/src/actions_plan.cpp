@@ -91,14 +91,40 @@ tw::Result<add::Additive> stock_additive(add::CompoundId id, double g_per_l, con
   return add::additive_from_stock(r);
 }
 
-tw::Result<add::Additive> alkalinity_stock(const PlanForm& f, double temperature_c) {
+add::CompoundId alkalinity_compound(const PlanForm& f) {
+  return f.alkalinity == PlanAlkalinity::SodiumBicarbonate ? add::CompoundId::SodiumBicarbonate
+                                                           : add::CompoundId::SodiumCarbonate;
+}
+
+tw::Result<add::Additive> alkalinity_stock(const PlanForm& f, double g_per_l, double temperature_c) {
   if (f.alkalinity == PlanAlkalinity::Limewater) return add::limewater_additive(temperature_c);
   const bool carb = f.alkalinity == PlanAlkalinity::SodiumCarbonate;
-  return stock_additive(carb ? add::CompoundId::SodiumCarbonate : add::CompoundId::SodiumBicarbonate,
-                        f.alkalinity_g_per_l, carb ? "Sodium carbonate" : "Sodium bicarbonate");
+  return stock_additive(alkalinity_compound(f), g_per_l, carb ? "Sodium carbonate" : "Sodium bicarbonate");
 }
-tw::Result<add::Additive> calcium_stock(const PlanForm& f) {
-  return stock_additive(add::CompoundId::CalciumChlorideDihydrate, f.calcium_g_per_l, "Calcium chloride dihydrate");
+tw::Result<add::Additive> calcium_stock(double g_per_l) {
+  return stock_additive(add::CompoundId::CalciumChlorideDihydrate, g_per_l, "Calcium chloride dihydrate");
+}
+
+// A stock's strength as planned: the keeper's, else that of the compound's stock the log shows
+// dosed (a schedule, else a dose in the last weeks), else the starting strength.
+double strength_of(const AppState& app, tw::journal::SystemId system, add::CompoundId id, const std::optional<double>& typed,
+                   double starter, bool* from_log) {
+  *from_log = false;
+  if (typed) return *typed;
+  const add::CompoundId ids[] = {id};
+  const auto dosed = pl::dosed_stock_for(app.journal, system, ids, platform::now_unix_seconds());
+  if (dosed && dosed->stock_g_per_l) {
+    *from_log = true;
+    return *dosed->stock_g_per_l;
+  }
+  return starter;
+}
+
+void resolve_strengths(const AppState& app, const PlanForm& f, tw::journal::SystemId system, PlanCache& out) {
+  out.alkalinity_g_per_l = strength_of(app, system, alkalinity_compound(f), f.alkalinity_g_per_l,
+                                       pl::kStarterSodaAshGPerL, &out.alkalinity_strength_from_log);
+  out.calcium_g_per_l = strength_of(app, system, add::CompoundId::CalciumChlorideDihydrate, f.calcium_g_per_l,
+                                    pl::kStarterCalciumChlorideGPerL, &out.calcium_strength_from_log);
 }
 tw::Result<add::Additive> magnesium_stock(PlanMagnesium m, double g_per_l) {
   const add::CompoundId id = magnesium_compound(m);
@@ -154,8 +180,8 @@ std::array<PlanPump, kPlanPumps> resolve_pumps(const AppState& app, const PlanFo
     p.max_dose_ml = set.max_dose_ml.value_or(program.max_dose);
     p.program_from_schedule = sched && (!set.doses_per_day || !set.max_dose_ml);
   };
-  one(0, alkalinity_stock(f, sys.default_temperature_c));
-  one(1, calcium_stock(f));
+  one(0, alkalinity_stock(f, c.alkalinity_g_per_l, sys.default_temperature_c));
+  one(1, calcium_stock(c.calcium_g_per_l));
   one(2, c.magnesium == PlanMagnesium::None ? tw::Result<add::Additive>(tw::Error{"magnesium", "none"})
                                             : magnesium_stock(c.magnesium, c.magnesium_g_per_l));
   if (f.alkalinity == PlanAlkalinity::Limewater) {  // rides on the top-off
@@ -206,6 +232,7 @@ void refresh_plan(AppState& app) {
     return;
   }
   resolve_magnesium(app, f, sys->id, out);
+  resolve_strengths(app, f, sys->id, out);
   out.pumps = resolve_pumps(app, f, out, *sys);
   pl::PlanInput in;
   in.system.name = sys->name;
@@ -275,7 +302,7 @@ void refresh_plan(AppState& app) {
     c = std::move(out);
   };
   if (f.alkalinity != PlanAlkalinity::None) {
-    auto a = alkalinity_stock(f, sys->default_temperature_c);
+    auto a = alkalinity_stock(f, out.alkalinity_g_per_l, sys->default_temperature_c);
     if (!a) return refuse(f.alkalinity == PlanAlkalinity::Limewater ? "Limewater" : "Alkalinity stock", a.error());
     pl::Delivery d = pump(std::move(a).value(), 0);
     if (f.alkalinity == PlanAlkalinity::Limewater) {
@@ -285,7 +312,7 @@ void refresh_plan(AppState& app) {
     in.deliveries.push_back(std::move(d));
   }
   if (f.calcium == PlanCalcium::CalciumChloride) {
-    auto a = calcium_stock(f);
+    auto a = calcium_stock(out.calcium_g_per_l);
     if (!a) return refuse("Calcium stock", a.error());
     in.deliveries.push_back(pump(std::move(a).value(), 1));
   }

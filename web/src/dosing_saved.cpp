@@ -84,9 +84,9 @@ json opt(const std::optional<int>& v) { return v ? json(*v) : json(nullptr); }
 // ---------------------------------------------------------------- 2. Writing
 json plan_to_json(const PlanForm& f) {
   json j = {{"alkalinity_from", name_of(kPlanAlkalinity, f.alkalinity)},
-            {"alkalinity_stock_g_per_l", f.alkalinity_g_per_l},
+            {"alkalinity_stock_g_per_l", opt(f.alkalinity_g_per_l)},
             {"calcium_from", name_of(kPlanCalcium, f.calcium)},
-            {"calcium_stock_g_per_l", f.calcium_g_per_l},
+            {"calcium_stock_g_per_l", opt(f.calcium_g_per_l)},
             // null: from the log (what it shows dosed), else none / the stock's starting strength
             {"magnesium_from", f.magnesium ? json(name_of(kPlanMagnesium, *f.magnesium)) : json(nullptr)},
             {"magnesium_stock_g_per_l", opt(f.magnesium_g_per_l)},
@@ -268,9 +268,9 @@ PlanForm plan_from_json(const json& j, const jn::System& sys, std::vector<std::s
   PlanForm f;
   Reader r(j, "Plan settings of " + sys.name, refused);
   r.choice("alkalinity_from", "Alkalinity from", kPlanAlkalinity, &f.alkalinity);
-  r.number("alkalinity_stock_g_per_l", "Alkalinity stock strength", rg::kStockGPerL, &f.alkalinity_g_per_l, true);
+  r.optional("alkalinity_stock_g_per_l", "Alkalinity stock strength", rg::kStockGPerL, &f.alkalinity_g_per_l, true);
   r.choice("calcium_from", "Calcium from", kPlanCalcium, &f.calcium);
-  r.number("calcium_stock_g_per_l", "Calcium stock strength", rg::kStockGPerL, &f.calcium_g_per_l, true);
+  r.optional("calcium_stock_g_per_l", "Calcium stock strength", rg::kStockGPerL, &f.calcium_g_per_l, true);
   r.optional_choice("magnesium_from", "Magnesium from", kPlanMagnesium, &f.magnesium);
   r.optional("magnesium_stock_g_per_l", "Magnesium stock strength", rg::kStockGPerL, &f.magnesium_g_per_l, true);
   // Within the compound's solubility (the core's strongest stock, as the screen's field takes it).

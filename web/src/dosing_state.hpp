@@ -201,9 +201,13 @@ struct PlanPumpSetting {
 
 struct PlanForm {
   PlanAlkalinity alkalinity = PlanAlkalinity::SodiumCarbonate;
-  double alkalinity_g_per_l = tw::plan::kStarterSodaAshGPerL;  // stock strength (as sold, per L of solution)
+  // Stock strengths (the compound as sold, per L of solution). Unset = the strength of that
+  // compound's stock the log shows dosed (plan::dosed_stock_for: the pump's schedule, else a
+  // dose in the last weeks), else the core's starting strength: a plan never assumes a weaker
+  // or stronger stock than the one in the pump without the keeper saying so.
+  std::optional<double> alkalinity_g_per_l;
   PlanCalcium calcium = PlanCalcium::CalciumChloride;
-  double calcium_g_per_l = tw::plan::kStarterCalciumChlorideGPerL;  // CaCl2.2H2O per L of solution
+  std::optional<double> calcium_g_per_l;  // CaCl2.2H2O
   // Unset = the magnesium stock the log shows dosed (plan::dosed_stock_for: a schedule, else a
   // dose in the last weeks), else None; its strength unset = that schedule's or dose's stock,
   // else the core's starting strength of the compound.
@@ -253,6 +257,10 @@ struct PlanCache {
   PlanMagnesium magnesium = PlanMagnesium::None;
   double magnesium_g_per_l = tw::plan::kStarterMagnesiumChlorideGPerL;
   bool magnesium_from_log = false;
+  // The alkalinity and calcium stocks' strengths as planned: the keeper's, else the log's.
+  double alkalinity_g_per_l = tw::plan::kStarterSodaAshGPerL;
+  double calcium_g_per_l = tw::plan::kStarterCalciumChlorideGPerL;
+  bool alkalinity_strength_from_log = false, calcium_strength_from_log = false;
   double start_day = 0;                        // days since epoch of day 1, 00:00 local
   int computed_count = 0;
 };

@@ -99,7 +99,11 @@ void draw_plan_stock_cards(AppState& app, PlanForm& f) {
     const auto id = f.alkalinity == PlanAlkalinity::SodiumCarbonate ? add::CompoundId::SodiumCarbonate
                                                                     : add::CompoundId::SodiumBicarbonate;
     draw_pump(app, 0, pumps[0], "plan.alk_pump", false,
-              [&] { strength_field(app, "plan.alk_strength", "Alkalinity stock strength", id, 5, &f.alkalinity_g_per_l); });
+              [&] {
+                double g = c.alkalinity_g_per_l;
+                if (strength_field(app, "plan.alk_strength", "Alkalinity stock strength", id, 5, &g)) f.alkalinity_g_per_l = g;
+              });
+    if (c.alkalinity_strength_from_log) ui::dim_text("Stock strength: the one this system is dosed with in the log.");
   } else if (f.alkalinity == PlanAlkalinity::Limewater) {
     draw_pump(app, 0, pumps[0], "plan.alk_pump", true, [&] {
       ui::number_field(app, "plan.evaporation", {"Evaporation (top-off per day)", "L/day", 1, 0.5,
@@ -116,9 +120,12 @@ void draw_plan_stock_cards(AppState& app, PlanForm& f) {
   if (ui::choice(app, "plan.calcium", "Calcium from", &ca, cas, 2)) f.calcium = static_cast<PlanCalcium>(ca);
   if (f.calcium == PlanCalcium::CalciumChloride) {
     draw_pump(app, 1, pumps[1], "plan.ca_pump", false, [&] {
-      strength_field(app, "plan.ca_strength", "Calcium stock strength", add::CompoundId::CalciumChlorideDihydrate, 10,
-                     &f.calcium_g_per_l);
+      double g = c.calcium_g_per_l;
+      if (strength_field(app, "plan.ca_strength", "Calcium stock strength", add::CompoundId::CalciumChlorideDihydrate, 10, &g)) {
+        f.calcium_g_per_l = g;
+      }
     });
+    if (c.calcium_strength_from_log) ui::dim_text("Stock strength: the one this system is dosed with in the log.");
   }
   ui::card_end(app);
 

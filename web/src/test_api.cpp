@@ -214,6 +214,8 @@ std::string state_json() {
                                    : pc.magnesium == PlanMagnesium::MagnesiumSulfate ? std::string("magnesium_sulfate_heptahydrate")
                                                                                      : std::string("magnesium_chloride_hexahydrate");
     j["plan_basis"]["magnesium_g_per_l"] = pc.magnesium_g_per_l;
+    j["plan_basis"]["alkalinity_g_per_l"] = pc.alkalinity_g_per_l;
+    j["plan_basis"]["calcium_g_per_l"] = pc.calcium_g_per_l;
     j["plan_basis"]["magnesium_from_log"] = pc.magnesium_from_log;
   }
   // The Demand screen's estimate (when shown): level, flagged tests and the newest test's
