@@ -81,9 +81,9 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     for (let i = 0; i < 20 && !last.visible; i++) {
       const x = first.x + first.w / 2;
       if (cdp) {
-        await drag(page, cdp, x, header.y + header.h + 6 * first.h, header.y + header.h + 2 * first.h);
+        await drag(page, cdp, x, first.y + 5 * first.h, first.y + first.h);  // inside the list's box
       } else {
-        await page.mouse.move(x, header.y + header.h + 3 * first.h);
+        await page.mouse.move(x, first.y + 2 * first.h);
         await page.mouse.wheel(0, 300);
         await frames(page, 4);
       }
