@@ -5,7 +5,7 @@
 // Screenshots go to tests/browser/output/switcher-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore, tap, enter } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -107,6 +107,28 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check((await widget(page, 'header.switch')).text.startsWith('Rack 33'), 'the header does not name Rack 33');
     await context.close();
     // The blank same-origin page used to seed the older store asks for /favicon.ico (a 404).
+    const real = errors.filter((e) => !benign(e) && !/status of 404/.test(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`switcher: typing part of a name keeps the systems that hold it; one of them is tapped (${label})`, async () => {
+    const { context, page, errors } = await openFarm(opts);
+    await press(page, await widget(page, 'header.switch'));
+    await tap(page, 'switch.find');
+    await enter(page, 'rack 3');  // Rack 30 to 33, in any case (Rack 03 reads 'rack 03')
+    const found = await widget(page, 'switch.31'), gone = await widget(page, 'switch.12');
+    check(found.visible && found.text === 'Rack 31', `Rack 31 after typing: ${JSON.stringify(found)}`);
+    check(!gone.found, 'Rack 12 is still listed');
+    const listed = Object.keys(JSON.parse(await page.evaluate(() => Module.ccall('tw_test_widgets', 'string', [], []))))
+      .filter((n) => /^switch\.\d+$/.test(n)).sort();
+    check(listed.join(' ') === 'switch.30 switch.31 switch.32 switch.33', `listed ${listed.join(' ')}`);
+    await frames(page, 3);
+    await page.screenshot({ path: join(OUTPUT, `switcher-${label}-found.png`) });
+    await press(page, found);
+    check((await state(page)).current_system === 31, 'tapping Rack 31 did not make it current');
+    await context.close();
     const real = errors.filter((e) => !benign(e) && !/status of 404/.test(e));
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
   });

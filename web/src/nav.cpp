@@ -188,7 +188,7 @@ void draw_header(AppState& app, float height) {
     std::vector<ui::PickEntry> entries;
     for (const auto& s : app.journal.systems) entries.push_back({std::to_string(s.id), s.name, s.id == app.current_system});
     // The box takes what the room leaves after the Find field, its match line and Manage systems.
-    const float box = std::max(room, 8 * e) - (app.ui.switcher.filter.empty() ? 4.0f : 5.5f) * ui::kTargetEm * e;
+    const float box = std::max(room, 8 * e) - (app.ui.switcher.filter.empty() ? 4.75f : 6.25f) * ui::kTargetEm * e;
     const int picked = ui::pick_list(app, "switch", "Find a system", app.ui.switcher, entries, box);
     if (picked >= 0) {
       select_system(app, app.journal.systems[static_cast<std::size_t>(picked)].id);
