@@ -43,6 +43,13 @@ async function pick(page, name, text, mimeType = 'text/csv') {
 
 const testsOf = (j, systemId) => j.events.filter((e) => e.system_id === systemId && e.type === 'test');
 
+// After the text entry closes, a phone's page changes size back (the keyboard went away) and the
+// canvas is cleared until the next frame after it: a screenshot taken then was blank, now and then.
+async function afterEntry(page) {
+  await page.waitForTimeout(300);
+  await frames(page, 3);
+}
+
 let shared;  // one phone context for the tests in order
 
 test('a wide CSV is previewed, nothing added until confirmed, then goes to the chosen system', async () => {
@@ -235,7 +242,7 @@ test('an unused column read as alkalinity (dKH) through Read as: the preview and
   check((await widget(page, 'import.mapping_error')).found, 'the refusal is not on screen');
   check(p.mappings.length === 1 && p.csv.added === 4, `after the refusal: ${JSON.stringify(p.mappings)} ${p.csv.added}`);
   await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['import.mapping_error']));
-  await frames(page, 3);
+  await afterEntry(page);
   await page.screenshot({ path: join(OUTPUT, 'phone-import-read-as-refused.png') });
   await tap(page, 'import.add');
   const j = await journal(page);
@@ -396,6 +403,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     const found = await widget(page, 'import.system.31'), other = await widget(page, 'import.system.30');
     check(found.visible && found.text === 'Rack 31', `Rack 31 after typing: ${JSON.stringify(found)}`);
     check(!other.found || !other.visible, `Rack 30 still listed after typing 31 (${shown.length} names recorded)`);
+    await afterEntry(page);
     await page.screenshot({ path: join(OUTPUT, `${label}-import-system-found.png`) });
     await tap(page, 'import.system.31');
     p = (await state(page)).import;

@@ -50,6 +50,13 @@ async function drag(page, cdp, x, y0, y1) {
   await frames(page, 3);
 }
 
+// After the text entry closes, a phone's page changes size back (the keyboard went away) and the
+// canvas is cleared until the next frame after it: a screenshot taken then was blank, now and then.
+async function afterEntry(page) {
+  await page.waitForTimeout(300);
+  await frames(page, 3);
+}
+
 async function press(page, w) {
   const touch = await page.evaluate(() => navigator.maxTouchPoints > 0);
   if (touch) await page.touchscreen.tap(w.x + w.w / 2, w.y + w.h / 2); else await page.mouse.click(w.x + w.w / 2, w.y + w.h / 2);
@@ -124,7 +131,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     const listed = Object.keys(JSON.parse(await page.evaluate(() => Module.ccall('tw_test_widgets', 'string', [], []))))
       .filter((n) => /^switch\.\d+$/.test(n)).sort();
     check(listed.join(' ') === 'switch.30 switch.31 switch.32 switch.33', `listed ${listed.join(' ')}`);
-    await frames(page, 3);
+    await afterEntry(page);
     await page.screenshot({ path: join(OUTPUT, `switcher-${label}-found.png`) });
     await press(page, found);
     check((await state(page)).current_system === 31, 'tapping Rack 31 did not make it current');

@@ -80,7 +80,10 @@ std::string meaning_label(const std::string& meaning) {
 // typed. True when a choice made the preview again (the report drawn from is then gone).
 bool draw_read_as(AppState& app, ImportPreview& p, const std::string& header) {
   if (p.mapping_open != header) {
-    if (ui::button(app, "import.map." + header, "Read as\u2026", -1, ui::Tone::Quiet)) {
+    // The column's name on the button: two columns' buttons would otherwise look the same.
+    const float room = ImGui::GetContentRegionAvail().x - 2 * ImGui::GetStyle().FramePadding.x;
+    const std::string label = ui::fit_text("Read '" + header + "' as\u2026", room);
+    if (ui::button(app, "import.map." + header, label.c_str(), -1, ui::Tone::Quiet)) {
       p.mapping_open = header;
       p.mapping_typed.clear();
       p.meaning_list = {};
