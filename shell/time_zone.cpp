@@ -31,12 +31,9 @@ int gmtoff_minutes(std::time_t t) {
   return static_cast<int>(tm.tm_gmtoff / 60);
 }
 
-// The zone's offset at a local time: guess with the offset at that instant read as UTC, then
-// once more at the corrected instant (right across daylight-saving changes but for the hour
-// that does not exist or exists twice, where the earlier offset is taken).
+// The zone's offset at a local time, by the core's rule (the app uses the same one).
 int local_offset(std::int64_t local_as_utc_s) {
-  const int first = gmtoff_minutes(static_cast<std::time_t>(local_as_utc_s));
-  return gmtoff_minutes(static_cast<std::time_t>(local_as_utc_s - first * 60LL));
+  return datetime::zone_offset_at_local(local_as_utc_s, [](std::int64_t t) { return gmtoff_minutes(static_cast<std::time_t>(t)); });
 }
 
 }  // namespace

@@ -4,15 +4,20 @@
 // and range, Cancel changing and saving nothing, dates like 03/04/2026 read in the order the
 // keeper picks, a Tidewright file added (only what is new) or replacing everything after a
 // second tap, and the app's CSV export equal to `tidewright log export` of the same journal.
+// Also: a winter and a summer row stored at the same UTC times as `tidewright log import` stores
+// them under TZ=Europe/Berlin (each date in its own offset); a column the core does not know read
+// as alkalinity (dKH) through "Read as…", and a meaning it refuses shown with its message; on a
+// farm of 33 systems, the rows sent to Rack 31 found by typing in the list (phone and desktop).
 //   node test_import.mjs [site-dir]      (default ../../build/web/site)
 // The command line: TW_CLI, else ../../build/native/shell/tidewright.
-// Screenshot: tests/browser/output/phone-import-csv-preview.png.
+// Screenshots: tests/browser/output/phone-import-csv-preview.png, phone-import-read-as*.png,
+// {phone,desktop}-import-system-{list,found}.png.
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, state, tap, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, widget } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, state, tap, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, widget, enter, waitReady, watchErrors, seedOlderStore } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
@@ -38,6 +43,13 @@ async function pick(page, name, text, mimeType = 'text/csv') {
 
 const testsOf = (j, systemId) => j.events.filter((e) => e.system_id === systemId && e.type === 'test');
 
+// After the text entry closes, a phone's page changes size back (the keyboard went away) and the
+// canvas is cleared until the next frame after it: a screenshot taken then was blank, now and then.
+async function afterEntry(page) {
+  await page.waitForTimeout(300);
+  await frames(page, 3);
+}
+
 let shared;  // one phone context for the tests in order
 
 test('a wide CSV is previewed, nothing added until confirmed, then goes to the chosen system', async () => {
@@ -60,7 +72,7 @@ test('a wide CSV is previewed, nothing added until confirmed, then goes to the c
   let now = await state(page);
   check(now.events === before.events && now.store.saves === before.store.saves, 'the preview changed or saved the journal');
   check(now.screen === 'settings' && (await widget(page, 'import.preview')).visible, 'preview not on screen');
-  await tap(page, `import.system.1`);
+  await tap(page, `import.system.${target.id}`);
   p = (await state(page)).import;
   check(p.csv_system === target.id && p.csv.added === 6, `system choice: ${p.csv_system}, ${p.csv.added}`);
   await page.screenshot({ path: join(OUTPUT, 'phone-import-csv-preview-top.png') });
@@ -82,7 +94,7 @@ test('a wide CSV is previewed, nothing added until confirmed, then goes to the c
   // The same file again into the same system: nothing to add, all six already there.
   p = await pick(page, 'wide.csv', wide);
   check(p.csv.added === 6, `into the current system again: ${JSON.stringify(p.csv)}`);
-  await tap(page, 'import.system.1');
+  await tap(page, `import.system.${target.id}`);
   p = (await state(page)).import;
   check(p.csv.added === 0 && p.csv.duplicates === 6, `again: ${JSON.stringify(p.csv)}`);
   check(!(await widget(page, 'import.add')).found, 'an Add button for nothing');
@@ -100,7 +112,7 @@ test('a long CSV (the command line columns): rows without a system go to the cho
     '2026-11-04T09:30:00Z,,dose,,,,sodium_carbonate,20,mL,80,\n' +
     '2026-11-04T10:00:00Z,,note,,,,,,,,from the long form\n';
   let p = await pick(page, 'long.csv', long);
-  await tap(page, 'import.system.1');
+  await tap(page, `import.system.${target.id}`);
   p = (await state(page)).import;
   check(p.csv_system === target.id && p.csv.added === 3 && p.csv.refused.length === 0, `preview ${JSON.stringify(p.csv)}`);
   await tap(page, 'import.add');
@@ -163,6 +175,81 @@ test('dates like 03/04/2026: the keeper picks the order and the preview is made 
   const new8 = j.events.filter((e) => e.value === 8.2 || e.value === 8.3).map((e) => e.time.slice(0, 10)).sort();
   check(new8.includes('2026-04-03') && new8.includes('2026-06-05'), `dates ${new8}`);
   check((await state(page)).events === before.events + 2, 'not two entries');
+});
+
+test('times cross daylight saving as on the command line: a winter and a summer row, each in its own offset', async () => {
+  const { page } = shared;
+  await messageGone(page);
+  const before = await state(page);
+  const sys = before.systems.find((x) => x.id === before.current_system);
+  // Berlin: +01:00 in January, +02:00 in July; 08:00 local is 07:00Z and 06:00Z.
+  const csv = 'Date,Alkalinity (dKH)\n2025-01-15 08:00,7.1\n2025-07-15 08:00,7.2\n';
+  const p = await pick(page, 'dst.csv', csv);
+  check(p.csv.added === 2 && p.csv.refused.length === 0, `preview ${JSON.stringify(p.csv)}`);
+  await tap(page, 'import.add');
+  const j = await journal(page);
+  const appTimes = j.events.filter((e) => e.type === 'test' && e.system_id === sys.id && e.time.startsWith('2025-0'))
+    .map((e) => `${e.value}@${e.time}`).sort();
+  check(appTimes.join(' ') === '7.1@2025-01-15T07:00:00Z 7.2@2025-07-15T06:00:00Z', `the app stored ${appTimes.join(' ')}`);
+  // The command line reads the same file in the same zone.
+  const dir = mkdtempSync(join(tmpdir(), 'tw-dst-'));
+  try {
+    const db = join(dir, 'j.db'), file = join(dir, 'dst.csv');
+    writeFileSync(file, csv);
+    const env = { ...process.env, TZ: ZONE };
+    execFileSync(cli, ['log', '--journal', db, 'add', 'system', '--name', 'Berlin reef', '--volume', '300'], { stdio: 'pipe', env });
+    execFileSync(cli, ['log', '--journal', db, 'import', file, '--system', 'Berlin reef'], { stdio: 'pipe', env });
+    const out = JSON.parse(execFileSync(cli, ['log', '--journal', db, 'export', '--format', 'json'], { encoding: 'utf8', env }));
+    const cliTimes = out.events.filter((e) => e.type === 'test').map((e) => `${e.value}@${e.time}`).sort();
+    check(cliTimes.join(' ') === appTimes.join(' '), `command line ${cliTimes.join(' ')}, app ${appTimes.join(' ')}`);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+});
+
+test('an unused column read as alkalinity (dKH) through Read as: the preview and the entries follow', async () => {
+  const { page } = shared;
+  await messageGone(page);
+  const before = await state(page);
+  const sys = before.current_system;
+  const csv = 'Date,Alk reading,Calcium (mg/L),Tester\n2025-11-20 08:00,8.4,430,Ann\n2025-11-21 08:00,8.6,435,Ann\n';
+  let p = await pick(page, 'alk.csv', csv);
+  check(p.csv.added === 2 && p.csv.unused_columns.some((c) => c.name === 'Alk reading'), `before: ${JSON.stringify(p.csv)}`);
+  const reason = p.csv.unused_columns.find((c) => c.name === 'Alk reading').reason;
+  check(!/mapping|--map/.test(reason), `the reason asks for what the app has no way to do: ${reason}`);
+  await tap(page, 'import.map.Alk reading');
+  p = (await state(page)).import;
+  check(p.mapping_open === 'Alk reading', `the list is not open: ${p.mapping_open}`);
+  check((await widget(page, 'import.meaning.alkalinity dKH')).found && (await widget(page, 'import.meaning.skip')).found,
+    'the list lacks alkalinity dKH or skip');
+  await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['import.meaning.alkalinity dKH']));
+  await frames(page, 3);
+  await page.screenshot({ path: join(OUTPUT, 'phone-import-read-as.png') });
+  await tap(page, 'import.meaning.alkalinity dKH');
+  p = (await state(page)).import;
+  check(p.mappings.length === 1 && p.mappings[0].header === 'Alk reading' && p.mappings[0].meaning === 'alkalinity dKH',
+    `mappings ${JSON.stringify(p.mappings)}`);
+  check(p.csv.added === 4 && !p.csv.unused_columns.some((c) => c.name === 'Alk reading'), `after: ${JSON.stringify(p.csv)}`);
+  check((await widget(page, 'import.mapped.Alk reading')).found, 'the reading chosen is not shown');
+  check((await state(page)).events === before.events, 'the choice changed the log');
+  // A meaning the core does not read: its message (the column, the accepted forms), nothing kept.
+  await tap(page, 'import.map.Tester');
+  await tap(page, 'import.meaning_typed');
+  await enter(page, 'alkalinity furlongs');
+  p = (await state(page)).import;
+  check(/Tester/.test(p.mapping_error) && /accepted/.test(p.mapping_error) && /alkalinity dKH/.test(p.mapping_error),
+    `refusal: ${p.mapping_error}`);
+  check((await widget(page, 'import.mapping_error')).found, 'the refusal is not on screen');
+  check(p.mappings.length === 1 && p.csv.added === 4, `after the refusal: ${JSON.stringify(p.mappings)} ${p.csv.added}`);
+  await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['import.mapping_error']));
+  await afterEntry(page);
+  await page.screenshot({ path: join(OUTPUT, 'phone-import-read-as-refused.png') });
+  await tap(page, 'import.add');
+  const j = await journal(page);
+  const alk = j.events.filter((e) => e.system_id === sys && e.type === 'test' && e.parameter === 'alkalinity' && e.time.startsWith('2025-11-2'))
+    .map((e) => `${e.time}=${e.value} ${e.unit}`).sort();
+  check(alk.join(', ') === '2025-11-20T07:00:00Z=8.4 dKH, 2025-11-21T07:00:00Z=8.6 dKH', `alkalinity added: ${alk.join(', ')}`);
+  check((await state(page)).events === before.events + 4, 'not four entries');
 });
 
 test('a Tidewright file is added: only what is new, a second time nothing', async () => {
@@ -253,7 +340,7 @@ test('Replace everything asks first, names what goes, and replaces on the second
 test('desktop: the preview fits the column, Add and Cancel side by side', async () => {
   const { context, page } = await openApp(browser, server.url, DESKTOP);
   await tap(page, 'tab.settings');
-  const p = await pick(page, 'wide.csv', 'Date,Alkalinity (dKH)\n2026-11-02 08:00,8.1\n');
+  const p = await pick(page, 'wide.csv', 'Date,Alkalinity (dKH),Alk reading\n2026-11-02 08:00,8.1,\n');
   check(p.csv.added === 1, `preview ${JSON.stringify(p.csv)}`);
   await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['import.add']));
   await frames(page, 3);
@@ -262,7 +349,73 @@ test('desktop: the preview fits the column, Add and Cancel side by side', async 
     `buttons ${JSON.stringify([add, cancel])}`);
   check(card.found && card.x >= add.x - 1, `counts ${JSON.stringify(card)}`);
   await page.screenshot({ path: join(OUTPUT, 'desktop-import-csv-preview.png') });
+  await tap(page, 'import.map.Alk reading');
+  const item = await widget(page, 'import.meaning.alkalinity dKH'), box = await widget(page, 'import.meaning_typed');
+  check(item.found && item.x + item.w <= 1280 && box.found, `the Read as list: ${JSON.stringify([item, box])}`);
+  await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['import.meaning.alkalinity dKH']));
+  await frames(page, 3);
+  await page.screenshot({ path: join(OUTPUT, 'desktop-import-read-as.png') });
   await context.close();
 });
+
+// A farm of 33 systems, as test_switcher.mjs builds it, opened from the older store.
+const LONG = 'North greenhouse quarantine and grow-out raceway for the soft coral frags';
+const farmUnits = { alkalinity: 'dKH', calcium_magnesium: 'mg/L', temperature: 'C', ph_scale: 'nbs', volume: 'L' };
+const FARM = {
+  format: 'tidewright-journal', schema_version: 3, next_id: 34, description: 'a farm of 33 systems (test)',
+  systems: Array.from({ length: 33 }, (_, i) => ({
+    id: i + 1, name: i === 1 ? LONG : `Rack ${String(i + 1).padStart(2, '0')}`, kind: 'coral_grow_out', volume_l: 400,
+    default_salinity: 35, default_temperature_c: 25, units: farmUnits, targets: {} })),
+  events: [],
+  app: { schema_version: 1, current_system: 2, demo_system_ids: [], settings: { text_size: 1.0, room_co2_ppm: 600 } },
+};
+
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`33 systems: the rows go to Rack 31, found by typing in the list (${label})`, async () => {
+    const context = await browser.newContext({ ...opts, timezoneId: ZONE });
+    const page = await context.newPage();
+    const errors = watchErrors(page);
+    await seedOlderStore(page, server.url, JSON.stringify(FARM));
+    await page.goto(server.url);
+    await waitReady(page);
+    await flushed(page);
+    await frames(page, 3);
+    check((await state(page)).systems.length === 33, 'the farm is not loaded');
+    await tap(page, 'tab.settings');
+    let p = await pick(page, 'farm.csv', 'Date,Calcium (mg/L)\n2025-11-22 08:00,440\n2025-11-23 08:00,445\n');
+    check(p.csv_system === 2 && p.csv.added === 2, `preview ${JSON.stringify(p)}`);
+    // The current system is chosen and in view; the list is a box that scrolls, not a grid of 33.
+    const current = await widget(page, 'import.system.2'), r31 = await widget(page, 'import.system.31');
+    const cut = current.text.endsWith('\u2026') && LONG.startsWith(current.text.slice(0, -1).trimEnd());
+    check(current.found && (opts.hasTouch ? cut : cut || current.text === LONG), `the long name reads "${current.text}"`);
+    check(r31.found && !r31.visible, `Rack 31 shown before scrolling or finding: ${JSON.stringify(r31)}`);
+    const vw = opts.viewport.width;
+    check(current.x >= 0 && current.x + current.w <= vw, `the list runs off the screen: ${JSON.stringify(current)}`);
+    await page.evaluate(() => Module.ccall('tw_test_reveal', null, ['string'], ['import.system.find']));
+    await frames(page, 3);
+    await page.screenshot({ path: join(OUTPUT, `${label}-import-system-list.png`) });
+    await tap(page, 'import.system.find');
+    await enter(page, '31');
+    p = (await state(page)).import;
+    check(p.system_filter === '31', `filter ${p.system_filter}`);
+    const shown = Object.keys(JSON.parse(await page.evaluate(() => Module.ccall('tw_test_widgets', 'string', [], []))))
+      .filter((n) => /^import\.system\.\d+$/.test(n));
+    const found = await widget(page, 'import.system.31'), other = await widget(page, 'import.system.30');
+    check(found.visible && found.text === 'Rack 31', `Rack 31 after typing: ${JSON.stringify(found)}`);
+    check(!other.found || !other.visible, `Rack 30 still listed after typing 31 (${shown.length} names recorded)`);
+    await afterEntry(page);
+    await page.screenshot({ path: join(OUTPUT, `${label}-import-system-found.png`) });
+    await tap(page, 'import.system.31');
+    p = (await state(page)).import;
+    check(p.csv_system === 31 && p.csv.added === 2, `chosen ${p.csv_system}, ${p.csv.added}`);
+    await tap(page, 'import.add');
+    const j = await journal(page);
+    const ca = j.events.filter((e) => e.parameter === 'calcium').map((e) => `${e.system_id}:${e.value}`).sort();
+    check(ca.join(' ') === '31:440 31:445', `calcium went to ${ca.join(' ')}`);
+    await context.close();
+    const real = errors.filter((e) => !benign(e) && !/status of 404/.test(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
 
 await runTests(tests, browser, server);

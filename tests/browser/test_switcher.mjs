@@ -5,7 +5,7 @@
 // Screenshots go to tests/browser/output/switcher-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore, tap, enter } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -50,6 +50,13 @@ async function drag(page, cdp, x, y0, y1) {
   await frames(page, 3);
 }
 
+// After the text entry closes, a phone's page changes size back (the keyboard went away) and the
+// canvas is cleared until the next frame after it: a screenshot taken then was blank, now and then.
+async function afterEntry(page) {
+  await page.waitForTimeout(300);
+  await frames(page, 3);
+}
+
 async function press(page, w) {
   const touch = await page.evaluate(() => navigator.maxTouchPoints > 0);
   if (touch) await page.touchscreen.tap(w.x + w.w / 2, w.y + w.h / 2); else await page.mouse.click(w.x + w.w / 2, w.y + w.h / 2);
@@ -81,9 +88,9 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     for (let i = 0; i < 20 && !last.visible; i++) {
       const x = first.x + first.w / 2;
       if (cdp) {
-        await drag(page, cdp, x, header.y + header.h + 6 * first.h, header.y + header.h + 2 * first.h);
+        await drag(page, cdp, x, first.y + 5 * first.h, first.y + first.h);  // inside the list's box
       } else {
-        await page.mouse.move(x, header.y + header.h + 3 * first.h);
+        await page.mouse.move(x, first.y + 2 * first.h);
         await page.mouse.wheel(0, 300);
         await frames(page, 4);
       }
@@ -107,6 +114,28 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check((await widget(page, 'header.switch')).text.startsWith('Rack 33'), 'the header does not name Rack 33');
     await context.close();
     // The blank same-origin page used to seed the older store asks for /favicon.ico (a 404).
+    const real = errors.filter((e) => !benign(e) && !/status of 404/.test(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`switcher: typing part of a name keeps the systems that hold it; one of them is tapped (${label})`, async () => {
+    const { context, page, errors } = await openFarm(opts);
+    await press(page, await widget(page, 'header.switch'));
+    await tap(page, 'switch.find');
+    await enter(page, 'rack 3');  // Rack 30 to 33, in any case (Rack 03 reads 'rack 03')
+    const found = await widget(page, 'switch.31'), gone = await widget(page, 'switch.12');
+    check(found.visible && found.text === 'Rack 31', `Rack 31 after typing: ${JSON.stringify(found)}`);
+    check(!gone.found, 'Rack 12 is still listed');
+    const listed = Object.keys(JSON.parse(await page.evaluate(() => Module.ccall('tw_test_widgets', 'string', [], []))))
+      .filter((n) => /^switch\.\d+$/.test(n)).sort();
+    check(listed.join(' ') === 'switch.30 switch.31 switch.32 switch.33', `listed ${listed.join(' ')}`);
+    await afterEntry(page);
+    await page.screenshot({ path: join(OUTPUT, `switcher-${label}-found.png`) });
+    await press(page, found);
+    check((await state(page)).current_system === 31, 'tapping Rack 31 did not make it current');
+    await context.close();
     const real = errors.filter((e) => !benign(e) && !/status of 404/.test(e));
     check(real.length === 0, `console errors: ${real.join(' | ')}`);
   });

@@ -123,7 +123,10 @@ void draw_overlays(float em);
 
 // ---------------------------------------------------------------- 5. Clock
 std::int64_t now_unix_seconds();
-int utc_offset_minutes();  // local time zone, for showing and reading times
+int utc_offset_minutes();  // the local time zone's offset now
+// The local zone's offset at an instant, daylight saving included. Times shown and typed go
+// through web/src/local_time.hpp, which uses it date by date (as the command line does).
+int utc_offset_minutes_at(std::int64_t unix_s);
 double now_ms();           // monotonic, for frame timing
 
 // ---------------------------------------------------------------- 6. Screen readers

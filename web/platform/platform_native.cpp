@@ -323,12 +323,13 @@ void draw_overlays(float em) {
 
 // ---------------------------------------------------------------- clock
 std::int64_t now_unix_seconds() { return static_cast<std::int64_t>(std::time(nullptr)); }
-int utc_offset_minutes() {
-  std::time_t t = std::time(nullptr);
+int utc_offset_minutes_at(std::int64_t unix_s) {
+  const auto t = static_cast<std::time_t>(unix_s);
   std::tm local{};
   localtime_r(&t, &local);
   return static_cast<int>(local.tm_gmtoff / 60);
 }
+int utc_offset_minutes() { return utc_offset_minutes_at(now_unix_seconds()); }
 double now_ms() {
   using namespace std::chrono;
   return duration<double, std::milli>(steady_clock::now().time_since_epoch()).count();

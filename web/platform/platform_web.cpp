@@ -102,6 +102,7 @@ EM_JS(void, js_set_canvas_size, (int w, int h), {
   if (GLFW.active) { GLFW.active.width = w; GLFW.active.height = h; }
 });
 EM_JS(int, js_utc_offset_minutes, (), { return -new Date().getTimezoneOffset(); });
+EM_JS(int, js_utc_offset_minutes_at, (double unix_s), { return -new Date(unix_s * 1000).getTimezoneOffset(); });
 // clang-format on
 
 // Canvas pixel size = CSS size x devicePixelRatio, checked every frame (resize, rotation,
@@ -320,6 +321,7 @@ void draw_overlays(float) {}  // the entry field is HTML (index.html #entry)
 // ---------------------------------------------------------------- clock
 std::int64_t now_unix_seconds() { return static_cast<std::int64_t>(std::time(nullptr)); }
 int utc_offset_minutes() { return js_utc_offset_minutes(); }
+int utc_offset_minutes_at(std::int64_t unix_s) { return js_utc_offset_minutes_at(static_cast<double>(unix_s)); }
 double now_ms() { return emscripten_get_now(); }
 
 void first_frame_drawn() { js_first_frame(); }

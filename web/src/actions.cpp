@@ -1,6 +1,7 @@
 // The app's actions: the only code that changes AppState's saved parts. Each asks the core to
 // validate (tw::journal::add_system, add_event, ...), changes nothing when refused, saves the
 // store after a change and bumps AppState::revision, so that results recompute.
+#include "local_time.hpp"
 #include "actions.hpp"
 
 #include "tidewright/common/ranges.hpp"
@@ -251,7 +252,7 @@ namespace {
 // The core's rule (jn::check_not_in_future), worded in the user's local time.
 bool refuse_future(AppState& app, std::int64_t when_s) {
   if (jn::check_not_in_future(when_s, platform::now_unix_seconds())) return false;
-  notify(app, "time " + fmtx::local_time_text(when_s, platform::utc_offset_minutes()) +
+  notify(app, "time " + local_time::text(when_s) +
                   " is in the future; accepted: any time up to now", true);
   return true;
 }

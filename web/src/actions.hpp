@@ -70,6 +70,9 @@ void ask_import(AppState& app);
 // journal changes until the keeper confirms it (actions_import.cpp).
 bool import_text(AppState& app, const std::string& text);
 void remake_import_preview(AppState& app);  // after the keeper changed a choice of the preview
+// A CSV column read as `meaning` (any text the core's match_csv_column reads, or "skip"; ""
+// takes the keeper's choice back); the preview is made again, or the core's refusal shown.
+void map_import_column(AppState& app, std::string header, std::string meaning);  // copies: callers pass the preview's own strings
 bool confirm_import_add(AppState& app);      // CSV rows, or a Tidewright file merged
 bool confirm_import_replace(AppState& app);  // a Tidewright file in place of everything here
 void cancel_import(AppState& app);

@@ -4,8 +4,10 @@
 // journal (import_csv, merge_journal), so what the keeper confirms is exactly what is added.
 #include <algorithm>
 #include <cctype>
+#include <optional>
 
 #include "actions.hpp"
+#include "local_time.hpp"
 #include "platform.hpp"
 #include "store.hpp"
 #include "tidewright/common/datetime.hpp"
@@ -32,11 +34,18 @@ void make_csv_preview(AppState& app) {
   if (!jn::find_system(app.journal, p.csv_system)) p.csv_system = app.current_system;
   // The options `tidewright log import` uses: future rows refused, local times in this zone.
   jn::CsvImportOptions opt;
-  opt.time.order = p.date_order;
-  opt.time.utc_offset_minutes = platform::utc_offset_minutes();
+  opt.time = local_time::parse_options(p.date_order);  // each date's own offset, as the CLI reads it
   if (p.csv_system) opt.default_system = p.csv_system;
   opt.now_s = platform::now_unix_seconds();
+  opt.mappings = p.mappings;
   auto report = jn::import_csv(p.merged, p.text, opt);
+  if (!report && report.error().field == "column mapping" && !p.mappings.empty()) {
+    // The newest choice is refused: say why and make the preview without it.
+    p.mapping_error = report.error().message;
+    p.mappings.pop_back();
+    make_csv_preview(app);
+    return;
+  }
   if (!report) {
     p.error = report.error().field + ": " + report.error().message;
     p.merged = {};
@@ -111,6 +120,23 @@ void remake_import_preview(AppState& app) {
   if (p.kind == ImportKind::Csv) make_csv_preview(app);
   if (p.kind == ImportKind::Journal) make_journal_preview(app);
   p.made_at_revision = app.revision;
+}
+
+void map_import_column(AppState& app, std::string header, std::string meaning) {
+  ImportPreview& p = app.ui.import;
+  if (p.kind != ImportKind::Csv) return;
+  const auto old = std::find_if(p.mappings.begin(), p.mappings.end(), [&](const jn::CsvColumnMapping& m) { return m.header == header; });
+  const std::optional<jn::CsvColumnMapping> before = old == p.mappings.end() ? std::nullopt : std::optional(*old);
+  if (old != p.mappings.end()) p.mappings.erase(old);
+  if (!meaning.empty()) p.mappings.push_back({header, meaning});
+  p.mapping_error.clear();
+  p.mapping_open.clear();
+  p.mapping_typed.clear();
+  remake_import_preview(app);
+  if (!p.mapping_error.empty() && before) {  // refused: the column keeps the reading it had
+    p.mappings.push_back(*before);
+    remake_import_preview(app);
+  }
 }
 
 bool confirm_import_add(AppState& app) {

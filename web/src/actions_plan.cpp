@@ -7,6 +7,7 @@
 #include <cstdio>
 
 #include "actions.hpp"
+#include "local_time.hpp"
 #include "platform.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/common/ranges.hpp"
@@ -326,7 +327,8 @@ void refresh_plan(AppState& app) {
   const std::int64_t local_s = platform::now_unix_seconds() + 60LL * platform::utc_offset_minutes();
   const std::int64_t tomorrow = (local_s / 86400 + 1) * 86400;
   in.start_date = tw::datetime::format_date_utc(tomorrow);
-  out.start_day = static_cast<double>(tomorrow - 60LL * platform::utc_offset_minutes()) / 86400.0;
+  // Tomorrow's local midnight in the offset of that night (a daylight-saving change may fall in between).
+  out.start_day = static_cast<double>(local_time::to_utc(tomorrow)) / 86400.0;
   auto plan = pl::make_plan(in);
   if (!plan) {
     out.error = plan.error().message;

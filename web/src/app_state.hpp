@@ -24,6 +24,7 @@
 #include "dosing_state.hpp"  // forms and cached results of Demand, Hatchery, Mixes, Plan
 #include "farm_state.hpp"    // the Systems screen's farm overview and round of tests
 #include "import_state.hpp"   // a picked file waiting for the keeper's confirmation
+#include "pick_list_state.hpp"  // scrolling lists: a finger's drag, a list's filter
 
 namespace twapp {
 
@@ -144,13 +145,6 @@ struct Rect {
   std::string text;                  // a button's label as drawn (tests read it)
 };
 
-// Scrolling a window by dragging it with a finger (ui::touch_scroll), with a little momentum.
-struct DragScroll {
-  bool scrolling = false;  // the current press is scrolling the window
-  float travel = 0;        // how far the current press has moved, device pixels
-  float fling = 0;         // momentum after release, device pixels per frame
-};
-
 // The test-result form of the Log screen.
 // The Log screen's entry form: one kind of event at a time, new or an edit of a logged one.
 enum class LogKind { Test, Dose, WaterChange, TopOff };
@@ -209,7 +203,7 @@ struct UiState {
   std::map<Screen, float> scroll_of_screen;
   Screen page_shows = Screen::Systems;  // the screen the page showed last frame
   int scroll_restore_frames = 0;        // frames left re-applying the restored position
-  DragScroll switcher_scroll;  // the header's list of systems
+  PickListState switcher;      // the header's list of systems
   float em = 17;               // font size in device pixels this frame
   float pixel_ratio = 1;
   float fonts_built_for = 0;   // scale the font atlas was built for (0 = not yet)

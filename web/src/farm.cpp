@@ -11,6 +11,7 @@
 #include "actions.hpp"
 #include "actions_dosing.hpp"
 #include "format.hpp"
+#include "local_time.hpp"
 #include "platform.hpp"
 #include "tidewright/carbonate/uncertainty.hpp"
 #include "tidewright/journal/schedule.hpp"
@@ -24,12 +25,12 @@ namespace jn = tw::journal;
 // CPU time the overview may take from one frame (of the 16 ms a frame has at 60 Hz).
 constexpr double kFarmFrameBudgetMs = 6.0;
 
-// The last second of the local day that holds now_s.
-std::int64_t end_of_local_day(std::int64_t now_s, int utc_offset_minutes) {
-  const std::int64_t off = static_cast<std::int64_t>(utc_offset_minutes) * 60;
-  const std::int64_t local = now_s + off;
+// The last second of the local day that holds now_s (the next midnight in its own offset:
+// the night of a daylight-saving change has 23 or 25 hours).
+std::int64_t end_of_local_day(std::int64_t now_s) {
+  const std::int64_t local = now_s + 60LL * platform::utc_offset_minutes_at(now_s);
   const std::int64_t day = local >= 0 ? local / 86400 : (local - 86399) / 86400;
-  return (day + 1) * 86400 - off - 1;
+  return local_time::to_utc((day + 1) * 86400) - 1;
 }
 
 std::string level_text(const FarmLevel& l, tw::Parameter p, const jn::UnitPreferences& units) {
@@ -125,7 +126,7 @@ void refresh_farm(AppState& app) {
     b = FarmBuild{true, app.revision, now_s / 3600, now_s, 0, {}, 0, t0, 0};
   }
   const auto& systems = app.journal.systems;
-  const std::int64_t day_end = end_of_local_day(b.now_s, platform::utc_offset_minutes());
+  const std::int64_t day_end = end_of_local_day(b.now_s);
   while (b.next < systems.size()) {  // at least one system a frame, more while the budget lasts
     b.rows.push_back(row_of(app.journal, systems[b.next], b.now_s, day_end));
     ++b.next;

@@ -2,6 +2,7 @@
 
 #include "actions.hpp"
 #include "format.hpp"
+#include "local_time.hpp"
 #include "platform.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "ui.hpp"
@@ -70,7 +71,6 @@ bool ph_scale(AppState& app, const std::string& name, const char* label, cb::PhS
 
 // "Now" or a local date and time the user types or steps back by an hour or a day.
 void when(AppState& app, const std::string& prefix, std::optional<std::int64_t>* when_s) {
-  const int tz = platform::utc_offset_minutes();
   int chosen = when_s->has_value() ? 1 : 0;
   const char* const whens[] = {"Now", "Earlier"};
   if (ui::choice(app, prefix + ".when", "When", &chosen, whens, 2)) {
@@ -78,11 +78,9 @@ void when(AppState& app, const std::string& prefix, std::optional<std::int64_t>*
     else when_s->reset();
   }
   if (!when_s->has_value()) return;
-  std::string text = fmtx::local_time_text(**when_s, tz);
+  std::string text = local_time::text(**when_s);
   if (ui::text_field(app, prefix + ".time", "Date and time (your local time)", &text, "for example 2026-12-01 07:30")) {
-    tw::datetime::ParseOptions o;
-    o.utc_offset_minutes = tz;
-    auto t = tw::datetime::parse_datetime(text, o);
+    auto t = tw::datetime::parse_datetime(text, local_time::parse_options());
     if (!t) notify(app, t.error().message, true);
     else *when_s = *t;
   }

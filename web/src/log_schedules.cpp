@@ -3,6 +3,7 @@
 // summary and start, and four thumb-sized actions: change its amount or doses a day from now,
 // stop it from now (a second tap confirms), log a dose it missed, log an extra dose. Every
 // change goes through the actions (actions.hpp), which the core validates.
+#include "local_time.hpp"
 #include "log_schedules.hpp"
 
 #include <string>
@@ -47,15 +48,14 @@ void draw_one(AppState& app, const jn::Event& ev) {
   ImGui::PushFont(app.ui.fonts.bold);
   ui::wrapped(jn::schedule_summary(s).c_str());
   ImGui::PopFont();
-  const int tz = platform::utc_offset_minutes();
-  const std::string until = s.stop_time_s ? ", until " + fmtx::local_time_text(*s.stop_time_s, tz) + "." : ", until changed or stopped.";
+  const std::string until = s.stop_time_s ? ", until " + local_time::text(*s.stop_time_s) + "." : ", until changed or stopped.";
   if (ev.time_s > platform::now_unix_seconds()) {  // adopted from a plan, not begun yet
-    ui::dim_text(("From " + fmtx::local_time_text(ev.time_s, tz) + until).c_str());
+    ui::dim_text(("From " + local_time::text(ev.time_s) + until).c_str());
     ui::record(app, "log.schedule." + id);
     ui::card_end(app);
     return;
   }
-  ui::dim_text(("Since " + fmtx::local_time_text(ev.time_s, tz) + until).c_str());
+  ui::dim_text(("Since " + local_time::text(ev.time_s) + until).c_str());
   ui::record(app, "log.schedule." + id);
   if (ed.changing == ev.id) {
     draw_change_form(app, s, id);

@@ -8,6 +8,7 @@
 #include "imgui_internal.h"  // RenderArrow
 #include "screens.hpp"
 #include "theme.hpp"
+#include "pick_list.hpp"
 #include "ui.hpp"
 
 namespace twapp {
@@ -182,22 +183,21 @@ void draw_header(AppState& app, float height) {
   ImGui::SetNextWindowSizeConstraints(ImVec2(std::min(w - 1.2f * e, 16 * e), 0),
                                       ImVec2(w - 1.2f * e, std::max(room, 8 * e)));
   if (ImGui::BeginPopup("##switch")) {
+    if (ImGui::IsWindowAppearing()) app.ui.switcher = {};  // opens unfiltered, at the current system
     ui::dim_text("Switch to");
-    const float text_w = ImGui::GetContentRegionAvail().x - 2 * ImGui::GetStyle().FramePadding.x;
-    for (const auto& s : app.journal.systems) {
-      const bool current = s.id == app.current_system;
-      if (ui::button(app, "switch." + std::to_string(s.id), ui::fit_text(s.name, text_w).c_str(), 0,
-                     current ? ui::Tone::Primary : ui::Tone::Normal)) {
-        select_system(app, s.id);
-        ImGui::CloseCurrentPopup();
-      }
-      if (current && ImGui::IsWindowAppearing()) ImGui::SetScrollHereY(0.5f);
+    std::vector<ui::PickEntry> entries;
+    for (const auto& s : app.journal.systems) entries.push_back({std::to_string(s.id), s.name, s.id == app.current_system});
+    // The box takes what the room leaves after the Find field, its match line and Manage systems.
+    const float box = std::max(room, 8 * e) - (app.ui.switcher.filter.empty() ? 4.75f : 6.25f) * ui::kTargetEm * e;
+    const int picked = ui::pick_list(app, "switch", "Find a system", app.ui.switcher, entries, box);
+    if (picked >= 0) {
+      select_system(app, app.journal.systems[static_cast<std::size_t>(picked)].id);
+      ImGui::CloseCurrentPopup();
     }
     if (ui::button(app, "switch.manage", "Manage systems", 0, ui::Tone::Quiet)) {
       go_to(app, Screen::Systems);
       ImGui::CloseCurrentPopup();
     }
-    ui::touch_scroll(app, app.ui.switcher_scroll);
     ImGui::EndPopup();
   }
   ImGui::SetCursorScreenPos(ImVec2(p.x, p.y + height));

@@ -9,6 +9,7 @@
 
 #include <fmt/format.h>
 
+#include "local_time.hpp"
 #include "actions.hpp"
 #include "actions_dosing.hpp"
 #include "chart_timeseries.hpp"
@@ -56,7 +57,7 @@ std::optional<double> target_of(const AppState& app, est::Parameter p) {
 }
 
 std::string when(double t_days) {
-  return fmtx::local_time_text(static_cast<std::int64_t>(std::llround(t_days * 86400.0)), platform::utc_offset_minutes());
+  return local_time::text(static_cast<std::int64_t>(std::llround(t_days * 86400.0)));
 }
 
 std::string val(const Shown& s, double v, int extra = 0) { return fmtx::fixed(v * s.factor, s.decimals + extra); }

@@ -5,6 +5,7 @@
 // fields are in log_forms.cpp.
 #include <string>
 
+#include "local_time.hpp"
 #include "actions.hpp"
 #include "fields.hpp"
 #include "format.hpp"
@@ -65,13 +66,12 @@ void draw_history(AppState& app, const jn::System& sys) {
   filter.system_id = sys.id;
   auto events = jn::select_events(app.journal, filter);
   if (events.empty()) ui::dim_text("Nothing logged for this system yet.");
-  const int tz = platform::utc_offset_minutes();
   int shown = 0;
   for (auto it = events.rbegin(); it != events.rend() && shown < 30; ++it, ++shown) {
     const jn::Event& ev = **it;
     const std::string id = std::to_string(ev.id);
     ui::card_begin(app);
-    ui::dim_text(fmtx::local_time_text(ev.time_s, tz).c_str());
+    ui::dim_text(local_time::text(ev.time_s).c_str());
     ImGui::PushFont(app.ui.fonts.bold);
     ui::wrapped(log_forms::event_text(ev, sys.units).c_str());
     ImGui::PopFont();

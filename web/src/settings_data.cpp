@@ -1,12 +1,16 @@
 // Settings, "Your data": where it is kept, the exports (everything as JSON, the log as CSV),
 // Import file… and the preview of a picked file, which waits for the keeper's confirmation
 // (import_state.hpp). Every count and reason shown is the core's (import_csv, merge_journal).
+#include <algorithm>
 #include <string>
+#include <vector>
 
 #include "actions.hpp"
+#include "pick_list.hpp"
 #include "platform.hpp"
 #include "screens.hpp"
 #include "theme.hpp"
+#include "tidewright/journal/journal_csv_columns.hpp"
 #include "ui.hpp"
 
 namespace twapp {
@@ -41,24 +45,90 @@ const char* date_order_text(dt::DateOrder order) {
 
 float half_width() { return (ImGui::GetContentRegionAvail().x - ImGui::GetStyle().ItemSpacing.x) / 2; }
 
-// The system for rows that name none: the current one unless the keeper picks another.
+// The system for rows that name none: the current one unless the keeper picks another from the
+// list (a farm has 30+ systems: it scrolls and can be filtered, as the header's switcher).
 void draw_csv_system_choice(AppState& app, ImportPreview& p) {
   const auto& systems = app.journal.systems;
   if (systems.size() == 1) {
     ui::label_value(app, "Rows without a system go to", systems.front().name);
     return;
   }
-  std::vector<const char*> names;
-  int index = 0;
-  for (std::size_t i = 0; i < systems.size(); ++i) {
-    names.push_back(systems[i].name.c_str());
-    if (systems[i].id == p.csv_system) index = static_cast<int>(i);
-  }
-  if (ui::choice(app, "import.system", "Rows without a system go to", &index, names.data(),
-                 static_cast<int>(names.size()))) {
-    p.csv_system = systems[static_cast<std::size_t>(index)].id;
+  const jn::System* chosen = jn::find_system(app.journal, p.csv_system);
+  ui::dim_text("Rows without a system go to");
+  ui::wrapped(chosen ? chosen->name.c_str() : "?");  // a long name wraps: the list below cuts it
+  ui::record(app, "import.system");
+  std::vector<ui::PickEntry> entries;
+  for (const jn::System& s : systems) entries.push_back({std::to_string(s.id), s.name, s.id == p.csv_system});
+  const float box = std::min(7 * ui::kTargetEm * ui::em(app), 0.4f * ImGui::GetMainViewport()->Size.y);
+  const int picked = ui::pick_list(app, "import.system", "Find a system", p.system_list, entries, box);
+  if (picked >= 0 && systems[static_cast<std::size_t>(picked)].id != p.csv_system) {
+    p.csv_system = systems[static_cast<std::size_t>(picked)].id;
     remake_import_preview(app);
   }
+}
+
+// A column's meaning in plain words: the core's label for it, else as typed.
+std::string meaning_label(const std::string& meaning) {
+  if (meaning == "skip") return "not read (skipped)";
+  for (const jn::CsvColumnMeaning& m : jn::csv_column_meanings()) {
+    if (m.meaning == meaning) return m.label;
+  }
+  return "'" + meaning + "'";
+}
+
+// "Read as…" for one column: the core's list of meanings (and skip) to pick from, or a meaning
+// typed. True when a choice made the preview again (the report drawn from is then gone).
+bool draw_read_as(AppState& app, ImportPreview& p, const std::string& header) {
+  if (p.mapping_open != header) {
+    // The column's name on the button: two columns' buttons would otherwise look the same.
+    const float room = ImGui::GetContentRegionAvail().x - 2 * ImGui::GetStyle().FramePadding.x;
+    const std::string label = ui::fit_text("Read '" + header + "' as\u2026", room);
+    if (ui::button(app, "import.map." + header, label.c_str(), -1, ui::Tone::Quiet)) {
+      p.mapping_open = header;
+      p.mapping_typed.clear();
+      p.meaning_list = {};
+    }
+    return false;
+  }
+  ui::wrapped(("Read column '" + header + "' as").c_str());
+  std::vector<ui::PickEntry> entries = {{"skip", "Skip: do not read it", false}};
+  for (const jn::CsvColumnMeaning& m : jn::csv_column_meanings()) entries.push_back({m.meaning, m.label, false});
+  const float box = std::min(7 * ui::kTargetEm * ui::em(app), 0.4f * ImGui::GetMainViewport()->Size.y);
+  const int picked = ui::pick_list(app, "import.meaning", "Find a meaning", p.meaning_list, entries, box);
+  if (picked >= 0) {
+    map_import_column(app, header, entries[static_cast<std::size_t>(picked)].key);
+    return true;
+  }
+  if (ui::text_field(app, "import.meaning_typed", "Or type what it holds", &p.mapping_typed, "for example calcium mg/L or pH total")) {
+    map_import_column(app, header, p.mapping_typed);
+    return true;
+  }
+  if (ui::button(app, "import.map_close", "Leave it as it is", 0, ui::Tone::Quiet)) p.mapping_open.clear();
+  return false;
+}
+
+// The columns the core did not read, with its reason, and the keeper's own readings.
+bool draw_columns(AppState& app, ImportPreview& p, const jn::CsvImportReport& r) {
+  if (!p.mapping_error.empty()) {
+    ui::colored_wrapped(theme::kWarning, ("Refused: " + p.mapping_error).c_str());
+    ui::record(app, "import.mapping_error");
+  }
+  for (const jn::CsvColumnMapping& m : p.mappings) {
+    ui::wrapped(("Column '" + m.header + "' is read as " + meaning_label(m.meaning) + ".").c_str());
+    ui::record(app, "import.mapped." + m.header);
+    if (draw_read_as(app, p, m.header)) return true;
+    if (p.mapping_open != m.header && ui::button(app, "import.unmap." + m.header, "Read it by its name again", -1, ui::Tone::Quiet)) {
+      map_import_column(app, m.header, "");
+      return true;
+    }
+  }
+  for (const jn::UnusedColumn& c : r.unused_columns) {
+    const bool mapped = std::any_of(p.mappings.begin(), p.mappings.end(), [&](const auto& m) { return m.header == c.name; });
+    if (mapped) continue;
+    ui::dim_text(("Not read: " + c.reason).c_str());  // the core's reason names the column
+    if (draw_read_as(app, p, c.name)) return true;
+  }
+  return false;
 }
 
 // Shown when the core could not tell the order of a date like 03/04/2026 (the rows are
@@ -103,12 +173,10 @@ void draw_csv_preview(AppState& app, ImportPreview& p) {
     ui::dim_text(("and " + count_of(r.rejected.size() - kRefusedShown, "more row", "more rows") + " refused").c_str());
   }
   if (!r.rejected.empty()) ui::dim_text("Refused rows are not added; fix them in the file and import it again (rows already added are skipped).");
-  for (const jn::UnusedColumn& c : r.unused_columns) {
-    ui::dim_text(("Not read: " + c.reason).c_str());  // the core's reason names the column
-  }
+  if (draw_columns(app, p, r)) return;  // remade: shown from the next frame
   if (r.blank_rows_skipped) ui::dim_text((count_of(static_cast<std::size_t>(r.blank_rows_skipped), "empty row", "empty rows") + " skipped.").c_str());
   ui::dim_text((std::string("Separator: ") + separator_name(r.delimiter) + ". Dates read " + date_order_text(r.date_order) +
-                "; times without a zone are this device's local time.").c_str());
+                "; times without a zone are this device's local time on their own date (daylight saving included).").c_str());
   const float half = half_width();
   if (r.added.empty()) {
     ui::dim_text("Nothing new to add.");

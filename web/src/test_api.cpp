@@ -31,7 +31,12 @@ static json import_json(const ImportPreview& p) {
   const char* kinds[] = {"none", "csv", "journal"};
   json j = {{"kind", kinds[static_cast<int>(p.kind)]}, {"error", p.error}, {"merge_error", p.merge_error},
             {"csv_system", p.csv_system}, {"confirm_replace", p.confirm_replace},
-            {"file_systems", p.file_systems}, {"file_events", p.file_events}};
+            {"file_systems", p.file_systems}, {"file_events", p.file_events},
+            {"mapping_open", p.mapping_open}, {"mapping_error", p.mapping_error},
+            {"system_filter", p.system_list.filter}};
+  json mappings = json::array();
+  for (const auto& m : p.mappings) mappings.push_back({{"header", m.header}, {"meaning", m.meaning}});
+  j["mappings"] = mappings;
   if (p.csv_report) {
     const auto& r = *p.csv_report;
     json refused = json::array();

@@ -2,6 +2,7 @@
 
 #include "actions.hpp"
 #include "format.hpp"
+#include "local_time.hpp"
 #include "platform.hpp"
 #include "tidewright/plan/plan_from_journal.hpp"
 #include "tidewright/seawater/seawater.hpp"
@@ -65,7 +66,6 @@ void fill_from_journal(AppState& app) {
     return;
   }
   const LatestReadings r = latest_readings(app);
-  const int tz = platform::utc_offset_minutes();
   w.pair = r.ph ? WaterPair::AlkalinityPH : WaterPair::AlkalinityAir;
   w.salinity = r.salinity.value_or(sys->default_salinity);
   w.temperature_c = r.temperature_c.value_or(sys->default_temperature_c);
@@ -74,7 +74,7 @@ void fill_from_journal(AppState& app) {
   std::string src = "Latest readings of " + sys->name + ": ";
   if (r.alkalinity_dkh) {
     w.alkalinity_dkh = *r.alkalinity_dkh;
-    src += "alkalinity " + fmtx::local_time_text(r.alkalinity_time_s, tz);
+    src += "alkalinity " + local_time::text(r.alkalinity_time_s);
   } else {
     w.alkalinity_dkh = sys->targets.alkalinity_dkh.value_or(8.0);
     src += "no alkalinity logged (using " + std::string(sys->targets.alkalinity_dkh ? "the target" : "8 dKH") + ")";
@@ -82,11 +82,11 @@ void fill_from_journal(AppState& app) {
   if (r.ph) {
     w.ph = *r.ph;
     w.ph_scale = *r.ph_scale;
-    src += ", pH " + fmtx::local_time_text(r.ph_time_s, tz);
+    src += ", pH " + local_time::text(r.ph_time_s);
   } else {
     src += "; no pH logged, so pH is taken at equilibrium with the room's air";
   }
-  src += r.calcium_mg_l ? ", calcium " + fmtx::local_time_text(r.calcium_time_s, tz)
+  src += r.calcium_mg_l ? ", calcium " + local_time::text(r.calcium_time_s)
                         : std::string("; no calcium logged, so calcium is scaled from salinity");
   src += r.salinity ? "" : "; salinity from the system's default";
   src += r.temperature_c ? "" : "; temperature from the system's default";

@@ -226,6 +226,11 @@ Result<std::int64_t> parse_datetime(const std::string& raw, const ParseOptions& 
   return to_seconds(text, y, mo, d, h, mi, sec, offset);
 }
 
+int zone_offset_at_local(std::int64_t local_as_utc_s, const std::function<int(std::int64_t unix_s)>& offset_at_instant) {
+  const int guess = offset_at_instant(local_as_utc_s);
+  return offset_at_instant(local_as_utc_s - guess * 60LL);
+}
+
 Result<int> parse_utc_offset(const std::string& raw) {
   const size_t b = raw.find_first_not_of(" \t");
   const size_t e = raw.find_last_not_of(" \t");

@@ -159,9 +159,53 @@ CsvColumn match_csv_column(const std::string& header_cell) {
       if (auto p = parameter_named(join(w, 0, k, "_"))) return reading(*p, join(w, k, w.size(), " "), header_cell);
     }
   }
+  // Worded for every front end: each says in its own way how to read the column otherwise.
   return unused("column '" + header_cell +
-                "' is not one we know; name a parameter and its unit (e.g. 'Calcium (mg/L)'), one of "
-                "time, system, type, parameter, value, unit, note ..., or map it with a column mapping");
+                "' is not one we know; known are a parameter and its unit (e.g. 'Calcium (mg/L)') and "
+                "time, system, type, parameter, value, unit, note ...");
+}
+
+const std::vector<CsvColumnMeaning>& csv_column_meanings() {
+  static const std::vector<CsvColumnMeaning> meanings = [] {
+    std::vector<CsvColumnMeaning> out = {
+        {"time", "Date and time"}, {"system", "System name"}, {"note", "Note"}};
+    // The units each parameter is logged in, as normalize_unit accepts them (journal.hpp).
+    struct Units {
+      Parameter p;
+      std::vector<const char*> units;
+    };
+    const Units table[] = {
+        {Parameter::Alkalinity, {"dKH", "meq/L", "mg/L CaCO3", "umol/kg"}},
+        {Parameter::Calcium, {"mg/L", "mmol/kg", "umol/kg"}},
+        {Parameter::Magnesium, {"mg/L", "mmol/kg", "umol/kg"}},
+        {Parameter::PH, {"", "nbs", "total", "sws", "free"}},
+        {Parameter::Salinity, {"psu"}},
+        {Parameter::SpecificGravity, {""}},
+        {Parameter::Temperature, {"C", "F"}},
+        {Parameter::Nitrate, {"mg/L"}},
+        {Parameter::Phosphate, {"mg/L"}},
+    };
+    for (const Units& u : table) {
+      std::string name = parameter_name(u.p);
+      std::replace(name.begin(), name.end(), '_', ' ');
+      for (const char* unit : u.units) {
+        const std::string written = unit;
+        std::string label = parameter_label(u.p);
+        if (u.p == Parameter::PH) {
+          static const char* const kScales[][2] = {{"nbs", "the NBS"}, {"total", "the total"}, {"sws", "the seawater"}, {"free", "the free"}};
+          std::string scale = "the system's";
+          for (const auto& s : kScales)
+            if (written == s[0]) scale = s[1];
+          label += " on " + scale + " scale";
+        } else if (!written.empty()) {
+          label += " in " + written;
+        }
+        out.push_back({written.empty() ? name : name + " " + written, label});
+      }
+    }
+    return out;
+  }();
+  return meanings;
 }
 
 Result<CsvColumnMapping> parse_column_mapping(const std::string& text) {
@@ -188,13 +232,14 @@ Result<std::vector<CsvColumn>> match_csv_header(const std::vector<std::string>& 
     }
     const size_t i = static_cast<size_t>(it - header.begin());
     if (lower_trim(m.meaning) == "skip") {
-      columns[i] = unused("column '" + *it + "' is skipped as the column mapping asks");
+      columns[i] = unused("column '" + *it + "' is skipped, as asked");
     } else {
       columns[i] = match_csv_column(m.meaning);
       if (columns[i].kind == CsvColumn::Kind::Unused) {
-        return Error{"column mapping", "column mapping '" + m.header + "=" + m.meaning + "': '" + m.meaning +
-                                           "' is not a column we can read; name a parameter and its unit "
-                                           "(e.g. 'calcium mg/L'), or time, system, note, ..., or skip"};
+        return Error{"column mapping", "column '" + *it + "' read as '" + m.meaning + "': '" + m.meaning +
+                                           "' is not a meaning we can read; accepted: a parameter and its unit "
+                                           "(e.g. 'calcium mg/L', 'alkalinity dKH', 'pH total'), or time, system, "
+                                           "note, ..., or skip"};
       }
     }
     mapped[i] = true;

@@ -54,6 +54,37 @@ TEST_CASE("datetime: a zone callback decides times without a zone; a written zon
   CHECK(*tw::datetime::parse_datetime("2026-07-01T08:00Z", p) == *tw::datetime::parse_datetime("2026-07-01T08:00Z"));
 }
 
+// Central European time as a platform tells it, instant by instant: +60, +120 from the last
+// Sunday of March 01:00Z to the last Sunday of October 01:00Z (EU rule since 1996, Directive
+// 2000/84/EC). 2026: 29 March 01:00Z and 25 October 01:00Z.
+namespace {
+int berlin_offset_2026(std::int64_t unix_s) {
+  const std::int64_t summer_from = *tw::datetime::parse_datetime("2026-03-29T01:00Z");
+  const std::int64_t summer_to = *tw::datetime::parse_datetime("2026-10-25T01:00Z");
+  return unix_s >= summer_from && unix_s < summer_to ? 120 : 60;
+}
+}  // namespace
+
+TEST_CASE("datetime: the offset at a local time follows daylight saving, date by date") {
+  using tw::datetime::parse_datetime;
+  tw::datetime::ParseOptions p;
+  p.zone_offset_minutes = [](std::int64_t local) { return tw::datetime::zone_offset_at_local(local, berlin_offset_2026); };
+  CHECK(*parse_datetime("2026-01-15 08:00", p) == *parse_datetime("2026-01-15T07:00Z"));
+  CHECK(*parse_datetime("2026-07-15 08:00", p) == *parse_datetime("2026-07-15T06:00Z"));
+  // Either side of the change, even within the hour around it (local 01:59 and 03:00).
+  CHECK(*parse_datetime("2026-03-29 01:59", p) == *parse_datetime("2026-03-29T00:59Z"));
+  CHECK(*parse_datetime("2026-03-29 03:00", p) == *parse_datetime("2026-03-29T01:00Z"));
+  CHECK(*parse_datetime("2026-10-25 01:59", p) == *parse_datetime("2026-10-24T23:59Z"));
+  CHECK(*parse_datetime("2026-10-25 03:00", p) == *parse_datetime("2026-10-25T02:00Z"));
+  // The hour that does not exist and the one that exists twice: one of the two offsets.
+  for (const char* t : {"2026-03-29 02:30", "2026-10-25 02:30"}) {
+    CAPTURE(t);
+    const std::int64_t local = *parse_datetime(std::string(t) + "Z");
+    const int off = tw::datetime::zone_offset_at_local(local, berlin_offset_2026);
+    CHECK((off == 60 || off == 120));
+  }
+}
+
 TEST_CASE("datetime: a column of dates shows its order when one date can be read only one way") {
   using tw::datetime::DateOrder;
   using tw::datetime::infer_date_order;

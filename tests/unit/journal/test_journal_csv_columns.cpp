@@ -2,6 +2,8 @@
 // habits: separators, decimal commas, blank rows, unused columns, future rows.
 #include <doctest/doctest.h>
 
+#include <algorithm>
+
 #include "tidewright/common/csv.hpp"
 #include "tidewright/journal/journal_csv.hpp"
 #include "tidewright/journal/journal_csv_columns.hpp"
@@ -58,6 +60,67 @@ TEST_CASE("journal csv columns: the user's mapping, skip, and a second time colu
   CHECK_FALSE(match_csv_header({"time", "x"}, {{"x", "frobs"}}).ok());
   CHECK_FALSE(parse_column_mapping("no equals sign").ok());
   CHECK(parse_column_mapping("a=b=note")->meaning == "note");
+}
+
+TEST_CASE("journal csv columns: every meaning offered is one the import reads, in plain words") {
+  const auto& meanings = csv_column_meanings();
+  REQUIRE(meanings.size() >= 20);
+  std::vector<std::string> labels;
+  for (const CsvColumnMeaning& m : meanings) {
+    CAPTURE(m.meaning);
+    const CsvColumn col = match_csv_column(m.meaning);
+    CHECK(col.kind != Kind::Unused);
+    CHECK_FALSE(m.label.empty());
+    CHECK(std::find(labels.begin(), labels.end(), m.label) == labels.end());
+    labels.push_back(m.label);
+    auto mapped = match_csv_header({"time", "Reading"}, {{"Reading", m.meaning}});
+    if (m.meaning != "time") CHECK(mapped.ok());
+  }
+  auto find = [&](const std::string& meaning) {
+    return std::find_if(meanings.begin(), meanings.end(), [&](const CsvColumnMeaning& m) { return m.meaning == meaning; });
+  };
+  REQUIRE(find("alkalinity dKH") != meanings.end());
+  CHECK(find("alkalinity dKH")->label == "Alkalinity in dKH");
+  const CsvColumn alk = match_csv_column("alkalinity dKH");
+  CHECK((alk.parameter == Parameter::Alkalinity && alk.unit == "dKH"));
+  const CsvColumn ph = match_csv_column(find("ph total")->meaning);
+  CHECK(ph.ph_scale == tw::carbonate::PhScale::Total);
+  CHECK(find("calcium mmol/kg") != meanings.end());
+  CHECK(find("time") != meanings.end());
+  CHECK(find("note") != meanings.end());
+}
+
+TEST_CASE("journal csv columns: a column read as a meaning the user picked; reasons name no front end's option") {
+  Journal j;
+  System s;
+  s.name = "Rack 1";
+  s.volume_l = 400;
+  REQUIRE(add_system(j, s).ok());
+  CsvImportOptions opt;
+  opt.default_system = j.systems[0].id;
+  const std::string text = "Date,Alk reading\n2026-11-02T08:00Z,8.1\n";
+  Journal before = j;
+  auto plain = import_csv(before, text, opt);
+  REQUIRE(plain.ok());
+  CHECK(plain->added.empty());
+  REQUIRE(plain->unused_columns.size() == 1);
+  const std::string reason = plain->unused_columns[0].reason;
+  CHECK(reason.find("Alk reading") != std::string::npos);
+  CHECK(reason.find("mapping") == std::string::npos);  // the CLI says --map, the app offers "Read as"
+  opt.mappings = {{"Alk reading", "alkalinity dKH"}};
+  auto mapped = import_csv(j, text, opt);
+  REQUIRE(mapped.ok());
+  REQUIRE(mapped->added.size() == 1);
+  CHECK(mapped->unused_columns.empty());
+  const auto* t = std::get_if<TestResult>(&j.events.back().data);
+  REQUIRE(t != nullptr);
+  CHECK((t->parameter == Parameter::Alkalinity && t->value == doctest::Approx(8.1) && t->unit == "dKH"));
+  opt.mappings = {{"Alk reading", "alkalinity furlongs"}};
+  auto refused = import_csv(j, text, opt);
+  REQUIRE_FALSE(refused.ok());
+  CHECK(refused.error().field == "column mapping");
+  CHECK(refused.error().message.find("Alk reading") != std::string::npos);
+  CHECK(refused.error().message.find("alkalinity dKH") != std::string::npos);  // an accepted form
 }
 
 TEST_CASE("csv: separators detected from the header; a semicolon file keeps decimal commas whole") {

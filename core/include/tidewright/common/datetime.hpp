@@ -47,6 +47,14 @@ struct ParseOptions {
   std::function<int(std::int64_t local_as_utc_s)> zone_offset_minutes;
 };
 
+// The offset of a zone at a local civil time (written as if it were UTC), from the zone's
+// offset at an instant (what a platform can tell: the C library's localtime, a browser's Date):
+// guess with the offset at that instant read as UTC, then take the offset at the corrected
+// instant. Right on both sides of a daylight-saving change; in the hour that does not exist
+// (clocks forward) or exists twice (clocks back) it takes one of the two offsets. One rule, so
+// the command line and the app read every time, those hours included, the same way.
+int zone_offset_at_local(std::int64_t local_as_utc_s, const std::function<int(std::int64_t unix_s)>& offset_at_instant);
+
 // A UTC offset as people write it: +05:30, -08:00, +0530, +5, -8, Z or 0. Accepted range
 // -12:00 to +14:00 (ranges::kUtcOffsetMinutes, the offsets in use on Earth). Errors name the
 // field "utc_offset" and the range.

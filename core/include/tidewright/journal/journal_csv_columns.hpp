@@ -39,6 +39,16 @@ struct CsvColumnMapping {
   std::string header;
   std::string meaning;
 };
+// The meanings a column can be read as, each as match_csv_column reads it and in plain words,
+// for a front end to offer as a choice (the app's "Read as…"): time, system and note, then
+// every parameter in every unit it is logged in (pH on the system's scale or a named one).
+// "skip" is not listed. Any other text match_csv_column understands is accepted as well.
+struct CsvColumnMeaning {
+  std::string meaning;  // "alkalinity dKH": what a CsvColumnMapping's meaning takes
+  std::string label;    // "Alkalinity in dKH"
+};
+const std::vector<CsvColumnMeaning>& csv_column_meanings();
+
 // "Reading 1=alkalinity dKH" -> {"Reading 1", "alkalinity dKH"}; field "column mapping".
 Result<CsvColumnMapping> parse_column_mapping(const std::string& text);
 
