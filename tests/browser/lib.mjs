@@ -155,6 +155,20 @@ export async function reloadOffline(page, context) {
 // Writes `text` as the older store of the app (a journal file in Emscripten's IDBFS database, as
 // the app kept it before its IndexedDB store), from a page of the same origin with no app
 // running; the app imports it once on its next start.
+// A new browser context (opts: viewport, time zone...) opened on the app over a store as the
+// older app kept it (seedOlderStore), imported on start: the farms of the browser tests.
+export async function openSeeded(browser, url, opts, doc) {
+  const context = await browser.newContext({ ...opts });
+  const page = await context.newPage();
+  const errors = watchErrors(page);
+  await seedOlderStore(page, url, JSON.stringify(doc));
+  await page.goto(url);
+  await waitReady(page, 60000);
+  await flushed(page);
+  await frames(page, 3);
+  return { context, page, errors };
+}
+
 export async function seedOlderStore(page, url, text) {
   await page.goto(url + 'manifest.webmanifest');
   await page.evaluate((t) => new Promise((ok, fail) => {

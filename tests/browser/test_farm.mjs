@@ -9,7 +9,7 @@
 // Screenshots go to tests/browser/output/farm-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore, tap, enter } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, openSeeded, tap, enter } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -66,14 +66,7 @@ console.log(`farm: ${SYSTEMS} systems, ${FARM.events.length} events over 365 day
 // Opens the app on the farm: the store as the older app kept it (IDBFS), imported on start.
 async function openFarm(opts) {
   const t0 = Date.now();
-  const context = await browser.newContext({ ...opts });
-  const page = await context.newPage();
-  const errors = watchErrors(page);
-  await seedOlderStore(page, server.url, JSON.stringify(FARM));
-  await page.goto(server.url);
-  await waitReady(page, 60000);
-  await flushed(page);
-  await frames(page, 3);
+  const { context, page, errors } = await openSeeded(browser, server.url, opts, FARM);
   console.log(`     the farm's store imported and the app started in ${Date.now() - t0} ms`);
   return { context, page, errors };
 }

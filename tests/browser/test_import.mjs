@@ -17,7 +17,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, state, tap, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, widget, enter, waitReady, watchErrors, seedOlderStore } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, state, tap, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, widget, enter, waitReady, watchErrors, openSeeded } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
@@ -372,14 +372,7 @@ const FARM = {
 
 for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
   test(`33 systems: the rows go to Rack 31, found by typing in the list (${label})`, async () => {
-    const context = await browser.newContext({ ...opts, timezoneId: ZONE });
-    const page = await context.newPage();
-    const errors = watchErrors(page);
-    await seedOlderStore(page, server.url, JSON.stringify(FARM));
-    await page.goto(server.url);
-    await waitReady(page);
-    await flushed(page);
-    await frames(page, 3);
+    const { context, page, errors } = await openSeeded(browser, server.url, { ...opts, timezoneId: ZONE }, FARM);
     check((await state(page)).systems.length === 33, 'the farm is not loaded');
     await tap(page, 'tab.settings');
     let p = await pick(page, 'farm.csv', 'Date,Calcium (mg/L)\n2025-11-22 08:00,440\n2025-11-23 08:00,445\n');

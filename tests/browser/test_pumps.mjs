@@ -35,6 +35,20 @@ const browser = await launch();
 const tests = [];
 const test = (name, fn) => tests.push({ name, fn });
 
+// Saved, reloaded, and back on the Plan (a reload opens the screen the address names): its state.
+async function reloadToPlan(page) {
+  await flushed(page);
+  await page.reload();
+  await waitReady(page);
+  await frames(page, 3);
+  let s = await state(page);
+  if (!s.plan) {
+    await tap(page, 'tab.plan');
+    s = await state(page);
+  }
+  return s;
+}
+
 async function reveal(page, name) {
   await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
   await frames(page, 4);
@@ -138,15 +152,7 @@ test('pumps: name and calibration of the alkalinity pump on the Plan, refused va
   await page.screenshot({ path: join(OUTPUT, 'pumps-phone-plan.png') });
 
   // A reload keeps them.
-  await flushed(page);
-  await page.reload();
-  await waitReady(page);
-  await frames(page, 3);
-  s = await state(page);
-  if (!s.plan) {
-    await tap(page, 'tab.plan');
-    s = await state(page);
-  }
+  s = await reloadToPlan(page);
   check(s.dosing_forms.plan.alkalinity_pump_name === 'Left doser' && s.dosing_forms.plan.alkalinity_pump_calibration === 0.9,
         `after a reload: ${s.dosing_forms.plan.alkalinity_pump_name} ${s.dosing_forms.plan.alkalinity_pump_calibration}`);
   check(s.plan && s.plan.pumps[0].device === 'Left doser' && s.plan.pumps[0].calibration === 0.9, 'the plan after a reload');
@@ -297,15 +303,7 @@ test('pumps: a magnesium stock and pump by taps, each pump its own doses a day a
   await type(page, 'plan.alk_pump.doses_per_day', '4');
 
   // A reload keeps every pump's own settings.
-  await flushed(page);
-  await page.reload();
-  await waitReady(page);
-  await frames(page, 3);
-  s = await state(page);
-  if (!s.plan) {
-    await tap(page, 'tab.plan');
-    s = await state(page);
-  }
+  s = await reloadToPlan(page);
   const g = s.dosing_forms.plan;
   const kept = [g.alkalinity_doses_per_day, g.calcium_doses_per_day, g.magnesium_doses_per_day,
                 g.alkalinity_max_dose_ml, g.calcium_max_dose_ml, g.magnesium_max_dose_ml];

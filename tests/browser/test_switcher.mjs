@@ -5,7 +5,7 @@
 // Screenshots go to tests/browser/output/switcher-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, seedOlderStore, tap, enter } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, openSeeded, tap, enter } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -25,17 +25,7 @@ const FARM = {
 };
 
 // Opens the app on the farm: the store as the older app kept it (IDBFS), imported on start.
-async function openFarm(opts) {
-  const context = await browser.newContext({ ...opts });
-  const page = await context.newPage();
-  const errors = watchErrors(page);
-  await seedOlderStore(page, server.url, JSON.stringify(FARM));
-  await page.goto(server.url);
-  await waitReady(page);
-  await flushed(page);
-  await frames(page, 3);
-  return { context, page, errors };
-}
+const openFarm = (opts) => openSeeded(browser, server.url, opts, FARM);
 
 // A press, a slow move and a release of one finger (Chromium's touch events become the
 // pointer events the app reads).

@@ -18,6 +18,20 @@ Water intake_s30() {
   w.measurements = {{cb::Quantity::Alkalinity, 2100}, {cb::Quantity::DIC, 1950}, cb::PhScale::Total};
   return w;
 }
+
+// 1 part fresh water (S 0, TA 800, DIC 850, Ca 1000 umol/kg, 15 C) to 3 parts intake.
+Conditioning quarter_fresh_water() {
+  OtherWater fresh;
+  fresh.volume_fraction = 0.25;
+  fresh.salinity = 0;
+  fresh.temperature_c = 15;
+  fresh.alkalinity_umol_kg = 800;
+  fresh.dic_umol_kg = 850;
+  fresh.calcium_umol_kg = 1000;
+  Conditioning c;
+  c.mix = fresh;
+  return c;
+}
 }  // namespace
 
 TEST_CASE("hatchery: the line mixes two end-members by mass from a volume fraction (hand-worked)") {
@@ -28,15 +42,7 @@ TEST_CASE("hatchery: the line mixes two end-members by mass from a volume fracti
   //   salinity 30 (1 - x) = 22.6274; TA 2100 (1 - x) + 800 x = 1780.52; DIC 1679.67
   //   calcium: Riley & Tongudai 1967 at S 30, 0.02128 / 40.078 x 30 / 1.80655 mol/kg = 8817.3
   //   umol/kg, mixed 8817.3 (1 - x) + 1000 x = 6896.2 umol/kg.
-  OtherWater fresh;
-  fresh.volume_fraction = 0.25;
-  fresh.salinity = 0;
-  fresh.temperature_c = 15;
-  fresh.alkalinity_umol_kg = 800;
-  fresh.dic_umol_kg = 850;
-  fresh.calcium_umol_kg = 1000;
-  Conditioning c;
-  c.mix = fresh;
+  const Conditioning c = quarter_fresh_water();
   Settings s;
   s.target = {TargetKind::OmegaAragonite, 1.5, cb::PhScale::Total};
   Water in = intake_s30();
@@ -184,14 +190,7 @@ TEST_CASE("hatchery: pump rates through the line are for the conditioned water a
   }
 
   SUBCASE("a quarter fresh water: a third more flow, the line's dose, g/h worked from it") {
-    OtherWater fresh;
-    fresh.volume_fraction = 0.25;
-    fresh.temperature_c = 15;
-    fresh.alkalinity_umol_kg = 800;
-    fresh.dic_umol_kg = 850;
-    fresh.calcium_umol_kg = 1000;
-    Conditioning c;
-    c.mix = fresh;
+    const Conditioning c = quarter_fresh_water();
     auto lf = plan_line_flow(in, c, intake_flow, s);
     REQUIRE(lf.ok());
     // 100 L/min of intake is 3/4 of the dosed flow: 133.33 L/min at the dose point.
