@@ -49,6 +49,13 @@ EM_JS(char*, js_take_loaded, (int* legacy), {
   HEAP32[legacy >> 2] = l.legacy ? 1 : 0;
   return p;
 });
+EM_JS(char*, js_take_loaded_app, (), {
+  var a = Module.twStore.loadedApp; Module.twStore.loadedApp = null;
+  if (!a) return 0;
+  var n = lengthBytesUTF8(a) + 1, p = _malloc(n);
+  stringToUTF8(a, p, n);
+  return p;
+});
 EM_JS(int, js_store_had_records, (), { return Module.twStore.hadRecords ? 1 : 0; });
 EM_JS(int, js_store_write, (const char* text, char* reason, int size), {
   var S = Module.twStore;
@@ -237,9 +244,11 @@ std::optional<StoreLoad> store_load(const std::string&) {
   g_store_had_records = js_store_had_records() != 0;
   StoreLoad out{text, false, ""};
   std::free(text);
-  if (!legacy) {  // the older store's app part is not in the database yet: the first save writes it whole
-    const auto doc = nlohmann::json::parse(out.text, nullptr, false);
-    if (doc.is_object() && doc.contains("app")) g_saved_app_part = doc["app"].dump();
+  // The database's app part, what the first save's patch starts from. An older store's is not
+  // in the database yet (none given): the first save writes it whole.
+  if (char* app = js_take_loaded_app()) {
+    g_saved_app_part = app;
+    std::free(app);
   }
   if (legacy) {
     g_legacy_import_pending = true;

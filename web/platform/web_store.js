@@ -92,7 +92,7 @@ Module.twStore = (function () {
       var doc = { format: 'tidewright-journal', schema_version: r[4] || 3, next_id: r[2], systems: r[0], events: r[1] };
       if (r[3] !== undefined) doc.description = r[3];
       if (r[5] !== undefined) doc.app = r[5];
-      return { text: JSON.stringify(doc), legacyDone: true };
+      return { text: JSON.stringify(doc), legacyDone: true, app: r[5] !== undefined ? JSON.stringify(r[5]) : null };
     });
   }
 
@@ -123,7 +123,11 @@ Module.twStore = (function () {
       return readAll(db);
     }).then(function (r) {
       S.hadRecords = r.text !== null;
-      if (r.text !== null || r.legacyDone) { S.loaded = r.text === null ? null : { text: r.text, legacy: false }; return; }
+      if (r.text !== null || r.legacyDone) {
+        S.loaded = r.text === null ? null : { text: r.text, legacy: false };
+        S.loadedApp = r.app || null;  // the app part alone: what the first save's patch starts from
+        return;
+      }
       return readLegacy().then(function (t) { S.loaded = t ? { text: t, legacy: true } : null; });
     }).catch(function (e) {
       S.loaded = null;
