@@ -155,6 +155,21 @@ export async function reloadOffline(page, context) {
 // Writes `text` as the older store of the app (a journal file in Emscripten's IDBFS database, as
 // the app kept it before its IndexedDB store), from a page of the same origin with no app
 // running; the app imports it once on its next start.
+// A farm of 33 systems and no entries (the switcher's and the import's tests), system 2 with
+// a name too long for any screen (FARM_LONG_NAME), system 2 current.
+export const FARM_LONG_NAME = 'North greenhouse quarantine and grow-out raceway for the soft coral frags';
+export function farmOf33Systems() {
+  const units = { alkalinity: 'dKH', calcium_magnesium: 'mg/L', temperature: 'C', ph_scale: 'nbs', volume: 'L' };
+  return {
+    format: 'tidewright-journal', schema_version: 3, next_id: 34, description: 'a farm of 33 systems (test)',
+    systems: Array.from({ length: 33 }, (_, i) => ({
+      id: i + 1, name: i === 1 ? FARM_LONG_NAME : `Rack ${String(i + 1).padStart(2, '0')}`, kind: 'coral_grow_out', volume_l: 400,
+      default_salinity: 35, default_temperature_c: 25, units, targets: {} })),
+    events: [],
+    app: { schema_version: 1, current_system: 2, demo_system_ids: [], settings: { text_size: 1.0, room_co2_ppm: 600 } },
+  };
+}
+
 // A new browser context (opts: viewport, time zone...) opened on the app over a store as the
 // older app kept it (seedOlderStore), imported on start: the farms of the browser tests.
 export async function openSeeded(browser, url, opts, doc) {

@@ -17,7 +17,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, state, tap, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, widget, enter, waitReady, watchErrors, openSeeded } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, state, tap, frames, flushed, check, OUTPUT, HERE, openApp, runTests, benign, messageGone, widget, enter, waitReady, watchErrors, openSeeded, FARM_LONG_NAME, farmOf33Systems } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
@@ -358,17 +358,9 @@ test('desktop: the preview fits the column, Add and Cancel side by side', async 
   await context.close();
 });
 
-// A farm of 33 systems, as test_switcher.mjs builds it, opened from the older store.
-const LONG = 'North greenhouse quarantine and grow-out raceway for the soft coral frags';
-const farmUnits = { alkalinity: 'dKH', calcium_magnesium: 'mg/L', temperature: 'C', ph_scale: 'nbs', volume: 'L' };
-const FARM = {
-  format: 'tidewright-journal', schema_version: 3, next_id: 34, description: 'a farm of 33 systems (test)',
-  systems: Array.from({ length: 33 }, (_, i) => ({
-    id: i + 1, name: i === 1 ? LONG : `Rack ${String(i + 1).padStart(2, '0')}`, kind: 'coral_grow_out', volume_l: 400,
-    default_salinity: 35, default_temperature_c: 25, units: farmUnits, targets: {} })),
-  events: [],
-  app: { schema_version: 1, current_system: 2, demo_system_ids: [], settings: { text_size: 1.0, room_co2_ppm: 600 } },
-};
+// A farm of 33 systems (lib.mjs), opened from the older store.
+const LONG = FARM_LONG_NAME;
+const FARM = farmOf33Systems();
 
 for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
   test(`33 systems: the rows go to Rack 31, found by typing in the list (${label})`, async () => {

@@ -5,7 +5,7 @@
 // Screenshots go to tests/browser/output/switcher-*.png.
 import { resolve, join } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, openSeeded, tap, enter } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, state, widget, frames, flushed, check, OUTPUT, HERE, runTests, benign, watchErrors, openSeeded, tap, enter, FARM_LONG_NAME, farmOf33Systems } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -13,16 +13,8 @@ const browser = await launch();
 const tests = [];
 const test = (name, fn) => tests.push({ name, fn });
 
-const LONG = 'North greenhouse quarantine and grow-out raceway for the soft coral frags';
-const units = { alkalinity: 'dKH', calcium_magnesium: 'mg/L', temperature: 'C', ph_scale: 'nbs', volume: 'L' };
-const FARM = {
-  format: 'tidewright-journal', schema_version: 3, next_id: 34, description: 'a farm of 33 systems (test)',
-  systems: Array.from({ length: 33 }, (_, i) => ({
-    id: i + 1, name: i === 1 ? LONG : `Rack ${String(i + 1).padStart(2, '0')}`, kind: 'coral_grow_out', volume_l: 400,
-    default_salinity: 35, default_temperature_c: 25, units, targets: {} })),
-  events: [],
-  app: { schema_version: 1, current_system: 2, demo_system_ids: [], settings: { text_size: 1.0, room_co2_ppm: 600 } },
-};
+const LONG = FARM_LONG_NAME;
+const FARM = farmOf33Systems();
 
 // Opens the app on the farm: the store as the older app kept it (IDBFS), imported on start.
 const openFarm = (opts) => openSeeded(browser, server.url, opts, FARM);

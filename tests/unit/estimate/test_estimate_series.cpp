@@ -6,6 +6,8 @@
 
 #include <doctest/doctest.h>
 
+#include "../journal_fixture.hpp"
+
 #include "tidewright/estimate/estimate.hpp"
 #include "tidewright/journal/journal.hpp"
 
@@ -28,15 +30,7 @@ journal::Journal make_journal(journal::SystemId& id, double volume_l = 380.0) {
   return j;
 }
 
-void add(journal::Journal& j, journal::SystemId id, std::int64_t t, journal::EventData data) {
-  journal::Event e;
-  e.system_id = id;
-  e.time_s = t;
-  e.data = std::move(data);
-  auto r = journal::add_event(j, e);
-  INFO((r.ok() ? std::string() : r.error().message));
-  REQUIRE(r.ok());
-}
+using tw::test::add;
 
 journal::TestResult test_of(journal::Parameter p, double value, const char* unit) {
   journal::TestResult t;

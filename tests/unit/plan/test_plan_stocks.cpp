@@ -2,6 +2,8 @@
 // (plan_stocks.hpp), and the strongest stock a compound's solubility allows (additives.hpp).
 #include <doctest/doctest.h>
 
+#include "../journal_fixture.hpp"
+
 #include <array>
 #include <string>
 
@@ -28,14 +30,7 @@ journal::Journal reef(journal::SystemId* id) {
   return j;
 }
 
-void add(journal::Journal& j, journal::SystemId id, std::int64_t t, journal::EventData data) {
-  journal::Event e;
-  e.system_id = id;
-  e.time_s = t;
-  e.data = std::move(data);
-  auto r = journal::add_event(j, e);
-  REQUIRE_MESSAGE(r.ok(), r.error().message);
-}
+using tw::test::add;
 
 }  // namespace
 
