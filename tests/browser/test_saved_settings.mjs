@@ -117,14 +117,17 @@ test('a damaged saved setting is refused with its name and range; the default is
   await flushed(page);
   const events = (await state(page)).events;
   // Change the stored record by hand, as a damaged or hand-edited store would have it.
-  await editSavedSettings(page, ids[0], { 'plan.alkalinity_doses_per_day': 999, 'hatchery.stock_g_per_l': 'strong' });
+  // The calcium stock is inside the range table (up to 1500 g/L) but past its solubility.
+  await editSavedSettings(page, ids[0], { 'plan.alkalinity_doses_per_day': 999, 'hatchery.stock_g_per_l': 'strong',
+    'plan.calcium_stock_g_per_l': 1490 });
   await page.reload();
   await waitReady(page);
   await frames(page, 3);
   const s = await state(page);
   check(s.message_is_error && /Alkalinity pump doses per day 999/.test(s.message) && /1 to 288/.test(s.message),
     `no refusal naming the setting and its range: "${s.message}"`);
-  check(/and 1 more/.test(s.message), `the second refused value is not counted: "${s.message}"`);
+  check(/and 2 more/.test(s.message), `the other two refused values are not counted: "${s.message}"`);
+  check(s.dosing_forms.plan.calcium_stock_g_per_l === null, `a calcium stock past its solubility kept: ${s.dosing_forms.plan.calcium_stock_g_per_l}`);
   check(s.dosing_forms.plan.alkalinity_doses_per_day === null, `doses per day not back to its default: ${s.dosing_forms.plan.alkalinity_doses_per_day}`);
   check(s.dosing_forms.hatchery.stock_g_per_l === null, `stock strength not back to its default`);
   check(Math.abs(s.dosing_forms.plan.alkalinity_stock_g_per_l - 123) < 1e-9, 'a good setting beside the bad one was lost');

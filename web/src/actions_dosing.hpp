@@ -34,6 +34,14 @@ bool adopt_current_plan(AppState& app);
 // 1 to 60 characters by the core's rule (journal/device_name.hpp), not another pump's name. A
 // refused name leaves the one kept as it was.
 bool set_plan_pump_name(AppState& app, int slot, const std::string& typed);
+// The temperature the Plan's stocks are made up and kept at (their recipes, their solubility).
+inline constexpr double kPlanStockTemperatureC = 25.0;
+// The strongest stock of a compound the Plan accepts, in whole g/L: the core's
+// max_stock_g_per_l at that temperature (the range table's top when the core gives none). The
+// strength fields and the saved settings' read-back take the same bound.
+double plan_stock_max_g_per_l(tw::additives::CompoundId id);
+// The alkalinity stock's compound (Na2CO3, or NaHCO3 when chosen).
+tw::additives::CompoundId alkalinity_compound(PlanAlkalinity a);
 // The Plan's magnesium choices as the core's compounds (plan::magnesium_stocks order) and back.
 tw::additives::CompoundId magnesium_compound(PlanMagnesium m);
 PlanMagnesium magnesium_choice(tw::additives::CompoundId id);

@@ -22,6 +22,13 @@ namespace twapp {
 namespace add = tw::additives;
 namespace pl = tw::plan;
 
+double plan_stock_max_g_per_l(add::CompoundId id) {
+  const auto max = add::max_stock_g_per_l(id, kPlanStockTemperatureC);
+  return max ? std::floor(*max) : tw::ranges::kStockGPerL.hi;
+}
+add::CompoundId alkalinity_compound(PlanAlkalinity a) {
+  return a == PlanAlkalinity::SodiumBicarbonate ? add::CompoundId::SodiumBicarbonate : add::CompoundId::SodiumCarbonate;
+}
 add::CompoundId magnesium_compound(PlanMagnesium m) {
   return pl::magnesium_stocks()[m == PlanMagnesium::MagnesiumSulfate ? 1 : 0].compound;
 }
@@ -88,19 +95,14 @@ tw::Result<add::Additive> stock_additive(add::CompoundId id, double g_per_l, con
   add::StockRecipe r;
   r.name = name + " " + fmtx_g_per_l(g_per_l);  // the recipe's name is the additive's (and its file's)
   r.ingredients.push_back({id, g_per_l});
-  r.temperature_c = 25;
+  r.temperature_c = kPlanStockTemperatureC;
   return add::additive_from_stock(r);
-}
-
-add::CompoundId alkalinity_compound(const PlanForm& f) {
-  return f.alkalinity == PlanAlkalinity::SodiumBicarbonate ? add::CompoundId::SodiumBicarbonate
-                                                           : add::CompoundId::SodiumCarbonate;
 }
 
 tw::Result<add::Additive> alkalinity_stock(const PlanForm& f, double g_per_l, double temperature_c) {
   if (f.alkalinity == PlanAlkalinity::Limewater) return add::limewater_additive(temperature_c);
   const bool carb = f.alkalinity == PlanAlkalinity::SodiumCarbonate;
-  return stock_additive(alkalinity_compound(f), g_per_l, carb ? "Sodium carbonate" : "Sodium bicarbonate");
+  return stock_additive(alkalinity_compound(f.alkalinity), g_per_l, carb ? "Sodium carbonate" : "Sodium bicarbonate");
 }
 tw::Result<add::Additive> calcium_stock(double g_per_l) {
   return stock_additive(add::CompoundId::CalciumChlorideDihydrate, g_per_l, "Calcium chloride dihydrate");
@@ -122,7 +124,7 @@ double strength_of(const AppState& app, tw::journal::SystemId system, add::Compo
 }
 
 void resolve_strengths(const AppState& app, const PlanForm& f, tw::journal::SystemId system, PlanCache& out) {
-  out.alkalinity_g_per_l = strength_of(app, system, alkalinity_compound(f), f.alkalinity_g_per_l,
+  out.alkalinity_g_per_l = strength_of(app, system, alkalinity_compound(f.alkalinity), f.alkalinity_g_per_l,
                                        pl::kStarterSodaAshGPerL, &out.alkalinity_strength_from_log);
   out.calcium_g_per_l = strength_of(app, system, add::CompoundId::CalciumChlorideDihydrate, f.calcium_g_per_l,
                                     pl::kStarterCalciumChlorideGPerL, &out.calcium_strength_from_log);

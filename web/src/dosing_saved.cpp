@@ -273,16 +273,6 @@ PlanForm plan_from_json(const json& j, const jn::System& sys, std::vector<std::s
   r.optional("calcium_stock_g_per_l", "Calcium stock strength", rg::kStockGPerL, &f.calcium_g_per_l, true);
   r.optional_choice("magnesium_from", "Magnesium from", kPlanMagnesium, &f.magnesium);
   r.optional("magnesium_stock_g_per_l", "Magnesium stock strength", rg::kStockGPerL, &f.magnesium_g_per_l, true);
-  // Within the compound's solubility (the core's strongest stock, as the screen's field takes it).
-  if (f.magnesium && *f.magnesium != PlanMagnesium::None && f.magnesium_g_per_l) {
-    const auto max = tw::additives::max_stock_g_per_l(magnesium_compound(*f.magnesium), 25.0);
-    if (max && *f.magnesium_g_per_l > std::floor(*max)) {
-      r.refuse("Magnesium stock strength " + std::to_string(static_cast<long long>(*f.magnesium_g_per_l)) +
-               " g/L is outside the accepted range 1 to " + std::to_string(static_cast<long long>(std::floor(*max))) +
-               " g/L (its solubility at 25 C)");
-      f.magnesium_g_per_l.reset();
-    }
-  }
   // Before each pump had its own: one doses a day and largest dose for both pumps.
   std::optional<int> shared_doses;
   std::optional<double> shared_max;
@@ -315,6 +305,22 @@ PlanForm plan_from_json(const json& j, const jn::System& sys, std::vector<std::s
   r.number("alkalinity_consumption_dkh_per_day", "Alkalinity consumption", alk_demand, &f.alkalinity_demand_dkh_per_day);
   r.number("calcium_consumption_mg_l_per_day", "Calcium consumption", rg::kCalciumDemandMgPerLDay,
            &f.calcium_demand_mg_l_per_day);
+  // Each stock within its compound's solubility, as the screen's fields take it.
+  const auto soluble = [&](const char* label, tw::additives::CompoundId id, std::optional<double>& g) {
+    if (!g) return;
+    const double max = plan_stock_max_g_per_l(id);
+    if (auto st = rg::check(label, *g, rg::Range{1, max, "g/L"}); !st) {
+      r.refuse(st.error().message + " (its solubility at " + std::to_string(static_cast<int>(kPlanStockTemperatureC)) + " C)");
+      g.reset();
+    }
+  };
+  if (f.alkalinity == PlanAlkalinity::SodiumCarbonate || f.alkalinity == PlanAlkalinity::SodiumBicarbonate) {
+    soluble("Alkalinity stock strength", alkalinity_compound(f.alkalinity), f.alkalinity_g_per_l);
+  }
+  soluble("Calcium stock strength", tw::additives::CompoundId::CalciumChlorideDihydrate, f.calcium_g_per_l);
+  if (f.magnesium && *f.magnesium != PlanMagnesium::None) {
+    soluble("Magnesium stock strength", magnesium_compound(*f.magnesium), f.magnesium_g_per_l);
+  }
   r.number("magnesium_consumption_mg_l_per_day", "Magnesium consumption", rg::kMagnesiumDemandMgPerLDay,
            &f.magnesium_demand_mg_l_per_day);
   return f;

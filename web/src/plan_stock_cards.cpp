@@ -23,16 +23,11 @@ namespace {
 namespace rg = tw::ranges;
 namespace add = tw::additives;
 
-// The temperature the Plan's stocks are kept at (as actions_plan.cpp makes them).
-constexpr double kStockTemperatureC = 25.0;
-
 // ---------------------------------------------------------------- 1. A strength
 // "Magnesium stock strength": 1 g/L up to the strongest stock the compound's solubility allows.
 bool strength_field(AppState& app, const std::string& name, const char* label, add::CompoundId id, double step,
                     double* g_per_l) {
-  const auto max = add::max_stock_g_per_l(id, kStockTemperatureC);
-  const double hi = max ? std::floor(*max) : rg::kStockGPerL.hi;
-  return ui::number_field(app, name, {label, "g/L", 0, step, 1, hi, false}, g_per_l);
+  return ui::number_field(app, name, {label, "g/L", 0, step, 1, plan_stock_max_g_per_l(id), false}, g_per_l);
 }
 
 // ---------------------------------------------------------------- 2. A pump
