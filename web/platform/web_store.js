@@ -328,8 +328,12 @@ Module.twStore = (function () {
   return S;
 })();
 
+// The database is opened and read as soon as this script runs, while the wasm is still on its
+// way: Emscripten runs preRun only once the wasm is instantiated, and reading there kept main
+// waiting for IndexedDB after the download instead of during it.
+Module.twStore.started = Module.twStore.start();
 Module.preRun = Module.preRun || [];
 Module.preRun.push(function () {
   addRunDependency('tw-store');
-  Module.twStore.start().then(function () { removeRunDependency('tw-store'); });
+  Module.twStore.started.then(function () { removeRunDependency('tw-store'); });
 });

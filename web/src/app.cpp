@@ -141,8 +141,10 @@ bool app_frame(AppState& app) {
   if (!app.ui.first_frame_reported) {
     app.ui.first_frame_reported = true;
     platform::first_frame_drawn();
-  }
-  if (app.store.save_after_first_frame) {
+    // The browser shows this frame only once the call that drew it returns: the demo's first
+    // save waits for the next frame instead of holding this one back.
+    if (app.store.save_after_first_frame) platform::request_frames(1);
+  } else if (app.store.save_after_first_frame) {
     app.store.save_after_first_frame = false;
     save(app);
   }

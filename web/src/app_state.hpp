@@ -235,8 +235,9 @@ struct StoreStatus {
   std::string problem;     // e.g. damaged store: what happened and where the copy is
   std::string save_error;  // last failed save
   int saves = 0;
-  // The demo of a first start is saved right after the first frame is on screen, not before:
-  // writing its 900 entries took 0.1 to 0.4 s of a phone's first frame (app_frame saves it).
+  // The demo of a first start is saved once the first frame is on screen, not before: writing
+  // its 900 entries took 0.1 to 0.4 s of a phone's first frame (app_frame saves it at the end
+  // of the second frame; the browser shows a frame when the call that drew it returns).
   bool save_after_first_frame = false;
   tw::journal::Journal saved_journal;  // the journal as last saved: a save writes only the difference
 };

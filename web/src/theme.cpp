@@ -109,6 +109,10 @@ void apply_look(Look look, float scale) {
 void build(UiState& ui, float scale, Look look) {
   ImGuiIO& io = ImGui::GetIO();
   io.Fonts->Clear();
+  // The atlas is as tall as its glyphs need, not rounded up to a power of two (WebGL2 and
+  // OpenGL 3 take any size): at a phone's 3x that is about half the texture to convert to RGBA
+  // and upload at the start.
+  io.Fonts->Flags |= ImFontAtlasFlags_NoPowerOfTwoHeight;
   const float px = kBaseFontPx * scale;
   ui.fonts.body = add_font(tw_font_regular, tw_font_regular_size, px, kGlyphRanges);
   // One embedded face (Roboto Regular) keeps the download small, and one atlas entry per size
