@@ -2,6 +2,11 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <cstdlib>
+#include <random>
+#include <string>
+
+#include <fmt/format.h>
 
 #include "tidewright/common/stored_number.hpp"
 #include "tidewright/journal/journal.hpp"
@@ -18,6 +23,29 @@ TEST_CASE("stored_number: binary noise goes, meaningful digits stay") {
   CHECK(stored_number(-2.5) == -2.5);
   CHECK(stored_number(0.0) == 0.0);
   CHECK(std::isnan(stored_number(std::nan(""))));
+}
+
+// The rule itself, written the slow way: text with 12 significant digits, parsed back.
+double rounded_to_12_digits(double value) {
+  return std::strtod(fmt::format("{:.12g}", value).c_str(), nullptr);
+}
+
+TEST_CASE("stored_number: the fast path for short numbers gives exactly what the rounding gives") {
+  std::mt19937_64 rng(20261205);
+  std::uniform_real_distribution<double> mantissa(1.0, 10.0);
+  std::uniform_int_distribution<int> exponent(-12, 15), digits(1, 17), sign(0, 1);
+  int fast = 0;
+  for (int i = 0; i < 200000; ++i) {
+    // Numbers of 1 to 17 significant digits at magnitudes 1e-12 to 1e15: short ones as people
+    // type them, long ones as unit conversions leave them.
+    const int n = digits(rng);
+    const double scale = std::pow(10.0, n - 1);
+    double v = std::round(mantissa(rng) * scale) / scale * std::pow(10.0, exponent(rng));
+    if (sign(rng)) v = -v;
+    if (stored_number(v) == v) ++fast;
+    REQUIRE_MESSAGE(stored_number(v) == rounded_to_12_digits(v), fmt::format("{:.17g}", v));
+  }
+  CHECK(fast > 100000);  // most of them are already stored as they are
 }
 
 TEST_CASE("volume_text: gallons with two decimals, litres without noise") {
