@@ -3,20 +3,18 @@
 // phone size, memory. Prints figures against the targets; exit status is always 0 (figures,
 // not a pass/fail test).   node bench.mjs [site-dir]
 //
-// The throttled link is the mobile preset that Lighthouse documents as its default (latency
-// 150 ms, 1.6 Mbps down, 750 kbps up; Lighthouse docs/throttling.md, "The mobile network
-// throttling preset", there also called "Slow 4G" and formerly "Fast 3G"), applied per request
-// by Chromium's DevTools throttling (CDP Network.emulateNetworkConditions). 1.6 Mbps is taken
-// as 1,600,000 bit/s = 200,000 bytes/s. Each throttled run uses a fresh browser context (empty
-// HTTP cache, no service worker), as on a phone's first visit.
+// The throttled link is lib.mjs PHONE_LINK (Lighthouse's default mobile preset), applied per
+// request by Chromium's DevTools throttling. Each throttled run uses a fresh browser context
+// (empty HTTP cache, no service worker), as on a phone's first visit. Where the time of a start
+// goes: profile_start.mjs.
 import { request } from 'node:http';
 import { join, resolve } from 'node:path';
 import { startServer } from './serve.mjs';
-import { launch, PHONE, waitReady, tap, frames, HERE } from './lib.mjs';
+import { launch, PHONE, PHONE_LINK, waitReady, tap, frames, HERE } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const RUNS = 3;
-const LINK = { offline: false, latency: 150, downloadThroughput: 1600000 / 8, uploadThroughput: 750000 / 8 };
+const LINK = PHONE_LINK;
 
 // One GET as a browser sends it (Accept-Encoding: gzip, deflate, br): bytes of the body on the
 // wire and the encoding the server chose.

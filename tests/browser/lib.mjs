@@ -23,6 +23,11 @@ export const PHONE = { viewport: { width: 390, height: 844 }, deviceScaleFactor:
 // Chromium draws the canvas with software WebGL (SwiftShader) here, and at 3x each frame has
 // 9x the pixels, which made a tap (a few frames) take 2-3 s on the 2-core CI machine.
 export const PHONE_1X = { ...PHONE, deviceScaleFactor: 1 };
+// A phone's first visit over a slow link: Lighthouse's default mobile preset (latency 150 ms,
+// 1.6 Mbps down, 750 kbps up; Lighthouse docs/throttling.md, "The mobile network throttling
+// preset", also called "Slow 4G"), for CDP Network.emulateNetworkConditions. 1.6 Mbps is taken
+// as 1,600,000 bit/s = 200,000 bytes/s.
+export const PHONE_LINK = { offline: false, latency: 150, downloadThroughput: 1600000 / 8, uploadThroughput: 750000 / 8 };
 export const DESKTOP = { viewport: { width: 1280, height: 800 }, deviceScaleFactor: 1, hasTouch: false };
 
 // Collects console errors and page errors of a page.
