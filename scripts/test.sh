@@ -41,7 +41,8 @@ passed=$((passed + 1))
 
 stage "3/5 core tests compiled to WebAssembly, under Node.js"
 # In the browser app's own build directory: the tests run on the core exactly as the app is
-# built (-Os), and stage 5 reuses its compiled core instead of building it a second time.
+# built (-Oz, link-time optimised), and stage 5 reuses its compiled core instead of building it
+# a second time.
 emcmake cmake -S . -B build/web -G Ninja -DCMAKE_BUILD_TYPE=Release -DTW_BUILD_WEB=ON -DTW_BUILD_TESTS=ON \
   -DTW_IMGUI_DIR="$ROOT/.cache/imgui" >/dev/null
 ninja -C build/web -j"$JOBS" tw_tests
