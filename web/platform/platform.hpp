@@ -109,11 +109,16 @@ struct TextEntryRequest {
   std::string initial;  // starting text
   std::string hint;     // one line under the field, e.g. "Accepted 0 to 25 dKH"
   bool numeric = false; // decimal keyboard on phones
+  // A field that acts as the keeper types (a list's Find field): every change of the text comes
+  // back at once as a result with `typing` set, the field staying open; Cancel comes back with
+  // `initial`, so the widget returns to what it showed before.
+  bool live = false;
 };
 struct TextEntryResult {
   std::string key;
   std::string text;
   bool accepted = false;  // false = cancelled
+  bool typing = false;    // a live field's text so far; the field is still open
 };
 void open_text_entry(const TextEntryRequest& request);
 bool text_entry_open();

@@ -307,6 +307,11 @@ void draw_overlays(float em) {
   const ImGuiInputTextFlags flags = ImGuiInputTextFlags_EnterReturnsTrue |
       (g_entry.request.numeric ? ImGuiInputTextFlags_CharsScientific : 0);
   bool accept = ImGui::InputText("##entry_text", g_entry.buffer, sizeof g_entry.buffer, flags);
+  // A live field hears of every change at once (TextEntryRequest::live).
+  if (g_entry.request.live && ImGui::IsItemEdited()) {
+    g_entries.push_back({g_entry.request.key, g_entry.buffer, false, true});
+    request_frames(3);
+  }
   if (!g_entry.request.hint.empty()) ImGui::TextDisabled("%s", g_entry.request.hint.c_str());
   const ImVec2 button(6 * em, 2.75f * em);
   bool cancel = ImGui::Button("Cancel", button) || ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Escape));
@@ -315,7 +320,9 @@ void draw_overlays(float em) {
   ImGui::End();
   ImGui::PopStyleVar();
   if (accept || cancel) {
-    g_entries.push_back({g_entry.request.key, g_entry.buffer, accept});
+    // A cancelled live field goes back to the text it opened with.
+    const bool restore = cancel && !accept && g_entry.request.live;
+    g_entries.push_back({g_entry.request.key, restore ? g_entry.request.initial : std::string(g_entry.buffer), accept});
     g_entry.open = false;
     request_frames(3);
   }

@@ -57,6 +57,10 @@ bool optional_number_field(AppState& app, const std::string& name, const NumberS
                            std::optional<double>* value);
 bool text_field(AppState& app, const std::string& name, const char* label, std::string* value,
                 const char* hint);
+// Same, but *value follows the text as it is typed, before it is confirmed (a list's Find
+// field filters per keystroke); Cancel puts back what was there when the field opened.
+bool live_text_field(AppState& app, const std::string& name, const char* label, std::string* value,
+                     const char* hint);
 
 // A rounded panel behind a group of widgets (content is inset by one padding on each side).
 void card_begin(AppState& app);
