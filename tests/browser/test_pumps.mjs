@@ -17,7 +17,9 @@
 //    largest dose (alkalinity 2 a day, calcium 6) show in the legend and the day's doses; a
 //    reload keeps them; the command line's plan of the same input gives the same doses, the
 //    magnesium pump's too; adopting writes the three schedules;
-//  - an old saved store with one doses a day and largest dose for both pumps gives each pump those.
+//  - an old saved store with one doses a day and largest dose for both pumps gives each pump those;
+//  - a refused doses a day or largest dose on each of the three cards names the pump (its role,
+//    name and chemical) with the field and the accepted range, and changes nothing.
 // Screenshots: tests/browser/output/pumps-phone-plan.png (the pump section),
 // pumps-phone-magnesium.png (the magnesium card), pumps-phone-days.png (the day table).
 import { resolve, join } from 'node:path';
@@ -388,6 +390,32 @@ test("pumps: an old saved store's one doses a day and largest dose go to both st
   }
   check(s.plan && s.plan.pumps[0].doses_per_day === 3 && s.plan.pumps[1].doses_per_day === 3 && s.plan.pumps[0].max_dose === 25,
         `the plan's pumps: ${JSON.stringify(s.plan && s.plan.pumps)}`);
+  await context.close();
+  const real = errors.filter((e) => !benign(e));
+  check(real.length === 0, `console errors: ${real.join(' | ')}`);
+});
+
+test('pumps: a refused doses a day or largest dose names its pump and chemical with the field and range, on each of three cards (phone)', async () => {
+  const { context, page, errors } = await openApp(browser, server.url, PHONE);
+  await tap(page, 'tab.plan');
+  let s = await state(page);
+  check(s.plan && s.plan.pumps.length === 3, `not three pumps: ${JSON.stringify(s.plan && s.plan.pumps)}`);
+  await type(page, 'plan.mg_pump.name', 'Mg doser');
+  const kept = (await state(page)).plan.pumps.map((p) => [p.doses_per_day, p.max_dose]);
+  const cards = [['alk_pump', /^Alkalinity pump "pump 1", Sodium carbonate \(soda ash\): /],
+                 ['ca_pump', /^Calcium pump "pump 2", Calcium chloride dihydrate: /],
+                 ['mg_pump', /^Magnesium pump "Mg doser", Magnesium chloride hexahydrate: /]];
+  // Each message differs from the one before (pump, field), so a message left over cannot pass.
+  for (const [card, pump] of cards) {
+    s = await refused(page, `plan.${card}.doses_per_day`, '300', new RegExp(pump.source + /Doses per day 300 is outside the accepted range 1 to 288/.source),
+      `${card} 300 doses a day`);
+    s = await refused(page, `plan.${card}.max_dose`, '200000', new RegExp(pump.source + /Largest dose \(set\) 200000 mL is outside the accepted range 0 to 100000 mL/.source),
+      `${card} largest dose 200000 mL`);
+  }
+  await page.screenshot({ path: join(OUTPUT, 'pumps-phone-refused.png') });
+  s = await state(page);
+  check(JSON.stringify(s.plan.pumps.map((p) => [p.doses_per_day, p.max_dose])) === JSON.stringify(kept),
+        `a refused value changed a pump: ${JSON.stringify(s.plan.pumps)}`);
   await context.close();
   const real = errors.filter((e) => !benign(e));
   check(real.length === 0, `console errors: ${real.join(' | ')}`);

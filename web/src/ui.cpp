@@ -267,12 +267,13 @@ bool value_box(AppState& app, const std::string& name, const NumberSpec& spec, s
     app.ui.entry.reset();
     if (r.accepted) {
       const auto v = parse_number(r.text);
+      const std::string field = spec.owner ? std::string(spec.owner) + ": " + spec.label : std::string(spec.label);
       if (!v) {
-        notify(app, std::string(spec.label) + ": \"" + r.text + "\" is not a number", true);
+        notify(app, field + ": \"" + r.text + "\" is not a number", true);
       } else if (*v < spec.lo || *v > spec.hi) {
-        notify(app, std::string(spec.label) + " " + fmtx::fixed(*v, spec.decimals) + " " + spec.unit +
-                        " is outside the accepted range " + fmtx::fixed(spec.lo, spec.decimals) + " to " +
-                        fmtx::fixed(spec.hi, spec.decimals) + " " + spec.unit, true);
+        const std::string unit = spec.unit[0] ? std::string(" ") + spec.unit : std::string();  // none: no stray space
+        notify(app, field + " " + fmtx::fixed(*v, spec.decimals) + unit + " is outside the accepted range " +
+                        fmtx::fixed(spec.lo, spec.decimals) + " to " + fmtx::fixed(spec.hi, spec.decimals) + unit, true);
       } else {
         *value = *v;
         changed = true;

@@ -48,6 +48,9 @@ struct NumberSpec {
   double step = 0.1;    // one tap of − or +
   double lo = 0, hi = 1e9;  // accepted range (from the core's ranges)
   bool steppers = true;
+  // Whose field it is, named first in a refusal when the label alone is ambiguous (three pump
+  // cards each have "Doses per day"): "pump 1 (sodium carbonate, alkalinity)". nullptr: none.
+  const char* owner = nullptr;
 };
 // Value box (tap to type) with − / + beside it. `value` is in the shown unit. Typed text is
 // refused with a message naming the field and the accepted range.
