@@ -76,7 +76,6 @@ void draw_chart(AppState& app, const PlanCache& c) {
   ts.name = "plan.chart";
   ts.y_unit = p == 0 ? "dKH (predicted)" : "mg/L (predicted)";
   ts.decimals = p == 0 ? 1 : 0;
-  ts.utc_offset_minutes = platform::utc_offset_minutes();
   ts.target = band.target;
   ts.band_lo = band.low;
   ts.band_hi = band.high;
@@ -209,7 +208,7 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   for (size_t i = 0; i < shown; ++i) {
     const pl::DaySummary& d = plan.days[i];
     std::vector<std::string> row{std::to_string(d.day) + " (" +
-                                 chart::day_label(c.start_day + d.day - 1 + 0.5, platform::utc_offset_minutes()) + ")"};
+                                 chart::day_label(c.start_day + d.day - 1 + 0.5) + ")"};
     for (std::size_t k = 0; k < d.amount_per_delivery.size(); ++k) {
       row.push_back(fmtx::fixed(del[k].set_amount(d.amount_per_delivery[k]), 1));
     }
