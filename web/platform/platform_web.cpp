@@ -316,6 +316,8 @@ std::optional<std::string> poll_import() {
   return t;
 }
 
+int exit_status() { return 0; }  // the page's loop never ends
+
 // ---------------------------------------------------------------- text entry
 void open_text_entry(const TextEntryRequest& r) {
   js_open_entry(r.key.c_str(), r.label.c_str(), r.initial.c_str(), r.hint.c_str(), r.numeric ? 1 : 0, r.live ? 1 : 0);
