@@ -17,7 +17,11 @@
 //    largest dose (alkalinity 2 a day, calcium 6) show in the legend and the day's doses; a
 //    reload keeps them; the command line's plan of the same input gives the same doses, the
 //    magnesium pump's too; adopting writes the three schedules;
-//  - an old saved store with one doses a day and largest dose for both pumps gives each pump those.
+//  - an old saved store with one doses a day and largest dose for both pumps gives each pump those;
+//  - a refused doses a day or largest dose on each of the three cards names the pump (its role,
+//    name and chemical) with the field and the accepted range, and changes nothing;
+//  - the day table's headings name each pump, its chemical and the unit, wrapped inside their
+//    columns, none overlapping the next (phone and desktop).
 // Screenshots: tests/browser/output/pumps-phone-plan.png (the pump section),
 // pumps-phone-magnesium.png (the magnesium card), pumps-phone-days.png (the day table).
 import { resolve, join } from 'node:path';
@@ -25,7 +29,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, waitReady, editSavedSettings, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase,
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, editSavedSettings, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase,
   benign, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
@@ -131,8 +135,8 @@ test('pumps: name and calibration of the alkalinity pump on the Plan, refused va
   check(s.dosing_forms.plan.alkalinity_pump_calibration === 0.9, `stored calibration ${s.dosing_forms.plan.alkalinity_pump_calibration}`);
   check(s.plan && s.plan.pumps[0].device === 'Left doser' && s.plan.pumps[0].calibration === 0.9,
         `the plan's pump ${JSON.stringify(s.plan && s.plan.pumps[0])}`);
-  check(s.plan.day_columns[0] === 'Left doser, mL set', `day table column "${s.plan.day_columns[0]}"`);
-  check(s.plan.day_columns[1] === 'pump 2, mL', `calcium column "${s.plan.day_columns[1]}"`);
+  check(s.plan.day_columns[0] === 'Left doser, Na\u2082CO\u2083, mL set', `day table column "${s.plan.day_columns[0]}"`);
+  check(s.plan.day_columns[1] === 'pump 2, CaCl\u2082, mL', `calcium column "${s.plan.day_columns[1]}"`);
   check(/^Left doser: .*calibration 0\.9/.test(s.plan.legend), `legend "${s.plan.legend}"`);
   checkSetAmounts(s.plan, 0.9);
   check(s.plan.check_ok, `the independent check failed: ${s.plan.check_problems.join('; ')}`);
@@ -274,7 +278,7 @@ test('pumps: a magnesium stock and pump by taps, each pump its own doses a day a
   check(JSON.stringify(devices) === JSON.stringify(['pump 1', 'pump 2', 'Mg doser']), `pumps ${devices}`);
   check(JSON.stringify(s.plan.pumps.map((p) => p.doses_per_day)) === '[2,6,3]', `doses a day ${s.plan.pumps.map((p) => p.doses_per_day)}`);
   check(JSON.stringify(s.plan.pumps.map((p) => p.max_dose)) === '[60,30,20]', `largest doses ${s.plan.pumps.map((p) => p.max_dose)}`);
-  check(s.plan.day_columns[2] === 'Mg doser, mL set', `magnesium column "${s.plan.day_columns[2]}"`);
+  check(s.plan.day_columns[2] === 'Mg doser, MgCl\u2082, mL set', `magnesium column "${s.plan.day_columns[2]}"`);
   check(/pump 1: .*, 2 doses a day; pump 2: .*, 6 doses a day; Mg doser: Magnesium chloride hexahydrate 250 g\/L, calibration 0\.95: amounts to set, 3 doses a day$/.test(s.plan.legend),
         `legend "${s.plan.legend}"`);
   // The day's doses follow each pump's own program: never more a day than it is set to.
@@ -392,5 +396,68 @@ test("pumps: an old saved store's one doses a day and largest dose go to both st
   const real = errors.filter((e) => !benign(e));
   check(real.length === 0, `console errors: ${real.join(' | ')}`);
 });
+
+test('pumps: a refused doses a day or largest dose names its pump and chemical with the field and range, on each of three cards (phone)', async () => {
+  const { context, page, errors } = await openApp(browser, server.url, PHONE);
+  await tap(page, 'tab.plan');
+  let s = await state(page);
+  check(s.plan && s.plan.pumps.length === 3, `not three pumps: ${JSON.stringify(s.plan && s.plan.pumps)}`);
+  await type(page, 'plan.mg_pump.name', 'Mg doser');
+  const kept = (await state(page)).plan.pumps.map((p) => [p.doses_per_day, p.max_dose]);
+  const cards = [['alk_pump', /^Alkalinity pump "pump 1", Sodium carbonate \(soda ash\): /],
+                 ['ca_pump', /^Calcium pump "pump 2", Calcium chloride dihydrate: /],
+                 ['mg_pump', /^Magnesium pump "Mg doser", Magnesium chloride hexahydrate: /]];
+  // Each message differs from the one before (pump, field), so a message left over cannot pass.
+  for (const [card, pump] of cards) {
+    s = await refused(page, `plan.${card}.doses_per_day`, '300', new RegExp(pump.source + /Doses per day 300 is outside the accepted range 1 to 288/.source),
+      `${card} 300 doses a day`);
+    s = await refused(page, `plan.${card}.max_dose`, '200000', new RegExp(pump.source + /Largest dose \(set\) 200000 mL is outside the accepted range 0 to 100000 mL/.source),
+      `${card} largest dose 200000 mL`);
+  }
+  await page.screenshot({ path: join(OUTPUT, 'pumps-phone-refused.png') });
+  s = await state(page);
+  check(JSON.stringify(s.plan.pumps.map((p) => [p.doses_per_day, p.max_dose])) === JSON.stringify(kept),
+        `a refused value changed a pump: ${JSON.stringify(s.plan.pumps)}`);
+  await context.close();
+  const real = errors.filter((e) => !benign(e));
+  check(real.length === 0, `console errors: ${real.join(' | ')}`);
+});
+
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`pumps: the day table's headings name each pump and its chemical in full, side by side without overlapping (${label})`, async () => {
+    const { context, page, errors } = await openApp(browser, server.url, opts);
+    await tap(page, 'tab.plan');
+    await type(page, 'plan.mg_pump.name', 'Mg doser');
+    const s = await state(page);
+    check(s.plan && s.plan.pumps.length === 3, `not three pumps: ${JSON.stringify(s.plan && s.plan.pumps)}`);
+    await reveal(page, 'plan.days');
+    await frames(page, 4);
+    const heads = [];
+    for (let k = 0; ; k++) {
+      const w = await widget(page, `plan.days.head.${k}`);
+      if (!w.found) break;
+      heads.push(w);
+    }
+    // Day, three pumps, dKH, Ca and Mg at the day's end.
+    check(heads.length === 7, `${heads.length} headings`);
+    const pumps = [['pump 1', 'Na\u2082CO\u2083'], ['pump 2', 'CaCl\u2082'], ['Mg doser', 'MgCl\u2082']];
+    pumps.forEach(([name, formula], i) => {
+      const lines = heads[i + 1].text.split('\n');
+      check(lines[0] === name && lines[1] === formula && lines[2] === 'mL', `pump column ${i + 1} reads ${JSON.stringify(heads[i + 1].text)}`);
+    });
+    const table = await widget(page, 'plan.days');
+    for (let k = 0; k < heads.length; k++) {
+      const h = heads[k];
+      check(h.visible && h.x >= table.x - 0.5 && h.x + h.w <= table.x + table.w + 0.5 && h.x + h.w <= opts.viewport.width,
+        `heading ${k} outside the table or the screen: ${JSON.stringify(h)} in ${JSON.stringify(table)}`);
+      if (k > 0) check(heads[k - 1].x + heads[k - 1].w <= h.x + 0.5, `headings ${k - 1} and ${k} overlap: ${JSON.stringify(heads[k - 1])} ${JSON.stringify(h)}`);
+    }
+    console.log(`     headings: ${heads.map((h) => `${h.text.replace(/\n/g, '/')} ${Math.round(h.w)}px`).join(' | ')}`);
+    await page.screenshot({ path: join(OUTPUT, `pumps-${label}-day-headings.png`) });
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
 
 await runTests(tests, browser, server);

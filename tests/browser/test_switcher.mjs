@@ -1,6 +1,8 @@
 // Browser tests of the header's system switcher with a farm's 33 systems (issue 15): the list
 // scrolls by a finger's drag on a phone and by the wheel on a desktop until the 33rd system can
-// be tapped, and a long name is cut with an ellipsis in the list and in the header.
+// be tapped, and a long name is cut with an ellipsis in the list and in the header; the Find
+// field narrows the list with each character typed (a phone's keyboard and a desktop's), and its
+// Cancel brings every system back.
 //   node test_switcher.mjs [site-dir]      (default ../../build/web/site)
 // Screenshots go to tests/browser/output/switcher-*.png.
 import { resolve, join } from 'node:path';
@@ -117,6 +119,48 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await page.screenshot({ path: join(OUTPUT, `switcher-${label}-found.png`) });
     await press(page, found);
     check((await state(page)).current_system === 31, 'tapping Rack 31 did not make it current');
+    await context.close();
+    const real = errors.filter((e) => !benign(e) && !/status of 404/.test(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
+// The names of the systems listed now (switch.<id> widgets drawn this frame).
+async function listed(page) {
+  return Object.keys(JSON.parse(await page.evaluate(() => Module.ccall('tw_test_widgets', 'string', [], []))))
+    .filter((n) => /^switch\.\d+$/.test(n));
+}
+
+for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
+  test(`switcher: the list narrows with each character typed, before Enter; Cancel brings every system back (${label})`, async () => {
+    const { context, page, errors } = await openFarm(opts);
+    await press(page, await widget(page, 'header.switch'));
+    check((await listed(page)).length === 33, 'the list does not start with all 33 systems');
+    await tap(page, 'switch.find');
+    await page.waitForSelector('#entry.open', { timeout: 5000 });
+    // A phone's keyboard gives the page text without key events (insertText sends only the
+    // 'input' event); a desktop's keyboard sends keys.
+    const counts = [];
+    for (const ch of 'Rack 3') {
+      if (opts.hasTouch) await page.keyboard.insertText(ch); else await page.keyboard.type(ch);
+      await frames(page, 4);
+      counts.push((await listed(page)).length);
+    }
+    // "r", "ra", "rac" also match the long name's "raceway"; "rack" leaves the 32 racks, "rack 3"
+    // Rack 30 to 33.
+    check(counts.join(',') === '33,33,33,32,32,4', `listed after each character: ${counts.join(',')}`);
+    const s = await state(page);
+    check(s.entry_open && await page.isVisible('#entry.open'), 'the field closed while typing');
+    check((await listed(page)).sort().join(' ') === 'switch.30 switch.31 switch.32 switch.33', 'not Rack 30 to 33');
+    check((await widget(page, 'switch.find')).text === 'Rack 3', `the Find field shows "${(await widget(page, 'switch.find')).text}"`);
+    await page.screenshot({ path: join(OUTPUT, `switcher-${label}-typing.png`) });
+    await page.click('#entry-cancel');
+    await afterEntry(page);
+    check((await listed(page)).length === 33, `after Cancel ${(await listed(page)).length} systems are listed`);
+    const find = await widget(page, 'switch.find');
+    check(find.text === 'Tap to enter', `the Find field shows "${find.text}" after Cancel`);
+    check((await state(page)).current_system === 2, 'typing or Cancel chose a system');
+    await page.screenshot({ path: join(OUTPUT, `switcher-${label}-cancelled.png`) });
     await context.close();
     const real = errors.filter((e) => !benign(e) && !/status of 404/.test(e));
     check(real.length === 0, `console errors: ${real.join(' | ')}`);

@@ -20,6 +20,7 @@ namespace twapp::platform {
 struct StartOptions {
   int exit_after_frames = 0;  // native: render this many frames, then quit (0 = run until closed)
   std::string data_dir;       // native: where the store lives (default ~/.local/share/tidewright)
+  std::string script_path;    // native: drive the app by this script (native_script.hpp), then quit
 };
 
 // Creates the window, the GL context and the ImGui platform/renderer backends (the ImGui
@@ -36,6 +37,9 @@ float pixel_ratio();
 // adapted to the browser's animation frames inside the web implementation.
 using FrameFn = bool (*)(void* user);
 void run_loop(FrameFn frame, void* user);
+// What the process should exit with once the loop has ended: 1 when a native --script step
+// failed, else 0.
+int exit_status();
 
 // Starts an ImGui frame (backend NewFrame + pointer/touch input). Call before ImGui::NewFrame.
 void begin_frame();
@@ -109,11 +113,16 @@ struct TextEntryRequest {
   std::string initial;  // starting text
   std::string hint;     // one line under the field, e.g. "Accepted 0 to 25 dKH"
   bool numeric = false; // decimal keyboard on phones
+  // A field that acts as the keeper types (a list's Find field): every change of the text comes
+  // back at once as a result with `typing` set, the field staying open; Cancel comes back with
+  // `initial`, so the widget returns to what it showed before.
+  bool live = false;
 };
 struct TextEntryResult {
   std::string key;
   std::string text;
   bool accepted = false;  // false = cancelled
+  bool typing = false;    // a live field's text so far; the field is still open
 };
 void open_text_entry(const TextEntryRequest& request);
 bool text_entry_open();

@@ -16,6 +16,7 @@
 #include "imgui_impl_glfw.h"
 #include "imgui_impl_opengl3.h"
 #include "platform.hpp"
+#include "native_script.hpp"
 #include "tidewright/journal/journal_diff.hpp"
 #include "tidewright/store/journal_store.hpp"
 #include <nlohmann/json.hpp>
@@ -54,6 +55,7 @@ fs::path default_data_dir() {
 bool start(const StartOptions& options, std::string* error) {
   g_options = options;
   g_data_dir = options.data_dir.empty() ? default_data_dir() : fs::path(options.data_dir);
+  if (!options.script_path.empty() && !native_script::load(options.script_path, error)) return false;
   std::error_code ec;
   fs::create_directories(g_data_dir, ec);
   if (!glfwInit()) {
@@ -109,7 +111,7 @@ float pixel_ratio() {
 void run_loop(FrameFn frame, void* user) {
   while (!glfwWindowShouldClose(g_window)) {
     if (g_options.exit_after_frames > 0 && g_frames_drawn >= g_options.exit_after_frames) break;
-    if (g_pending_frames > 0 || g_options.exit_after_frames > 0) {
+    if (g_pending_frames > 0 || g_options.exit_after_frames > 0 || native_script::active()) {
       glfwPollEvents();
     } else {
       glfwWaitEventsTimeout(0.5);  // idle: wake on input, or twice a second
@@ -117,12 +119,19 @@ void run_loop(FrameFn frame, void* user) {
     if (g_pending_frames > 0) --g_pending_frames;
     if (!frame(user)) break;
     ++g_frames_drawn;
+    if (!g_options.script_path.empty() && !native_script::after_frame()) {
+      std::printf("%s\n", native_script::finished_text().c_str());
+      break;
+    }
   }
 }
+
+int exit_status() { return native_script::exit_status(); }
 
 void begin_frame() {
   ImGui_ImplOpenGL3_NewFrame();
   ImGui_ImplGlfw_NewFrame();
+  native_script::apply_input();  // a --script's taps and typing, over the window's own input
 }
 
 void end_frame(float r, float g, float b) {
@@ -307,6 +316,11 @@ void draw_overlays(float em) {
   const ImGuiInputTextFlags flags = ImGuiInputTextFlags_EnterReturnsTrue |
       (g_entry.request.numeric ? ImGuiInputTextFlags_CharsScientific : 0);
   bool accept = ImGui::InputText("##entry_text", g_entry.buffer, sizeof g_entry.buffer, flags);
+  // A live field hears of every change at once (TextEntryRequest::live).
+  if (g_entry.request.live && ImGui::IsItemEdited()) {
+    g_entries.push_back({g_entry.request.key, g_entry.buffer, false, true});
+    request_frames(3);
+  }
   if (!g_entry.request.hint.empty()) ImGui::TextDisabled("%s", g_entry.request.hint.c_str());
   const ImVec2 button(6 * em, 2.75f * em);
   bool cancel = ImGui::Button("Cancel", button) || ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Escape));
@@ -315,7 +329,9 @@ void draw_overlays(float em) {
   ImGui::End();
   ImGui::PopStyleVar();
   if (accept || cancel) {
-    g_entries.push_back({g_entry.request.key, g_entry.buffer, accept});
+    // A cancelled live field goes back to the text it opened with.
+    const bool restore = cancel && !accept && g_entry.request.live;
+    g_entries.push_back({g_entry.request.key, restore ? g_entry.request.initial : std::string(g_entry.buffer), accept});
     g_entry.open = false;
     request_frames(3);
   }

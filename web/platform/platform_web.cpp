@@ -74,8 +74,10 @@ EM_JS(char*, js_take_update, (int* kind, int* is_error), {
   stringToUTF8(u.text, p, n);
   return p;
 });
-EM_JS(void, js_open_entry, (const char* key, const char* label, const char* initial, const char* hint, int numeric), {
-  Module.tw.openEntry(UTF8ToString(key), UTF8ToString(label), UTF8ToString(initial), UTF8ToString(hint), numeric !== 0);
+EM_JS(void, js_open_entry, (const char* key, const char* label, const char* initial, const char* hint, int numeric,
+                           int live), {
+  Module.tw.openEntry(UTF8ToString(key), UTF8ToString(label), UTF8ToString(initial), UTF8ToString(hint), numeric !== 0,
+                      live !== 0);
 });
 EM_JS(int, js_entry_open, (), { return Module.tw.entryOpen() ? 1 : 0; });
 EM_JS(void, js_download, (const char* name, const char* mime, const char* text), {
@@ -324,9 +326,11 @@ std::optional<std::string> poll_import() {
   return t;
 }
 
+int exit_status() { return 0; }  // the page's loop never ends
+
 // ---------------------------------------------------------------- text entry
 void open_text_entry(const TextEntryRequest& r) {
-  js_open_entry(r.key.c_str(), r.label.c_str(), r.initial.c_str(), r.hint.c_str(), r.numeric ? 1 : 0);
+  js_open_entry(r.key.c_str(), r.label.c_str(), r.initial.c_str(), r.hint.c_str(), r.numeric ? 1 : 0, r.live ? 1 : 0);
 }
 bool text_entry_open() { return js_entry_open() != 0; }
 std::optional<TextEntryResult> poll_text_entry() {
@@ -371,6 +375,10 @@ extern "C" {
 
 EMSCRIPTEN_KEEPALIVE void tw_text_entered(const char* key, const char* text, int accepted) {
   twapp::platform::push_entry({key ? key : "", text ? text : "", accepted != 0});
+}
+// A live field's text so far (TextEntryRequest::live); the field stays open.
+EMSCRIPTEN_KEEPALIVE void tw_text_typed(const char* key, const char* text) {
+  twapp::platform::push_entry({key ? key : "", text ? text : "", false, true});
 }
 EMSCRIPTEN_KEEPALIVE void tw_text_cancelled(const char* key) {
   twapp::platform::push_entry({key ? key : "", "", false});

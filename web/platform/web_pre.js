@@ -82,11 +82,14 @@ Module.tw.takeDirty = function () { var d = Module.tw.dirty; Module.tw.dirty = f
   var form = document.getElementById('entry');
   var input = document.getElementById('entry-input');
   var key = '';
+  var live = false;    // the field asked for its text as it is typed (a list's Find field)
+  var initial = '';    // what a live field goes back to on Cancel
   function close(accepted) {
     if (!form.classList.contains('open')) return;
     form.classList.remove('open');
     input.blur();
-    Module.ccall('tw_text_entered', null, ['string', 'string', 'number'], [key, input.value, accepted ? 1 : 0]);
+    var text = accepted || !live ? input.value : initial;
+    Module.ccall('tw_text_entered', null, ['string', 'string', 'number'], [key, text, accepted ? 1 : 0]);
     Module.tw.dirty = true;
     Module.canvas.focus({ preventScroll: true });
   }
@@ -100,15 +103,24 @@ Module.tw.takeDirty = function () { var d = Module.tw.dirty; Module.tw.dirty = f
       if (t === 'keydown' && e.key === 'Escape') { e.preventDefault(); close(false); }
     }, true);
   });
+  // A live field gets each change at once (a phone's keyboard gives no key events to count on,
+  // only 'input'), without closing.
+  input.addEventListener('input', function () {
+    if (!live || !form.classList.contains('open')) return;
+    Module.ccall('tw_text_typed', null, ['string', 'string'], [key, input.value]);
+    Module.tw.dirty = true;
+  });
   document.getElementById('entry-ok').addEventListener('click', function () { close(true); });
   document.getElementById('entry-cancel').addEventListener('click', function () { close(false); });
-  Module.tw.openEntry = function (k, label, initial, hint, numeric) {
+  Module.tw.openEntry = function (k, label, text, hint, numeric, isLive) {
     key = k;
+    live = isLive;
+    initial = text;
     document.getElementById('entry-label').textContent = label;
     document.getElementById('entry-hint').textContent = hint;
     input.setAttribute('inputmode', numeric ? 'decimal' : 'text');
     input.setAttribute('aria-label', label);
-    input.value = initial;
+    input.value = text;
     form.classList.add('open');
     input.focus();
     input.select();

@@ -45,9 +45,11 @@ tw::additives::CompoundId alkalinity_compound(PlanAlkalinity a);
 // The Plan's magnesium choices as the core's compounds (plan::magnesium_stocks order) and back.
 tw::additives::CompoundId magnesium_compound(PlanMagnesium m);
 PlanMagnesium magnesium_choice(tw::additives::CompoundId id);
-// The Plan's day table, by pump: a column's title ("pump 1, mL", "Left doser, mL set" when the
-// pump's calibration is not 1 and the column shows what to set) and the legend above the table
+// The Plan's day table, by pump: a column's heading, one line each for the pump, its chemical
+// and the unit ("pump 1", "Na₂CO₃", "mL"; "mL set" when the pump's calibration is not 1
+// and the column shows what to set), the same joined by commas, and the legend above the table
 // (each pump's additive, calibration and doses a day).
+std::vector<std::string> pump_column_lines(const tw::plan::Delivery& d);
 std::string pump_column_title(const tw::plan::Delivery& d);
 std::string pump_legend(const std::vector<tw::plan::Delivery>& deliveries);
 std::string pumps_in_words(const std::vector<tw::plan::Delivery>& deliveries);

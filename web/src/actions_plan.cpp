@@ -7,6 +7,7 @@
 #include <cstdio>
 
 #include "actions.hpp"
+#include "format.hpp"
 #include "local_time.hpp"
 #include "platform.hpp"
 #include "tidewright/common/datetime.hpp"
@@ -345,8 +346,24 @@ void refresh_plan(AppState& app) {
 }
 
 // ---------------------------------------------------------------- The day table's words
+std::vector<std::string> pump_column_lines(const pl::Delivery& d) {
+  // The chemical by its formula without the water of hydration (CaCl2, not CaCl2.2H2O): short
+  // enough for a phone's column; the legend above names the stock in full.
+  std::string chemical = d.additive.name;
+  if (!d.additive.compounds.empty()) {
+    chemical.clear();
+    for (const add::CompoundId id : d.additive.compounds) {
+      const std::string& formula = add::compound(id).formula;
+      chemical += (chemical.empty() ? "" : " + ") + fmtx::formula_text(formula.substr(0, formula.find('.')));
+    }
+  }
+  return {d.device, chemical, std::string(add::to_string(d.additive.unit)) + (d.calibration != 1.0 ? " set" : "")};
+}
+
 std::string pump_column_title(const pl::Delivery& d) {
-  return d.device + ", " + add::to_string(d.additive.unit) + (d.calibration != 1.0 ? " set" : "");
+  std::string title;
+  for (const std::string& line : pump_column_lines(d)) title += (title.empty() ? "" : ", ") + line;
+  return title;
 }
 
 std::string pump_legend(const std::vector<pl::Delivery>& deliveries) {

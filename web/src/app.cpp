@@ -103,7 +103,7 @@ void draw_layout(AppState& app) {
 
 bool app_frame(AppState& app) {
   const double t0 = platform::now_ms();
-  if (auto r = platform::poll_text_entry()) app.ui.entry = EntryResult{r->key, r->text, r->accepted};
+  if (auto r = platform::poll_text_entry()) app.ui.entry = EntryResult{r->key, r->text, r->accepted, r->typing};
   if (auto text = platform::poll_import()) import_text(app, *text);
   if (auto update = platform::poll_store_update()) apply_store_update(app, *update);
   refresh_water(app);

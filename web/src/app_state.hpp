@@ -132,11 +132,13 @@ struct Fonts {
   ImFont* small = nullptr;  // tab labels (ASCII only)
 };
 
-// A finished text entry (platform text field), waiting for the widget that asked for it.
+// A finished text entry (platform text field), waiting for the widget that asked for it; or,
+// for a live field, the text typed so far (typing).
 struct EntryResult {
   std::string key;
   std::string text;
   bool accepted = false;
+  bool typing = false;
 };
 
 struct Rect {

@@ -1,6 +1,7 @@
 // Time-series chart (see chart_timeseries.hpp). Map: 1. ranges and ticks  2. drawing
 // 3. touch.
 #include "chart_timeseries.hpp"
+#include "local_time.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -64,13 +65,7 @@ ImU32 with_alpha(ImU32 col, int alpha) { return (col & ~IM_COL32_A_MASK) | (stat
 
 }  // namespace
 
-std::string day_label(double t_days, int utc_offset_minutes) {
-  const double local = t_days + utc_offset_minutes / 1440.0;
-  const tw::datetime::CivilDate c = tw::datetime::civil_from_days(static_cast<std::int64_t>(std::floor(local)));
-  char buf[16];
-  std::snprintf(buf, sizeof buf, "%02u-%02u", c.month, c.day);
-  return buf;
-}
+std::string day_label(double t_days) { return local_time::month_day(t_days); }
 
 namespace {
 
@@ -169,14 +164,13 @@ bool draw_timeseries(AppState& app, const TimeSeries& s, std::optional<double>* 
     d->AddText(ImVec2(a.x - ts.x - 0.35f * e, y - ts.y / 2), theme::kTextDim, t.c_str());
   }
   d->AddText(ImVec2(origin.x + 0.4f * e, origin.y + 0.15f * e), theme::kTextDim, s.y_unit.c_str());
-  // Date ticks at local midnights.
-  const double offs = s.utc_offset_minutes / 1440.0;
+  // Date ticks at local midnights, each date's with its own offset (a tick put at today's
+  // offset sat an hour off midnight, and named the day before, across a daylight-saving change).
   const double dstep = day_step(x_hi - x_lo, b.x - a.x, 3.4f * e);
-  const double first = std::ceil((x_lo + offs) / dstep) * dstep - offs;
-  for (double t = first; t <= x_hi; t += dstep) {
+  for (const double t : local_time::midnights(x_lo, x_hi, static_cast<int>(dstep))) {
     const float x = sx(t);
     d->AddLine(ImVec2(x, a.y), ImVec2(x, b.y), theme::with_alpha(theme::kGrid, 90), line * 0.7f);
-    const std::string lab = day_label(t + 1e-6, s.utc_offset_minutes);
+    const std::string lab = day_label(t + 1e-6);
     const ImVec2 ts = ImGui::CalcTextSize(lab.c_str());
     d->AddText(ImVec2(std::clamp(x - ts.x / 2, a.x - 0.3f * e, b.x - ts.x), b.y + 0.75f * e), theme::kTextDim,
                lab.c_str());

@@ -46,7 +46,6 @@ struct TimeSeries {
   std::optional<double> band_lo, band_hi;    // the target band (shaded)
   std::optional<double> now_t;               // a vertical "now" line
   std::optional<double> zero_line;           // e.g. 0 on the consumption chart
-  int utc_offset_minutes = 0;                // for the date labels
   float height_em = 12.0f;
 };
 
@@ -54,7 +53,7 @@ struct TimeSeries {
 // it changed this frame. The chart owns a drag that starts on it (the page does not scroll).
 bool draw_timeseries(AppState& app, const TimeSeries& series, std::optional<double>* probe_t);
 
-// "11-30" (local month-day) for a time in days since the epoch.
-std::string day_label(double t_days, int utc_offset_minutes);
+// "11-30" (local month-day, with that date's own UTC offset) for a time in days since the epoch.
+std::string day_label(double t_days);
 
 }  // namespace twapp::chart

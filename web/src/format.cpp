@@ -1,5 +1,6 @@
 #include "format.hpp"
 
+#include <cctype>
 #include <cmath>
 #include <fmt/format.h>
 
@@ -116,6 +117,25 @@ std::string local_time_text(std::int64_t unix_s, int utc_offset_minutes) {
   }
   const auto d = tw::datetime::civil_from_days(days);
   return fmt::format("{:04}-{:02}-{:02} {:02}:{:02}", d.year, d.month, d.day, secs / 3600, (secs / 60) % 60);
+}
+
+std::string formula_text(const std::string& ascii) {
+  static const char* const kSubscript[] = {"\u2080", "\u2081", "\u2082", "\u2083", "\u2084",
+                                           "\u2085", "\u2086", "\u2087", "\u2088", "\u2089"};
+  std::string out;
+  bool counting = false;  // the digits so far follow an element or a bracket ("Cl12"), not a dot ("2H2O")
+  char before = '.';
+  for (const char ch : ascii) {
+    const bool digit = ch >= '0' && ch <= '9';
+    counting = digit && (counting || std::isalpha(static_cast<unsigned char>(before)) || before == ')');
+    if (counting) {
+      out += kSubscript[ch - '0'];
+    } else {
+      out += ch == '.' ? std::string("\u00b7") : std::string(1, ch);
+    }
+    before = ch;
+  }
+  return out;
 }
 
 }  // namespace twapp::fmtx

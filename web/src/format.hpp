@@ -51,4 +51,9 @@ const char* system_kind_label(tw::journal::SystemKind k);  // "Reef display", ..
 // "2026-11-30 08:05" in local time (offset from UTC in minutes).
 std::string local_time_text(std::int64_t unix_s, int utc_offset_minutes);
 
+// A compound's formula as the core's catalog writes it ("CaCl2.2H2O") the way it is printed:
+// counts after an element or a bracket as subscripts, the water of hydration after a middle
+// dot ("CaCl₂·2H₂O").
+std::string formula_text(const std::string& ascii);
+
 }  // namespace twapp::fmtx

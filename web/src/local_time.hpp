@@ -6,6 +6,7 @@
 
 #include <cstdint>
 #include <string>
+#include <vector>
 
 #include "tidewright/common/datetime.hpp"
 
@@ -17,5 +18,10 @@ std::string text(std::int64_t unix_s);
 tw::datetime::ParseOptions parse_options(tw::datetime::DateOrder order = tw::datetime::DateOrder::Unspecified);
 // The instant of a local civil time written as if it were UTC (e.g. a local midnight).
 std::int64_t to_utc(std::int64_t local_as_utc_s);
+// "03-30": the local month and day of a time in days since the epoch (the charts' dates).
+std::string month_day(double t_days);
+// The local midnights from lo to hi (days since the epoch) on days that are multiples of
+// step_days, in days since the epoch: a chart's date ticks.
+std::vector<double> midnights(double lo_days, double hi_days, int step_days);
 
 }  // namespace twapp::local_time

@@ -1,5 +1,5 @@
 // Tidewright app entry: one AppState, the platform window, the frame loop.
-//   tidewright-app [--frames N] [--data DIR]    (desktop; the browser build takes no options)
+//   tidewright-app [--frames N] [--data DIR] [--script FILE]    (desktop; the browser build takes no options)
 #include <cstdio>
 #include <cstdlib>
 #include <cstring>
@@ -25,10 +25,14 @@ int main(int argc, char** argv) {
       options.exit_after_frames = std::atoi(argv[++i]);
     } else if (std::strcmp(argv[i], "--data") == 0 && i + 1 < argc) {
       options.data_dir = argv[++i];
+    } else if (std::strcmp(argv[i], "--script") == 0 && i + 1 < argc) {
+      options.script_path = argv[++i];
     } else if (std::strcmp(argv[i], "--help") == 0) {
-      std::printf("usage: tidewright-app [--frames N] [--data DIR]\n"
-                  "  --frames N  draw N frames, then exit 0 (start-up check)\n"
-                  "  --data DIR  where the app keeps its data (default ~/.local/share/tidewright)\n");
+      std::printf("usage: tidewright-app [--frames N] [--data DIR] [--script FILE]\n"
+                  "  --frames N     draw N frames, then exit 0 (start-up check)\n"
+                  "  --data DIR     where the app keeps its data (default ~/.local/share/tidewright)\n"
+                  "  --script FILE  tap, type and check as FILE says (web/platform/native_script.hpp), then\n"
+                  "                 exit 0, or 1 at the first failed check\n");
       return 0;
     } else {
       std::fprintf(stderr, "tidewright-app: unknown option %s (see --help)\n", argv[i]);
@@ -49,5 +53,5 @@ int main(int argc, char** argv) {
   twapp::platform::run_loop(frame, &app);
   twapp::platform::stop();
   ImGui::DestroyContext();
-  return 0;
+  return twapp::platform::exit_status();
 }

@@ -21,7 +21,11 @@ std::string lower(std::string s) {
 int pick_list(AppState& app, const std::string& name, const char* find_label, PickListState& state,
               const std::vector<PickEntry>& entries, float max_height) {
   const float e = em(app);
-  text_field(app, name + ".find", find_label, &state.filter, "part of a name; empty shows all");
+  // The list narrows with each character typed, not only when the text is confirmed.
+  if (live_text_field(app, name + ".find", find_label, &state.filter, "part of a name; empty shows all") &&
+      state.filter.empty()) {
+    state.scroll_to_chosen = true;
+  }
   const std::string want = lower(state.filter);
   std::vector<std::size_t> shown;
   for (std::size_t i = 0; i < entries.size(); ++i) {

@@ -33,9 +33,12 @@ bool strength_field(AppState& app, const std::string& name, const char* label, a
 // ---------------------------------------------------------------- 2. A pump
 // Two fields a row in table cells (as the farm's round of tests), so the card stays short on a
 // phone: strength | calibration, then doses a day | largest dose; the name under them.
-void draw_pump(AppState& app, int slot, const PlanPump& shown, const std::string& id, bool limewater,
-               const std::function<void()>& strength) {
+// A refusal of one of its numbers names the pump: its role, its name and what it doses
+// (`Calcium pump "pump 2", Calcium chloride dihydrate: Doses per day 300 is outside ...`).
+void draw_pump(AppState& app, int slot, const PlanPump& shown, const std::string& id, const char* role,
+               const std::string& chemical, bool limewater, const std::function<void()>& strength) {
   PlanPumpSetting& set = app.ui.dosing.plan.pumps[static_cast<std::size_t>(slot)];
+  const std::string owner = std::string(role) + " \"" + shown.name + "\", " + chemical;
   if (ImGui::BeginTable(("##" + id).c_str(), 2, ImGuiTableFlags_SizingStretchSame)) {
     ImGui::TableNextColumn();
     strength();
@@ -43,21 +46,21 @@ void draw_pump(AppState& app, int slot, const PlanPump& shown, const std::string
     if (!limewater) {
       double k = shown.calibration;
       if (ui::number_field(app, id + ".calibration", {"Calibration (delivered per mL set)", "", 2, 0.01,
-                                                       rg::kPumpCalibration.lo, rg::kPumpCalibration.hi, false},
+                                                       rg::kPumpCalibration.lo, rg::kPumpCalibration.hi, false, owner.c_str()},
                            &k)) {
         set.calibration = k;
       }
     }
     ImGui::TableNextColumn();
     double n = shown.doses_per_day;
-    if (ui::number_field(app, id + ".doses_per_day", {"Doses per day", "", 0, 1, rg::kDosesPerDay.lo, rg::kDosesPerDay.hi, false},
+    if (ui::number_field(app, id + ".doses_per_day", {"Doses per day", "", 0, 1, rg::kDosesPerDay.lo, rg::kDosesPerDay.hi, false, owner.c_str()},
                          &n)) {
       set.doses_per_day = static_cast<int>(n);
     }
     ImGui::TableNextColumn();
     if (!limewater) {
       double m = shown.max_dose_ml;
-      if (ui::number_field(app, id + ".max_dose", {"Largest dose (set)", "mL", 0, 5, rg::kPlannedDoseMax.lo, rg::kPlannedDoseMax.hi, false},
+      if (ui::number_field(app, id + ".max_dose", {"Largest dose (set)", "mL", 0, 5, rg::kPlannedDoseMax.lo, rg::kPlannedDoseMax.hi, false, owner.c_str()},
                            &m)) {
         set.max_dose_ml = m;
       }
@@ -93,14 +96,14 @@ void draw_plan_stock_cards(AppState& app, PlanForm& f) {
   if (f.alkalinity == PlanAlkalinity::SodiumCarbonate || f.alkalinity == PlanAlkalinity::SodiumBicarbonate) {
     const auto id = f.alkalinity == PlanAlkalinity::SodiumCarbonate ? add::CompoundId::SodiumCarbonate
                                                                     : add::CompoundId::SodiumBicarbonate;
-    draw_pump(app, 0, pumps[0], "plan.alk_pump", false,
+    draw_pump(app, 0, pumps[0], "plan.alk_pump", "Alkalinity pump", add::compound(id).name, false,
               [&] {
                 double g = c.alkalinity_g_per_l;
                 if (strength_field(app, "plan.alk_strength", "Alkalinity stock strength", id, 5, &g)) f.alkalinity_g_per_l = g;
               });
     if (c.alkalinity_strength_from_log) ui::dim_text("Stock strength: the one this system is dosed with in the log.");
   } else if (f.alkalinity == PlanAlkalinity::Limewater) {
-    draw_pump(app, 0, pumps[0], "plan.alk_pump", true, [&] {
+    draw_pump(app, 0, pumps[0], "plan.alk_pump", "Alkalinity top-off", "limewater", true, [&] {
       ui::number_field(app, "plan.evaporation", {"Evaporation (top-off per day)", "L/day", 1, 0.5,
                                                  rg::kEvaporationFractionPerDay.lo * volume_l,
                                                  rg::kEvaporationFractionPerDay.hi * volume_l, false},
@@ -114,7 +117,7 @@ void draw_plan_stock_cards(AppState& app, PlanForm& f) {
   const char* const cas[] = {"CaCl\u2082\u00b72H\u2082O stock", "None"};
   if (ui::choice(app, "plan.calcium", "Calcium from", &ca, cas, 2)) f.calcium = static_cast<PlanCalcium>(ca);
   if (f.calcium == PlanCalcium::CalciumChloride) {
-    draw_pump(app, 1, pumps[1], "plan.ca_pump", false, [&] {
+    draw_pump(app, 1, pumps[1], "plan.ca_pump", "Calcium pump", add::compound(add::CompoundId::CalciumChlorideDihydrate).name, false, [&] {
       double g = c.calcium_g_per_l;
       if (strength_field(app, "plan.ca_strength", "Calcium stock strength", add::CompoundId::CalciumChlorideDihydrate, 10, &g)) {
         f.calcium_g_per_l = g;
@@ -133,7 +136,7 @@ void draw_plan_stock_cards(AppState& app, PlanForm& f) {
   }
   if (c.magnesium != PlanMagnesium::None) {
     const add::CompoundId id = magnesium_compound(c.magnesium);
-    draw_pump(app, 2, pumps[2], "plan.mg_pump", false, [&] {
+    draw_pump(app, 2, pumps[2], "plan.mg_pump", "Magnesium pump", add::compound(id).name, false, [&] {
       double g = c.magnesium_g_per_l;
       if (strength_field(app, "plan.mg_strength", "Magnesium stock strength", id, 10, &g)) f.magnesium_g_per_l = g;
     });

@@ -69,7 +69,7 @@ void level_readout(AppState& app, const ParameterEstimate& pe, const Shown& s, d
   if (probe > e.time_days + 0.25 && !pe.forecast.empty()) {
     const est::ForecastPoint* best = &pe.forecast.front();
     for (const auto& f : pe.forecast) if (std::fabs(f.time_days - probe) < std::fabs(best->time_days - probe)) best = &f;
-    out = "Forecast, day " + std::to_string(best->day) + " (" + chart::day_label(best->time_days, platform::utc_offset_minutes()) +
+    out = "Forecast, day " + std::to_string(best->day) + " (" + chart::day_label(best->time_days) +
           "): " + val(s, best->level) + " " + s.unit + ", 95% range " + val(s, best->low95) + " to " + val(s, best->high95);
     ui::wrapped(out.c_str());
     ui::record(app, "demand.readout");
@@ -112,7 +112,6 @@ void draw_level_chart(AppState& app, const ParameterEstimate& pe, const Shown& s
   ts.name = "demand.chart.level";
   ts.y_unit = s.unit;
   ts.decimals = s.decimals;
-  ts.utc_offset_minutes = platform::utc_offset_minutes();
   ts.now_t = app.ui.dosing.demand_cache.now_days;
   chart::Band level{{}, {}, {}, {}, theme::kAccent, false};
   for (const auto& h : e.history) {
@@ -172,7 +171,6 @@ void draw_demand_chart(AppState& app, const ParameterEstimate& pe, const Shown& 
   ts.name = "demand.chart.demand";
   ts.y_unit = s.unit + " per day";
   ts.decimals = s.decimals + 1;
-  ts.utc_offset_minutes = platform::utc_offset_minutes();
   ts.zero_line = 0.0;
   ts.height_em = 10;
   chart::Band b{{}, {}, {}, {}, theme::kCo2, false};
@@ -226,7 +224,7 @@ void draw_summary(AppState& app, const ParameterEstimate& pe, const Shown& s) {
   }
   if (e.tests > 0) {
     const int ld = tw::carbonate::decimals_for_uncertainty(1.96 * e.level_sd * s.factor);
-    ui::label_value(app, ("Level " + chart::day_label(e.time_days, platform::utc_offset_minutes()) + " (estimate)").c_str(),
+    ui::label_value(app, ("Level " + chart::day_label(e.time_days) + " (estimate)").c_str(),
                     fmtx::fixed(e.level * s.factor, ld) + " \u00b1 " + fmtx::fixed(1.96 * e.level_sd * s.factor, ld) + " " +
                         s.unit);
     ui::label_value(app, "Tests used", std::to_string(e.tests_used) + " of " + std::to_string(e.tests));
@@ -272,7 +270,7 @@ void draw_forecast(AppState& app, const ParameterEstimate& pe, const Shown& s, s
       if (!(f.day <= 3 || f.day % 7 == 0 || f.day == static_cast<int>(pe.forecast.size()))) continue;
       ImGui::TableNextRow();
       ImGui::TableNextColumn();
-      ImGui::Text("%d (%s)", f.day, chart::day_label(f.time_days, platform::utc_offset_minutes()).c_str());
+      ImGui::Text("%d (%s)", f.day, chart::day_label(f.time_days).c_str());
       ImGui::TableNextColumn();
       const bool off = target && tw::band_side(tw::target_band(pe.estimate.parameter, *target), f.level) != tw::BandSide::Inside;
       if (off) ImGui::PushStyleColor(ImGuiCol_Text, theme::kWarning);

@@ -76,7 +76,6 @@ void draw_chart(AppState& app, const PlanCache& c) {
   ts.name = "plan.chart";
   ts.y_unit = p == 0 ? "dKH (predicted)" : "mg/L (predicted)";
   ts.decimals = p == 0 ? 1 : 0;
-  ts.utc_offset_minutes = platform::utc_offset_minutes();
   ts.target = band.target;
   ts.band_lo = band.low;
   ts.band_hi = band.high;
@@ -146,6 +145,46 @@ std::string level_with_band(double level, const std::optional<pl::Band95>& band,
   return fmtx::fixed(level, dp) + " (" + fmtx::fixed(band->low, dp) + "\u2013" + fmtx::fixed(band->high, dp) + ")";
 }
 
+// The width a day-table column needs to show its heading's longest word and its widest value
+// without breaking either.
+float unbroken_width(const std::vector<std::string>& head, const std::vector<std::vector<std::string>>& rows, int column) {
+  float w = 0;
+  for (const std::string& line : head) {
+    std::size_t start = 0;
+    while (start <= line.size()) {
+      const std::size_t end = std::min(line.find(' ', start), line.size());
+      w = std::max(w, ImGui::CalcTextSize(line.data() + start, line.data() + end).x);
+      start = end + 1;
+    }
+  }
+  for (const auto& row : rows) w = std::max(w, ImGui::CalcTextSize(row[static_cast<size_t>(column)].c_str()).x);
+  return std::max(w, 1.0f);
+}
+
+// The day table's heading row: each column's lines (a pump column: pump, chemical, unit) wrapped
+// inside the column, so a phone's narrow columns still name their pump in full instead of one
+// line cut at the column's edge. Each heading is recorded as "plan.days.head.<column>".
+void draw_day_heads(AppState& app, const std::vector<std::vector<std::string>>& heads) {
+  ImGui::TableNextRow(ImGuiTableRowFlags_Headers);
+  for (std::size_t k = 0; k < heads.size(); ++k) {
+    ImGui::TableSetColumnIndex(static_cast<int>(k));
+    ImGui::TableSetBgColor(ImGuiTableBgTarget_CellBg, ImGui::GetColorU32(ImGuiCol_TableHeaderBg));
+    ImGui::BeginGroup();
+    ImGui::PushTextWrapPos(0.0f);  // the column's right edge
+    std::string text;
+    for (const std::string& line : heads[k]) {
+      if (line.empty()) continue;
+      ImGui::TextUnformatted(line.c_str());
+      text += (text.empty() ? "" : "\n") + line;
+    }
+    ImGui::PopTextWrapPos();
+    ImGui::EndGroup();
+    const std::string name = "plan.days.head." + std::to_string(k);
+    ui::record(app, name);
+    app.ui.widgets[name].text = text;
+  }
+}
+
 void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   const pl::Plan& plan = *c.plan;
   const auto& del = c.input->deliveries;
@@ -159,30 +198,37 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
   // The columns are named by pump; say what each pump doses. A pump whose calibration is not 1
   // shows the amount to SET on it (dose / calibration), and its column says so.
   ui::dim_text(pump_legend(del).c_str());
+  std::vector<std::vector<std::string>> heads{{"Day"}};
+  for (const auto& d : del) heads.push_back(pump_column_lines(d));
+  heads.push_back({"dKH end", bands ? "(95%)" : ""});
+  heads.push_back({"Ca end", bands ? "(95%)" : ""});
+  if (mg) heads.push_back({"Mg end", bands ? "(95%)" : ""});
+  const size_t shown = f.show_all_days ? plan.days.size() : std::min<size_t>(plan.days.size(), 7);
+  std::vector<std::vector<std::string>> rows;
+  for (size_t i = 0; i < shown; ++i) {
+    const pl::DaySummary& d = plan.days[i];
+    std::vector<std::string> row{std::to_string(d.day) + " (" +
+                                 chart::day_label(c.start_day + d.day - 1 + 0.5) + ")"};
+    for (std::size_t k = 0; k < d.amount_per_delivery.size(); ++k) {
+      row.push_back(fmtx::fixed(del[k].set_amount(d.amount_per_delivery[k]), 1));
+    }
+    row.push_back(level_with_band(d.end.alkalinity_dkh, bands ? d.end_band[0] : none, 2));
+    row.push_back(level_with_band(d.end.calcium_mg_l, bands ? d.end_band[1] : none, 0));
+    if (mg) row.push_back(level_with_band(d.end.magnesium_mg_l, bands ? d.end_band[2] : none, 0));
+    rows.push_back(std::move(row));
+  }
   if (ImGui::BeginTable("##days", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
-    ImGui::TableSetupColumn("Day");
-    for (const auto& d : del) ImGui::TableSetupColumn(pump_column_title(d).c_str());
-    ImGui::TableSetupColumn(bands ? "dKH end (95%)" : "dKH end");
-    ImGui::TableSetupColumn(bands ? "Ca end (95%)" : "Ca end");
-    if (mg) ImGui::TableSetupColumn(bands ? "Mg end (95%)" : "Mg end");
-    ImGui::TableHeadersRow();
-    const size_t shown = f.show_all_days ? plan.days.size() : std::min<size_t>(plan.days.size(), 7);
-    for (size_t i = 0; i < shown; ++i) {
-      const pl::DaySummary& d = plan.days[i];
+    // Each column shares the width in proportion to what it must hold whole: its longest word of
+    // heading or its widest value, so headings wrap between words, not inside one.
+    for (int k = 0; k < cols; ++k) {
+      ImGui::TableSetupColumn(nullptr, ImGuiTableColumnFlags_WidthStretch, unbroken_width(heads[static_cast<size_t>(k)], rows, k));
+    }
+    draw_day_heads(app, heads);
+    for (const auto& row : rows) {
       ImGui::TableNextRow();
-      ImGui::TableNextColumn();
-      ImGui::Text("%d (%s)", d.day, chart::day_label(c.start_day + d.day - 1 + 0.5, platform::utc_offset_minutes()).c_str());
-      for (std::size_t k = 0; k < d.amount_per_delivery.size(); ++k) {
+      for (const std::string& cell : row) {
         ImGui::TableNextColumn();
-        ImGui::TextUnformatted(fmtx::fixed(del[k].set_amount(d.amount_per_delivery[k]), 1).c_str());
-      }
-      ImGui::TableNextColumn();
-      ImGui::TextUnformatted(level_with_band(d.end.alkalinity_dkh, bands ? d.end_band[0] : none, 2).c_str());
-      ImGui::TableNextColumn();
-      ImGui::TextUnformatted(level_with_band(d.end.calcium_mg_l, bands ? d.end_band[1] : none, 0).c_str());
-      if (mg) {
-        ImGui::TableNextColumn();
-        ImGui::TextUnformatted(level_with_band(d.end.magnesium_mg_l, bands ? d.end_band[2] : none, 0).c_str());
+        ImGui::TextUnformatted(cell.c_str());
       }
     }
     ImGui::EndTable();

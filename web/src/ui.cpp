@@ -267,12 +267,13 @@ bool value_box(AppState& app, const std::string& name, const NumberSpec& spec, s
     app.ui.entry.reset();
     if (r.accepted) {
       const auto v = parse_number(r.text);
+      const std::string field = spec.owner ? std::string(spec.owner) + ": " + spec.label : std::string(spec.label);
       if (!v) {
-        notify(app, std::string(spec.label) + ": \"" + r.text + "\" is not a number", true);
+        notify(app, field + ": \"" + r.text + "\" is not a number", true);
       } else if (*v < spec.lo || *v > spec.hi) {
-        notify(app, std::string(spec.label) + " " + fmtx::fixed(*v, spec.decimals) + " " + spec.unit +
-                        " is outside the accepted range " + fmtx::fixed(spec.lo, spec.decimals) + " to " +
-                        fmtx::fixed(spec.hi, spec.decimals) + " " + spec.unit, true);
+        const std::string unit = spec.unit[0] ? std::string(" ") + spec.unit : std::string();  // none: no stray space
+        notify(app, field + " " + fmtx::fixed(*v, spec.decimals) + unit + " is outside the accepted range " +
+                        fmtx::fixed(spec.lo, spec.decimals) + " to " + fmtx::fixed(spec.hi, spec.decimals) + unit, true);
       } else {
         *value = *v;
         changed = true;
@@ -348,15 +349,20 @@ bool number_field(AppState& app, const std::string& name, const NumberSpec& spec
   return changed;
 }
 
-bool text_field(AppState& app, const std::string& name, const char* label, std::string* value,
-                const char* hint) {
+namespace {
+// The text box of text_field and live_text_field: takes the platform field's result meant for
+// it, shows the text, opens the field when tapped.
+bool text_box(AppState& app, const std::string& name, const char* label, std::string* value, const char* hint,
+              bool live) {
   const float e = em(app);
   dim_text(label);
   bool changed = false;
   if (app.ui.entry && app.ui.entry->key == name) {
     const EntryResult r = *app.ui.entry;
     app.ui.entry.reset();
-    if (r.accepted && r.text != *value) {
+    // A live field takes every text it is sent: typed so far, confirmed, or (cancelled) the one
+    // it had when it opened. Otherwise only a confirmed text counts.
+    if ((live || r.accepted) && r.text != *value) {
       *value = r.text;
       changed = true;
     }
@@ -366,13 +372,27 @@ bool text_field(AppState& app, const std::string& name, const char* label, std::
   ImGui::PushID(name.c_str());
   const std::string shown = value->empty() ? std::string("Tap to enter") : *value;
   if (ImGui::Button(shown.c_str(), ImVec2(ImGui::GetContentRegionAvail().x, kTargetEm * e))) {
-    platform::open_text_entry({name, label, *value, hint ? hint : "", false});
+    platform::TextEntryRequest req{name, label, *value, hint ? hint : "", false};
+    req.live = live;
+    platform::open_text_entry(req);
   }
   ImGui::PopID();
   ImGui::PopStyleVar();
   ImGui::PopStyleColor();
   record(app, name);
+  app.ui.widgets[name].text = shown;  // what the field shows, for the tests
   return changed;
+}
+}  // namespace
+
+bool text_field(AppState& app, const std::string& name, const char* label, std::string* value,
+                const char* hint) {
+  return text_box(app, name, label, value, hint, false);
+}
+
+bool live_text_field(AppState& app, const std::string& name, const char* label, std::string* value,
+                     const char* hint) {
+  return text_box(app, name, label, value, hint, true);
 }
 
 // ---------------------------------------------------------------- card and column

@@ -48,6 +48,9 @@ struct NumberSpec {
   double step = 0.1;    // one tap of − or +
   double lo = 0, hi = 1e9;  // accepted range (from the core's ranges)
   bool steppers = true;
+  // Whose field it is, named first in a refusal when the label alone is ambiguous (three pump
+  // cards each have "Doses per day"): "pump 1 (sodium carbonate, alkalinity)". nullptr: none.
+  const char* owner = nullptr;
 };
 // Value box (tap to type) with − / + beside it. `value` is in the shown unit. Typed text is
 // refused with a message naming the field and the accepted range.
@@ -57,6 +60,10 @@ bool optional_number_field(AppState& app, const std::string& name, const NumberS
                            std::optional<double>* value);
 bool text_field(AppState& app, const std::string& name, const char* label, std::string* value,
                 const char* hint);
+// Same, but *value follows the text as it is typed, before it is confirmed (a list's Find
+// field filters per keystroke); Cancel puts back what was there when the field opened.
+bool live_text_field(AppState& app, const std::string& name, const char* label, std::string* value,
+                     const char* hint);
 
 // A rounded panel behind a group of widgets (content is inset by one padding on each side).
 void card_begin(AppState& app);

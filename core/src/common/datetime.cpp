@@ -231,6 +231,30 @@ int zone_offset_at_local(std::int64_t local_as_utc_s, const std::function<int(st
   return offset_at_instant(local_as_utc_s - guess * 60LL);
 }
 
+namespace {
+std::int64_t floor_div(std::int64_t a, std::int64_t b) { return a / b - ((a % b != 0) && ((a < 0) != (b < 0)) ? 1 : 0); }
+}  // namespace
+
+std::int64_t local_day_of(std::int64_t unix_s, const std::function<int(std::int64_t unix_s)>& offset_at_instant) {
+  return floor_div(unix_s + 60LL * offset_at_instant(unix_s), 86400);
+}
+
+std::vector<std::int64_t> local_midnights(std::int64_t from_s, std::int64_t to_s, int step_days,
+                                          const std::function<int(std::int64_t unix_s)>& offset_at_instant) {
+  std::vector<std::int64_t> out;
+  if (step_days < 1 || to_s < from_s) return out;
+  // From the local day before from_s's (its midnight may still be at or after from_s when the
+  // offset is negative) on, a step at a time.
+  std::int64_t day = floor_div(local_day_of(from_s, offset_at_instant) - 1, step_days) * step_days;
+  for (;; day += step_days) {
+    const std::int64_t local = day * 86400;
+    const std::int64_t instant = local - 60LL * zone_offset_at_local(local, offset_at_instant);
+    if (instant > to_s) break;
+    if (instant >= from_s) out.push_back(instant);
+  }
+  return out;
+}
+
 Result<int> parse_utc_offset(const std::string& raw) {
   const size_t b = raw.find_first_not_of(" \t");
   const size_t e = raw.find_last_not_of(" \t");

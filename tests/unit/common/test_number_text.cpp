@@ -85,6 +85,35 @@ TEST_CASE("datetime: the offset at a local time follows daylight saving, date by
   }
 }
 
+TEST_CASE("datetime: local dates and midnights take each date's own offset across daylight saving") {
+  using tw::datetime::parse_datetime;
+  const auto at = [](const char* t) { return *parse_datetime(t); };
+  const auto date = [](std::int64_t day) {
+    const auto c = tw::datetime::civil_from_days(day);
+    return std::to_string(c.month) + "-" + std::to_string(c.day);
+  };
+  // 22:30Z is 23:30 in winter, 00:30 the next day in summer (the offset of the date, not of today).
+  CHECK(date(tw::datetime::local_day_of(at("2026-03-28T22:30Z"), berlin_offset_2026)) == "3-28");
+  CHECK(date(tw::datetime::local_day_of(at("2026-03-29T22:30Z"), berlin_offset_2026)) == "3-30");
+  CHECK(date(tw::datetime::local_day_of(at("2026-10-25T22:30Z"), berlin_offset_2026)) == "10-25");
+  // Midnights from 27 to 31 March: 23:00Z until the change, 22:00Z after it.
+  const std::vector<std::int64_t> spring = tw::datetime::local_midnights(at("2026-03-27T12:00Z"), at("2026-03-31T12:00Z"), 1, berlin_offset_2026);
+  CHECK(spring == std::vector<std::int64_t>{at("2026-03-27T23:00Z"), at("2026-03-28T23:00Z"), at("2026-03-29T22:00Z"),
+                                            at("2026-03-30T22:00Z")});
+  // Autumn, every second day (day numbers even): back to 23:00Z after 25 October.
+  const std::vector<std::int64_t> autumn = tw::datetime::local_midnights(at("2026-10-22T00:00Z"), at("2026-10-29T00:00Z"), 2, berlin_offset_2026);
+  REQUIRE(autumn.size() == 3);
+  for (std::int64_t t : autumn) CHECK(tw::datetime::local_day_of(t, berlin_offset_2026) % 2 == 0);
+  CHECK(autumn[0] == at("2026-10-23T22:00Z"));  // local 24 October
+  CHECK(autumn[1] == at("2026-10-25T23:00Z"));  // 26 October, after the change
+  CHECK(autumn[2] == at("2026-10-27T23:00Z"));
+  // A zone behind UTC and the bounds themselves: a midnight at from_s and at to_s is kept.
+  const auto minus5 = [](std::int64_t) { return -300; };
+  CHECK(tw::datetime::local_midnights(at("2026-01-01T05:00Z"), at("2026-01-02T05:00Z"), 1, minus5) ==
+        std::vector<std::int64_t>{at("2026-01-01T05:00Z"), at("2026-01-02T05:00Z")});
+  CHECK(tw::datetime::local_midnights(at("2026-01-02T00:00Z"), at("2026-01-01T00:00Z"), 1, minus5).empty());
+}
+
 TEST_CASE("datetime: a column of dates shows its order when one date can be read only one way") {
   using tw::datetime::DateOrder;
   using tw::datetime::infer_date_order;

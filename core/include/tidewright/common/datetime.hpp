@@ -55,6 +55,16 @@ struct ParseOptions {
 // the command line and the app read every time, those hours included, the same way.
 int zone_offset_at_local(std::int64_t local_as_utc_s, const std::function<int(std::int64_t unix_s)>& offset_at_instant);
 
+// The local date of an instant (days since 1970-01-01 on the zone's calendar), with the zone's
+// offset at that instant: 2026-03-29T22:30Z is 03-30 in Berlin (+120 that night), 03-29 with
+// the winter's +60 a chart took for every date.
+std::int64_t local_day_of(std::int64_t unix_s, const std::function<int(std::int64_t unix_s)>& offset_at_instant);
+// The instants of the zone's local midnights from from_s to to_s (both included), of the local
+// days whose number is a multiple of step_days (1 = every day), each with its own date's
+// offset: the ticks of a time axis stay on midnight across a daylight-saving change.
+std::vector<std::int64_t> local_midnights(std::int64_t from_s, std::int64_t to_s, int step_days,
+                                          const std::function<int(std::int64_t unix_s)>& offset_at_instant);
+
 // A UTC offset as people write it: +05:30, -08:00, +0530, +5, -8, Z or 0. Accepted range
 // -12:00 to +14:00 (ranges::kUtcOffsetMinutes, the offsets in use on Earth). Errors name the
 // field "utc_offset" and the range.
