@@ -129,6 +129,10 @@ bool text_entry_open();
 std::optional<TextEntryResult> poll_text_entry();
 // Draws platform-side overlays that are made of ImGui (native text entry); nothing on the web.
 void draw_overlays(float em);
+// Desktop: draws the open text entry now if the field `key` asked for it, inside the window
+// being drawn, so a popup holding the field (the switcher's Find) stays open while the entry
+// has the keyboard; draw_overlays then skips it this frame. The browser's entry is HTML: nothing.
+void draw_text_entry_here(const std::string& key, float em);
 
 // ---------------------------------------------------------------- 5. Clock
 std::int64_t now_unix_seconds();

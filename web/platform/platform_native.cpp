@@ -41,6 +41,7 @@ struct Entry {
   bool focus = false;
   TextEntryRequest request;
   char buffer[1024] = {};
+  int drawn_frame = -1;  // ImGui frame it was last drawn in (once a frame, in place or on top)
 };
 Entry g_entry;
 
@@ -299,8 +300,11 @@ std::optional<TextEntryResult> poll_text_entry() {
   return std::nullopt;
 }
 
-void draw_overlays(float em) {
-  if (!g_entry.open) return;
+namespace {
+// The entry window. Begun inside a popup's Begin stack (draw_text_entry_here), ImGui counts it
+// as that popup's own, and focusing it does not close the popup (ClosePopupsOverWindow).
+void draw_entry_window(float em) {
+  g_entry.drawn_frame = ImGui::GetFrameCount();
   const ImGuiViewport* vp = ImGui::GetMainViewport();
   ImGui::SetNextWindowPos(vp->WorkPos);
   ImGui::SetNextWindowSize(ImVec2(vp->WorkSize.x, 0));
@@ -335,6 +339,15 @@ void draw_overlays(float em) {
     g_entry.open = false;
     request_frames(3);
   }
+}
+}  // namespace
+
+void draw_text_entry_here(const std::string& key, float em) {
+  if (g_entry.open && g_entry.request.key == key && g_entry.drawn_frame != ImGui::GetFrameCount()) draw_entry_window(em);
+}
+
+void draw_overlays(float em) {
+  if (g_entry.open && g_entry.drawn_frame != ImGui::GetFrameCount()) draw_entry_window(em);
 }
 
 // ---------------------------------------------------------------- clock

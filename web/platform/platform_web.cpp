@@ -340,6 +340,7 @@ std::optional<TextEntryResult> poll_text_entry() {
   return r;
 }
 void draw_overlays(float) {}  // the entry field is HTML (index.html #entry)
+void draw_text_entry_here(const std::string&, float) {}
 
 // ---------------------------------------------------------------- clock
 std::int64_t now_unix_seconds() { return static_cast<std::int64_t>(std::time(nullptr)); }

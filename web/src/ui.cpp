@@ -380,6 +380,7 @@ bool text_box(AppState& app, const std::string& name, const char* label, std::st
   ImGui::PopStyleVar();
   ImGui::PopStyleColor();
   record(app, name);
+  platform::draw_text_entry_here(name, e);  // desktop: inside this field's window (a popup stays open)
   app.ui.widgets[name].text = shown;  // what the field shows, for the tests
   return changed;
 }
