@@ -411,9 +411,13 @@ test('pumps: a refused doses a day or largest dose names its pump and chemical w
   for (const [card, pump] of cards) {
     s = await refused(page, `plan.${card}.doses_per_day`, '300', new RegExp(pump.source + /Doses per day 300 is outside the accepted range 1 to 288/.source),
       `${card} 300 doses a day`);
-    s = await refused(page, `plan.${card}.max_dose`, '200000', new RegExp(pump.source + /Largest dose \(set\) 200000 mL is outside the accepted range 0 to 100000 mL/.source),
+    s = await refused(page, `plan.${card}.max_dose`, '200000', new RegExp(pump.source + /Largest dose \(set\) 200000 mL is outside the accepted range 0\.001 to 100000 mL/.source),
       `${card} largest dose 200000 mL`);
   }
+  // The range's ends are shown as they are, not at the field's whole mL: 0 is refused, and the
+  // message does not call 0 the lowest accepted value.
+  s = await refused(page, 'plan.alk_pump.max_dose', '0', /Largest dose \(set\) 0 mL is outside the accepted range 0\.001 to 100000 mL/,
+    'alk_pump largest dose 0 mL');
   await page.screenshot({ path: join(OUTPUT, 'pumps-phone-refused.png') });
   s = await state(page);
   check(JSON.stringify(s.plan.pumps.map((p) => [p.doses_per_day, p.max_dose])) === JSON.stringify(kept),

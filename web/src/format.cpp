@@ -1,6 +1,7 @@
 #include "format.hpp"
 
 #include <cctype>
+#include <algorithm>
 #include <cmath>
 #include <fmt/format.h>
 
@@ -21,6 +22,15 @@ std::string fixed(double value, int decimals) {
     return "\u2212" + s.substr(1);
   }
   return s;
+}
+
+std::string fixed_exact(double value, int decimals) {
+  constexpr int kMostDecimals = 6;
+  for (int d = std::max(decimals, 0); d < kMostDecimals; ++d) {
+    const double scale = std::pow(10.0, d);
+    if (std::fabs(std::round(value * scale) / scale - value) <= 1e-9 * std::max(1.0, std::fabs(value))) return fixed(value, d);
+  }
+  return fixed(value, kMostDecimals);
 }
 
 std::string with_u(double value, double u, const char* unit) {

@@ -13,6 +13,9 @@
 namespace twapp::fmtx {
 
 std::string fixed(double value, int decimals);  // "8.10"; "−" for negatives
+// As fixed, with more decimals (up to 6) where `decimals` would show another number: a range's
+// lower end of 0.001 mL on a field of whole mL reads "0.001", not "0".
+std::string fixed_exact(double value, int decimals);
 
 // A measured number with its standard uncertainty, digits set by u (the core's
 // decimals_for_uncertainty): "8.01 ± 0.06" plus " unit" if one is given.

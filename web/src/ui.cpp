@@ -253,7 +253,7 @@ std::optional<double> parse_number(std::string text) {
 }
 
 std::string range_hint(const NumberSpec& s) {
-  return "Accepted " + fmtx::fixed(s.lo, s.decimals) + " to " + fmtx::fixed(s.hi, s.decimals) + " " + s.unit;
+  return "Accepted " + fmtx::fixed_exact(s.lo, s.decimals) + " to " + fmtx::fixed_exact(s.hi, s.decimals) + " " + s.unit;
 }
 
 // The value box: shows the value, opens the platform's text field when tapped, and takes the
@@ -272,8 +272,8 @@ bool value_box(AppState& app, const std::string& name, const NumberSpec& spec, s
         notify(app, field + ": \"" + r.text + "\" is not a number", true);
       } else if (*v < spec.lo || *v > spec.hi) {
         const std::string unit = spec.unit[0] ? std::string(" ") + spec.unit : std::string();  // none: no stray space
-        notify(app, field + " " + fmtx::fixed(*v, spec.decimals) + unit + " is outside the accepted range " +
-                        fmtx::fixed(spec.lo, spec.decimals) + " to " + fmtx::fixed(spec.hi, spec.decimals) + unit, true);
+        notify(app, field + " " + fmtx::fixed_exact(*v, spec.decimals) + unit + " is outside the accepted range " +
+                        fmtx::fixed_exact(spec.lo, spec.decimals) + " to " + fmtx::fixed_exact(spec.hi, spec.decimals) + unit, true);
       } else {
         *value = *v;
         changed = true;
