@@ -215,12 +215,14 @@ void judge(const PlanInput& in, Plan& plan) {
   v.first_allowed = crossing->allowed;
   std::string what;
   if (crossing->never_reached) {
-    what = fmt::format("{} stays below its floor ({} {:g} {}) for the whole plan of {} days, ending at {:.3g}",
-                       spec.description, spec.key, crossing->allowed, spec.unit, in.horizon_days, crossing->value);
+    what = fmt::format("{} stays below its floor ({:g} {}) for the whole plan of {} days, ending at {:.3g}",
+                       spec.description, crossing->allowed, spec.unit, in.horizon_days, crossing->value);
   } else if (spec.side == LimitSide::Floor) {
-    // The description first, in plain words; the key after it is the name to change it by.
-    what = fmt::format("the water falls below its floor on {}: {} {} (limit {}{})", when(crossing->t),
-                       spec.description, value_against(crossing->value, crossing->allowed, spec.unit), spec.key,
+    // In plain words, as a ceiling's crossing below: the app shows this text as it is, and the
+    // limit's key (omega_aragonite_min) is a name only the plan input file uses; the command
+    // line's plan lists every limit by key and description.
+    what = fmt::format("the water falls below its floor on {}: {} {}{}", when(crossing->t),
+                       spec.description, value_against(crossing->value, crossing->allowed, spec.unit),
                        room_note(in, crossing->limit, spec.unit));
   } else {
     what = fmt::format("{} is crossed on {}: {}{}", spec.description, when(crossing->t),

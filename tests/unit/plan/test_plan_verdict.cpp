@@ -56,6 +56,9 @@ TEST_CASE("plan verdict: pumps far short of the demand (the issue's 2,390 L syst
   CHECK(v.shortfalls[0].consumed_per_day == 925.0);
   REQUIRE(v.first_limit.has_value());
   CHECK(*v.first_limit == LimitId::AlkalinityFloor);
+  // In plain words, as the app shows it: the limit's description, not its plan-file key.
+  CHECK(v.headline.find(limit_spec(LimitId::AlkalinityFloor).description) != std::string::npos);
+  CHECK(v.headline.find(limit_spec(LimitId::AlkalinityFloor).key) == std::string::npos);
   // 6.85 -> 6.0 dKH: 0.85 x 0.356652 x 2390 = 724.5 meq at a net loss of at most 925 - 47.2 =
   // 877.8 meq/day: the floor is crossed within the first day.
   CHECK(v.first_day == 1);
