@@ -155,7 +155,7 @@ Followed follow(const replay::Engine& at, const PlanInput& in, const Plan& plan,
   const Delivery& dv = in.deliveries[d.delivery];
   std::string closest;
   if (w.closest_limit) {
-    closest = fmt::format("; closest to {} ({:.4g} against {:g})", limit_spec(*w.closest_limit).key, w.closest_value,
+    closest = fmt::format("; closest to the {} ({:.4g} against {:g})", limit_spec(*w.closest_limit).description, w.closest_value,
                           w.closest_allowed);
   }
   w.summary = fmt::format(
