@@ -16,6 +16,7 @@
 #include "commands.hpp"
 #include "file_io.hpp"
 #include "journal_access.hpp"
+#include "time_zone.hpp"
 #include "tidewright/common/datetime.hpp"
 #include "tidewright/common/ranges.hpp"
 #include "tidewright/estimate/estimate.hpp"
@@ -264,12 +265,7 @@ void run(const DemandOptions& o) {
   // One system's events at a time from the journal database (core/store): memory follows
   // the largest system, not the whole journal.
   auto st = open_journal_or_fail(o.journal_path, store::Access::Read);
-  std::int64_t now_s = static_cast<std::int64_t>(std::time(nullptr));
-  if (!o.at.empty()) {
-    auto at = datetime::parse_datetime(o.at);
-    if (!at) throw CommandError("--at: " + at.error().message);
-    now_s = *at;
-  }
+  const std::int64_t now_s = now_or_at(o.at, "--at");
   std::vector<SystemResult> results;
   for (const journal::System& s : pick_systems(*st, o.system)) {
     auto j = st->system_journal(s.id);
@@ -304,7 +300,7 @@ void register_demand(CLI::App& app) {
                               ranges::kDosingWindowDays.lo, ranges::kDosingWindowDays.hi, est::kRecentDosingWindowDays));
   cmd->add_flag("--history", o->history, "Also print the demand at every test (text output)");
   cmd->add_flag("--outliers", o->outliers, "List every test flagged as an outlier (text output; default: a summary)");
-  cmd->add_option("--at", o->at, "Read the state at this time, e.g. 2026-12-03T08:00Z (default: now)");
+  cmd->add_option("--at", o->at, kAtHelp);
   cmd->add_flag("--json", o->json, "JSON output (always includes the history)");
   cmd->callback([o] { run(*o); });
 }

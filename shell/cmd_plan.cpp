@@ -43,6 +43,7 @@ struct PlanOptions {
   bool adopt = false;            // --adopt: the plan becomes the system's standing schedules
   std::string utc_offset, time_zone;  // for --adopt: the keeper's zone (time_zone.hpp)
   std::string starter;           // --starter FILE: write a plan input from --journal/--system and stop
+  std::string at;                // --at TIME: the journal read as at this time instead of now
 };
 
 
@@ -66,7 +67,7 @@ std::vector<std::string> apply_journal(const PlanOptions& o, plan::PlanInput& in
   auto j = st->system_journal(sys.id);
   if (!j) throw CommandError(fmt::format("--journal: {}", j.error().message));
   plan::BasisOptions bo;
-  bo.series.until_s = static_cast<std::int64_t>(std::time(nullptr));  // levels carried to now
+  bo.series.until_s = now_or_at(o.at, "--at");  // levels carried to now (or --at)
   bo.accept_stale = o.accept_stale;
   auto basis = plan::plan_basis_from_journal(*j, sys.id, bo);
   if (!basis && basis.error().field == "stale") {
@@ -122,7 +123,7 @@ void write_starter(const PlanOptions& o) {
   const journal::System sys = system_or_fail(*st, o.system);
   auto j = st->system_journal(sys.id);
   if (!j) throw CommandError(fmt::format("--journal: {}", j.error().message));
-  const auto now = static_cast<std::int64_t>(std::time(nullptr));
+  const std::int64_t now = now_or_at(o.at, "--at");
   auto starter = plan::starter_plan_input(*j, sys.id, now);
   if (!starter) throw CommandError(fmt::format("--starter: {}", starter.error().message));
   auto body = plan::plan_input_to_json(starter->input);
@@ -246,6 +247,7 @@ void register_plan(CLI::App& app) {
   sub->add_option("--dtstamp", opts->dtstamp, "DTSTAMP for --ics as YYYYMMDDTHHMMSSZ (default: now)");
   sub->add_option("--journal", opts->journal, "take the system's state and demand from this journal (database, or JSON journal)");
   sub->add_option("--system", opts->system, "the journal's system, by name or id (with --journal)");
+  sub->add_option("--at", opts->at, std::string("with --journal: ") + kAtHelp);
   sub->add_option("--out", opts->out, "write to this file instead of stdout")->check(non_empty_path());
   sub->add_flag("--accept-stale", opts->accept_stale,
                 "with --journal: plan from a level whose last test is too old, or with unlogged dosing since (flagged)");

@@ -62,4 +62,11 @@ int offset_minutes_at(std::int64_t local_as_utc_s, const std::string& utc_offset
   return p.zone_offset_minutes ? p.zone_offset_minutes(local_as_utc_s) : p.utc_offset_minutes;
 }
 
+std::int64_t now_or_at(const std::string& at, const char* option) {
+  if (at.empty()) return static_cast<std::int64_t>(std::time(nullptr));
+  auto t = datetime::parse_datetime(at);
+  if (!t) throw CommandError(std::string(option) + ": " + t.error().message);
+  return *t;
+}
+
 }  // namespace tw::shell

@@ -27,4 +27,9 @@ datetime::ParseOptions time_parse_options(const std::string& date_order, const s
 // if it were UTC), for commands that need one offset (a plan's first day).
 int offset_minutes_at(std::int64_t local_as_utc_s, const std::string& utc_offset, const std::string& time_zone);
 
+// The moment a command reads the journal at: --at TIME when given (a time with its zone, e.g.
+// 2026-12-03T08:00Z), else now. Refusals name `option`.
+inline constexpr const char* kAtHelp = "Read the journal as at this time, e.g. 2026-12-03T08:00Z (default: now)";
+std::int64_t now_or_at(const std::string& at, const char* option);
+
 }  // namespace tw::shell

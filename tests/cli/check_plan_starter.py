@@ -50,6 +50,17 @@ with tempfile.TemporaryDirectory() as tmp:
     code, out, err = run_text("plan", starter, "--journal", db, "--system", "Frag rack 3")
     check("plan from the starter with --journal", code in (0, 3) and "state and demand from the journal" in out, err + out)
 
+    # --at: the journal read as at a moment, not now: the same moment gives the same plan, an
+    # earlier one (before the last day's tests) other levels; a time that is not one is refused.
+    at = stamp(DAY // 2)
+    first = run_text("plan", starter, "--journal", db, "--system", "Frag rack 3", "--json", "--at", at)
+    again = run_text("plan", starter, "--journal", db, "--system", "Frag rack 3", "--json", "--at", at)
+    check("--at: the same moment, the same plan", first[0] in (0, 3) and first[1] == again[1], first[2])
+    earlier = run_text("plan", starter, "--journal", db, "--system", "Frag rack 3", "--json", "--at", stamp(3 * DAY))
+    check("--at: an earlier moment, other levels", earlier[0] in (0, 3) and earlier[1] != first[1], earlier[2])
+    code, out, err = run_text("plan", starter, "--journal", db, "--system", "Frag rack 3", "--at", "2026-02-30T08:00Z")
+    check("--at: a date that does not exist is refused naming --at", code != 0 and err.startswith("tidewright: --at:"), err)
+
     # The command in the comments runs as written (path with a space quoted).
     cmd = next((l.split("//", 1)[1].strip() for l in comments if "--journal" in l and "tidewright plan" in l), "")
     args = shlex.split(cmd)
