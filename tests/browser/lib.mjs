@@ -115,8 +115,11 @@ export function check(cond, what) {
 export const benign = (t) => /GL Driver Message|GPU stall|WebGL/.test(t);
 
 // A fresh browser context (no storage, no cache) with the app loaded and drawn.
-export async function openApp(browser, url, opts) {
+// fixedTime (ms since 1970): the page's Date reads that moment all along (its timers run as
+// usual), for a test that needs a known "now".
+export async function openApp(browser, url, opts, { fixedTime } = {}) {
   const context = await browser.newContext({ ...opts, acceptDownloads: true });
+  if (fixedTime !== undefined) await context.clock.setFixedTime(fixedTime);
   const page = await context.newPage();
   const errors = watchErrors(page);
   await page.goto(url);
@@ -247,6 +250,18 @@ export async function editSavedSettings(page, systemId, edits) {
 // The demo journal as the app loaded it (moved forward by whole days: the app's demo_shift_s),
 // imported by the command line `cli` into a new database in `dir`; returns the database's path.
 // For tests that compare the app with the command line on the same data.
+// One minute after the demo's last entry, on the day the app moves the demo to (ms since 1970).
+// The app carries the demo's levels from its last tests to now, and late in the demo's day
+// they have fallen by most of a day's use: the demo reef's plan can then no longer hold its
+// floors. A test that needs it to hold pins the app's clock here (openApp's fixedTime) and the
+// command line's with --at.
+export function demoFreshTime() {
+  const doc = JSON.parse(readFileSync(join(HERE, '../../assets/demo/demo_journal.json'), 'utf8'));
+  const last = Math.max(...doc.events.map((e) => Date.parse(e.time)));
+  const day = 86400000;
+  return last + Math.floor((Date.now() - last) / day) * day + 60000;
+}
+
 export function cliDemoDatabase(cli, dir, shiftS) {
   const doc = JSON.parse(readFileSync(join(HERE, '../../assets/demo/demo_journal.json'), 'utf8'));
   const moved = (iso) => new Date(Date.parse(iso) + shiftS * 1000).toISOString().replace('.000Z', 'Z');

@@ -29,11 +29,14 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, editSavedSettings, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase,
+import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, editSavedSettings, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase, demoFreshTime,
   benign, messageGone } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
+// The app's "now" (and the command line's --at): the demo reef's plan holds then at any hour
+// the suite runs (lib.mjs demoFreshTime says why).
+const NOW = demoFreshTime();
 const server = await startServer(site);
 const browser = await launch();
 const tests = [];
@@ -75,14 +78,15 @@ async function refused(page, name, text, pattern, what) {
 
 // The command line's plan of the app's plan input on the same journal (the demo moved forward
 // as the app moved it when it loaded it), as JSON.
-function cliPlan(shiftS, planInput) {
+function cliPlan(shiftS, planInput, atMs) {
   const dir = mkdtempSync(join(tmpdir(), 'tw-pumps-'));
   try {
     const db = cliDemoDatabase(cli, dir, shiftS);
     const input = join(dir, 'input.json');
     writeFileSync(input, JSON.stringify(planInput));
     // Exit 0 (holds) or 3 (cannot hold: the plan is still written); the app's verdict is compared.
-    const r = spawnSync(cli, ['plan', input, '--journal', db, '--system', 'Living room reef', '--json']);
+    const r = spawnSync(cli, ['plan', input, '--journal', db, '--system', 'Living room reef', '--json',
+      '--at', new Date(atMs).toISOString()]);
     check(r.status === 0 || r.status === 3, `the command line's plan: exit ${r.status}: ${String(r.stderr).trim()}`);
     return JSON.parse(String(r.stdout));
   } finally {
@@ -102,7 +106,7 @@ function checkSetAmounts(plan, calibration) {
 }
 
 test('pumps: name and calibration of the alkalinity pump on the Plan, refused values, a reload, the command line, adopting (phone)', async () => {
-  const { context, page, errors } = await openApp(browser, server.url, PHONE);
+  const { context, page, errors } = await openApp(browser, server.url, PHONE, { fixedTime: NOW });
   let s = await state(page);
   check(s.systems.find((x) => x.id === s.current_system)?.name === 'Living room reef', 'the demo reef is not the current system');
   const shift = s.demo_shift_s;  // how far the app moved the demo when it loaded it (not kept over a reload)
@@ -169,7 +173,7 @@ test('pumps: name and calibration of the alkalinity pump on the Plan, refused va
   const app = JSON.parse(readFileSync(await download.path(), 'utf8'));
   check(app.input.additives[0].device === 'Left doser' && app.input.additives[0].calibration === 0.9,
         `the download's input: ${JSON.stringify(app.input.additives[0]).slice(0, 200)}`);
-  const other = cliPlan(shift, app.input);
+  const other = cliPlan(shift, app.input, NOW);
   check(other.doses.length === app.doses.length, `doses: app ${app.doses.length}, command line ${other.doses.length}`);
   let largest = 0;
   for (let i = 0; i < Math.min(app.doses.length, other.doses.length); ++i) {
@@ -204,7 +208,7 @@ test('pumps: name and calibration of the alkalinity pump on the Plan, refused va
     check(e.additive === 'sodium_carbonate', `schedule ${e.id} gives ${e.additive}`);
     check([...perDose.values()].some((v) => Math.abs(v - e.amount) < 1e-9), `schedule ${e.id} sets ${e.amount} mL, no day's dose / 0.9`);
   }
-  const calcium = s.schedules.filter((e) => e.additive === 'calcium_chloride_dihydrate' && Date.parse(e.time) > Date.now());
+  const calcium = s.schedules.filter((e) => e.additive === 'calcium_chloride_dihydrate' && Date.parse(e.time) > NOW);
   check(calcium.length >= 1 && calcium.every((e) => e.device === 'pump 2' && e.calibration === 1),
         `calcium schedules ${JSON.stringify(calcium.map((e) => [e.device, e.calibration]))}`);
   await context.close();
@@ -232,7 +236,7 @@ function compareWithCli(app, other, only) {  // only: a test of the additive's n
 }
 
 test('pumps: a magnesium stock and pump by taps, each pump its own doses a day and largest dose, a reload, the command line, adopting three (phone)', async () => {
-  const { context, page, errors } = await openApp(browser, server.url, PHONE);
+  const { context, page, errors } = await openApp(browser, server.url, PHONE, { fixedTime: NOW });
   let s = await state(page);
   const shift = s.demo_shift_s;
   await tap(page, 'tab.plan');
@@ -324,7 +328,7 @@ test('pumps: a magnesium stock and pump by taps, each pump its own doses a day a
   const app = JSON.parse(readFileSync(await download.path(), 'utf8'));
   check(app.input.additives.length === 3 && app.input.additives[2].device === 'Mg doser' && app.input.additives[2].calibration === 0.95 &&
         app.input.additives[2].doses_per_day === 3, `the download's magnesium pump: ${JSON.stringify(app.input.additives[2]).slice(0, 300)}`);
-  const other = cliPlan(shift, app.input);
+  const other = cliPlan(shift, app.input, NOW);
   const { largest, largestOnly, countOnly } = compareWithCli(app, other, /^Magnesium/);
   check(countOnly > 0, 'the command line gives the magnesium pump no dose');
   console.log(`     app vs command line, three pumps: ${other.doses.length} doses, largest difference of an amount to set ${largest.toFixed(4)} mL; ` +
@@ -340,7 +344,7 @@ test('pumps: a magnesium stock and pump by taps, each pump its own doses a day a
   await tap(page, 'plan.adopt');
   s = await state(page);
   check(!s.message_is_error && /pump 1, pump 2 and Mg doser \(calibration 0\.95\)/.test(s.message), `adopt: "${s.message}"`);
-  const from = (device) => s.schedules.filter((e) => e.device === device && Date.parse(e.time) > Date.now());
+  const from = (device) => s.schedules.filter((e) => e.device === device && Date.parse(e.time) > NOW);
   const firstOf = (list) => list.reduce((a, b) => (Date.parse(a.time) <= Date.parse(b.time) ? a : b));
   for (const [device, additive, n, k] of [['pump 1', 'sodium_carbonate', 4, 1], ['pump 2', 'calcium_chloride_dihydrate', 6, 1],
                                           ['Mg doser', 'magnesium_chloride_hexahydrate', 3, 0.95]]) {
@@ -364,7 +368,7 @@ test('pumps: a magnesium stock and pump by taps, each pump its own doses a day a
 });
 
 test("pumps: an old saved store's one doses a day and largest dose go to both stock pumps (phone)", async () => {
-  const { context, page, errors } = await openApp(browser, server.url, PHONE);
+  const { context, page, errors } = await openApp(browser, server.url, PHONE, { fixedTime: NOW });
   let s = await state(page);
   const id = s.current_system;
   await tap(page, 'tab.plan');
@@ -398,7 +402,7 @@ test("pumps: an old saved store's one doses a day and largest dose go to both st
 });
 
 test('pumps: a refused doses a day or largest dose names its pump and chemical with the field and range, on each of three cards (phone)', async () => {
-  const { context, page, errors } = await openApp(browser, server.url, PHONE);
+  const { context, page, errors } = await openApp(browser, server.url, PHONE, { fixedTime: NOW });
   await tap(page, 'tab.plan');
   let s = await state(page);
   check(s.plan && s.plan.pumps.length === 3, `not three pumps: ${JSON.stringify(s.plan && s.plan.pumps)}`);
@@ -429,7 +433,7 @@ test('pumps: a refused doses a day or largest dose names its pump and chemical w
 
 for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
   test(`pumps: the day table's headings name each pump and its chemical in full, side by side without overlapping (${label})`, async () => {
-    const { context, page, errors } = await openApp(browser, server.url, opts);
+    const { context, page, errors } = await openApp(browser, server.url, opts, { fixedTime: NOW });
     await tap(page, 'tab.plan');
     await type(page, 'plan.mg_pump.name', 'Mg doser');
     const s = await state(page);
