@@ -94,8 +94,7 @@ void draw_plan_stock_cards(AppState& app, PlanForm& f) {
   const char* const alks[] = {"Na\u2082CO\u2083 stock", "NaHCO\u2083 stock", "Limewater", "None"};
   if (ui::choice(app, "plan.alkalinity", "Alkalinity from", &alk, alks, 4)) f.alkalinity = static_cast<PlanAlkalinity>(alk);
   if (f.alkalinity == PlanAlkalinity::SodiumCarbonate || f.alkalinity == PlanAlkalinity::SodiumBicarbonate) {
-    const auto id = f.alkalinity == PlanAlkalinity::SodiumCarbonate ? add::CompoundId::SodiumCarbonate
-                                                                    : add::CompoundId::SodiumBicarbonate;
+    const add::CompoundId id = alkalinity_compound(f.alkalinity);
     draw_pump(app, 0, pumps[0], "plan.alk_pump", "Alkalinity pump", add::compound(id).name, false,
               [&] {
                 double g = c.alkalinity_g_per_l;

@@ -252,9 +252,13 @@ std::optional<double> parse_number(std::string text) {
   return v;
 }
 
-std::string range_hint(const NumberSpec& s) {
-  return "Accepted " + fmtx::fixed_exact(s.lo, s.decimals) + " to " + fmtx::fixed_exact(s.hi, s.decimals) + " " + s.unit;
+// "0.001 to 100000 mL": the ends as they are, the unit (if any) after them.
+std::string range_text(const NumberSpec& s) {
+  return fmtx::fixed_exact(s.lo, s.decimals) + " to " + fmtx::fixed_exact(s.hi, s.decimals) +
+         (s.unit[0] ? std::string(" ") + s.unit : std::string());
 }
+
+std::string range_hint(const NumberSpec& s) { return "Accepted " + range_text(s); }
 
 // The value box: shows the value, opens the platform's text field when tapped, and takes the
 // typed text when it comes back. Returns true when a new valid value arrived.
@@ -273,7 +277,7 @@ bool value_box(AppState& app, const std::string& name, const NumberSpec& spec, s
       } else if (*v < spec.lo || *v > spec.hi) {
         const std::string unit = spec.unit[0] ? std::string(" ") + spec.unit : std::string();  // none: no stray space
         notify(app, field + " " + fmtx::fixed_exact(*v, spec.decimals) + unit + " is outside the accepted range " +
-                        fmtx::fixed_exact(spec.lo, spec.decimals) + " to " + fmtx::fixed_exact(spec.hi, spec.decimals) + unit, true);
+                        range_text(spec), true);
       } else {
         *value = *v;
         changed = true;
