@@ -28,7 +28,7 @@ double stored_number(double value) {
   // Most numbers (a kit's 8.3, a tank's 400) are already at most 12 digits in their shortest
   // round-trip text, and rounding such a value to 12 digits gives the value back exactly. That
   // check is fast; the rounding below formats with a fixed precision and parses again, which
-  // was a ninth of the app's start (the demo journal's numbers) in WebAssembly.
+  // was about a ninth of reading the demo journal at the app's start in WebAssembly.
   char shortest[32];
   const char* end = fmt::format_to_n(shortest, sizeof shortest, "{}", value).out;
   if (mantissa_digits(shortest, end) <= kStoredSignificantDigits) return value;
