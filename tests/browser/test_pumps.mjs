@@ -26,11 +26,11 @@
 // pumps-phone-magnesium.png (the magnesium card), pumps-phone-days.png (the day table).
 import { resolve, join } from 'node:path';
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
 import { launch, PHONE_1X as PHONE, DESKTOP, waitReady, editSavedSettings, state, widget, tap, enter, frames, flushed, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase, demoFreshTime,
-  benign, messageGone } from './lib.mjs';
+  benign, messageGone, reveal, downloadPlan } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
@@ -54,12 +54,6 @@ async function reloadToPlan(page) {
     s = await state(page);
   }
   return s;
-}
-
-async function reveal(page, name) {
-  await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
-  await frames(page, 4);
-  return widget(page, name);
 }
 
 async function type(page, name, text) {
@@ -166,11 +160,7 @@ test('pumps: name and calibration of the alkalinity pump on the Plan, refused va
   check(s.plan && s.plan.pumps[0].device === 'Left doser' && s.plan.pumps[0].calibration === 0.9, 'the plan after a reload');
 
   // The command line on the app's own plan input: the same amounts to set, dose for dose.
-  await reveal(page, 'plan.export_format.3');
-  await tap(page, 'plan.export_format.3');
-  await reveal(page, 'plan.export');
-  const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }), tap(page, 'plan.export')]);
-  const app = JSON.parse(readFileSync(await download.path(), 'utf8'));
+  const app = JSON.parse(await downloadPlan(page, 3));
   check(app.input.additives[0].device === 'Left doser' && app.input.additives[0].calibration === 0.9,
         `the download's input: ${JSON.stringify(app.input.additives[0]).slice(0, 200)}`);
   const other = cliPlan(shift, app.input, NOW);
@@ -321,11 +311,7 @@ test('pumps: a magnesium stock and pump by taps, each pump its own doses a day a
   check(s.plan && JSON.stringify(s.plan.pumps.map((p) => p.doses_per_day)) === '[4,6,3]', 'the plan after a reload');
 
   // The command line on the app's own input: the same doses, the magnesium pump's included.
-  await reveal(page, 'plan.export_format.3');
-  await tap(page, 'plan.export_format.3');
-  await reveal(page, 'plan.export');
-  const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }), tap(page, 'plan.export')]);
-  const app = JSON.parse(readFileSync(await download.path(), 'utf8'));
+  const app = JSON.parse(await downloadPlan(page, 3));
   check(app.input.additives.length === 3 && app.input.additives[2].device === 'Mg doser' && app.input.additives[2].calibration === 0.95 &&
         app.input.additives[2].doses_per_day === 3, `the download's magnesium pump: ${JSON.stringify(app.input.additives[2]).slice(0, 300)}`);
   const other = cliPlan(shift, app.input, NOW);

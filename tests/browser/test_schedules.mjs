@@ -14,10 +14,10 @@
 // Screenshots go to tests/browser/output/schedules-*.png.
 import { resolve, join } from 'node:path';
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer } from './serve.mjs';
-import { launch, PHONE_1X as PHONE, DESKTOP, state, widget, tap, enter, frames, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase, benign } from './lib.mjs';
+import { launch, PHONE_1X as PHONE, DESKTOP, state, widget, tap, enter, frames, check, OUTPUT, HERE, openApp, runTests, cliDemoDatabase, benign, reveal, downloadPlan } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const cli = process.env.TW_CLI || join(HERE, '../../build/native/shell/tidewright');
@@ -29,12 +29,6 @@ const open = (opts) => openApp(browser, server.url, opts);
 async function shot(page, name) {
   await frames(page, 2);
   await page.screenshot({ path: join(OUTPUT, `schedules-${name}.png`) });
-}
-
-async function reveal(page, name) {
-  await page.evaluate((n) => Module.ccall('tw_test_reveal', null, ['string'], [n]), name);
-  await frames(page, 4);
-  return widget(page, name);
 }
 
 // Logs today's alkalinity test on the demo reef through the Log screen.
@@ -159,11 +153,7 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     check(s.plan.max_alkalinity_dkh <= high + 1e-6, `the plan takes alkalinity to ${s.plan.max_alkalinity_dkh} dKH, over the band's ${high}`);
     check(s.plan.check_ok, 'the independent check failed');
     // The command line, same journal, same rule: the app's JSON download against `plan --json`.
-    await reveal(page, 'plan.export_format.3');
-    await tap(page, 'plan.export_format.3');
-    await reveal(page, 'plan.export');
-    const [download] = await Promise.all([page.waitForEvent('download', { timeout: 10000 }), tap(page, 'plan.export')]);
-    const app = JSON.parse(readFileSync(await download.path(), 'utf8'));
+    const app = JSON.parse(await downloadPlan(page, 3));
     check(app.input && app.input.additives.length >= 1, 'the JSON download has no plan input');
     comparePlans(app, cliPlan(logged, shift, app.input));
     await reveal(page, 'plan.verdict');

@@ -304,15 +304,20 @@ std::string state_json() {
   return j.dump();
 }
 
+// A widget's place, and how long the message strip has left: when the strip goes, a page
+// scrolled to its end grows by the strip's height and its widgets move down (app.cpp), so a
+// test's tap waits for a strip about to go (lib.mjs tap).
 std::string widget_json(const std::string& name, float ratio) {
   json j = {{"name", name}, {"found", false}};
   if (!g_app) return j.dump();
+  const double left = g_app->ui.message.empty() ? 0.0 : g_app->ui.message_until_ms - platform::now_ms();
+  j["message_ms_left"] = std::max(0.0, left);
   const auto it = g_app->ui.widgets.find(name);
   if (it == g_app->ui.widgets.end()) return j.dump();
   const float k = ratio > 0 ? 1.0f / ratio : 1.0f;
   const Rect& r = it->second;
-  j = {{"name", name}, {"found", true}, {"visible", r.visible},
-       {"x", r.x * k}, {"y", r.y * k}, {"w", r.w * k}, {"h", r.h * k}, {"text", r.text}};
+  j.update({{"found", true}, {"visible", r.visible},
+            {"x", r.x * k}, {"y", r.y * k}, {"w", r.w * k}, {"h", r.h * k}, {"text", r.text}});
   return j.dump();
 }
 
