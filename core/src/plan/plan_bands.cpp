@@ -193,7 +193,7 @@ Status add_bands(const PlanInput& in, Plan& plan) {
       const double a = in.limits_as_set->get(spec.id), b = in.limits.get(spec.id);
       if (std::fabs(a - b) < 1e-12) continue;
       const int dp = std::fabs(a) < 20 ? 2 : 0;
-      cost.room.push_back(fmt::format("{} {:.{}f} {} instead of {:.{}f}", spec.key, b, dp, spec.unit, a, dp));
+      cost.room.push_back(fmt::format("{}: {:.{}f}{} instead of {:.{}f}", spec.description, b, dp, spec.unit_suffix(), a, dp));
     }
     if (!cost.room.empty()) {
       PlanInput bare = in;

@@ -293,8 +293,8 @@ void Engine::violate(std::size_t dose, double t, LimitId id, double value, doubl
   const bool floor = limit_spec(id).side == LimitSide::Floor;
   report.violations.push_back(
       {dose, d, id, value, allowed,
-       fmt::format("day {} {:02d}:{:02d}: {} reached {:.6g}, {} {:g}", d, minute / 60, minute % 60,
-                   limit_spec(id).key, value, floor ? "floor" : "limit", allowed),
+       fmt::format("day {} {:02d}:{:02d}: the {} reached {:.6g}{}, {} {:g}", d, minute / 60, minute % 60,
+                   limit_spec(id).description, value, limit_spec(id).unit_suffix(), floor ? "floor" : "limit", allowed),
        minute});
 }
 

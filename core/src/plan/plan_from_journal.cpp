@@ -212,8 +212,8 @@ void tighten(Limits& limits, LimitId id, double by, const char* why, std::vector
   const double after = spec.side == LimitSide::Floor ? before + by : before - by;
   limits.value[static_cast<std::size_t>(id)] = after;
   const int dp = std::fabs(before) < 20 ? 2 : 0;
-  lines.push_back(fmt::format("{} planned at {:.{}f} {} instead of {:.{}f}: room for the 95 % uncertainty of {}",
-                              spec.key, after, dp, spec.unit, before, dp, why));
+  lines.push_back(fmt::format("the {} planned at {:.{}f}{} instead of {:.{}f}: room for the 95 % uncertainty of {}",
+                              spec.description, after, dp, spec.unit_suffix(), before, dp, why));
 }
 
 }  // namespace

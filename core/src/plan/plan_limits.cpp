@@ -102,12 +102,12 @@ Result<Limits> make_limits(const std::vector<LimitSetting>& settings) {
                                         floor ? fmt::format("{:g} or higher", spec.hard_bound)
                                               : fmt::format("above {:g} up to {:g}", spec.lowest, spec.hard_bound))};
       }
-      l.record.push_back(fmt::format("OVERRIDE: {} set to {:g} {}, past the hard {} {:g} (default {:g}, {}); "
+      l.record.push_back(fmt::format("OVERRIDE: the {} set to {:g}{}, past the hard {} {:g} (default {:g}, {}); "
                                      "reason given: {}",
-                                     spec.key, set.value, spec.unit, floor ? "floor" : "ceiling", spec.hard_bound,
+                                     spec.description, set.value, spec.unit_suffix(), floor ? "floor" : "ceiling", spec.hard_bound,
                                      spec.default_value, spec.source, set.reason));
     } else if (spec.loosens(set.value)) {
-      l.record.push_back(fmt::format("loosened: {} set to {:g} {} (default {:g}, {})", spec.key, set.value, spec.unit,
+      l.record.push_back(fmt::format("loosened: the {} set to {:g}{} (default {:g}, {})", spec.description, set.value, spec.unit_suffix(),
                                      spec.default_value, spec.source));
     }
     l.value[static_cast<std::size_t>(set.id)] = set.value;

@@ -123,6 +123,7 @@ Followed follow(const replay::Engine& at, const PlanInput& in, const Plan& plan,
   const auto it = std::upper_bound(suffix.t.begin(), suffix.t.end(), t_end);
   if (it != suffix.t.end()) {
     const std::size_t k = static_cast<std::size_t>(it - suffix.t.begin());
+    const char* const kParameterName[3] = {"alkalinity", "calcium", "magnesium"};
     const LimitId floor[3] = {LimitId::AlkalinityFloor, LimitId::CalciumFloor, LimitId::MagnesiumFloor};
     const LimitId ceiling[3] = {LimitId::AlkalinityCeiling, LimitId::CalciumCeiling, LimitId::MagnesiumCeiling};
     for (int p = 0; p < 3; ++p) {
@@ -143,9 +144,11 @@ Followed follow(const replay::Engine& at, const PlanInput& in, const Plan& plan,
         w.closest_allowed = allowed;
       }
       if (m < -1e-9 && crossing.empty()) {
-        crossing = fmt::format("for the rest of the plan{} {} is {:.3g} {} and {} reaches {:.6g}, {} {:g}",
-                               suffix.edges ? " until the next test" : "", limit_spec(id).key, std::abs(shift[p]),
-                               down ? "lower" : "higher", suffix.edges ? "the 95 % band's edge" : "it", value,
+        const LimitSpec& spec = limit_spec(id);
+        crossing = fmt::format("for the rest of the plan{} {} is {:.3g}{} {} and {} reaches {:.6g}, past the {} ({} {:g})",
+                               suffix.edges ? " until the next test" : "", kParameterName[p], std::abs(shift[p]),
+                               spec.unit_suffix(), down ? "lower" : "higher",
+                               suffix.edges ? "the 95 % band's edge" : "it", value, spec.description,
                                down ? "floor" : "limit", allowed);
       }
     }

@@ -131,12 +131,10 @@ Result<std::vector<TargetConflict>> check_targets_at_air(const PlanInput& in) {
         t.calcium_fit_mg_l = fit_ca;
       }
     }
-    const LimitSpec& spec = limit_spec(c.id);
     const char* quantity = is_ph(c.id) ? "pH (total scale)" : "aragonite saturation";
     const std::string consequence =
-        c.ceiling ? fmt::format("above the limit of {:g} right after a dose ({}), so every dose would be held back",
-                                allowed, spec.key)
-                  : fmt::format("below the floor of {:g} ({}) whenever the water rests", allowed, spec.key);
+        c.ceiling ? fmt::format("above the limit of {:g} right after a dose, so every dose would be held back", allowed)
+                  : fmt::format("below the floor of {:g} whenever the water rests", allowed);
     std::string fits;
     if (t.alkalinity_fit_dkh) {
       fits = fmt::format("the {} alkalinity target that fits is {:.2f} dKH (at calcium {:g} mg/L)",

@@ -82,6 +82,8 @@ struct LimitSpec {
   double highest = 1e9;     // an upper bound or a floor may not be set above this
   bool loosens(double value) const { return side == LimitSide::Upper ? value > default_value : value < default_value; }
   bool past_hard_bound(double value) const { return side == LimitSide::Upper ? value > hard_bound : value < hard_bound; }
+  // " dKH" after a value in a sentence; nothing for a limit with no unit (Omega).
+  std::string unit_suffix() const { return *unit ? std::string(" ") + unit : std::string(); }
 };
 const std::array<LimitSpec, kLimitCount>& limit_specs();
 const LimitSpec& limit_spec(LimitId id);
