@@ -145,20 +145,38 @@ std::string level_with_band(double level, const std::optional<pl::Band95>& band,
   return fmtx::fixed(level, dp) + " (" + fmtx::fixed(band->low, dp) + "\u2013" + fmtx::fixed(band->high, dp) + ")";
 }
 
-// The width a day-table column needs to show its heading's longest word and its widest value
-// without breaking either.
-float unbroken_width(const std::vector<std::string>& head, const std::vector<std::vector<std::string>>& rows, int column) {
+// The width a day-table column needs to show its widest value and either its heading's longest
+// word (whole_lines false: the heading may wrap between words) or each heading line whole.
+float column_width(const std::vector<std::string>& head, const std::vector<std::vector<std::string>>& rows, int column,
+                   bool whole_lines) {
   float w = 0;
   for (const std::string& line : head) {
     std::size_t start = 0;
     while (start <= line.size()) {
-      const std::size_t end = std::min(line.find(' ', start), line.size());
+      const std::size_t end = whole_lines ? line.size() : std::min(line.find(' ', start), line.size());
       w = std::max(w, ImGui::CalcTextSize(line.data() + start, line.data() + end).x);
       start = end + 1;
     }
   }
   for (const auto& row : rows) w = std::max(w, ImGui::CalcTextSize(row[static_cast<size_t>(column)].c_str()).x);
   return std::max(w, 1.0f);
+}
+
+// Each column's share of the table's width: what it must show whole (its longest heading line,
+// or where that does not fit on the screen, its longest word) and its widest value. A wide
+// screen then shows "dKH end" on one line; a phone wraps headings between words, never inside.
+std::vector<float> day_column_weights(const std::vector<std::vector<std::string>>& heads,
+                                      const std::vector<std::vector<std::string>>& rows) {
+  const int cols = static_cast<int>(heads.size());
+  const float padding = 2 * ImGui::GetStyle().CellPadding.x * static_cast<float>(cols);
+  std::vector<float> whole(heads.size()), broken(heads.size());
+  float whole_sum = 0;
+  for (int k = 0; k < cols; ++k) {
+    whole[static_cast<size_t>(k)] = column_width(heads[static_cast<size_t>(k)], rows, k, true);
+    broken[static_cast<size_t>(k)] = column_width(heads[static_cast<size_t>(k)], rows, k, false);
+    whole_sum += whole[static_cast<size_t>(k)];
+  }
+  return whole_sum + padding <= ImGui::GetContentRegionAvail().x ? whole : broken;
 }
 
 // The day table's heading row: each column's lines (a pump column: pump, chemical, unit) wrapped
@@ -217,11 +235,10 @@ void draw_days(AppState& app, PlanForm& f, const PlanCache& c) {
     if (mg) row.push_back(level_with_band(d.end.magnesium_mg_l, bands ? d.end_band[2] : none, 0));
     rows.push_back(std::move(row));
   }
+  const std::vector<float> weights = day_column_weights(heads, rows);  // before the table: the page's width
   if (ImGui::BeginTable("##days", cols, ImGuiTableFlags_RowBg | ImGuiTableFlags_SizingStretchProp)) {
-    // Each column shares the width in proportion to what it must hold whole: its longest word of
-    // heading or its widest value, so headings wrap between words, not inside one.
     for (int k = 0; k < cols; ++k) {
-      ImGui::TableSetupColumn(nullptr, ImGuiTableColumnFlags_WidthStretch, unbroken_width(heads[static_cast<size_t>(k)], rows, k));
+      ImGui::TableSetupColumn(nullptr, ImGuiTableColumnFlags_WidthStretch, weights[static_cast<size_t>(k)]);
     }
     draw_day_heads(app, heads);
     for (const auto& row : rows) {
