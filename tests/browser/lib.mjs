@@ -12,7 +12,9 @@ export const OUTPUT = join(HERE, 'output');
 mkdirSync(OUTPUT, { recursive: true });
 
 export const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu-sandbox', '--use-gl=swiftshader', '--enable-unsafe-swiftshader',
-  '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+  '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync',
+  // More flags for an experiment, e.g. TW_CHROMIUM_FLAGS='--js-flags=--no-wasm-lazy-compilation'.
+  ...(process.env.TW_CHROMIUM_FLAGS || '').split(' ').filter(Boolean)];
 
 export function launch() {
   return chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: CHROMIUM_ARGS });
