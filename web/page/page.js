@@ -22,6 +22,27 @@ var Module = {
     document.getElementById('loading-msg').textContent = 'Tidewright stopped: ' + what + '. Reload the page to start again.';
   }
 };
+// Over a slow link the WebGL2 context is made here, while the wasm is still downloading, and
+// tidewright.js takes it (-sGL_PREINITIALIZED_CONTEXT): making it for a phone's 1170x2532 pixels
+// takes over 100 ms, which otherwise sits between the wasm's arrival and the first frame. Only
+// when the wasm has not arrived 0.3 s after this script: where it comes quickly, making the
+// context early competed with its compilation and the first frame came about 0.2 s later
+// (bench.mjs), so the app makes it itself, as before. The canvas gets the pixel size the app
+// would give it (platform_web.cpp canvas_pixel_size: CSS size x devicePixelRatio, rounded), and
+// the attributes the app's GLFW window asks for (platform_web.cpp start: no depth or stencil).
+setTimeout(function () {
+  if (Module.ctx || Module.calledRun) return;  // the app has started and made its own
+  var arrived = performance.getEntriesByType('resource').some(function (e) { return /tidewright\.wasm$/.test(e.name); });
+  if (arrived) return;
+  var canvas = Module.canvas, rect = canvas.getBoundingClientRect(), ratio = window.devicePixelRatio || 1;
+  canvas.width = Math.max(1, Math.round(rect.width * ratio));
+  canvas.height = Math.max(1, Math.round(rect.height * ratio));
+  var gl = null;
+  try {
+    gl = canvas.getContext('webgl2', { antialias: false, alpha: true, depth: false, stencil: false });
+  } catch (e) { /* the app tries again and reports it */ }
+  if (gl) Module.preinitializedWebGLContext = gl;
+}, 300);
 window.addEventListener('error', function (e) {
   document.getElementById('loading-msg').textContent = 'Error: ' + e.message;
 });

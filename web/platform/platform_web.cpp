@@ -153,6 +153,10 @@ bool start(const StartOptions&, std::string* error) {
   glfwWindowHint(GLFW_CLIENT_API, GLFW_OPENGL_ES_API);
   glfwWindowHint(GLFW_CONTEXT_VERSION_MAJOR, 3);
   glfwWindowHint(GLFW_CONTEXT_VERSION_MINOR, 0);
+  // No depth or stencil buffer: ImGui draws with neither, and a phone's 1170x2532 pixels of
+  // them is 12 MB. page.js asks for the same when it makes the context early (slow links).
+  glfwWindowHint(GLFW_DEPTH_BITS, 0);
+  glfwWindowHint(GLFW_STENCIL_BITS, 0);
   // The window (the canvas) is created at its final pixel size: WebGL allocates the drawing
   // buffer with the context, and resizing it right after costs a second allocation of a
   // phone's 1170x2532 pixels (measured about 170 ms of the start on this machine, busy).
