@@ -1,8 +1,7 @@
 // Tests of how the app is served (tests/browser/serve.mjs, issue 15): compression chosen by
 // Accept-Encoding, the headers of a static app, revalidation that picks up an update, and the
 // app starting, taking an entry, exporting and reloading offline under the content security
-// policy with no violation; and the page's word when the browser takes the display (the WebGL
-// context) away, and the app back with its data when the browser gives it back.
+// policy with no violation.
 //   node test_serving.mjs [site-dir]      (default ../../build/web/site)
 import { request } from 'node:http';
 import { execFileSync } from 'node:child_process';
@@ -151,38 +150,6 @@ test('the app starts, takes an entry, exports and reloads offline with no policy
   check((await state(page)).events === events, 'offline reload lost the entry');
   await noViolations(page, errors, 'offline');
   await context.setOffline(false);
-  await context.close();
-});
-
-test('a lost WebGL context is said on the page; when the browser gives it back the app starts again with its data', async () => {
-  const context = await browser.newContext({ ...PHONE });
-  const { page, errors } = await openWatched(context);
-  await page.goto(server.url);
-  await waitReady(page);
-  await frames(page, 3);
-  await flushed(page);
-  const events = (await state(page)).events;
-  // The extension WebGL gives for testing this: the same events a browser sends on its own.
-  // (A context the browser has already taken away gives no extension: wait until it is back.)
-  await page.waitForFunction(() => !Module.canvas.getContext('webgl2').isContextLost(), null, { timeout: 30000 });
-  await page.evaluate(() => {
-    window.__twLose = Module.canvas.getContext('webgl2').getExtension('WEBGL_lose_context');
-    window.__twLose.loseContext();
-  });
-  await page.waitForFunction(() => !document.getElementById('loading').classList.contains('gone') &&
-    /display away/.test(document.getElementById('loading-msg').textContent), null, { timeout: 10000 });
-  const said = await page.textContent('#loading-msg');
-  check(/Your data is saved/.test(said), `the page says: ${said}`);
-  check(await page.evaluate(() => getComputedStyle(document.querySelector('#loading .bar')).display === 'none'),
-        'the loading bar is shown with the message');
-  const restarted = page.waitForEvent('load', { timeout: 30000 });
-  await page.evaluate(() => window.__twLose.restoreContext());
-  await restarted;
-  await waitReady(page);
-  await frames(page, 3);
-  check((await state(page)).events === events, 'entries lost in the restart');
-  check(await page.evaluate(() => document.getElementById('loading').classList.contains('gone')), 'the notice is still shown');
-  await noViolations(page, errors.filter((e) => !/CONTEXT_LOST|context lost/i.test(e)), 'after the restart');
   await context.close();
 });
 

@@ -5,7 +5,6 @@
 //   3. redraw flag: any input or resize asks for a frame
 //   4. text entry overlay (a real <input>, so phones show their keyboard)
 //   5. files: download and file picker
-//   6. a lost display: the WebGL context taken away by the browser
 // Functions called from C++ hang off Module.tw.
 
 Module.tw = { dirty: true, events: [], x: -1, y: -1, down: false, touch: false, liftPending: false, wheel: 0 };
@@ -163,28 +162,3 @@ Module.tw.firstFrame = function () {
   var l = document.getElementById('loading');
   if (l) l.classList.add('gone');
 };
-
-// ---------------------------------------------------------------- 6. a lost display
-// A browser may take the WebGL context away (a phone's tab long in the background, a GPU
-// reset); the app then draws nothing. The page says so instead of a frozen or blank screen,
-// asks for the context back, and when it comes back reloads: the journal is in IndexedDB, and
-// the reload waits for the last write to finish.
-(function () {
-  function say(text) {
-    var l = document.getElementById('loading');
-    if (l) { l.classList.remove('gone'); l.classList.add('lost'); }
-    document.getElementById('loading-msg').textContent = text;
-  }
-  Module.canvas.addEventListener('webglcontextlost', function (e) {
-    e.preventDefault();  // without it the browser never gives the context back
-    say('The browser took the display away (its WebGL context was lost). Your data is saved. ' +
-        'Tidewright comes back when the browser gives the display back; reloading the page also brings it back.');
-  });
-  Module.canvas.addEventListener('webglcontextrestored', function () {
-    say('The display is back: starting again.');
-    (function reloadWhenSaved() {
-      if (Module.tw.flushing()) { setTimeout(reloadWhenSaved, 100); return; }
-      location.reload();
-    })();
-  });
-})();
