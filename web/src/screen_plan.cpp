@@ -308,12 +308,12 @@ void draw_limits(AppState& app, const PlanCache& c) {
     ui::label_value(app, ((floor ? "floor " : "limit ") + fmtx::fixed(limit, dec) + unit).c_str(),
                     tested ? word + fmtx::fixed(reached, dec) : std::string("not reached by this plan"), col);
     ui::record(app, std::string("plan.limit.") + s.key);
-    // Planned inside the keeper's setting (room for the 95 % band of the estimates): say both.
+    // Planned inside the keeper's setting (room for the uncertainty of the estimates): say both.
     if (c.input && c.input->limits_as_set) {
       const double set = c.input->limits_as_set->get(s.id);
       if (std::fabs(set - limit) > 1e-9 * std::max(1.0, std::fabs(set))) {
         ui::dim_text(("Set at " + fmtx::fixed(set, dec) + unit + "; planned at " + fmtx::fixed(limit, dec) + unit +
-                      " to keep room for the 95 % band of the estimates.").c_str());
+                      " to keep room for " + tw::plan::kRoomBand + " of the estimates.").c_str());
       }
     }
     ui::dim_text(("Default " + fmtx::fixed(s.default_value, dec) + unit + " (" + s.source + "); hard " +
@@ -367,7 +367,8 @@ void draw_verdict(AppState& app, const pl::Plan& plan) {
       ui::record(app, "plan.test_again");
     }
     if (const auto& cost = plan.uncertainty->cost) {
-      ui::dim_text(("Room kept for the 95 % band: " + std::to_string(cost->room.size()) +
+      ui::dim_text(("Room kept for " + std::string(tw::plan::kRoomBand) + " of the estimates: " +
+                    std::to_string(cost->room.size()) +
                     " limits tightened (see Safety limits); against the limits as set this costs: " + cost->effect + ".")
                        .c_str());
       ui::record(app, "plan.margin_cost");

@@ -47,8 +47,7 @@ Result<ChemistrySensitivity> chemistry_sensitivity(const SystemState& sys, doubl
   return s;
 }
 
-ChemistryHalfWidth chemistry_half_width(const ChemistrySensitivity& s, double alk_sd, double ca_sd) {
-  const double z = estimate::z95();
+ChemistryHalfWidth chemistry_half_width(const ChemistrySensitivity& s, double alk_sd, double ca_sd, double z) {
   ChemistryHalfWidth w;
   w.ph = z * std::fabs(s.ph_per_dkh) * alk_sd;
   w.omega = z * std::hypot(s.omega_per_dkh * alk_sd, s.omega_per_mg_l_calcium * ca_sd);
@@ -112,7 +111,7 @@ Status add_bands(const PlanInput& in, Plan& plan) {
       const double sd = sd_at(in, p, end_min);
       d.end_band[p] = Band95{std::max(0.0, lv[p] - z * sd), lv[p] + z * sd};
     }
-    const auto hw = chemistry_half_width(sens[i], sd_at(in, 0, end_min), sd_at(in, 1, end_min));
+    const auto hw = chemistry_half_width(sens[i], sd_at(in, 0, end_min), sd_at(in, 1, end_min), z);
     d.end_ph_band = Band95{d.end.ph_total - hw.ph, d.end.ph_total + hw.ph};
     d.end_omega_band = Band95{std::max(0.0, d.end.omega_aragonite - hw.omega), d.end.omega_aragonite + hw.omega};
   }
@@ -136,7 +135,7 @@ Status add_bands(const PlanInput& in, Plan& plan) {
       }
     }
     if (sens.empty()) continue;
-    const auto hw = chemistry_half_width(sens[day_index], sd_at(in, 0, m.minute), sd_at(in, 1, m.minute));
+    const auto hw = chemistry_half_width(sens[day_index], sd_at(in, 0, m.minute), sd_at(in, 1, m.minute), z);
     const double ph = m.water.ph_total, om = m.water.omega_aragonite;
     const std::size_t by = in.spread[0] ? 0 : 1;
     if (ph >= set.get(LimitId::PhFloor) && ph - hw.ph < set.get(LimitId::PhFloor)) {
@@ -227,9 +226,8 @@ Status add_bands(const PlanInput& in, Plan& plan) {
       cost.effect = fmt::format(
           "{}{}", parts.empty() ? std::string("the same doses and days to target") : fmt::format("{}", fmt::join(parts, "; ")),
           crosses_without ? " (that plan would not hold)" : "");
-      cost.summary = fmt::format("room for the 95 % band: {} limits tightened ({}); cost against the plan at the limits "
-                                 "as set: {}",
-                                 cost.room.size(), fmt::join(cost.room, "; "), cost.effect);
+      cost.summary = fmt::format("room for {} of the estimates: {} limits tightened ({}); cost against the plan at the limits as set: {}",
+                                 kRoomBand, cost.room.size(), fmt::join(cost.room, "; "), cost.effect);
       u.cost = std::move(cost);
     }
   }

@@ -40,12 +40,13 @@ struct ChemistrySensitivity {
 };
 Result<ChemistrySensitivity> chemistry_sensitivity(const SystemState& system, double alkalinity_dkh,
                                                    double calcium_mg_l);
-// 95 % half-widths of pH and Omega from the levels' standard uncertainties (linear propagation,
-// alkalinity and calcium estimates independent: separate filters).
+// Half-widths of pH and Omega, z standard deviations wide, from the levels' standard
+// uncertainties (linear propagation, alkalinity and calcium estimates independent: separate
+// filters). z: estimate::z95() for the shown bands, kRoomSd for the room kept.
 struct ChemistryHalfWidth {
   double ph = 0, omega = 0;
 };
-ChemistryHalfWidth chemistry_half_width(const ChemistrySensitivity& s, double alkalinity_sd, double calcium_sd);
+ChemistryHalfWidth chemistry_half_width(const ChemistrySensitivity& s, double alkalinity_sd, double calcium_sd, double z);
 // Bands on the plan's days, the day to test again and what the room costs (plan_bands.cpp);
 // make_plan calls it when the input carries a spread.
 Status add_bands(const PlanInput& input, Plan& plan);

@@ -9,8 +9,13 @@
 //   - the plan's starting alkalinity is within the kit's precision of the true level in at
 //     least 99 % of the plans (kit precision: its 95 % reading interval, 2 x 0.2 dKH);
 //   - no plan, replayed by the independent checker from the TRUE water and consumption,
-//     crosses a limit, and the true water stays between the floor and the ceiling all along
-//     once the first plan is adopted (before it, the pump runs on the keeper's own guess).
+//     crosses a limit while the keeper follows it (from its midnight until the midnight after
+//     the keeper's next test, when a new plan replaces it), and the true water stays between
+//     the floor and the ceiling all along once the first plan is adopted (before it, the pump
+//     runs on the keeper's own guess). The keeper follows a plan also in when to test: the
+//     next test comes at the random gap or by the plan's test-again moment, whichever is
+//     first. The whole week of each plan is replayed as well and its crossings printed: what a
+//     keeper who stopped testing would meet.
 // A second run of the same keepers checks that the plan's 95 % forecast band is calibrated: there
 // the truth is the filter's own model (the consumption a random walk of 0.03 dKH/day per
 // sqrt(day), the level one of 0.03 dKH per sqrt(day), estimate.hpp; the pump never misses, the
@@ -94,8 +99,10 @@ struct Figures {
   // and how many of them held the level of the true water under the plan's doses.
   int band_days = 0, band_hits = 0, band_below = 0;
   double worst_start_error = 0;
-  int plans_crossing_on_truth = 0, runs_true_water_out = 0;
-  int plans_crossing_before_retest = 0;
+  int plans_crossing_on_truth = 0, runs_true_water_out = 0;  // over the part of each plan followed
+  int plans_crossing_in_week = 0, plans_crossing_before_retest = 0;  // over the whole week replayed
+  int tests_brought_forward = 0;  // tests the keeper took earlier than the random gap, as the plan said
+  int plans_crossing_not_floor = 0;  // while followed, a ceiling or a rate (the limits doses push)
   double dose_with_room = 0, dose_without_room = 0;  // mL over the plans (Plan::uncertainty cost)  // of those, crossing before the plan's own test-again moment
   double lowest_true = 1e9, highest_true = -1e9;
   std::array<int, plan::kLimitCount> crossed{};       // plans whose truth replay crossed each limit
@@ -269,21 +276,37 @@ void run_one(std::uint32_t seed, Truth kind, Figures& fig) {
       if (t >= p->days[d].end_band[0]->low && t <= p->days[d].end_band[0]->high) ++fig.band_hits;
       if (t < p->days[d].end_band[0]->low) ++fig.band_below;
     }
+    // The keeper tests by the plan's test-again moment if the random gap would come later: in
+    // the evening of plan day k (its reading stamped 21:00), the last evening before the moment.
+    const plan::Retest& retest = *p->uncertainty->retest;
+    const int by_plan = std::max(1, retest.minute > 21 * 60 ? retest.day : retest.day - 1);
+    if (day + by_plan < next_test_day) {
+      next_test_day = day + by_plan;
+      ++fig.tests_brought_forward;
+    }
+    const int followed_days = next_test_day - day;  // the plan is replaced at the midnight after that test
     if (!truth_check.ok()) {
-      ++fig.plans_crossing_on_truth;
-      const auto& retest = p->uncertainty ? p->uncertainty->retest : std::nullopt;
+      ++fig.plans_crossing_in_week;
+      bool while_followed = truth_check.violations.empty();  // a crossing the checker gives no moment for counts
+      bool before_retest = false;
       for (const plan::Violation& v : truth_check.violations) {
-        if (!retest || v.day * 1440 + v.minute < retest->day * 1440 + retest->minute) {
-          ++fig.plans_crossing_before_retest;
-          break;
+        before_retest = before_retest || v.day * 1440 + v.minute < retest.day * 1440 + retest.minute;
+        while_followed = while_followed || v.day <= followed_days;
+      }
+      if (before_retest) ++fig.plans_crossing_before_retest;
+      if (while_followed) {
+        ++fig.plans_crossing_on_truth;
+        bool not_floor = truth_check.violations.empty();
+        for (const plan::Violation& v : truth_check.violations) {
+          if (v.day > followed_days) continue;
+          not_floor = not_floor || plan::limit_spec(v.limit).side != plan::LimitSide::Floor;
+          const auto k = static_cast<std::size_t>(v.limit);
+          ++fig.crossed[k];
+          fig.worst_over[k] = std::max(fig.worst_over[k], std::fabs(v.value - v.allowed));
         }
+        if (not_floor) ++fig.plans_crossing_not_floor;
       }
-      for (const plan::Violation& v : truth_check.violations) {
-        const auto k = static_cast<std::size_t>(v.limit);
-        ++fig.crossed[k];
-        fig.worst_over[k] = std::max(fig.worst_over[k], std::fabs(v.value - v.allowed));
-      }
-      if (fig.plans_crossing_on_truth <= 3) {
+      if (while_followed && fig.plans_crossing_on_truth <= 3) {
         std::printf("seed %u: replayed on the true water (start %.2f dKH, consumption %.2f dKH/day; plan from %.2f): %s\n",
                     seed, truth, demand, in.system.alkalinity_dkh,
                     truth_check.violations.empty() ? (truth_check.other.empty() ? "?" : truth_check.other.front().c_str())
@@ -339,11 +362,14 @@ TEST_CASE("plan simulation: keepers following adopted plans start within kit pre
               fig.highest_true);
   std::printf("  the estimate's own 95 %% band held the true level in %.2f %% of the plans\n",
               planned ? 100.0 * fig.start_within_own_band / planned : 0.0);
-  std::printf("  plans crossing any limit on the truth %.2f %% (%d), %.2f %% (%d) of them before the plan's own "
-              "test-again moment (the keeper here tests at random gaps, not at that moment); dose cost of the room "
-              "kept %+.2f %% (%.0f mL against %.0f mL at the limits as set)\n",
+  std::printf("  plans crossing any limit on the truth while followed %.2f %% (%d); replayed over their whole week "
+              "(a keeper who stopped testing) %.2f %% (%d), %.2f %% (%d) before the plan's own test-again moment; "
+              "tests taken earlier than the random gap because the plan said so %d; dose cost of the room kept "
+              "%+.2f %% (%.0f mL against %.0f mL at the limits as set)\n",
               planned ? 100.0 * fig.plans_crossing_on_truth / planned : 0.0, fig.plans_crossing_on_truth,
+              planned ? 100.0 * fig.plans_crossing_in_week / planned : 0.0, fig.plans_crossing_in_week,
               planned ? 100.0 * fig.plans_crossing_before_retest / planned : 0.0, fig.plans_crossing_before_retest,
+              fig.tests_brought_forward,
               fig.dose_without_room > 0 ? 100.0 * (fig.dose_with_room / fig.dose_without_room - 1.0) : 0.0,
               fig.dose_with_room, fig.dose_without_room);
   const double band_coverage = band_coverage_percent(fig);
@@ -352,7 +378,7 @@ TEST_CASE("plan simulation: keepers following adopted plans start within kit pre
               band_coverage, fig.band_days, fig.band_below, fig.band_days - fig.band_hits - fig.band_below);
   for (const plan::LimitSpec& spec : plan::limit_specs()) {
     const auto k = static_cast<std::size_t>(spec.id);
-    if (fig.crossed[k]) std::printf("  %s crossed in %d plans, by up to %.3f %s\n", spec.key, fig.crossed[k], fig.worst_over[k], spec.unit);
+    if (fig.crossed[k]) std::printf("  %s crossed while followed in %d plans, by up to %.3f %s\n", spec.key, fig.crossed[k], fig.worst_over[k], spec.unit);
   }
   // The forecast band is not too narrow. Here it is wider than 95 %: it carries the filter's
   // random walks of consumption and level, which this truth does not take (the calibration is
@@ -363,21 +389,28 @@ TEST_CASE("plan simulation: keepers following adopted plans start within kit pre
   // The estimate is honest: its own 95 % band holds the true level in about 95 % of the plans.
   const double own_band = planned ? 100.0 * fig.start_within_own_band / planned : 0.0;
   CHECK(own_band >= 93.0);
-  // Not met yet (2026-12-04, 1,000 runs). The start: 98.2 % within the kit's 0.4 dKH before
-  // the test-time fix above (a bias, not the product), 98.5 % after it. What is left is the
-  // filter's own precision, not a bias or a missed dose: its 95 % band holds the truth 95.9 % of
-  // the time, unlogged misses sit behind about 1 in 7 of the starts off by more than 0.4, and
-  // the first plans (after two or three tests, the consumption barely known) miss 4-7 % each
-  // against about 1 % later. Tuning the consumption drift (estimate.hpp, 0.01..0.03 dKH/day per
-  // sqrt(day)) moved it to 98.7 % at best. The limits: 0.72 % of the plans cross one on the
-  // truth, about 70 % of them only after the plan's own test-again moment (plan_bands.cpp; the
-  // keeper here tests at random gaps, not when told), the rest early plans whose consumption
-  // was off by more than 2 sd. Warned, not failed; the figures above say how far.
+  // The limits the doses push -- every ceiling, and the largest rise and fall a day -- are
+  // never crossed on the truth while a plan is followed. At 1.96 sd of room they were, in 23 of
+  // 17,524 plans (all rises and falls, by up to 0.08 dKH/day; 2026-12-05); at kRoomSd = 3 sd,
+  // in none.
+  CHECK(fig.plans_crossing_not_floor == 0);
+  // Not met yet (2026-12-05, 1,000 runs). The floors: 12 of about 17,500 plans let the true
+  // water dip under the Omega or alkalinity floor while followed, all on their first day before
+  // or at the pump's first dose slot (03:00), all early plans (days 3 to 6) of runs where the
+  // keeper's own guess at the pump had let the water sink to the floor before any plan; the
+  // plan, from an estimate at or under the floor, starts by raising it, but not before the
+  // pump's first slot. The start: 98.5 % within the kit's 0.4 dKH (98.2 % before the test-time
+  // fix of 2026-12-04, a bias of the simulation). What is left is the filter's own precision,
+  // not a bias or a missed dose: its 95 % band holds the truth 95.8 % of the time, unlogged
+  // misses sit behind about 1 in 7 of the starts off by more than 0.4, and the first plans
+  // (after two or three tests, the consumption barely known) miss 4-7 % each against about 1 %
+  // later. Tuning the consumption drift (estimate.hpp, 0.01..0.03 dKH/day per sqrt(day)) moved
+  // it to 98.7 % at best. Warned, not failed; the figures above say how far.
   WARN(within_kit >= 99.0);
   WARN(fig.plans_crossing_on_truth == 0);
   WARN(fig.runs_true_water_out == 0);
   CHECK(fig.runs_true_water_out * 100 <= fig.runs);  // at most 1 % of the runs
-  CHECK(fig.plans_crossing_on_truth * 50 <= planned);  // at most 2 % of the plans, by a little
+  CHECK(fig.plans_crossing_on_truth * 500 <= planned);  // at most 0.2 % of the plans, all floors on day 1
 }
 
 TEST_CASE("plan simulation: the forecast band holds 95 % of the truth when the truth wanders as the model assumes") {
