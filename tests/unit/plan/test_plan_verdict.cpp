@@ -164,3 +164,11 @@ TEST_CASE("plan mishaps: every dose tried; the missed and doubled dose worked by
   CHECK(list2[1].summary.find("the largest change of alkalinity from one dose reached") != std::string::npos);
   CHECK(list2[1].summary.find("alkalinity_step_dkh_per_dose") == std::string::npos);
 }
+
+TEST_CASE("plan texts: a value's unit follows it, except where the description names it (pH) or there is none (Omega)") {
+  CHECK(limit_spec(LimitId::AlkalinityFloor).unit_suffix() == " dKH");
+  CHECK(limit_spec(LimitId::CalciumCeiling).unit_suffix() == " mg/L");
+  CHECK(limit_spec(LimitId::PhFloor).unit_suffix().empty());  // "the lowest pH ... reached 7.65"
+  CHECK(limit_spec(LimitId::PhAfterDose).unit_suffix().empty());
+  CHECK(limit_spec(LimitId::OmegaAragoniteFloor).unit_suffix().empty());
+}

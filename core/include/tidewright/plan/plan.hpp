@@ -28,6 +28,7 @@
 #include <array>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "tidewright/additives/additives.hpp"
@@ -82,8 +83,11 @@ struct LimitSpec {
   double highest = 1e9;     // an upper bound or a floor may not be set above this
   bool loosens(double value) const { return side == LimitSide::Upper ? value > default_value : value < default_value; }
   bool past_hard_bound(double value) const { return side == LimitSide::Upper ? value > hard_bound : value < hard_bound; }
-  // " dKH" after a value in a sentence; nothing for a limit with no unit (Omega).
-  std::string unit_suffix() const { return *unit ? std::string(" ") + unit : std::string(); }
+  // " dKH" after a value in a sentence; nothing for a limit with no unit (Omega), nor for pH,
+  // whose description already names it ("the lowest pH ... reached 7.65", not "7.65 pH").
+  std::string unit_suffix() const {
+    return *unit && std::string_view(unit) != "pH" ? std::string(" ") + unit : std::string();
+  }
 };
 const std::array<LimitSpec, kLimitCount>& limit_specs();
 const LimitSpec& limit_spec(LimitId id);
