@@ -77,8 +77,8 @@ export async function tap(page, name) {
     if (!w.found || !w.visible) throw new Error(`widget ${name} not on screen: ${JSON.stringify(w)}`);
     await frames(page, 1);
     const again = await widget(page, name);
-    // A message strip about to go would move a widget at the page's end under the tap
-    // (app.cpp): let it go first, and aim again.
+    // A message strip about to go moved a widget at the page's end under the tap, before the
+    // app kept the strip's room (app.cpp message_room): let it go first, and aim again.
     if (again.message_ms_left > 0 && again.message_ms_left < 1500) {
       await messageGone(page);
       continue;
@@ -114,8 +114,7 @@ export async function downloadPlan(page, format) {
 }
 
 // Waits until the app's message strip (shown for a few seconds after an action) has gone and
-// the page is drawn without it: the strip takes height from the page, so while it shows, a
-// widget scrolled to the bottom moves when it goes, and a tap aimed at the old place misses.
+// the page is drawn without it (the strip takes height from the page; app.cpp message_room).
 export async function messageGone(page, timeout = 30000) {
   await page.evaluate(() => Module.ccall('tw_test_animate', null, ['number'], [2]));
   await page.waitForFunction(() => JSON.parse(Module.ccall('tw_test_state', 'string', [], [])).message === '',

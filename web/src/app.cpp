@@ -38,6 +38,24 @@ float message_height(const AppState& app, float width) {
   return std::max(ui::kTargetEm * e, ui::wrapped_height(app.ui.message.c_str(), width - 2 * e) + 1.2f * e);
 }
 
+// The height the page leaves at its foot for the message strip. When the strip goes, a page
+// scrolled to its end would grow back by the strip's height and ImGui would move its content
+// down by as much, under a finger about to tap: the room stays, empty, until giving it back
+// moves nothing (the page is scrolled up by at least its height) or the screen changes.
+float message_room(AppState& app, float width) {
+  UiState& ui = app.ui;
+  if (message_showing(app)) {
+    ui.message_room = message_height(app, width);
+    ui.message_room_screen = ui.screen;
+  } else if (ui.message_room > 0) {
+    // ImGui keeps a scroll inside the content: giving the room back moves the page when its
+    // scroll is past the largest scroll the taller page allows.
+    const bool would_move = ui.page_scroll_y > std::max(0.0f, ui.page_scroll_max_y - ui.message_room) + 0.5f;
+    if (!would_move || ui.message_room_screen != ui.screen) ui.message_room = 0;
+  }
+  return ui.message_room;
+}
+
 void draw_message(AppState& app, float width, float height) {
   const float e = ui::em(app);
   const ImVec2 pos = ImGui::GetCursorScreenPos();
@@ -72,9 +90,9 @@ void draw_layout(AppState& app) {
                     ImGuiWindowFlags_NoScrollbar | ImGuiWindowFlags_NoScrollWithMouse);
   draw_header(app, header_h);
   const float main_w = vp->Size.x - rail_w;
-  const float message_h = message_showing(app) ? message_height(app, main_w) : 0;
+  const float room_h = message_room(app, main_w);
   ImGui::PushStyleVar(ImGuiStyleVar_WindowPadding, ImVec2(e, 0.6f * e));
-  ImGui::BeginChild("##page", ImVec2(0, -message_h), false, ImGuiWindowFlags_AlwaysUseWindowPadding);
+  ImGui::BeginChild("##page", ImVec2(0, -room_h), false, ImGuiWindowFlags_AlwaysUseWindowPadding);
   ImGui::PopStyleVar();
   ui::page_scroll_memory(app);
   ui::column_begin(app, 36);
@@ -92,8 +110,10 @@ void draw_layout(AppState& app) {
   ImGui::Dummy(ImVec2(0, 2 * e));  // room below the last control for the thumb
   ui::column_end(app);
   ui::touch_scroll(app);
+  app.ui.page_scroll_y = ImGui::GetScrollY();
+  app.ui.page_scroll_max_y = ImGui::GetScrollMaxY();
   ImGui::EndChild();
-  if (message_h > 0) draw_message(app, main_w, message_h);
+  if (message_showing(app)) draw_message(app, main_w, room_h);
   ImGui::EndChild();
   if (!wide) draw_tabs(app, ImVec2(vp->Pos.x, vp->Pos.y + vp->Size.y - bar_h), ImVec2(vp->Size.x, bar_h), false);
   ImGui::End();

@@ -217,6 +217,11 @@ struct UiState {
   std::string message;         // one-line banner (saved, exported, refused ...)
   bool message_is_error = false;
   double message_until_ms = 0;
+  // The room at the page's foot that the message strip had, kept empty after the strip goes
+  // while giving it back would move a page scrolled to its end (app.cpp message_room).
+  float message_room = 0;
+  Screen message_room_screen = Screen::Systems;
+  float page_scroll_y = 0, page_scroll_max_y = 0;  // the page's scroll last frame
   LogForm log;
   ScheduleEdit schedule_edit;
   DosingState dosing;  // Demand, Hatchery, Mixes, Plan (dosing_state.hpp)
