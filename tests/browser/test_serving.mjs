@@ -1,7 +1,8 @@
 // Tests of how the app is served (tests/browser/serve.mjs, issue 15): compression chosen by
 // Accept-Encoding, the headers of a static app, revalidation that picks up an update, and the
 // app starting, taking an entry, exporting and reloading offline under the content security
-// policy with no violation.
+// policy with no violation; and the page's word when the browser takes the display (the WebGL
+// context) away, the app taking taps meanwhile, and drawing again when the browser gives it back.
 //   node test_serving.mjs [site-dir]      (default ../../build/web/site)
 import { request } from 'node:http';
 import { execFileSync } from 'node:child_process';
@@ -10,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { brotliDecompressSync, gunzipSync, brotliCompressSync } from 'node:zlib';
 import { startServer, chooseEncoding, CSP } from './serve.mjs';
-import { reloadOffline, launch, PHONE, waitReady, state, tap, enter, frames, flushed, check, HERE, runTests, benign, watchErrors, messageGone } from './lib.mjs';
+import { reloadOffline, launch, PHONE, waitReady, state, widget, tap, enter, frames, flushed, check, HERE, runTests, benign, watchErrors, messageGone, pixelAt } from './lib.mjs';
 
 const site = resolve(process.argv[2] || join(HERE, '../../build/web/site'));
 const server = await startServer(site);
@@ -150,6 +151,43 @@ test('the app starts, takes an entry, exports and reloads offline with no policy
   check((await state(page)).events === events, 'offline reload lost the entry');
   await noViolations(page, errors, 'offline');
   await context.setOffline(false);
+  await context.close();
+});
+
+test('a lost WebGL context is said on the page, taps still work, and the app draws again when it is given back', async () => {
+  const context = await browser.newContext({ ...PHONE });
+  const { page, errors } = await openWatched(context);
+  await page.goto(server.url);
+  await waitReady(page);
+  await frames(page, 3);
+  // The extension WebGL gives for testing this sends the same events a browser sends on its
+  // own. (A context the browser has already taken away gives no extension: wait until it is back.)
+  await page.waitForFunction(() => !Module.canvas.getContext('webgl2').isContextLost(), null, { timeout: 30000 });
+  // A pixel of the Log tab as drawn while Log is open, to compare with after the restore.
+  await tap(page, 'tab.log');
+  const t = await widget(page, 'tab.log');
+  const [x, y] = [Math.round(t.x + t.w / 2), Math.round(t.y + t.h / 4)];
+  const drawn = await pixelAt(page, x, y);
+  await tap(page, 'tab.systems');
+  await page.evaluate(() => {
+    window.__twLose = Module.canvas.getContext('webgl2').getExtension('WEBGL_lose_context');
+    window.__twLose.loseContext();
+  });
+  await page.waitForFunction(() => document.getElementById('loading').classList.contains('lost'), null, { timeout: 10000 });
+  const said = await page.textContent('#loading-msg');
+  check(/display away/.test(said) && /Your data is saved/.test(said), `the page says: ${said}`);
+  check(await page.evaluate(() => getComputedStyle(document.querySelector('#loading .bar')).display === 'none'),
+        'the loading bar is shown with the message');
+  // The app goes on underneath: a tap goes through the notice and opens Log.
+  await tap(page, 'tab.log');
+  check((await state(page)).screen === 'log', `a tap while the display was away did not open Log: ${(await state(page)).screen}`);
+  await page.evaluate(() => window.__twLose.restoreContext());
+  await page.waitForFunction(() => document.getElementById('loading').classList.contains('gone'), null, { timeout: 30000 });
+  await frames(page, 4);
+  const again = await pixelAt(page, x, y);
+  check(again.join() === drawn.join(), `the Log tab is not drawn as before the loss: ${drawn} -> ${again}`);
+  check((await state(page)).screen === 'log', 'the restore changed the screen');
+  await noViolations(page, errors.filter((e) => !/CONTEXT_LOST|context lost/i.test(e)), 'after the restore');
   await context.close();
 });
 

@@ -39,6 +39,7 @@ void* g_user = nullptr;
 // clang-format off
 EM_JS(void, js_poll_pointer, (float* out), { Module.tw.poll(out); });
 EM_JS(int, js_take_dirty, (), { return Module.tw.takeDirty() ? 1 : 0; });
+EM_JS(int, js_take_context_restored, (), { return Module.tw.takeContextRestored() ? 1 : 0; });
 // Storage (web_store.js). Texts handed to C++ are malloc'd copies; the caller frees them.
 EM_JS(char*, js_take_loaded, (int* legacy), {
   var l = Module.twStore.loaded; Module.twStore.loaded = null;
@@ -192,7 +193,19 @@ void run_loop(FrameFn frame, void* user) {
 
 void begin_frame() {
   track_canvas_size();
+  // The browser gave a lost WebGL context back (web_pre.js, 6): everything made on the old one
+  // is gone. The OpenGL backend starts again (its NewFrame below remakes the shaders, buffers
+  // and font texture): remaking only its device objects is not enough, as it keeps the sizes
+  // of the old buffers and writes into the new, empty ones as if they had them. The font
+  // atlas's pixels were freed after the last upload; ImGui builds them again from its fonts.
+  const bool restored = js_take_context_restored() != 0;
+  if (restored) {
+    ImGui_ImplOpenGL3_Shutdown();
+    ImGui_ImplOpenGL3_Init("#version 300 es");
+    g_pending_frames = std::max(g_pending_frames, 3);
+  }
   ImGui_ImplOpenGL3_NewFrame();
+  if (restored) ImGui::GetIO().Fonts->ClearTexData();  // uploaded: free the CPU copy, as reload_fonts_texture does
   ImGui_ImplGlfw_NewFrame();
   float p[6] = {0, 0, 0, 0, 0, 0};
   js_poll_pointer(p);

@@ -5,6 +5,7 @@
 //   3. redraw flag: any input or resize asks for a frame
 //   4. text entry overlay (a real <input>, so phones show their keyboard)
 //   5. files: download and file picker
+//   6. a lost display: the WebGL context taken away by the browser, and given back
 // Functions called from C++ hang off Module.tw.
 
 Module.tw = { dirty: true, events: [], x: -1, y: -1, down: false, touch: false, liftPending: false, wheel: 0 };
@@ -162,3 +163,37 @@ Module.tw.firstFrame = function () {
   var l = document.getElementById('loading');
   if (l) l.classList.add('gone');
 };
+
+// ---------------------------------------------------------------- 6. a lost display
+// A browser may take the WebGL context away (a phone's tab long in the background, a GPU
+// reset, too many contexts open) and give it back later. Until then nothing can be drawn: the
+// page says so over the blank canvas, and the app goes on taking taps underneath (the notice
+// lets them through), so nothing typed or tapped is lost. When the context comes back,
+// platform_web.cpp remakes the GL objects (shaders, buffers, the font texture) and draws on.
+(function () {
+  var loading = document.getElementById('loading');
+  Module.canvas.addEventListener('webglcontextlost', function (e) {
+    e.preventDefault();  // without it the browser never gives the context back
+    Module.tw.contextLost = true;
+    if (!loading) return;
+    loading.classList.remove('gone');
+    loading.classList.add('lost');
+    document.getElementById('loading-msg').textContent =
+      'The browser took the display away (its WebGL context was lost). Your data is saved, and ' +
+      'Tidewright comes back by itself when the browser gives the display back; reloading the page also brings it back.';
+  });
+  Module.canvas.addEventListener('webglcontextrestored', function () {
+    Module.tw.contextLost = false;
+    Module.tw.contextRestored = true;
+    Module.tw.dirty = true;
+    if (!loading) return;
+    loading.classList.remove('lost');
+    loading.classList.add('gone');
+    document.getElementById('loading-msg').textContent = '';
+  });
+  Module.tw.takeContextRestored = function () {
+    var r = Module.tw.contextRestored;
+    Module.tw.contextRestored = false;
+    return r;
+  };
+})();
