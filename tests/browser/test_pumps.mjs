@@ -446,7 +446,19 @@ for (const [label, opts] of [['phone', PHONE], ['desktop', DESKTOP]]) {
         `heading ${k} outside the table or the screen: ${JSON.stringify(h)} in ${JSON.stringify(table)}`);
       if (k > 0) check(heads[k - 1].x + heads[k - 1].w <= h.x + 0.5, `headings ${k - 1} and ${k} overlap: ${JSON.stringify(heads[k - 1])} ${JSON.stringify(h)}`);
     }
-    console.log(`     headings: ${heads.map((h) => `${h.text.replace(/\n/g, '/')} ${Math.round(h.w)}px`).join(' | ')}`);
+    console.log(`     headings: ${heads.map((h) => `${h.text.replace(/\n/g, '/')} ${Math.round(h.w)}x${Math.round(h.h)}px`).join(' | ')}`);
+    // On a desktop every heading line fits whole (screen_plan.cpp day_column_weights); a phone
+    // wraps between words. A one-line heading is as tall as "Day"; a heading of n lines (one
+    // text item each) is n lines and the n - 1 gaps between items, each gap under 0.9 of a line
+    // here, so one wrapped line anywhere makes it taller than that.
+    if (!opts.hasTouch) {
+      const line = heads[0].h;
+      heads.forEach((h, k) => {
+        const lines = h.text.split('\n').length;
+        const most = lines === 1 ? line + 0.5 : lines * line + (lines - 1) * 0.9 * line;
+        check(h.h <= most, `heading ${k} (${JSON.stringify(h.text)}) wraps on a desktop: ${h.h}px for ${lines} line(s) of ${line}px`);
+      });
+    }
     await page.screenshot({ path: join(OUTPUT, `pumps-${label}-day-headings.png`) });
     await context.close();
     const real = errors.filter((e) => !benign(e));
