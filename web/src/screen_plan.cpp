@@ -313,7 +313,7 @@ void draw_limits(AppState& app, const PlanCache& c) {
       const double set = c.input->limits_as_set->get(s.id);
       if (std::fabs(set - limit) > 1e-9 * std::max(1.0, std::fabs(set))) {
         ui::dim_text(("Set at " + fmtx::fixed(set, dec) + unit + "; planned at " + fmtx::fixed(limit, dec) + unit +
-                      " to keep room for " + tw::plan::kRoomBand + " of the estimates.").c_str());
+                      " to keep room for " + tw::plan::room_band(s.id) + " of the estimates.").c_str());
       }
     }
     ui::dim_text(("Default " + fmtx::fixed(s.default_value, dec) + unit + " (" + s.source + "); hard " +
@@ -367,8 +367,7 @@ void draw_verdict(AppState& app, const pl::Plan& plan) {
       ui::record(app, "plan.test_again");
     }
     if (const auto& cost = plan.uncertainty->cost) {
-      ui::dim_text(("Room kept for " + std::string(tw::plan::kRoomBand) + " of the estimates: " +
-                    std::to_string(cost->room.size()) +
+      ui::dim_text(("Room kept for the estimates' uncertainty: " + std::to_string(cost->room.size()) +
                     " limits tightened (see Safety limits); against the limits as set this costs: " + cost->effect + ".")
                        .c_str());
       ui::record(app, "plan.margin_cost");

@@ -226,8 +226,9 @@ Status add_bands(const PlanInput& in, Plan& plan) {
       cost.effect = fmt::format(
           "{}{}", parts.empty() ? std::string("the same doses and days to target") : fmt::format("{}", fmt::join(parts, "; ")),
           crosses_without ? " (that plan would not hold)" : "");
-      cost.summary = fmt::format("room for {} of the estimates: {} limits tightened ({}); cost against the plan at the limits as set: {}",
-                                 kRoomBand, cost.room.size(), fmt::join(cost.room, "; "), cost.effect);
+      cost.summary = fmt::format("room for the estimates' uncertainty: {} limits tightened ({}); cost against the plan "
+                                 "at the limits as set: {}",
+                                 cost.room.size(), fmt::join(cost.room, "; "), cost.effect);
       u.cost = std::move(cost);
     }
   }

@@ -186,10 +186,10 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
 namespace {
 
 // Honest precision: levels and consumption read from the journal are estimates, so the plan
-// keeps room for their uncertainty (kRoomSd, plan.hpp) instead of running up to a limit with
-// the truth possibly beyond it. The largest rise and fall per day are tightened by kRoomSd x
-// the consumption's sd (the water may use more or less than estimated every day), the ceiling
-// and floor of the level by kRoomSd x the level's sd. A limit is never tightened by more than half its
+// keeps room for their uncertainty (plan.hpp kRateRoomSd, level_room_sd) instead of running up
+// to a limit with the truth possibly beyond it. The largest rise and fall per day are
+// tightened by 3 x the consumption's sd (the water may use more or less than estimated every
+// day), the ceiling and floor of the level by 1.96 x the level's sd. A limit is never tightened by more than half its
 // room (the span between floor and ceiling, or half a rate), so a plan is still possible.
 void tighten(Limits& limits, LimitId id, double by, const char* why, std::vector<std::string>& lines) {
   if (!(by > 0)) return;
@@ -213,7 +213,7 @@ void tighten(Limits& limits, LimitId id, double by, const char* why, std::vector
   limits.value[static_cast<std::size_t>(id)] = after;
   const int dp = std::fabs(before) < 20 ? 2 : 0;
   lines.push_back(fmt::format("the {} planned at {:.{}f}{} instead of {:.{}f}: room for {} of {}",
-                              spec.description, after, dp, spec.unit_suffix(), before, dp, kRoomBand, why));
+                              spec.description, after, dp, spec.unit_suffix(), before, dp, room_band(id), why));
 }
 
 }  // namespace
@@ -246,17 +246,17 @@ void keep_room_for_uncertainty(const JournalPlanBasis& basis, PlanInput& input, 
     sd_at_test[i] = r.est->level_sd;
     const std::string level = fmt::format("the {} level estimate", name);
     if (r.est->demand_known) {
-      tighten(limits, r.rise, kRoomSd * r.est->demand_sd, consumption.c_str(), lines);
-      tighten(limits, r.fall, kRoomSd * r.est->demand_sd, consumption.c_str(), lines);
+      tighten(limits, r.rise, kRateRoomSd * r.est->demand_sd, consumption.c_str(), lines);
+      tighten(limits, r.fall, kRateRoomSd * r.est->demand_sd, consumption.c_str(), lines);
     }
-    tighten(limits, r.ceiling, kRoomSd * sd_at_test[i], level.c_str(), lines);
-    tighten(limits, r.floor, kRoomSd * sd_at_test[i], level.c_str(), lines);
+    tighten(limits, r.ceiling, level_room_sd() * sd_at_test[i], level.c_str(), lines);
+    tighten(limits, r.floor, level_room_sd() * sd_at_test[i], level.c_str(), lines);
   }
   // pH and Omega follow the alkalinity and calcium levels: their bands at the input's water.
   if (sd_at_test[0] > 0 || sd_at_test[1] > 0) {
     auto sens = detail::chemistry_sensitivity(input.system, input.system.alkalinity_dkh, input.system.calcium_mg_l);
     if (sens) {
-      const auto hw = detail::chemistry_half_width(*sens, sd_at_test[0], sd_at_test[1], kRoomSd);
+      const auto hw = detail::chemistry_half_width(*sens, sd_at_test[0], sd_at_test[1], level_room_sd());
       const char* why = "pH and Omega from the alkalinity and calcium levels";
       tighten(limits, LimitId::PhAfterDose, hw.ph, why, lines);
       tighten(limits, LimitId::PhFloor, hw.ph, why, lines);

@@ -42,7 +42,7 @@ Result<ChemistrySensitivity> chemistry_sensitivity(const SystemState& system, do
                                                    double calcium_mg_l);
 // Half-widths of pH and Omega, z standard deviations wide, from the levels' standard
 // uncertainties (linear propagation, alkalinity and calcium estimates independent: separate
-// filters). z: estimate::z95() for the shown bands, kRoomSd for the room kept.
+// filters). z: estimate::z95() (95 %), for the bands shown and the room kept.
 struct ChemistryHalfWidth {
   double ph = 0, omega = 0;
 };

@@ -67,6 +67,21 @@ const std::array<LimitSpec, kLimitCount>& limit_specs() { return kSpecs; }
 
 const LimitSpec& limit_spec(LimitId id) { return kSpecs[static_cast<std::size_t>(id)]; }
 
+namespace {
+bool is_daily_rate(LimitId id) {
+  switch (id) {
+    case LimitId::AlkalinityRisePerDay: case LimitId::CalciumRisePerDay: case LimitId::MagnesiumRisePerDay:
+    case LimitId::AlkalinityFallPerDay: case LimitId::CalciumFallPerDay: case LimitId::MagnesiumFallPerDay:
+      return true;
+    default:
+      return false;
+  }
+}
+}  // namespace
+
+double level_room_sd() { return estimate::z95(); }
+const char* room_band(LimitId id) { return is_daily_rate(id) ? "the 99.7 % band" : "the 95 % band"; }
+
 Result<LimitId> limit_from_key(const std::string& key) {
   std::vector<std::string> keys;
   for (const auto& s : kSpecs) {

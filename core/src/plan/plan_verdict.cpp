@@ -46,7 +46,7 @@ std::string room_note(const PlanInput& in, LimitId id, const std::string& unit) 
   const double set = in.limits_as_set->get(id);
   if (std::abs(set - in.limits.get(id)) <= 1e-12 * std::max(1.0, std::abs(set))) return {};
   return fmt::format("; set at {:g}{}, planned with room for {} of the estimates", set, unit.empty() ? "" : " " + unit,
-                     kRoomBand);
+                     room_band(id));
 }
 
 struct Crossing {

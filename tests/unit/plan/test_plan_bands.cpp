@@ -122,14 +122,15 @@ TEST_CASE("plan property: robust plans keep the band inside the limits until the
   in.horizon_days = 14;
   plan::apply_journal_basis(basis, in);
   REQUIRE(in.limits_as_set.has_value());
-  // The room kept is kRoomSd = 3 sd of each estimate, worked by hand: the largest rise and fall
-  // a day 3 x 0.04 = 0.12 dKH inside their settings, the ceiling and floor 3 x 0.15 = 0.45 dKH.
+  // The room kept, worked by hand (plan.hpp kRateRoomSd, level_room_sd): the largest rise and
+  // fall a day 3 x 0.04 = 0.12 dKH inside their settings, the ceiling and floor
+  // 1.959964 x 0.15 = 0.294 dKH.
   using plan::LimitId;
   const plan::Limits& set = *in.limits_as_set;
   CHECK(in.limits.get(LimitId::AlkalinityRisePerDay) == doctest::Approx(set.get(LimitId::AlkalinityRisePerDay) - 0.12));
   CHECK(in.limits.get(LimitId::AlkalinityFallPerDay) == doctest::Approx(set.get(LimitId::AlkalinityFallPerDay) - 0.12));
-  CHECK(in.limits.get(LimitId::AlkalinityCeiling) == doctest::Approx(set.get(LimitId::AlkalinityCeiling) - 0.45));
-  CHECK(in.limits.get(LimitId::AlkalinityFloor) == doctest::Approx(set.get(LimitId::AlkalinityFloor) + 0.45));
+  CHECK(in.limits.get(LimitId::AlkalinityCeiling) == doctest::Approx(set.get(LimitId::AlkalinityCeiling) - 0.293995));
+  CHECK(in.limits.get(LimitId::AlkalinityFloor) == doctest::Approx(set.get(LimitId::AlkalinityFloor) + 0.293995));
   auto p = plan::make_plan(in);
   REQUIRE(p.ok());
   REQUIRE(p->verdict.holds);

@@ -325,15 +325,22 @@ struct Retest {
   std::optional<LimitId> limit;   // the limit the band would reach (absent: staleness or plan end)
   std::string message;            // plain words with the date
 };
-// The room a plan from estimates keeps inside each limit: 3 standard deviations of the estimate
-// (the three-sigma rule: 99.7 % two-sided, 0.13 % past each side), wider than the 95 % bands
-// the plan shows. At 1.96 sd, 23 of 17,524 simulated plans crossed a rise or fall limit on the
-// true water while the keeper followed them; at 3 sd none did, and the doses changed by under
-// 0.01 % (test_plan_simulation, 1,000 keepers, 2026-12-05).
-constexpr double kRoomSd = 3.0;
-// What that room is called wherever a plan says it (core texts, the app): "room for the 99.7 %
-// band of the estimates".
-constexpr const char* kRoomBand = "the 99.7 % band";
+// The room a plan from estimates keeps inside each limit, in standard deviations of the
+// estimate behind it. The largest rise and fall a day keep 3 sd of the consumption estimate
+// (the three-sigma rule: 99.7 % two-sided); levels, and pH and Omega from them, keep 1.96 sd
+// (95 %) of the level estimate, the bands the plan shows. Measured in test_plan_simulation
+// (1,000 keepers, about 17,500 plans, 2026-12-05), plans crossing a rise or fall limit on the
+// true water while followed / plans saying they cannot hold the water:
+//   1.96 sd everywhere: 23 / 141 (0.80 %)
+//   3 sd everywhere:     0 / 291 (1.66 %)
+//   3 sd for the rates, 1.96 sd for the levels (this):  0 / 189 (1.08 %)
+// No level limit was crossed in any of the three but at the start (test_plan_simulation); a
+// wider level room only made more plans say they cannot hold. The doses changed by under 0.01 %.
+constexpr double kRateRoomSd = 3.0;
+double level_room_sd();  // estimate::z95()
+// That room in words, for a tightened limit: "the 99.7 % band" (a rise or fall a day) or "the
+// 95 % band" (a level, pH, Omega): "room for the 99.7 % band of the alkalinity consumption estimate".
+const char* room_band(LimitId id);
 // What keeping the band inside the limits costs, against the same plan with the limits as set.
 struct MarginCost {
   std::vector<std::string> room;     // one line per tightened limit: as set -> planned

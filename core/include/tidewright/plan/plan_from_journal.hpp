@@ -72,10 +72,10 @@ Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal
 Result<JournalPlanBasis> plan_basis_from_journal(const journal::Journal& journal, journal::SystemId system,
                                                  const BasisOptions& options);
 
-// Honest precision: tightens the limits by kRoomSd (plan.hpp) standard deviations of the basis's
-// estimates, so a plan from estimates does not run the true water over a limit: the largest
-// rise and fall per day by kRoomSd x the consumption's sd; a level's ceiling and floor by
-// kRoomSd x the level's sd
+// Honest precision: tightens the limits by the uncertainty of the basis's estimates, so a plan
+// from estimates does not run the true water over a limit: the largest rise and fall per day
+// by kRateRoomSd (3) x the consumption's sd; a level's ceiling and floor by level_room_sd()
+// (1.96) x the level's sd
 // today; the pH and Omega ceilings after a dose and floors by the band those levels' bands give
 // them at the input's water (never by more than a quarter of the room between a floor and its
 // ceiling). The band widens as the plan goes on; the plan names the moment to test again
