@@ -345,6 +345,29 @@ test('water: salt mix boron and the Mg/Ca correction (phone 390x844)', async () 
   check(real.length === 0, `console errors: ${real.join(' | ')}`);
 });
 
+// Issue 15: the Plan's days are the keeper's calendar days across a daylight-saving change
+// (Europe/Berlin: 2027-03-28 has 23 hours, 2027-10-31 has 25). The day table, read from the
+// screen's text for screen readers, gives tomorrow and the six days after it, each once.
+for (const [change, fixed, first] of [['spring', Date.UTC(2027, 2, 26, 9, 0), '2027-03-27'],
+  ['autumn', Date.UTC(2027, 9, 29, 9, 0), '2027-10-30']]) {
+  test(`plan days across the ${change} daylight-saving change are consecutive calendar days (Europe/Berlin, desktop)`, async () => {
+    const { context, page, errors } = await openApp(browser, server.url, { ...DESKTOP, timezoneId: 'Europe/Berlin' }, { fixedTime: fixed });
+    await tap(page, 'tab.plan');
+    await frames(page, 4);
+    const text = await page.textContent('#screen-text');
+    const days = [...text.matchAll(/^\| (\d+) \((\d\d-\d\d)\) \|/gm)].map((m) => [Number(m[1]), m[2]]);
+    check(days.length === 7, `${days.length} day rows in the screen text: ${JSON.stringify(days)}`);
+    const start = Date.parse(first + 'T12:00:00Z');
+    days.forEach(([n, label], i) => {
+      const want = new Date(start + i * 86400000).toISOString().slice(5, 10);
+      check(n === i + 1 && label === want, `day ${n} reads ${label}, not ${want}: ${JSON.stringify(days)}`);
+    });
+    await context.close();
+    const real = errors.filter((e) => !benign(e));
+    check(real.length === 0, `console errors: ${real.join(' | ')}`);
+  });
+}
+
 // Issue 15: the message strip takes its room at the page's foot. When it goes while the page
 // is scrolled to its end, the room stays empty (app.cpp message_room), so nothing moves under a
 // pointer about to click; once the page is scrolled up by more than the room, it is given back.

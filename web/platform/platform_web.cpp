@@ -86,9 +86,11 @@ EM_JS(void, js_download, (const char* name, const char* mime, const char* text),
 });
 EM_JS(void, js_pick_file, (), { Module.tw.pickFile(); });
 EM_JS(void, js_first_frame, (), { Module.tw.firstFrame(); });
+// (The JavaScript's empty string is written "": '' is an empty character constant to the C
+// preprocessor, which reads EM_JS bodies first.)
 EM_JS(void, js_set_location_screen, (const char* name), {
   var hash = '#' + UTF8ToString(name);
-  if (location.hash !== hash) history.replaceState(history.state, '', hash);
+  if (location.hash !== hash) history.replaceState(history.state, "", hash);
 });
 EM_JS(void, js_location_screen, (char* out, int size), {
   stringToUTF8(decodeURIComponent(location.hash.slice(1)).slice(0, 40), out, size);
