@@ -190,8 +190,8 @@ namespace {
 // to a limit with the truth possibly beyond it. The largest rise and fall per day are
 // tightened by 3 x the consumption's sd (the water may use more or less than estimated every
 // day), the ceiling and floor of the level by 1.96 x the level's sd. A limit is never
-// tightened by more than half its room (the span between floor and ceiling, or half a rate),
-// so a plan is still possible.
+// tightened by more than a quarter of the span between its floor and ceiling, or half of a
+// rate, so a plan is still possible.
 void tighten(Limits& limits, LimitId id, double by, const char* why, std::vector<std::string>& lines) {
   if (!(by > 0)) return;
   const LimitSpec& spec = limit_spec(id);
