@@ -174,7 +174,6 @@ Module.tw.firstFrame = function () {
   var loading = document.getElementById('loading');
   Module.canvas.addEventListener('webglcontextlost', function (e) {
     e.preventDefault();  // without it the browser never gives the context back
-    Module.tw.contextLost = true;
     if (!loading) return;
     loading.classList.remove('gone');
     loading.classList.add('lost');
@@ -183,12 +182,12 @@ Module.tw.firstFrame = function () {
       'Tidewright comes back by itself when the browser gives the display back; reloading the page also brings it back.';
   });
   Module.canvas.addEventListener('webglcontextrestored', function () {
-    Module.tw.contextLost = false;
     Module.tw.contextRestored = true;
     Module.tw.dirty = true;
     if (!loading) return;
     loading.classList.remove('lost');
-    loading.classList.add('gone');
+    // Lost while still loading: the loading notice stays until the first frame (firstFrame).
+    if (window.__twFirstFrameMs !== undefined) loading.classList.add('gone');
     document.getElementById('loading-msg').textContent = '';
   });
   Module.tw.takeContextRestored = function () {

@@ -334,7 +334,7 @@ struct Retest {
 //   1.96 sd everywhere: 23 / 141 (0.80 %)
 //   3 sd everywhere:     0 / 291 (1.66 %)
 //   3 sd for the rates, 1.96 sd for the levels (this):  0 / 189 (1.08 %)
-// and of 87,928 plans (5,000 keepers): 94 / 721 (0.82 %) at 1.96 sd, 6 / 1,022 (1.16 %) here.
+// and of about 87,900 plans (5,000 keepers): 94 / 721 (0.82 %) at 1.96 sd, 6 / 1,022 (1.16 %) here.
 // A wider room for the levels only made more plans say they cannot hold: the levels' crossings
 // were dips on a plan's first day, before the pump's first dose. The doses changed by under 0.01 %.
 constexpr double kRateRoomSd = 3.0;
