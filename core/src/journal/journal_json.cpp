@@ -422,8 +422,10 @@ Result<json> migrate_v1_to_v2(const json& v1) {
       }
       e["time"] = datetime::format_iso8601_utc(time_s);
       e.erase("time_s");
-      if (e.value("type", "") == "test" && e.value("parameter", "") == "ph" &&
-          !e.contains("ph_scale")) {
+      // Compared as JSON values: json::value() would throw on a member of another type, and
+      // such a member is refused with its path later, by the event reader.
+      if (e.contains("type") && e["type"] == "test" && e.contains("parameter") &&
+          e["parameter"] == "ph" && !e.contains("ph_scale")) {
         e["ph_scale"] = "nbs";
       }
       if (e.contains("id") && e["id"].is_number_integer()) {

@@ -56,6 +56,19 @@ Status read_number(const json& j, const char* key, const std::string& where, dou
   out = j[key].get<double>();
   return Ok{};
 }
+// A text member, when present, must be a string; a missing one keeps out as it is.
+Status read_text(const json& j, const char* key, const std::string& where, std::string& out) {
+  if (!j.contains(key)) return Ok{};
+  if (!j[key].is_string()) return Error{where + key, where + key + " must be text"};
+  out = j[key].get<std::string>();
+  return Ok{};
+}
+Status read_bool(const json& j, const char* key, const std::string& where, bool& out) {
+  if (!j.contains(key)) return Ok{};
+  if (!j[key].is_boolean()) return Error{where + key, where + key + " must be true or false"};
+  out = j[key].get<bool>();
+  return Ok{};
+}
 Status read_int(const json& j, const char* key, const std::string& where, int& out) {
   if (!j.contains(key)) return Ok{};
   if (!j[key].is_number_integer()) return Error{where + key, where + key + " must be a whole number"};
@@ -81,14 +94,17 @@ Result<additives::Additive> read_additive(const json& a, const std::string& f) {
     const json& s = a["stock"];
     TW_TRY(known_keys(s, f + "stock.", {"name", "temperature_c", "ingredients"}));
     ad::StockRecipe r;
-    r.name = s.value("name", std::string("stock"));
+    r.name = "stock";
+    TW_TRY(read_text(s, "name", f + "stock.", r.name));
     TW_TRY(read_number(s, "temperature_c", f + "stock.", r.temperature_c));
     if (!s.contains("ingredients") || !s["ingredients"].is_array()) {
       return Error{f + "stock.ingredients", f + "stock.ingredients must be a list of {compound, grams_per_l}"};
     }
     for (const auto& g : s["ingredients"]) {
       TW_TRY(known_keys(g, f + "stock.ingredients.", {"compound", "grams_per_l"}));
-      auto c = ad::find_compound(g.value("compound", std::string()));
+      std::string compound;
+      TW_TRY(read_text(g, "compound", f + "stock.ingredients.", compound));
+      auto c = ad::find_compound(compound);
       if (!c) return Error{f + "stock.ingredients", c.error().message};
       ad::Ingredient ing{(*c)->id, 0};
       TW_TRY(read_number(g, "grams_per_l", f + "stock.ingredients.", ing.grams_per_l));
@@ -112,15 +128,19 @@ Result<additives::Additive> read_additive(const json& a, const std::string& f) {
     TW_TRY(known_keys(l, f + "label.", {"name", "parameter", "dose_ml", "tank_volume_l", "rise",
                                          "dic_per_alkalinity_eq", "caustic"}));
     ad::LabelClaim c;
-    c.name = l.value("name", std::string("product"));
-    auto p = dosed_parameter_from_name(l.value("parameter", std::string("alkalinity")));
+    c.name = "product";
+    TW_TRY(read_text(l, "name", f + "label.", c.name));
+    std::string parameter = "alkalinity";
+    TW_TRY(read_text(l, "parameter", f + "label.", parameter));
+    auto p = dosed_parameter_from_name(parameter);
     if (!p) return Error{f + "label.parameter", p.error().message};
     c.parameter = *p;
     TW_TRY(read_number(l, "dose_ml", f + "label.", c.dose_ml));
     TW_TRY(read_number(l, "tank_volume_l", f + "label.", c.tank_volume_l));
     TW_TRY(read_number(l, "rise", f + "label.", c.rise));
     TW_TRY(read_number(l, "dic_per_alkalinity_eq", f + "label.", c.dic_per_alkalinity_eq));
-    c.caustic = l.value("caustic", false);
+    c.caustic = false;
+    TW_TRY(read_bool(l, "caustic", f + "label.", c.caustic));
     auto out = ad::additive_from_label(c);
     if (!out) return Error{f + "label." + out.error().field, out.error().message};
     return out;
@@ -200,10 +220,10 @@ Result<PlanInput> plan_input_from_json(const std::string& text, std::vector<std:
     if (!add) return add.error();
     Delivery d;
     d.additive = *add;
-    if (a.contains("device") && !a["device"].is_string()) return Error{f + "device", f + "device must be text"};
-    if (a.contains("manual") && !a["manual"].is_boolean()) return Error{f + "manual", f + "manual must be true or false"};
-    d.device = a.value("device", std::string(d.additive.unit == additives::DoseUnit::Gram ? "hand" : "pump"));
-    d.manual = a.value("manual", d.device == "hand");
+    d.device = d.additive.unit == additives::DoseUnit::Gram ? "hand" : "pump";
+    TW_TRY(read_text(a, "device", f, d.device));
+    d.manual = d.device == "hand";
+    TW_TRY(read_bool(a, "manual", f, d.manual));
     TW_TRY(read_int(a, "doses_per_day", f, d.doses_per_day));
     TW_TRY(read_number(a, "min_dose", f, d.min_dose));
     TW_TRY(read_number(a, "max_dose", f, d.max_dose));

@@ -176,6 +176,31 @@ TEST_CASE("journal: v1 files are migrated to v2") {
   CHECK(*parse_journal(v3) == j);
 }
 
+TEST_CASE("journal: a v1 file with a member of the wrong type is refused with its path") {
+  // Found by fuzz_journal: the v1 migration read "type" and "parameter" with json::value(),
+  // which throws on a number, and the exception ended the program.
+  for (const char* member : {R"("parameter": 7)", R"("parameter": null)", R"("parameter": ["ph"])"}) {
+    const std::string v1 = std::string(R"({
+      "format": "tidewright-journal", "schema_version": 1,
+      "systems": [{"id": 1, "name": "Old reef", "kind": "reef_display", "volume_l": 200,
+                   "salinity": 34.5, "temperature_c": 25.0}],
+      "events": [{"id": 2, "system_id": 1, "time_s": 1780000000, "type": "test", )") +
+                           member + R"(, "value": 8.15, "unit": "pH"}]})";
+    auto r = parse_journal(v1);
+    REQUIRE_FALSE(r.ok());
+    CHECK(r.error().field.rfind("events[0].parameter", 0) == 0);
+  }
+  const std::string typed = R"({
+    "format": "tidewright-journal", "schema_version": 1,
+    "systems": [{"id": 1, "name": "Old reef", "kind": "reef_display", "volume_l": 200,
+                 "salinity": 34.5, "temperature_c": 25.0}],
+    "events": [{"id": 2, "system_id": 1, "time_s": 1780000000, "type": 3, "parameter": "ph",
+                "value": 8.15, "unit": "pH"}]})";
+  auto r = parse_journal(typed);
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.error().field == "events[0].type");
+}
+
 TEST_CASE("journal: v2 files are migrated to v3 (schedules added, nothing else changes)") {
   const std::string v2 = R"({
     "format": "tidewright-journal", "schema_version": 2, "next_id": 3,

@@ -4,6 +4,7 @@
 #include <doctest/doctest.h>
 
 #include <string>
+#include <utility>
 
 #include "tidewright/plan/plan.hpp"
 
@@ -48,6 +49,30 @@ TEST_CASE("plan input: unknown keys are refused naming the nearest known key") {
   REQUIRE_FALSE(limit.ok());
   CHECK(limit.error().field == "limits.alkalinity_min_dk");
   CHECK(limit.error().message.find("\"alkalinity_min_dkh\"") != std::string::npos);
+}
+
+TEST_CASE("plan input: a member of the wrong type is refused naming it, never thrown") {
+  // Each of these once reached json::value(), which throws on a member of another type.
+  const std::pair<std::string, std::string> cases[] = {
+      {R"({"stock": {"name": 7, "ingredients": [{"compound": "sodium_carbonate", "grams_per_l": 50}]}})",
+       "additives[0].stock.name"},
+      {R"({"stock": {"ingredients": [{"compound": 12, "grams_per_l": 50}]}})",
+       "additives[0].stock.ingredients.compound"},
+      {R"({"label": {"name": false, "dose_ml": 1, "tank_volume_l": 100, "rise": 0.1}})",
+       "additives[0].label.name"},
+      {R"({"label": {"parameter": 1, "dose_ml": 1, "tank_volume_l": 100, "rise": 0.1}})",
+       "additives[0].label.parameter"},
+      {R"({"label": {"caustic": "yes", "dose_ml": 1, "tank_volume_l": 100, "rise": 0.1}})",
+       "additives[0].label.caustic"},
+      {R"({"compound": "sodium_carbonate", "device": 5})", "additives[0].device"},
+      {R"({"compound": "sodium_carbonate", "manual": "no"})", "additives[0].manual"},
+  };
+  for (const auto& [additive, field] : cases) {
+    auto r = plan_input_from_json("{" + kSystem + R"(, "additives": [)" + additive + "]}");
+    REQUIRE_FALSE(r.ok());
+    CHECK(r.error().field == field);
+    CHECK(r.error().message.find(field) != std::string::npos);
+  }
 }
 
 TEST_CASE("plan input: dates are real calendar dates") {
