@@ -60,9 +60,23 @@ for src in tests/fuzz/*.cpp; do
   work=$(mktemp -d)
   [ -d "$corpus_seed" ] && cp -r "$corpus_seed"/. "$work"/
   echo "fuzz: $name for ${FUZZ_SECONDS} s"
-  "build/fuzz/tests/$name" -max_total_time="$FUZZ_SECONDS" -timeout=10 -rss_limit_mb=2048 \
-    -print_final_stats=1 "$work" 2>&1 | tail -n 12
-  rm -rf "$work"
+  log="$work.log"
+  # A finding's input goes to its own directory; on a failure the lines that say what went
+  # wrong and the input itself (base64) are printed, so a CI log alone reproduces it.
+  findings=$(mktemp -d)
+  if ! "build/fuzz/tests/$name" -max_total_time="$FUZZ_SECONDS" -timeout=10 -rss_limit_mb=2048 \
+      -print_final_stats=1 -artifact_prefix="$findings/" "$work" >"$log" 2>&1; then
+    grep -E -m 20 "ERROR|SUMMARY|terminate called|what\(\)|runtime error| in tw::| in LLVMFuzzer" "$log" || true
+    tail -n 12 "$log"
+    for found in "$findings"/*; do
+      [ -e "$found" ] || continue
+      echo "fuzz: $name's input $(basename "$found") (base64; save it, base64 -d, and run the target on it):"
+      head -c 8192 "$found" | base64 -w 100
+    done
+    exit 1
+  fi
+  tail -n 6 "$log"
+  rm -rf "$work" "$log" "$findings"
 done
 passed=$((passed + 1))
 

@@ -21,6 +21,8 @@
 //   "evaporation_l_per_day", "horizon_days", "gas_exchange_hours", "salinity_tolerance",
 //   "start_date" (a real calendar date YYYY-MM-DD) }
 #include <algorithm>
+#include <cstdint>
+#include <limits>
 
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
@@ -72,6 +74,13 @@ Status read_bool(const json& j, const char* key, const std::string& where, bool&
 Status read_int(const json& j, const char* key, const std::string& where, int& out) {
   if (!j.contains(key)) return Ok{};
   if (!j[key].is_number_integer()) return Error{where + key, where + key + " must be a whole number"};
+  // get<int>() would wrap a larger number silently (4294967297 days read as 1).
+  const bool too_large = j[key].is_number_unsigned()
+                             ? j[key].get<std::uint64_t>() > static_cast<std::uint64_t>(std::numeric_limits<int>::max())
+                             : j[key].get<std::int64_t>() > std::numeric_limits<int>::max();
+  if (too_large || j[key].get<std::int64_t>() < std::numeric_limits<int>::min()) {
+    return Error{where + key, where + key + " is far outside its range"};
+  }
   out = j[key].get<int>();
   return Ok{};
 }

@@ -73,6 +73,10 @@ TEST_CASE("plan input: a member of the wrong type is refused naming it, never th
     CHECK(r.error().field == field);
     CHECK(r.error().message.find(field) != std::string::npos);
   }
+  // A whole number too large for the reader is refused, not wrapped (2^32 + 1 once read as 1).
+  auto wrapped = plan_input_from_json(doc(R"(, "horizon_days": 4294967297)"));
+  REQUIRE_FALSE(wrapped.ok());
+  CHECK(wrapped.error().field == "horizon_days");
 }
 
 TEST_CASE("plan input: dates are real calendar dates") {
