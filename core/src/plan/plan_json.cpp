@@ -499,6 +499,12 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
          {"calcium_fit_mg_l", t.calcium_fit_mg_l ? json(*t.calcium_fit_mg_l) : json(nullptr)},
          {"message", t.message}});
   }
+  if (v.start_dose) {
+    const Delivery& d = in.deliveries[v.start_dose->delivery];
+    verdict["start_dose"] = {{"device", d.device}, {"additive", d.additive.name}, {"amount", v.start_dose->amount},
+                             {"unit", additives::to_string(d.additive.unit)},
+                             {"first_dose_minute", v.start_dose->first_dose_minute}};
+  }
   j["verdict"] = verdict;
   j["findings"] = plan.findings;
   j["cautions"] = plan.cautions;

@@ -185,6 +185,96 @@ std::string fix_for(const PlanInput& in, const Shortfall& s, int p) {
   return out;
 }
 
+// True when day 1, given `hand` mL (or g) of delivery `k` at 00:00 and that much less from its
+// first dose, keeps the water above every floor until that first dose (at `until`), replayed by
+// the independent checker over day 1 only.
+bool holds_floors_until(const PlanInput& in, const Plan& plan, std::size_t k, double hand, int until) {
+  PlanInput day1 = in;
+  day1.horizon_days = 1;
+  std::vector<PlannedDose> doses{{1, 0, k, hand}};
+  double left = hand;
+  for (const DoseRecord& d : plan.doses) {
+    if (d.day != 1) break;
+    double amount = d.amount;
+    if (d.delivery == k && left > 0) {
+      const double less = std::min(left, amount);
+      amount -= less;
+      left -= less;
+    }
+    if (amount > 0) doses.push_back({d.day, d.minute, d.delivery, amount});
+  }
+  for (const Violation& v : check_doses(day1, doses).violations) {
+    if (limit_spec(v.limit).side == LimitSide::Floor && v.day == 1 && v.minute <= until) return false;
+  }
+  return true;
+}
+
+// The water starts so close to a floor that it crosses it on day 1 before the first dose that
+// could lift it (a pump's first slot hours after midnight): no pump setting helps, a dose by hand
+// at the start does. Its amount: at least what the system consumes of the parameter until that
+// first dose (the level then stays at its start, at or above the floor), and for pH and Omega,
+// which also settle with the room air, as much more as keeps them above their floors until then
+// (the independent checker's replay, bisected); the pump's first dose gives that much less, so
+// the plan's total is unchanged. pH and Omega floors are lifted through alkalinity. None when a
+// dose came before the crossing, none lifts it, or even a whole single-dose limit would not do.
+struct StartDip {
+  std::string reason, fix;
+  StartDose dose;
+};
+std::optional<StartDip> start_dip(const PlanInput& in, const Plan& plan, const Crossing& c) {
+  if (c.never_reached || c.t >= kDay) return std::nullopt;
+  const int p = c.limit == LimitId::CalciumFloor ? 1 : c.limit == LimitId::MagnesiumFloor ? 2 : 0;
+  if (p == 0 && c.limit != LimitId::AlkalinityFloor && c.limit != LimitId::PhFloor &&
+      c.limit != LimitId::OmegaAragoniteFloor) {
+    return std::nullopt;
+  }
+  const DoseRecord* first = nullptr;
+  for (const DoseRecord& d : plan.doses) {
+    if (per_unit_amount(in.deliveries[d.delivery].additive, p) <= 0) continue;
+    first = &d;
+    break;
+  }
+  if (!first || in.deliveries[first->delivery].additive.limewater) return std::nullopt;
+  const double first_t = (first->day - 1) * kDay + first->minute;
+  // The time line's state just before a dose is the trough: a crossing there, at the first dose's
+  // own minute, is still one no earlier dose could have prevented.
+  if (first_t < c.t - kTol) return std::nullopt;
+  const Delivery& d = in.deliveries[first->delivery];
+  const double r = per_unit_amount(d.additive, p);
+  const double level_per_unit = p == 0 ? r / units::kMeqPerLPerDKH / in.system.volume_l : r / in.system.volume_l;
+  double amount = demand_of(in.demand, p) * first_t / kDay / r;  // what is consumed until the first dose
+  const LimitId step[3] = {LimitId::AlkalinityStepPerDose, LimitId::CalciumStepPerDose, LimitId::MagnesiumStepPerDose};
+  const double step_amount = in.limits.get(step[p]) / level_per_unit;  // one dose's limit
+  if (!holds_floors_until(in, plan, first->delivery, amount, first->minute)) {
+    if (amount >= step_amount || !holds_floors_until(in, plan, first->delivery, step_amount, first->minute)) {
+      return std::nullopt;
+    }
+    double lo = amount, hi = step_amount;
+    for (int i = 0; i < 16; ++i) {
+      const double mid = 0.5 * (lo + hi);
+      (holds_floors_until(in, plan, first->delivery, mid, first->minute) ? hi : lo) = mid;
+    }
+    amount = hi;
+  }
+  if (amount <= 0) return std::nullopt;
+  const double lift = amount * level_per_unit;
+  const int parts = static_cast<int>(std::ceil(lift / in.limits.get(step[p]) * (1 - 1e-9)));
+  const char* unit = additives::to_string(d.additive.unit);
+  const int hh = first->minute / 60, mm = first->minute % 60;
+  StartDip out;
+  out.dose = StartDose{first->delivery, amount, first->minute};
+  out.reason = fmt::format("the water starts close to the floor and the first {} dose is at {:02d}:{:02d} on day 1", kName[p],
+                           hh, mm);
+  out.fix = fmt::format("at the plan's start (day 1, 00:00) give {:.3g} {} of {} by hand (it lifts {} by {:.2g} {}, "
+                        "enough to stay above the floors until {:02d}:{:02d}){}, and set the {} dose at {:02d}:{:02d} "
+                        "{:.3g} {} smaller{}",
+                        amount, unit, d.additive.name, kName[p], lift, kLevelUnit[p], hh, mm,
+                        parts > 1 ? fmt::format(" in {} parts at least an hour apart (the single-dose limit)", parts) : "",
+                        d.device, hh, mm, amount, unit,
+                        amount >= first->amount ? fmt::format(" (planned {:.3g} {}: skip it)", first->amount, unit) : "");
+  return out;
+}
+
 }  // namespace
 
 // ================================================================ 4. Judge
@@ -241,6 +331,13 @@ void judge(const PlanInput& in, Plan& plan) {
                                     additives::to_string(d.additive.unit), e.day));
     v.fixes.push_back(fmt::format("refill {} before day {} (or start with a larger reservoir)", d.additive.name, e.day));
   }
+  const auto dip = start_dip(in, plan, *crossing);
+  if (dip) {
+    // First: it is the cause of this crossing, and the fix the keeper can do tonight.
+    v.reasons.insert(v.reasons.begin(), dip->reason);
+    v.fixes.insert(v.fixes.begin(), dip->fix);
+    v.start_dose = dip->dose;
+  }
   if (v.shortfalls.empty() && plan.reservoirs_empty.empty()) {
     // Enough capacity: the limits or the pump's timing held doses back.
     std::map<std::string, int> caps;
@@ -271,7 +368,7 @@ void judge(const PlanInput& in, Plan& plan) {
       v.fixes.push_back(fmt::format("at {:g} ppm room CO2 pH and saturation settle low between doses: more fresh air, "
                                     "or a higher alkalinity target",
                                     in.system.air_co2_ppm));
-    } else {
+    } else if (!dip) {  // with a dip before the first dose, more doses a day are not the fix
       int most = 1;
       for (const auto& d : in.deliveries) most = std::max(most, d.doses_per_day);
       v.fixes.push_back(fmt::format("more, smaller doses per day (now at most {}; try {}): each moves the water less, "

@@ -172,3 +172,57 @@ TEST_CASE("plan texts: a value's unit follows it, except where the description n
   CHECK(limit_spec(LimitId::PhAfterDose).unit_suffix().empty());
   CHECK(limit_spec(LimitId::OmegaAragoniteFloor).unit_suffix().empty());
 }
+
+TEST_CASE("plan verdict: water starting at its floor before the pump's first slot gets a dose by hand, worked by hand") {
+  // 400 L consuming 0.5 dKH a day: 0.5 x 0.356652 x 400 = 71.3304 meq/day. The pump doses 12
+  // times from 03:00 to 23:59, its first slot half a spacing in: 180 + 0.5 x 1260 / 12 = 03:52.
+  // The water starts 0.03 dKH above the floor, so it is below it by 03:52, before any dose (the
+  // trough before that dose). Until 03:52 the system consumes 71.3304 x 232 / 1440 = 11.4921 meq
+  // = 0.080556 dKH; of 50 g/L soda ash (0.943503 meq/mL) that is 12.180 mL.
+  PlanInput in = base(400);
+  const double floor = in.limits.get(LimitId::AlkalinityFloor);
+  in.system.alkalinity_dkh = floor + 0.03;
+  in.targets.alkalinity_dkh = {floor + 0.5, floor + 0.2, floor + 0.9};
+  in.demand.alkalinity_meq_per_day = 0.5 * 0.356652 * 400;
+  auto soda = ad::additive_from_stock({"soda ash 50 g/L", {{ad::CompoundId::SodiumCarbonate, 50.0}}, 22.0});
+  REQUIRE(soda.ok());
+  Delivery d;
+  d.additive = *soda;
+  d.device = "pump 1";
+  d.doses_per_day = 12;
+  d.max_dose = 10;
+  d.max_per_day = 120;
+  d.first_hour = 3;
+  in.deliveries.push_back(d);
+  auto plan = make_plan(in);
+  REQUIRE(plan.ok());
+  const Verdict& v = plan->verdict;
+  MESSAGE(v.headline);
+  for (const auto& f : v.fixes) MESSAGE(f);
+  CHECK_FALSE(v.holds);
+  REQUIRE(v.first_limit.has_value());
+  CHECK(*v.first_limit == LimitId::AlkalinityFloor);
+  CHECK(v.first_day == 1);
+  CHECK(v.first_minute == 232);
+  REQUIRE_FALSE(plan->doses.empty());
+  CHECK(plan->doses.front().minute == 232);
+  REQUIRE_FALSE(v.reasons.empty());
+  CHECK(v.reasons.front() == "the water starts close to the floor and the first alkalinity dose is at 03:52 on day 1");
+  CHECK(v.headline.find("first alkalinity dose is at 03:52") != std::string::npos);
+  REQUIRE_FALSE(v.fixes.empty());
+  CHECK(v.fixes.front().rfind("at the plan's start (day 1, 00:00) give 12.2 mL of soda ash 50 g/L by hand", 0) == 0);
+  CHECK(v.fixes.front().find("it lifts alkalinity by 0.081 dKH, enough to stay above the floors until 03:52") != std::string::npos);
+  CHECK(v.fixes.front().find("set the pump 1 dose at 03:52 12.2 mL smaller") != std::string::npos);
+  CHECK(v.fixes.size() == 1);  // not "more, smaller doses per day": no slot comes earlier
+  REQUIRE(v.start_dose.has_value());
+  CHECK(v.start_dose->delivery == 0);
+  CHECK(v.start_dose->amount == doctest::Approx(12.180).epsilon(1e-3));
+  CHECK(v.start_dose->first_dose_minute == 232);
+  CHECK(plan_to_json(in, *plan).find("\"first_dose_minute\": 232") != std::string::npos);
+  // With the pump free to dose from midnight the first slot comes before the crossing: no such fix.
+  in.deliveries[0].first_hour = 0;
+  auto early = make_plan(in);
+  REQUIRE(early.ok());
+  for (const auto& f : early->verdict.fixes) CHECK(f.find("by hand") == std::string::npos);
+  CHECK_FALSE(early->verdict.start_dose.has_value());
+}

@@ -304,6 +304,13 @@ struct TargetConflict {
 
 // The plan's verdict: whether the water stays inside every floor and largest fall. A plan that
 // cannot hold says so first, in plain words and numbers (cmd_plan exits 3).
+// A dose by hand at the plan's start, for water that crosses a floor on day 1 before the first
+// dose that could lift it; the first dose of the same delivery gives `amount` less (at least 0).
+struct StartDose {
+  std::size_t delivery = 0;   // index into PlanInput::deliveries: the same additive, given by hand
+  double amount = 0;          // mL or g: what the system consumes before that first dose
+  int first_dose_minute = 0;  // the first dose on day 1 that could lift the water
+};
 struct Verdict {
   bool holds = true;
   std::string headline;            // one sentence, "CANNOT HOLD: ..." or "Holds: ..."
@@ -313,6 +320,7 @@ struct Verdict {
   std::vector<Shortfall> shortfalls;   // parameters whose additives deliver less than the demand
   std::vector<std::string> reasons;    // what is short, in plain words
   std::vector<std::string> fixes;      // which setting would hold it (pump mL/day, stock, doses/day)
+  std::optional<StartDose> start_dose;  // the first fix, when a dose by hand at the start is it
   std::vector<TargetConflict> target_conflicts;  // targets the room air puts out of bounds (flags)
 };
 
