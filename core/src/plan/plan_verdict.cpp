@@ -185,38 +185,46 @@ std::string fix_for(const PlanInput& in, const Shortfall& s, int p) {
   return out;
 }
 
-// True when day 1, given `hand` mL (or g) of delivery `k` at 00:00 and that much less from its
-// first dose, keeps the water above every floor until that first dose (at `until`), replayed by
-// the independent checker over day 1 only.
-bool holds_floors_until(const PlanInput& in, const Plan& plan, std::size_t k, double hand, int until) {
-  PlanInput day1 = in;
-  day1.horizon_days = 1;
-  std::vector<PlannedDose> doses{{1, 0, k, hand}};
-  double left = hand;
-  for (const DoseRecord& d : plan.doses) {
-    if (d.day != 1) break;
-    double amount = d.amount;
-    if (d.delivery == k && left > 0) {
-      const double less = std::min(left, amount);
-      amount -= less;
-      left -= less;
-    }
-    if (amount > 0) doses.push_back({d.day, d.minute, d.delivery, amount});
+// The plan's doses with a dose by hand at the start, replayed by the independent checker over
+// the first `days` days.
+CheckReport replay_with(const PlanInput& in, const Plan& plan, const StartDose& s, int days) {
+  PlanInput cut = in;
+  cut.horizon_days = days;
+  return check_doses(cut, doses_with_start_dose(plan, s, days));
+}
+// The first floor crossing of a replay, if any: a copy, so that it may outlive a report made in
+// the same expression.
+std::optional<Violation> first_floor(const CheckReport& r) {
+  for (const Violation& v : r.violations) {
+    if (limit_spec(v.limit).side == LimitSide::Floor) return v;
   }
-  for (const Violation& v : check_doses(day1, doses).violations) {
-    if (limit_spec(v.limit).side == LimitSide::Floor && v.day == 1 && v.minute <= until) return false;
+  return std::nullopt;
+}
+// The smallest amount in [lo, hi] for which `ok` holds, `ok` false below it and true above;
+// none when it fails even at hi.
+template <typename Ok>
+std::optional<double> smallest_amount(double lo, double hi, const Ok& ok) {
+  if (lo > hi) return std::nullopt;
+  if (ok(lo)) return lo;
+  if (lo >= hi || !ok(hi)) return std::nullopt;
+  for (int i = 0; i < 16; ++i) {
+    const double mid = 0.5 * (lo + hi);
+    (ok(mid) ? hi : lo) = mid;
   }
-  return true;
+  return hi;
 }
 
 // The water starts so close to a floor that it crosses it on day 1 before the first dose that
 // could lift it (a pump's first slot hours after midnight): no pump setting helps, a dose by hand
-// at the start does. Its amount: at least what the system consumes of the parameter until that
-// first dose (the level then stays at its start, at or above the floor), and for pH and Omega,
-// which also settle with the room air, as much more as keeps them above their floors until then
-// (the independent checker's replay, bisected); the pump's first dose gives that much less, so
-// the plan's total is unchanged. pH and Omega floors are lifted through alkalinity. None when a
-// dose came before the crossing, none lifts it, or even a whole single-dose limit would not do.
+// at the start does. Sized with the independent checker, at least what the system consumes of
+// the parameter until that first dose and at most one single-dose limit (pH and Omega, which
+// also settle with the room air, are lifted through alkalinity). In this order:
+//   1. moved: the pump's first doses give as much less, the plan's total unchanged; the smallest
+//      amount that keeps the floors until the first dose. Taken if the plan then keeps every limit.
+//   2. on top of the plan's doses: the smallest amount that keeps every floor of the plan. Taken
+//      if the plan then keeps every limit (its rises and ceilings too).
+//   3. else the moved dose, saying when the plan's own water still falls below a floor.
+// None when a dose came before the crossing, none lifts it, or a single-dose limit would not do.
 struct StartDip {
   std::string reason, fix;
   StartDose dose;
@@ -242,36 +250,61 @@ std::optional<StartDip> start_dip(const PlanInput& in, const Plan& plan, const C
   const Delivery& d = in.deliveries[first->delivery];
   const double r = per_unit_amount(d.additive, p);
   const double level_per_unit = p == 0 ? r / units::kMeqPerLPerDKH / in.system.volume_l : r / in.system.volume_l;
-  double amount = demand_of(in.demand, p) * first_t / kDay / r;  // what is consumed until the first dose
+  const double consumed = demand_of(in.demand, p) * first_t / kDay / r;  // until the first dose
   const LimitId step[3] = {LimitId::AlkalinityStepPerDose, LimitId::CalciumStepPerDose, LimitId::MagnesiumStepPerDose};
   const double step_amount = in.limits.get(step[p]) / level_per_unit;  // one dose's limit
-  if (!holds_floors_until(in, plan, first->delivery, amount, first->minute)) {
-    if (amount >= step_amount || !holds_floors_until(in, plan, first->delivery, step_amount, first->minute)) {
-      return std::nullopt;
-    }
-    double lo = amount, hi = step_amount;
-    for (int i = 0; i < 16; ++i) {
-      const double mid = 0.5 * (lo + hi);
-      (holds_floors_until(in, plan, first->delivery, mid, first->minute) ? hi : lo) = mid;
-    }
-    amount = hi;
+  auto dose = [&](double amount, bool on_top) { return StartDose{first->delivery, amount, first->minute, on_top, false}; };
+
+  std::optional<StartDose> chosen;
+  const auto moved_amount = smallest_amount(consumed, step_amount, [&](double a) {
+    const auto v = first_floor(replay_with(in, plan, dose(a, false), 1));
+    return !v || v->day > 1 || v->minute > first->minute;
+  });
+  std::optional<CheckReport> moved_report;
+  if (moved_amount) {
+    moved_report = replay_with(in, plan, dose(*moved_amount, false), in.horizon_days);
+    if (moved_report->violations.empty()) chosen = dose(*moved_amount, false);
   }
-  if (amount <= 0) return std::nullopt;
-  const double lift = amount * level_per_unit;
-  const int parts = static_cast<int>(std::ceil(lift / in.limits.get(step[p]) * (1 - 1e-9)));
+  if (!chosen) {
+    const auto on_top_amount = smallest_amount(consumed, step_amount, [&](double a) {
+      return !first_floor(replay_with(in, plan, dose(a, true), in.horizon_days));
+    });
+    if (on_top_amount && replay_with(in, plan, dose(*on_top_amount, true), in.horizon_days).violations.empty()) {
+      chosen = dose(*on_top_amount, true);
+    }
+  }
+  if (chosen) chosen->keeps_limits = true;
+  else if (moved_amount) chosen = dose(*moved_amount, false);
+  else return std::nullopt;
+
+  const double amount = chosen->amount;
   const char* unit = additives::to_string(d.additive.unit);
   const int hh = first->minute / 60, mm = first->minute % 60;
   StartDip out;
-  out.dose = StartDose{first->delivery, amount, first->minute};
+  out.dose = *chosen;
   out.reason = fmt::format("the water starts close to the floor and the first {} dose is at {:02d}:{:02d} on day 1", kName[p],
                            hh, mm);
+  std::string how;
+  if (chosen->on_top) {
+    how = ", on top of the plan's doses";
+  } else {
+    how = amount < first->amount
+              ? fmt::format(", and set the {} dose at {:02d}:{:02d} {:.3g} {} smaller", d.device, hh, mm, amount, unit)
+              : fmt::format(", and give {:.3g} {} less from {}'s doses from {:02d}:{:02d} on (that one, planned {:.3g} {}, "
+                            "skipped)",
+                            amount, unit, d.device, hh, mm, first->amount, unit);
+  }
+  std::string after = "; with it the plan keeps every limit";
+  if (!chosen->keeps_limits) {
+    const auto v = moved_report ? first_floor(*moved_report) : std::nullopt;
+    after = v ? fmt::format("; the water still falls below a floor on day {} at {:02d}:{:02d}: see the other fixes",
+                            v->day, v->minute / 60, v->minute % 60)
+              : "; the plan still crosses a limit: see the other fixes";
+  }
   out.fix = fmt::format("at the plan's start (day 1, 00:00) give {:.3g} {} of {} by hand (it lifts {} by {:.2g} {}, "
-                        "enough to stay above the floors until {:02d}:{:02d}){}, and set the {} dose at {:02d}:{:02d} "
-                        "{:.3g} {} smaller{}",
-                        amount, unit, d.additive.name, kName[p], lift, kLevelUnit[p], hh, mm,
-                        parts > 1 ? fmt::format(" in {} parts at least an hour apart (the single-dose limit)", parts) : "",
-                        d.device, hh, mm, amount, unit,
-                        amount >= first->amount ? fmt::format(" (planned {:.3g} {}: skip it)", first->amount, unit) : "");
+                        "enough to stay above the floors until {:02d}:{:02d}){}{}",
+                        amount, unit, d.additive.name, kName[p], amount * level_per_unit, kLevelUnit[p], hh, mm, how,
+                        after);
   return out;
 }
 
@@ -368,7 +401,7 @@ void judge(const PlanInput& in, Plan& plan) {
       v.fixes.push_back(fmt::format("at {:g} ppm room CO2 pH and saturation settle low between doses: more fresh air, "
                                     "or a higher alkalinity target",
                                     in.system.air_co2_ppm));
-    } else if (!dip) {  // with a dip before the first dose, more doses a day are not the fix
+    } else if (!dip || !dip->dose.keeps_limits) {  // a dip the dose by hand ends needs no other fix
       int most = 1;
       for (const auto& d : in.deliveries) most = std::max(most, d.doses_per_day);
       v.fixes.push_back(fmt::format("more, smaller doses per day (now at most {}; try {}): each moves the water less, "
@@ -380,3 +413,23 @@ void judge(const PlanInput& in, Plan& plan) {
 }
 
 }  // namespace tw::plan::detail
+
+namespace tw::plan {
+
+std::vector<PlannedDose> doses_with_start_dose(const Plan& plan, const StartDose& start, int last_day) {
+  std::vector<PlannedDose> doses{{1, 0, start.delivery, start.amount}};
+  double left = start.on_top ? 0.0 : start.amount;
+  for (const DoseRecord& d : plan.doses) {
+    if (d.day > last_day) break;
+    double amount = d.amount;
+    if (d.delivery == start.delivery && left > 0) {
+      const double less = std::min(left, amount);
+      amount -= less;
+      left -= less;
+    }
+    if (amount > 0) doses.push_back({d.day, d.minute, d.delivery, amount});
+  }
+  return doses;
+}
+
+}  // namespace tw::plan

@@ -1,6 +1,7 @@
 // The verdict "cannot hold" and the mishap answers, checked against figures worked by hand.
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <string>
 
 #include "tidewright/plan/plan.hpp"
@@ -22,6 +23,18 @@ PlanInput base(double volume_l) {
   in.horizon_days = 7;
   return in;
 }
+// "pump 1" dosing 50 g/L soda ash 12 times a day, at most 10 mL a dose and max_per_day a day.
+Delivery soda_pump(double max_per_day) {
+  auto soda = ad::additive_from_stock({"soda ash 50 g/L", {{ad::CompoundId::SodiumCarbonate, 50.0}}, 22.0});
+  REQUIRE(soda.ok());
+  Delivery d;
+  d.additive = *soda;
+  d.device = "pump 1";
+  d.doses_per_day = 12;
+  d.max_dose = 10;
+  d.max_per_day = max_per_day;
+  return d;
+}
 }  // namespace
 
 TEST_CASE("plan verdict: pumps far short of the demand (the issue's 2,390 L system), worked by hand") {
@@ -34,15 +47,7 @@ TEST_CASE("plan verdict: pumps far short of the demand (the issue's 2,390 L syst
   PlanInput in = base(2390);
   in.system.alkalinity_dkh = 6.85;
   in.demand.alkalinity_meq_per_day = 925;
-  auto soda = ad::additive_from_stock({"soda ash 50 g/L", {{ad::CompoundId::SodiumCarbonate, 50.0}}, 22.0});
-  REQUIRE(soda.ok());
-  Delivery d;
-  d.additive = *soda;
-  d.device = "pump 1";
-  d.doses_per_day = 12;
-  d.max_dose = 10;
-  d.max_per_day = 50;
-  in.deliveries.push_back(d);
+  in.deliveries.push_back(soda_pump(50));
   auto plan = make_plan(in);
   REQUIRE(plan.ok());
   const Verdict& v = plan->verdict;
@@ -184,14 +189,7 @@ TEST_CASE("plan verdict: water starting at its floor before the pump's first slo
   in.system.alkalinity_dkh = floor + 0.03;
   in.targets.alkalinity_dkh = {floor + 0.5, floor + 0.2, floor + 0.9};
   in.demand.alkalinity_meq_per_day = 0.5 * 0.356652 * 400;
-  auto soda = ad::additive_from_stock({"soda ash 50 g/L", {{ad::CompoundId::SodiumCarbonate, 50.0}}, 22.0});
-  REQUIRE(soda.ok());
-  Delivery d;
-  d.additive = *soda;
-  d.device = "pump 1";
-  d.doses_per_day = 12;
-  d.max_dose = 10;
-  d.max_per_day = 120;
+  Delivery d = soda_pump(120);
   d.first_hour = 3;
   in.deliveries.push_back(d);
   auto plan = make_plan(in);
@@ -209,17 +207,57 @@ TEST_CASE("plan verdict: water starting at its floor before the pump's first slo
   REQUIRE_FALSE(v.reasons.empty());
   CHECK(v.reasons.front() == "the water starts close to the floor and the first alkalinity dose is at 03:52 on day 1");
   CHECK(v.headline.find("first alkalinity dose is at 03:52") != std::string::npos);
-  REQUIRE_FALSE(v.fixes.empty());
-  CHECK(v.fixes.front().rfind("at the plan's start (day 1, 00:00) give 12.2 mL of soda ash 50 g/L by hand", 0) == 0);
-  CHECK(v.fixes.front().find("it lifts alkalinity by 0.081 dKH, enough to stay above the floors until 03:52") != std::string::npos);
-  CHECK(v.fixes.front().find("set the pump 1 dose at 03:52 12.2 mL smaller") != std::string::npos);
-  CHECK(v.fixes.size() == 1);  // not "more, smaller doses per day": no slot comes earlier
+  // The plan's doses are even through the day (10 mL, 0.066 dKH, against 105 minutes' 0.036 dKH
+  // of consumption): moved earlier, the dose would leave the water as planned from 03:52, under
+  // the floor again by 05:37. On top of the plan's doses, the 12.18 mL lift the whole plan by
+  // 0.081 dKH: every floor kept, and every rise and ceiling too.
   REQUIRE(v.start_dose.has_value());
   CHECK(v.start_dose->delivery == 0);
   CHECK(v.start_dose->amount == doctest::Approx(12.180).epsilon(1e-3));
   CHECK(v.start_dose->first_dose_minute == 232);
+  CHECK(v.start_dose->on_top);
+  CHECK(v.start_dose->keeps_limits);
+  REQUIRE(v.fixes.size() == 1);  // not "more, smaller doses per day": no slot comes earlier
+  CHECK(v.fixes.front() ==
+        "at the plan's start (day 1, 00:00) give 12.2 mL of soda ash 50 g/L by hand (it lifts alkalinity by 0.081 dKH, "
+        "enough to stay above the floors until 03:52), on top of the plan's doses; with it the plan keeps every limit");
   CHECK(plan_to_json(in, *plan).find("\"first_dose_minute\": 232") != std::string::npos);
+  const auto given = doses_with_start_dose(*plan, *v.start_dose, in.horizon_days);
+  REQUIRE(given.size() == plan->doses.size() + 1);
+  CHECK(given[0].minute == 0);
+  CHECK(given[0].amount == doctest::Approx(12.180).epsilon(1e-3));
+  CHECK(given[1].amount == plan->doses[0].amount);
+  CHECK(check_doses(in, given).violations.empty());
+
+  // Moved earlier instead (the pump's first doses that much smaller): 12.18 mL at 00:00, the
+  // 03:52 dose (10 mL) skipped, the next 2.18 mL smaller.
+  StartDose moved = *v.start_dose;
+  moved.on_top = false;
+  const auto moved_doses = doses_with_start_dose(*plan, moved, 1);
+  const auto day1 = std::count_if(plan->doses.begin(), plan->doses.end(), [](const DoseRecord& r) { return r.day == 1; });
+  REQUIRE(moved_doses.size() == static_cast<std::size_t>(day1));  // one added, one dropped
+  CHECK(moved_doses[1].minute == plan->doses[1].minute);
+  CHECK(moved_doses[1].amount == doctest::Approx(plan->doses[1].amount - (moved.amount - plan->doses[0].amount)));
+
+  // A pump short of the demand (60 mL/day, 0.4 dKH/day against 0.5): no dose at the start keeps
+  // the floors for the week. The dose is moved earlier, and the fix says when the water still
+  // falls below a floor; the shortfall's own fix follows it.
+  in.deliveries[0].max_per_day = 60;
+  auto short_plan = make_plan(in);
+  REQUIRE(short_plan.ok());
+  const Verdict& sv = short_plan->verdict;
+  for (const auto& f : sv.fixes) MESSAGE(f);
+  REQUIRE(sv.start_dose.has_value());
+  CHECK_FALSE(sv.start_dose->on_top);
+  CHECK_FALSE(sv.start_dose->keeps_limits);
+  REQUIRE(sv.fixes.size() >= 2);
+  CHECK(sv.fixes.front().find("and give 12.2 mL less from pump 1's doses from 03:52 on (that one, planned 5 mL, skipped)") !=
+        std::string::npos);
+  CHECK(sv.fixes.front().find("the water still falls below a floor on day") != std::string::npos);
+  CHECK(sv.fixes[1].rfind("soda ash 50 g/L (pump 1): at least", 0) == 0);
+
   // With the pump free to dose from midnight the first slot comes before the crossing: no such fix.
+  in.deliveries[0].max_per_day = 120;
   in.deliveries[0].first_hour = 0;
   auto early = make_plan(in);
   REQUIRE(early.ok());

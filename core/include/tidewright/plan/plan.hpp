@@ -308,8 +308,12 @@ struct TargetConflict {
 // dose that could lift it; the first dose of the same delivery gives `amount` less (at least 0).
 struct StartDose {
   std::size_t delivery = 0;   // index into PlanInput::deliveries: the same additive, given by hand
-  double amount = 0;          // mL or g: what the system consumes before that first dose
+  double amount = 0;          // mL or g
   int first_dose_minute = 0;  // the first dose on day 1 that could lift the water
+  // True: on top of the plan's doses. False: the delivery's first doses give `amount` less (the
+  // dose is moved earlier, the plan's total unchanged).
+  bool on_top = false;
+  bool keeps_limits = false;  // with it, the plan's doses replayed keep every limit
 };
 struct Verdict {
   bool holds = true;
@@ -422,6 +426,10 @@ struct PlannedDose {
 // (calling the carbonate engine directly, never the scheduler), checks every state (each slot,
 // each dose, each day end) against every limit and reports the first crossing of each.
 CheckReport check_doses(const PlanInput& input, const std::vector<PlannedDose>& doses);
+// The plan's doses as a keeper gives them who follows Verdict::start_dose: that dose by hand at
+// 00:00 of day 1, then the plan's doses up to the end of `last_day`; unless the dose is on top,
+// the same delivery's first ones that much smaller (a dose left at nothing is dropped).
+std::vector<PlannedDose> doses_with_start_dose(const Plan& plan, const StartDose& start, int last_day);
 CheckReport check_plan(const PlanInput& input, const Plan& plan);
 // True when a limit is a floor or a largest fall.
 bool is_floor_or_fall(LimitId id);
