@@ -351,8 +351,8 @@ void draw_verdict(AppState& app, const pl::Plan& plan) {
     ui::colored_wrapped(theme::kError, "This plan cannot hold the water safe.");
     ImGui::PopFont();
     ui::colored_wrapped(theme::kError, v.headline.c_str());
-    for (const std::string& r : v.reasons) ui::wrapped(("Short: " + r).c_str());
-    for (const std::string& f : v.fixes) ui::wrapped(("Would hold it: " + f).c_str());
+    for (const std::string& r : v.reasons) ui::wrapped(("Why: " + r).c_str());
+    for (const std::string& f : v.fixes) ui::wrapped(("Fix: " + f).c_str());
   }
   // The same words as the command line's verdict (core message), in the warning colour.
   for (const pl::TargetConflict& t : v.target_conflicts) ui::colored_wrapped(theme::kError, t.message.c_str());

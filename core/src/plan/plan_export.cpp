@@ -78,8 +78,8 @@ std::string verdict_to_text(const Plan& plan) {
   const Verdict& v = plan.verdict;
   std::string o = v.headline + "\n";
   if (!v.holds) {
-    for (const auto& r : v.reasons) o += "  short: " + r + "\n";
-    for (const auto& f : v.fixes) o += "  would hold it: " + f + "\n";
+    for (const auto& r : v.reasons) o += "  why: " + r + "\n";
+    for (const auto& f : v.fixes) o += "  fix: " + f + "\n";
   }
   for (const auto& t : v.target_conflicts) o += t.message + "\n";
   return o;

@@ -503,7 +503,8 @@ std::string plan_to_json(const PlanInput& in, const Plan& plan) {
     const Delivery& d = in.deliveries[v.start_dose->delivery];
     verdict["start_dose"] = {{"device", d.device}, {"additive", d.additive.name}, {"amount", v.start_dose->amount},
                              {"unit", additives::to_string(d.additive.unit)},
-                             {"first_dose_minute", v.start_dose->first_dose_minute}};
+                             {"first_dose_minute", v.start_dose->first_dose_minute},
+                             {"on_top_of_plan", v.start_dose->on_top}, {"keeps_limits", v.start_dose->keeps_limits}};
   }
   j["verdict"] = verdict;
   j["findings"] = plan.findings;
