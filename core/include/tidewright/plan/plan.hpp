@@ -302,10 +302,8 @@ struct TargetConflict {
   std::string message;            // plain words with the numbers
 };
 
-// The plan's verdict: whether the water stays inside every floor and largest fall. A plan that
-// cannot hold says so first, in plain words and numbers (cmd_plan exits 3).
-// A dose by hand at the plan's start, for water that crosses a floor on day 1 before the first
-// dose that could lift it; the first dose of the same delivery gives `amount` less (at least 0).
+// A dose by hand at the plan's start, of the additive whose first dose comes too late, for water
+// that crosses a floor on day 1 before the first dose that could lift it (plan_verdict.cpp).
 struct StartDose {
   std::size_t delivery = 0;   // index into PlanInput::deliveries: the same additive, given by hand
   double amount = 0;          // mL or g
@@ -315,6 +313,8 @@ struct StartDose {
   bool on_top = false;
   bool keeps_limits = false;  // with it, the plan's doses replayed keep every limit
 };
+// The plan's verdict: whether the water stays inside every floor and largest fall. A plan that
+// cannot hold says so first, in plain words and numbers (cmd_plan exits 3).
 struct Verdict {
   bool holds = true;
   std::string headline;            // one sentence, "CANNOT HOLD: ..." or "Holds: ..."
