@@ -123,6 +123,13 @@ double per_unit_amount(const additives::Additive& a, int p) {
 double demand_of(const DailyDemand& d, int p) {
   return p == 0 ? d.alkalinity_meq_per_day : p == 1 ? d.calcium_mg_per_day : d.magnesium_mg_per_day;
 }
+// How much one unit (mL or g) of an additive moves a level in this system (dKH or mg/L).
+double level_per_unit(const PlanInput& in, const additives::Additive& a, int p) {
+  const double r = per_unit_amount(a, p);
+  return p == 0 ? r / units::kMeqPerLPerDKH / in.system.volume_l : r / in.system.volume_l;
+}
+const LimitId kStepLimit[3] = {LimitId::AlkalinityStepPerDose, LimitId::CalciumStepPerDose,
+                               LimitId::MagnesiumStepPerDose};
 // The most a delivery can give per day (mL or g reaching the tank): every slot at its largest
 // setting, its largest setting per day (each times the pump's calibration), and for limewater the
 // evaporation it replaces.
@@ -146,7 +153,6 @@ Shortfall shortfall_of(const PlanInput& in, int p) {
 // then the doses per day that gives within its largest dose and the single-dose limit, or a
 // stronger stock.
 std::string fix_for(const PlanInput& in, const Shortfall& s, int p) {
-  const LimitId step[3] = {LimitId::AlkalinityStepPerDose, LimitId::CalciumStepPerDose, LimitId::MagnesiumStepPerDose};
   std::optional<std::size_t> best;
   for (std::size_t i = 0; i < in.deliveries.size(); ++i) {
     const auto& a = in.deliveries[i].additive;
@@ -163,8 +169,7 @@ std::string fix_for(const PlanInput& in, const Shortfall& s, int p) {
   const double need = now + (s.consumed_per_day - s.deliverable_per_day) / r;
   const char* unit = additives::to_string(d.additive.unit);
   // Each dose may move the level at most by the single-dose limit: that bounds the dose size.
-  const double level_per_unit = p == 0 ? r / units::kMeqPerLPerDKH / in.system.volume_l : r / in.system.volume_l;
-  const double dose_cap = std::min(d.delivered_max_dose(), in.limits.get(step[p]) / level_per_unit);
+  const double dose_cap = std::min(d.delivered_max_dose(), in.limits.get(kStepLimit[p]) / level_per_unit(in, d.additive, p));
   const int doses = static_cast<int>(std::ceil(need / dose_cap * 1.0000001));
   std::string out = fmt::format("{} ({}): at least {:.4g} {}/day instead of at most {:.4g} {}/day", d.additive.name,
                                 d.device, need, unit, now, unit);
@@ -249,10 +254,9 @@ std::optional<StartDip> start_dip(const PlanInput& in, const Plan& plan, const C
   if (first_t < c.t - kTol) return std::nullopt;
   const Delivery& d = in.deliveries[first->delivery];
   const double r = per_unit_amount(d.additive, p);
-  const double level_per_unit = p == 0 ? r / units::kMeqPerLPerDKH / in.system.volume_l : r / in.system.volume_l;
+  const double lift_per_unit = level_per_unit(in, d.additive, p);
   const double consumed = demand_of(in.demand, p) * first_t / kDay / r;  // until the first dose
-  const LimitId step[3] = {LimitId::AlkalinityStepPerDose, LimitId::CalciumStepPerDose, LimitId::MagnesiumStepPerDose};
-  const double step_amount = in.limits.get(step[p]) / level_per_unit;  // one dose's limit
+  const double step_amount = in.limits.get(kStepLimit[p]) / lift_per_unit;  // one dose's limit
   auto dose = [&](double amount, bool on_top) { return StartDose{first->delivery, amount, first->minute, on_top, false}; };
 
   std::optional<StartDose> chosen;
@@ -303,7 +307,7 @@ std::optional<StartDip> start_dip(const PlanInput& in, const Plan& plan, const C
   }
   out.fix = fmt::format("at the plan's start (day 1, 00:00) give {:.3g} {} of {} by hand (it lifts {} by {:.2g} {}, "
                         "enough to stay above the floors until {:02d}:{:02d}){}{}",
-                        amount, unit, d.additive.name, kName[p], amount * level_per_unit, kLevelUnit[p], hh, mm, how,
+                        amount, unit, d.additive.name, kName[p], amount * lift_per_unit, kLevelUnit[p], hh, mm, how,
                         after);
   return out;
 }

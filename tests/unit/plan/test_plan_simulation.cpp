@@ -324,11 +324,10 @@ void run_one(std::uint32_t seed, Truth kind, Figures& fig) {
     const int followed_days = next_test_day - day;  // the plan is replaced at the midnight after that test
     if (!truth_check.ok()) {
       ++fig.plans_crossing_in_week;
-      bool while_followed = truth_check.violations.empty();  // a crossing the checker gives no moment for counts
+      const bool while_followed = crosses_while_followed(truth_check, followed_days);
       bool before_retest = false;
       for (const plan::Violation& v : truth_check.violations) {
         before_retest = before_retest || v.day * 1440 + v.minute < retest.day * 1440 + retest.minute;
-        while_followed = while_followed || v.day <= followed_days;
       }
       if (before_retest) ++fig.plans_crossing_before_retest;
       if (while_followed) {
